@@ -1,0 +1,10 @@
+import type { NextConfig } from "next";
+
+const nextConfig: NextConfig = {
+  // The engine and the server talk only over loopback here; keep the build reproducible and quiet.
+  poweredByHeader: false,
+  serverExternalPackages: ["pg"],
+  typedRoutes: false,
+};
+
+export default nextConfig;

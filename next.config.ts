@@ -5,6 +5,8 @@ const nextConfig: NextConfig = {
   poweredByHeader: false,
   serverExternalPackages: ["pg"],
   typedRoutes: false,
+  // forbidden() renders app/forbidden.tsx with a 403 status.
+  experimental: { authInterrupts: true },
 };
 
 export default nextConfig;

@@ -1,0 +1,62 @@
+// Permissions are data: a list of actions and, for each role, the actions it may take.
+// Every server action and route handler names one of these actions (lib/auth/guard.ts), and the
+// check happens on the server before any data is touched. Hiding a button is never the check.
+import type { Role } from "./roles";
+
+export const ACTIONS = [
+  // people
+  "users.read",
+  "users.invite",
+  "users.set-role",
+  "users.deactivate",
+  "mailbox.read",
+  // projects
+  "projects.read",
+  "projects.create",
+  // the template library
+  "library.read",
+  "templates.write-draft",
+  "templates.review",
+  "templates.publish",
+  "templates.withdraw",
+  // runs and sign-off
+  "runs.read",
+  "runs.create",
+  "runs.sign-prepared",
+  "runs.sign-checked",
+  "files.attach",
+  // audit
+  "audit.read",
+  "audit.trace",
+  "audit.export",
+] as const;
+export type Action = (typeof ACTIONS)[number];
+
+const ENGINEER: readonly Action[] = [
+  "projects.read",
+  "projects.create",
+  "library.read",
+  "runs.read",
+  "runs.create",
+  "runs.sign-prepared",
+  "runs.sign-checked",
+  "files.attach",
+];
+
+export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
+  admin: ["users.read", "users.invite", "users.set-role", "users.deactivate", "mailbox.read", "audit.read"],
+  lead: [
+    ...ENGINEER,
+    "templates.write-draft",
+    "templates.review",
+    "templates.publish",
+    "templates.withdraw",
+  ],
+  engineer: ENGINEER,
+  auditor: ["projects.read", "library.read", "runs.read", "audit.read", "audit.trace", "audit.export", "users.read"],
+};
+
+export function can(role: Role | null | undefined, action: Action): boolean {
+  if (!role) return false;
+  return ROLE_PERMISSIONS[role].includes(action);
+}

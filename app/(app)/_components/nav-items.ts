@@ -1,0 +1,25 @@
+// The shell's navigation as data. Each entry names the permission that its page checks on the
+// server; the shell shows an entry only to roles that hold it, so nobody is offered a page that
+// would answer 403. Hiding is a courtesy here — the page's own requirePageActor() is the check.
+import type { Action } from "@/lib/auth/permissions";
+
+export type NavIcon = "home" | "library" | "projects" | "runs" | "audit" | "people" | "mailbox";
+
+export type NavItem = {
+  href: string;
+  label: string;
+  icon: NavIcon;
+  /** null: every signed-in person. */
+  permission: Action | null;
+  group: "work" | "admin";
+};
+
+export const NAV_ITEMS: NavItem[] = [
+  { href: "/home", label: "Home", icon: "home", permission: null, group: "work" },
+  { href: "/library", label: "Library", icon: "library", permission: "library.read", group: "work" },
+  { href: "/projects", label: "Projects", icon: "projects", permission: "projects.read", group: "work" },
+  { href: "/runs", label: "Runs", icon: "runs", permission: "runs.read", group: "work" },
+  { href: "/audit", label: "Audit trail", icon: "audit", permission: "audit.read", group: "work" },
+  { href: "/admin/users", label: "People", icon: "people", permission: "users.read", group: "admin" },
+  { href: "/admin/mailbox", label: "Demo mailbox", icon: "mailbox", permission: "mailbox.read", group: "admin" },
+];

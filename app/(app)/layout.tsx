@@ -1,0 +1,49 @@
+import Link from "next/link";
+import { requirePageActor } from "@/lib/auth/session";
+import { can } from "@/lib/auth/permissions";
+import { ROLE_LABELS } from "@/lib/auth/roles";
+import { getFirmName } from "@/lib/data/firm";
+import { isMailboxEnabled } from "@/lib/data/mailbox";
+import { GussetMark } from "@/components/gusset-mark";
+import { NAV_ITEMS } from "./_components/nav-items";
+import { SideNav } from "./_components/side-nav";
+import { UserMenu } from "./_components/user-menu";
+
+// The signed-in shell. Each page below still calls requirePageActor(action) itself: a layout does
+// not re-run on client navigation, so it cannot be the access check for the pages it wraps.
+export default async function AppLayout({ children }: { children: React.ReactNode }) {
+  const actor = await requirePageActor();
+  const [firmName, mailboxEnabled] = await Promise.all([getFirmName(), isMailboxEnabled()]);
+
+  const items = NAV_ITEMS.filter((item) => item.permission === null || can(actor.role, item.permission))
+    .filter((item) => item.href !== "/admin/mailbox" || mailboxEnabled)
+    .map(({ href, label, icon, group }) => ({ href, label, icon, group }));
+
+  return (
+    <div className="min-h-dvh md:grid md:grid-cols-[15rem_1fr]">
+      <aside className="border-b border-ink-200 bg-paper-raised md:sticky md:top-0 md:h-dvh md:border-r md:border-b-0">
+        <div className="flex h-full flex-col gap-6 px-3 py-4">
+          <Link href="/home" className="flex items-center gap-2.5 px-2 text-plate-700" data-testid="brand">
+            <GussetMark className="h-7 w-7" />
+            <span className="text-lg font-semibold tracking-tight text-ink-950">Gusset</span>
+          </Link>
+          <SideNav items={items} />
+          <p className="mt-auto hidden px-3 text-xs leading-relaxed text-ink-400 md:block">
+            Standard calcs, checked and traceable.
+          </p>
+        </div>
+      </aside>
+      <div className="flex min-w-0 flex-col">
+        <header className="flex h-14 items-center justify-between gap-4 border-b border-ink-200 bg-paper/90 px-6 backdrop-blur">
+          <p className="truncate text-sm font-medium text-ink-700" data-testid="firm-name">
+            {firmName}
+          </p>
+          <UserMenu name={actor.name} email={actor.email} roleLabel={ROLE_LABELS[actor.role]} />
+        </header>
+        <main className="mx-auto w-full max-w-6xl flex-1 px-6 py-8" data-testid="app-main" data-role={actor.role}>
+          {children}
+        </main>
+      </div>
+    </div>
+  );
+}

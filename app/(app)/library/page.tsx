@@ -1,0 +1,32 @@
+import type { Metadata } from "next";
+import { requirePageActor } from "@/lib/auth/session";
+import { can } from "@/lib/auth/permissions";
+import { PageHeader } from "@/components/ui/page-header";
+import { EmptyState } from "@/components/ui/empty-state";
+
+export const metadata: Metadata = { title: "Library" };
+
+export default async function LibraryPage() {
+  const actor = await requirePageActor("library.read");
+  const writes = can(actor.role, "templates.write-draft");
+  return (
+    <>
+      <PageHeader
+        title="Library"
+        lead="The firm's standard calculations: each template with its inputs, equations, model and checks, published as numbered versions that never change once issued."
+      />
+      <EmptyState
+        title="No templates yet"
+        items={[
+          "Published versions, ready to run inside a project.",
+          "Drafts and versions in review, with who is reviewing them.",
+          "Superseded and withdrawn versions, kept so that every earlier run can still be traced.",
+        ]}
+      >
+        {writes
+          ? "Writing drafts and sending them for review is coming next. A second standards lead reviews each draft before it is published."
+          : "Standards leads will publish templates here. Once a version is published you will be able to open it and run it inside a project."}
+      </EmptyState>
+    </>
+  );
+}

@@ -1,0 +1,28 @@
+import type { Metadata } from "next";
+import { redirect } from "next/navigation";
+import { getActor } from "@/lib/auth/session";
+import { safeNextPath } from "@/components/safe-next-path";
+import { SignInForm } from "./_components/sign-in-form";
+
+export const metadata: Metadata = { title: "Sign in" };
+
+const NOTICES: Record<string, string> = {
+  "password-reset": "Your password has been changed. Sign in with the new one.",
+  "signed-out": "You have signed out.",
+};
+
+export default async function SignInPage({ searchParams }: PageProps<"/sign-in">) {
+  const params = await searchParams;
+  const next = safeNextPath(params.next);
+  // Someone already signed in has nothing to do here.
+  if (await getActor()) redirect(next);
+  const noticeKey = typeof params.notice === "string" ? params.notice : undefined;
+
+  return (
+    <>
+      <h1 className="text-2xl font-semibold tracking-tight text-ink-950">Sign in</h1>
+      <p className="mt-2 mb-8 text-sm text-ink-500">Use the e-mail your firm&apos;s admin invited you with.</p>
+      <SignInForm next={next} notice={noticeKey ? NOTICES[noticeKey] : undefined} />
+    </>
+  );
+}

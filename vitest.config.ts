@@ -1,17 +1,28 @@
 import { defineConfig } from "vitest/config";
 import path from "node:path";
 
-const alias = { "@": path.resolve(import.meta.dirname) };
+// `server-only` throws outside React's server environment; tests import server modules directly.
+const alias = {
+  "@": path.resolve(import.meta.dirname),
+  "server-only": path.resolve(import.meta.dirname, "tests/support/server-only.ts"),
+};
 
 // Three projects: unit (pure code, engine), integration (real PostgreSQL, fake SMTP/S3 started by
 // scripts/test.mjs), browser (playwright-core driving Debian's chromium against a served build).
+// groupOrder runs them one after the other, so integration tests and browser journeys never share
+// the test database at the same moment.
 export default defineConfig({
   resolve: { alias },
   test: {
     projects: [
       {
         resolve: { alias },
-        test: { name: "unit", include: ["tests/unit/**/*.test.ts", "tests/engine/**/*.test.ts"], environment: "node" },
+        test: {
+          name: "unit",
+          include: ["tests/unit/**/*.test.ts", "tests/engine/**/*.test.ts"],
+          environment: "node",
+          sequence: { groupOrder: 0 },
+        },
       },
       {
         resolve: { alias },
@@ -22,6 +33,7 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 30_000,
           hookTimeout: 60_000,
+          sequence: { groupOrder: 1 },
         },
       },
       {
@@ -33,6 +45,7 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 60_000,
           hookTimeout: 120_000,
+          sequence: { groupOrder: 2 },
         },
       },
     ],

@@ -1,0 +1,79 @@
+// `next build` when the build is missing or older than any source it is made from.
+import fs from "node:fs";
+import path from "node:path";
+import { repoRoot } from "./env.mjs";
+import { SetupError, pidAlive, runAsync, say } from "./processes.mjs";
+
+const SOURCE_DIRS = ["app", "components", "lib", "db", "content", "public"];
+const SOURCE_FILES = [
+  "next.config.ts", "package.json", "package-lock.json", "tsconfig.json", "postcss.config.mjs",
+  "tailwind.config.ts", "proxy.ts", "middleware.ts", "instrumentation.ts", "mdx-components.tsx",
+];
+
+function newestMtime(entry) {
+  let stat;
+  try {
+    stat = fs.statSync(entry);
+  } catch {
+    return 0;
+  }
+  if (!stat.isDirectory()) return stat.mtimeMs;
+  let newest = stat.mtimeMs; // a deleted file shows as a newer folder
+  for (const child of fs.readdirSync(entry)) {
+    if (child === "node_modules" || child === ".next") continue;
+    newest = Math.max(newest, newestMtime(path.join(entry, child)));
+  }
+  return newest;
+}
+
+/** Why a build is needed, or null when .next/BUILD_ID is newer than every source. */
+export function buildStaleness() {
+  const buildId = path.join(repoRoot, ".next", "BUILD_ID");
+  if (!fs.existsSync(buildId)) return "no build yet";
+  const builtAt = fs.statSync(buildId).mtimeMs;
+  for (const entry of [...SOURCE_DIRS, ...SOURCE_FILES]) {
+    if (newestMtime(path.join(repoRoot, entry)) > builtAt) return `${entry} changed since the last build`;
+  }
+  return null;
+}
+
+// Two set-up scripts in one checkout must not build into .next at once.
+async function withBuildLock(lockFile, work) {
+  for (;;) {
+    try {
+      fs.writeFileSync(lockFile, String(process.pid), { flag: "wx" });
+      break;
+    } catch {
+      const holder = Number.parseInt(fs.readFileSync(lockFile, "utf8"), 10);
+      if (!pidAlive(holder)) {
+        fs.rmSync(lockFile, { force: true });
+        continue;
+      }
+      say(`waiting for the build run by pid ${holder}`);
+      while (pidAlive(holder) && fs.existsSync(lockFile)) await new Promise((r) => setTimeout(r, 500));
+    }
+  }
+  try {
+    return await work();
+  } finally {
+    fs.rmSync(lockFile, { force: true });
+  }
+}
+
+/** Builds when stale. Returns true when it built. */
+export async function ensureBuild({ env, layout }) {
+  if (buildStaleness() === null) {
+    say("build is up to date");
+    return false;
+  }
+  return withBuildLock(path.join(layout.run, "build.lock"), async () => {
+    const reason = buildStaleness(); // another script may have built while we waited
+    if (reason === null) return false;
+    if (!fs.existsSync(path.join(repoRoot, "app"))) {
+      throw new SetupError("app/ does not exist yet: there is nothing for `next build` to build");
+    }
+    say(`building (${reason}): next build`);
+    await runAsync(path.join(repoRoot, "node_modules", ".bin", "next"), ["build"], { cwd: repoRoot, env });
+    return true;
+  });
+}

@@ -1,0 +1,117 @@
+// Where local state lives, which ports each profile uses, and the environment given to Next, the
+// migrations, the seed and vitest. This is the contract the rest of the code base reads.
+import crypto from "node:crypto";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+export const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..", "..");
+
+// GUSSET_PORT_OFFSET shifts every port, for a second checkout on the same machine. Off by default.
+const offset = Number.parseInt(process.env.GUSSET_PORT_OFFSET ?? "0", 10) || 0;
+
+const PORTS = {
+  start: { postgres: 54329, smtp: 2525, mailApi: 2580, s3: 4569, app: 3000 },
+  test: { postgres: 54329, smtp: 2526, mailApi: 2581, s3: 4570, app: 3100 },
+};
+
+const DATABASES = { start: "gusset", test: "gusset_test" };
+
+export function portsFor(profile) {
+  return Object.fromEntries(Object.entries(PORTS[profile]).map(([name, port]) => [name, port + offset]));
+}
+
+export function databaseFor(profile) {
+  return DATABASES[profile];
+}
+
+/**
+ * The state folder: `.gusset/` at the repo root, unless PostgreSQL (run as the `postgres` user when we
+ * are root) could not reach it because a parent folder is closed to others; then a folder under /tmp
+ * named after the repo path, so each checkout keeps its own.
+ */
+export function resolveStateDir({ asRoot }) {
+  const inRepo = path.join(repoRoot, ".gusset");
+  if (!asRoot || everyFolderTraversable(repoRoot)) return { dir: inRepo, fallback: false };
+  const hash = crypto.createHash("sha256").update(repoRoot).digest("hex").slice(0, 12);
+  return { dir: path.join(os.tmpdir(), `gusset-${hash}`), fallback: true };
+}
+
+function everyFolderTraversable(folder) {
+  for (let current = folder; ; current = path.dirname(current)) {
+    const mode = fs.statSync(current).mode;
+    if ((mode & 0o001) === 0) return false;
+    if (path.dirname(current) === current) return true;
+  }
+}
+
+export function stateLayout(stateDir) {
+  return {
+    root: stateDir,
+    pgData: path.join(stateDir, "postgres", "data"),
+    pgLog: path.join(stateDir, "postgres", "postgres.log"),
+    s3: path.join(stateDir, "s3"),
+    logs: path.join(stateDir, "logs"),
+    run: path.join(stateDir, "run"),
+  };
+}
+
+const envLocalPath = path.join(repoRoot, ".env.local");
+
+function readEnvLocal() {
+  if (!fs.existsSync(envLocalPath)) return new Map();
+  const entries = new Map();
+  for (const line of fs.readFileSync(envLocalPath, "utf8").split("\n")) {
+    const match = /^\s*([A-Za-z_][A-Za-z0-9_]*)\s*=\s*(.*)$/.exec(line);
+    if (match) entries.set(match[1], match[2].replace(/^"(.*)"$/, "$1"));
+  }
+  return entries;
+}
+
+/** The local auth secret: the one in .env.local when there is one, else a new random one. */
+export function authSecret() {
+  const existing = readEnvLocal().get("BETTER_AUTH_SECRET");
+  if (existing && existing.length >= 32) return { secret: existing, created: false };
+  return { secret: crypto.randomBytes(36).toString("base64url"), created: true };
+}
+
+/** The variables every Gusset process reads. `fakeMail` is false when a real SMTP server is configured. */
+export function gussetEnv(profile, { secret, fakeMail = true }) {
+  const ports = portsFor(profile);
+  const appUrl = `http://127.0.0.1:${ports.app}`;
+  const env = {
+    DATABASE_URL: `postgres://postgres@127.0.0.1:${ports.postgres}/${databaseFor(profile)}`,
+    BETTER_AUTH_SECRET: secret,
+    BETTER_AUTH_URL: appUrl,
+    SMTP_HOST: "127.0.0.1",
+    SMTP_PORT: String(ports.smtp),
+    MAIL_FROM: "Gusset <no-reply@gusset.example>",
+    S3_ENDPOINT: `http://127.0.0.1:${ports.s3}`,
+    S3_REGION: "us-east-1",
+    S3_BUCKET: "gusset",
+    // s3rver accepts only this key pair.
+    S3_ACCESS_KEY_ID: "S3RVER",
+    S3_SECRET_ACCESS_KEY: "S3RVER",
+    GUSSET_BASE_URL: appUrl,
+  };
+  if (fakeMail) env.FAKE_MAIL_API_URL = `http://127.0.0.1:${ports.mailApi}`;
+  return env;
+}
+
+/** Writes .env.local for `next dev`/`next start` run by hand, keeping any lines someone added. */
+export function writeEnvLocal(env) {
+  const ours = new Set(Object.keys(env));
+  const kept = [...readEnvLocal()].filter(([key]) => !ours.has(key) && key !== "FAKE_MAIL_API_URL");
+  const lines = [
+    "# Written by `npm start` (scripts/start.mjs). BETTER_AUTH_SECRET is created once and kept.",
+    ...Object.entries(env).map(([key, value]) => `${key}="${value}"`),
+    ...kept.map(([key, value]) => `${key}="${value}"`),
+  ];
+  fs.writeFileSync(envLocalPath, `${lines.join("\n")}\n`, { mode: 0o600 });
+}
+
+/** The environment for a child process: ours on top of the inherited one. */
+export function childEnv(gusset, extra = {}) {
+  return { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...gusset, ...extra };
+}

@@ -1,0 +1,107 @@
+// The private PostgreSQL cluster on 127.0.0.1: created once under the state folder, started or reused.
+import fs from "node:fs";
+import path from "node:path";
+import { PG_BIN } from "./install.mjs";
+import { SetupError, commandLineOf, isRoot, pidAlive, portAnswers, run, say } from "./processes.mjs";
+
+// initdb and postgres refuse to run as root: run them as the `postgres` user the Debian package made.
+function asClusterOwner(command, args) {
+  return isRoot ? ["runuser", ["-u", "postgres", "--", command, ...args]] : [command, args];
+}
+
+function psql(port, database, sql, { allowFailure = false } = {}) {
+  const env = { ...process.env, PGCONNECT_TIMEOUT: "5" };
+  const args = ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", "-d", database, "-v", "ON_ERROR_STOP=1"];
+  return run(`${PG_BIN}/psql`, [...args, "-tAc", sql], { env, quiet: true, allowFailure });
+}
+
+function isReady(port) {
+  return run(`${PG_BIN}/pg_isready`, ["-h", "127.0.0.1", "-p", String(port), "-t", "2"], { quiet: true, allowFailure: true }).status === 0;
+}
+
+function realpathOrSelf(p) {
+  try {
+    return fs.realpathSync(p);
+  } catch {
+    return p;
+  }
+}
+
+/** A postmaster.pid whose process is gone, a zombie or another program blocks a start: remove it. */
+function removeStalePidFile(dataDir) {
+  const pidFile = path.join(dataDir, "postmaster.pid");
+  if (!fs.existsSync(pidFile)) return;
+  const pid = Number.parseInt(fs.readFileSync(pidFile, "utf8").split("\n")[0], 10);
+  if (pidAlive(pid) && /postgres|postmaster/.test(commandLineOf(pid))) {
+    throw new SetupError(`PostgreSQL (pid ${pid}) runs on ${dataDir} but does not answer on its port; stop it or wait`);
+  }
+  say(`removing stale postmaster.pid (pid ${pid} is gone)`);
+  fs.rmSync(pidFile, { force: true });
+}
+
+function initCluster(layout) {
+  const clusterDir = path.dirname(layout.pgData);
+  fs.mkdirSync(clusterDir, { recursive: true, mode: 0o700 });
+  if (isRoot) run("chown", ["-R", "postgres:postgres", clusterDir]);
+  if (fs.existsSync(path.join(layout.pgData, "PG_VERSION"))) return false;
+  say(`creating the PostgreSQL cluster in ${layout.pgData}`);
+  const [cmd, args] = asClusterOwner(`${PG_BIN}/initdb`, [
+    "-D", layout.pgData, "-U", "postgres", "--auth=trust", "-E", "UTF8", "--locale=C.UTF-8",
+  ]);
+  run(cmd, args, { quiet: true });
+  return true;
+}
+
+/**
+ * Starts the cluster, or reuses it when it already answers on `port` with our data folder.
+ * Returns { started, stop } where stop() is only meaningful when this call started it.
+ * `fast` (tests only) turns durability off, which is safe only for a cluster we start ourselves.
+ */
+export async function ensurePostgres({ layout, port, fast = false }) {
+  if (isReady(port)) {
+    const running = psql(port, "postgres", "show data_directory", { allowFailure: true }).stdout.trim();
+    if (realpathOrSelf(running) !== realpathOrSelf(layout.pgData)) {
+      throw new SetupError(`port ${port} is held by another PostgreSQL (data in ${running || "unknown"}); stop it first`);
+    }
+    say(`PostgreSQL already runs on 127.0.0.1:${port}: reusing it`);
+    return { started: false, stop: async () => {} };
+  }
+  if (await portAnswers(port)) throw new SetupError(`port ${port} is busy with something that is not PostgreSQL`);
+
+  initCluster(layout);
+  removeStalePidFile(layout.pgData);
+  const options = [`-c listen_addresses=127.0.0.1`, `-c port=${port}`, `-c unix_socket_directories=''`];
+  if (fast) options.push("-c fsync=off", "-c synchronous_commit=off", "-c full_page_writes=off");
+  const [cmd, args] = asClusterOwner(`${PG_BIN}/pg_ctl`, [
+    "-D", layout.pgData, "-l", layout.pgLog, "-w", "-t", "60", "-o", options.join(" "), "start",
+  ]);
+  const result = run(cmd, args, { quiet: true, allowFailure: true });
+  if (result.status !== 0) {
+    const tail = fs.existsSync(layout.pgLog) ? fs.readFileSync(layout.pgLog, "utf8").split("\n").slice(-15).join("\n") : "";
+    throw new SetupError(`PostgreSQL did not start:\n${result.stdout}${result.stderr}\n${tail}`);
+  }
+  say(`PostgreSQL started on 127.0.0.1:${port}${fast ? " (fsync off, for tests)" : ""}`);
+  return {
+    started: true,
+    stop: async () => {
+      const [stopCmd, stopArgs] = asClusterOwner(`${PG_BIN}/pg_ctl`, ["-D", layout.pgData, "-m", "fast", "-w", "stop"]);
+      run(stopCmd, stopArgs, { quiet: true });
+    },
+  };
+}
+
+export function createDatabaseIfMissing(port, name) {
+  const exists = psql(port, "postgres", `select 1 from pg_database where datname = '${name}'`).stdout.trim() === "1";
+  if (!exists) {
+    psql(port, "postgres", `create database "${name}"`);
+    say(`created database ${name}`);
+  }
+  return !exists;
+}
+
+/** Drops and recreates a database, closing whatever sessions still hold it. */
+export function recreateDatabase(port, name) {
+  psql(port, "postgres", `drop database if exists "${name}" with (force)`);
+  psql(port, "postgres", `create database "${name}"`);
+  say(`recreated database ${name}`);
+}

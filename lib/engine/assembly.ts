@@ -1,0 +1,151 @@
+/**
+ * Assembly: member preparation (geometry, condensed local stiffness), the global stiffness K over the free
+ * equations (assembled once per analysis), and the right-hand side of each load case:
+ *   K11 D1 = P1 − FEF1 − K12 D2   (D2 = prescribed displacements of restrained DOFs).
+ */
+import type { Model } from "./model";
+import { DOFS_PER_NODE, DofKind, prescribedValue, type DofMap } from "./dofs";
+import { condense, frameLocalStiffness, memberFrame, releasedDofs, toGlobal, toGlobalStiffness, type MemberFrame } from "./elements";
+import { fixedEndForces, type CaseLoads } from "./loads";
+import { SymmetricTripletBuilder, type SymmetricCsc } from "./sparse";
+
+export interface PreparedMember {
+  readonly start: number;
+  readonly end: number;
+  readonly frame: MemberFrame;
+  readonly E: number;
+  readonly A: number;
+  /**
+   * I used for the element. A truss member without I gets a nominal 1: its moment DOFs are condensed out, so
+   * its stiffness and fixed-end forces do not depend on I.
+   */
+  readonly I: number;
+  /** Whether bending deflection along the member can be computed (I was given). */
+  readonly hasBending: boolean;
+  readonly released: number[];
+  /** Condensed local stiffness (zero rows/columns at released DOFs). */
+  readonly k: Float64Array;
+}
+
+export function prepareMembers(model: Model, nodeIndex: Map<string, number>): PreparedMember[] {
+  return model.members.map((m) => {
+    const start = nodeIndex.get(m.start)!;
+    const end = nodeIndex.get(m.end)!;
+    const a = model.nodes[start];
+    const b = model.nodes[end];
+    const frame = memberFrame(a.x, a.y, b.x, b.y);
+    const I = m.I ?? 1;
+    const released = releasedDofs(m.kind, m.releases?.startMoment ?? false, m.releases?.endMoment ?? false);
+    const k = condense(frameLocalStiffness(m.E, m.A, I, frame.length), null, released).k;
+    return { start, end, frame, E: m.E, A: m.A, I, hasBending: m.I !== undefined, released, k };
+  });
+}
+
+/** The full (uncondensed) local stiffness of a prepared member. */
+export function fullLocalStiffness(p: PreparedMember): Float64Array {
+  return frameLocalStiffness(p.E, p.A, p.I, p.frame.length);
+}
+
+/** Per node: does any member end or rotational support resist its rotation? */
+export function rotationalStiffness(model: Model, members: ReadonlyArray<PreparedMember>): boolean[] {
+  const stiff = model.nodes.map((n) => (n.support?.rz ?? "free") !== "free");
+  for (const p of members) {
+    if (!p.released.includes(2)) stiff[p.start] = true;
+    if (!p.released.includes(5)) stiff[p.end] = true;
+  }
+  return stiff;
+}
+
+/** Global DOF indices of a member's six DOFs. */
+export function memberDofs(p: PreparedMember, out = new Int32Array(6)): Int32Array {
+  for (let d = 0; d < DOFS_PER_NODE; d++) {
+    out[d] = DOFS_PER_NODE * p.start + d;
+    out[DOFS_PER_NODE + d] = DOFS_PER_NODE * p.end + d;
+  }
+  return out;
+}
+
+export function assembleStiffness(members: ReadonlyArray<PreparedMember>, dofs: DofMap): SymmetricCsc {
+  const builder = new SymmetricTripletBuilder(dofs.nFree, 21 * members.length + dofs.nFree);
+  const K = new Float64Array(36);
+  const g = new Int32Array(6);
+  const eq = new Int32Array(6);
+  for (const p of members) {
+    toGlobalStiffness(p.k, p.frame.c, p.frame.s, K);
+    memberDofs(p, g);
+    for (let a = 0; a < 6; a++) eq[a] = dofs.equation[g[a]];
+    for (let a = 0; a < 6; a++) {
+      if (eq[a] < 0) continue;
+      for (let b = 0; b <= a; b++) {
+        if (eq[b] < 0) continue;
+        const v = K[a * 6 + b];
+        if (v !== 0) builder.add(eq[a], eq[b], v);
+      }
+    }
+  }
+  for (let e = 0; e < dofs.nFree; e++) {
+    const s = dofs.spring[dofs.freeToGlobal[e]];
+    if (s !== 0) builder.add(e, e, s);
+  }
+  return builder.toCsc();
+}
+
+/** Fixed-end forces of one case, condensed for releases, local, 6 per member (zeros where unloaded). */
+export function caseFixedEndForces(members: ReadonlyArray<PreparedMember>, loads: CaseLoads): Float64Array {
+  const fef = new Float64Array(6 * members.length);
+  for (const [m, span] of loads.span) {
+    const p = members[m];
+    let f = fixedEndForces(span, p.frame.length);
+    if (p.released.length > 0) f = condense(fullLocalStiffness(p), f, p.released).fef!;
+    fef.set(f, 6 * m);
+  }
+  return fef;
+}
+
+/** Prescribed displacements of one case, per global DOF (zeros elsewhere). */
+export function casePrescribed(model: Model, dofs: DofMap, caseId: string): Float64Array | null {
+  let D2: Float64Array | null = null;
+  for (let g = 0; g < dofs.kind.length; g++) {
+    if (dofs.kind[g] !== DofKind.Prescribed) continue;
+    const v = prescribedValue(model, Math.floor(g / DOFS_PER_NODE), g % DOFS_PER_NODE, caseId);
+    if (v !== 0) (D2 ??= new Float64Array(dofs.kind.length))[g] = v;
+  }
+  return D2;
+}
+
+/** Right-hand side over the free equations: P1 − FEF1 − K12 D2. */
+export function caseRhs(
+  members: ReadonlyArray<PreparedMember>,
+  dofs: DofMap,
+  loads: CaseLoads,
+  fef: Float64Array,
+  D2: Float64Array | null,
+): Float64Array {
+  const f = new Float64Array(dofs.nFree);
+  for (let e = 0; e < dofs.nFree; e++) f[e] = loads.nodal[dofs.freeToGlobal[e]];
+  const g = new Int32Array(6);
+  const F = new Float64Array(6);
+  for (const m of loads.span.keys()) {
+    const p = members[m];
+    toGlobal(fef.subarray(6 * m, 6 * m + 6), p.frame.c, p.frame.s, F);
+    memberDofs(p, g);
+    for (let a = 0; a < 6; a++) {
+      const e = dofs.equation[g[a]];
+      if (e >= 0) f[e] -= F[a];
+    }
+  }
+  if (D2) {
+    const K = new Float64Array(36);
+    for (const p of members) {
+      memberDofs(p, g);
+      if (!g.some((gb) => D2[gb] !== 0)) continue;
+      toGlobalStiffness(p.k, p.frame.c, p.frame.s, K);
+      for (let a = 0; a < 6; a++) {
+        const e = dofs.equation[g[a]];
+        if (e < 0) continue;
+        for (let b = 0; b < 6; b++) if (D2[g[b]] !== 0) f[e] -= K[a * 6 + b] * D2[g[b]];
+      }
+    }
+  }
+  return f;
+}

@@ -1,0 +1,52 @@
+/**
+ * Errors and warnings as data. The engine never prints and never throws for a bad model: every problem a
+ * person can fix comes back as one of these, with a message that says what to change.
+ */
+import type { DofName } from "./dofs";
+
+export type EngineError =
+  | { kind: "invalid-model"; path: string; message: string }
+  | { kind: "non-finite"; path: string; message: string }
+  | { kind: "duplicate-id"; entity: "node" | "member" | "load-case" | "combination" | "envelope"; id: string; message: string }
+  | { kind: "unknown-node"; path: string; node: string; message: string }
+  | { kind: "unknown-member"; path: string; member: string; message: string }
+  | { kind: "unknown-load-case"; path: string; loadCase: string; message: string }
+  | { kind: "unknown-result"; path: string; id: string; message: string }
+  | { kind: "zero-length-member"; member: string; message: string }
+  | { kind: "missing-property"; member: string; property: string; message: string }
+  | { kind: "non-positive-property"; path: string; property: string; value: number; message: string }
+  | { kind: "load-outside-member"; path: string; member: string; message: string }
+  | { kind: "invalid-load"; path: string; message: string }
+  | { kind: "unstable"; node: string; direction: DofName; message: string }
+  | { kind: "numerical"; message: string };
+
+export type EngineWarning =
+  | { kind: "ill-conditioned"; loadCase: string; relativeResidual: number; message: string }
+  | { kind: "moment-on-pinned-node"; node: string; message: string };
+
+export type ErrorKind = EngineError["kind"];
+
+const DIRECTION_WORDS: Record<DofName, string> = {
+  ux: "is free to move in x",
+  uy: "is free to move in y",
+  rz: "is free to rotate",
+};
+
+export function unstableError(node: string, direction: DofName): EngineError {
+  return {
+    kind: "unstable",
+    node,
+    direction,
+    message: `Node ${node} ${DIRECTION_WORDS[direction]} (mechanism or missing support)`,
+  };
+}
+
+/** Turns a path array into the dotted form used in messages, e.g. `members[3].E`. */
+export function formatPath(path: ReadonlyArray<PropertyKey>): string {
+  let out = "";
+  for (const part of path) {
+    if (typeof part === "number") out += `[${part}]`;
+    else out += out === "" ? String(part) : `.${String(part)}`;
+  }
+  return out;
+}

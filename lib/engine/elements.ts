@@ -1,0 +1,167 @@
+/**
+ * Element matrices. Lowercase names are local (member axes), uppercase global.
+ *
+ * Local DOF order of a member: [u_i, v_i, θ_i, u_j, v_j, θ_j] (i = start node, j = end node); u along local
+ * x, v along local y, θ counter-clockwise. Matrices are row-major Float64Array(36).
+ *
+ * The frame element is the bar (EA/L on u) overlaid with the Euler–Bernoulli beam on (v, θ):
+ *   EI/L³ · [ 12   6L  −12   6L
+ *              6L  4L²  −6L  2L²
+ *            −12  −6L   12  −6L
+ *              6L  2L²  −6L  4L² ]
+ * A truss member is the frame element with both end moments released; its transverse stiffness then
+ * condenses to zero, so truss and released frame members share one code path.
+ */
+
+export const LOCAL_SIZE = 6;
+/** Local indices of the end rotations (the DOFs a moment release frees). */
+export const THETA_I = 2;
+export const THETA_J = 5;
+
+export interface MemberFrame {
+  readonly length: number;
+  /** Direction cosines of local x: (c, s) = ((xj − xi)/L, (yj − yi)/L). */
+  readonly c: number;
+  readonly s: number;
+}
+
+export function memberFrame(xi: number, yi: number, xj: number, yj: number): MemberFrame {
+  const dx = xj - xi;
+  const dy = yj - yi;
+  const length = Math.hypot(dx, dy);
+  return { length, c: dx / length, s: dy / length };
+}
+
+export function frameLocalStiffness(E: number, A: number, I: number, L: number): Float64Array {
+  const k = new Float64Array(36);
+  const a = (E * A) / L;
+  const b = (E * I) / (L * L * L);
+  const set = (r: number, c: number, v: number) => {
+    k[r * 6 + c] = v;
+    k[c * 6 + r] = v;
+  };
+  set(0, 0, a);
+  set(0, 3, -a);
+  set(3, 3, a);
+  set(1, 1, 12 * b);
+  set(1, 2, 6 * L * b);
+  set(1, 4, -12 * b);
+  set(1, 5, 6 * L * b);
+  set(2, 2, 4 * L * L * b);
+  set(2, 4, -6 * L * b);
+  set(2, 5, 2 * L * L * b);
+  set(4, 4, 12 * b);
+  set(4, 5, -6 * L * b);
+  set(5, 5, 4 * L * L * b);
+  return k;
+}
+
+/** The released local DOFs of a member (subset of THETA_I, THETA_J). */
+export function releasedDofs(kind: "frame" | "truss", startMoment: boolean, endMoment: boolean): number[] {
+  if (kind === "truss") return [THETA_I, THETA_J];
+  const r: number[] = [];
+  if (startMoment) r.push(THETA_I);
+  if (endMoment) r.push(THETA_J);
+  return r;
+}
+
+/** Inverse of the (1×1 or 2×2) released block k_rr. */
+function invertReleasedBlock(k: Float64Array, r: number[]): number[][] {
+  if (r.length === 1) return [[1 / k[r[0] * 6 + r[0]]]];
+  const a = k[r[0] * 6 + r[0]];
+  const b = k[r[0] * 6 + r[1]];
+  const d = k[r[1] * 6 + r[1]];
+  const det = a * d - b * b;
+  return [
+    [d / det, -b / det],
+    [-b / det, a / det],
+  ];
+}
+
+/**
+ * Static condensation of the released DOFs r:  k* = k_cc − k_cr k_rr⁻¹ k_rc,  fef* = fef_c − k_cr k_rr⁻¹ fef_r.
+ * The result keeps the 6×6 layout with zero rows and columns at r, so the released end carries no moment.
+ */
+export function condense(k: Float64Array, fef: Float64Array | null, r: number[]): { k: Float64Array; fef: Float64Array | null } {
+  if (r.length === 0) return { k, fef };
+  const inv = invertReleasedBlock(k, r);
+  const kc = new Float64Array(36);
+  const fc = fef ? new Float64Array(6) : null;
+  for (let i = 0; i < 6; i++) {
+    if (r.includes(i)) continue;
+    // row i of k_cr · k_rr⁻¹
+    const w = r.map((_, q) => r.reduce((sum, rp, p) => sum + k[i * 6 + rp] * inv[p][q], 0));
+    for (let j = 0; j < 6; j++) {
+      if (r.includes(j)) continue;
+      kc[i * 6 + j] = k[i * 6 + j] - r.reduce((sum, rq, q) => sum + w[q] * k[rq * 6 + j], 0);
+    }
+    if (fef && fc) fc[i] = fef[i] - r.reduce((sum, rq, q) => sum + w[q] * fef[rq], 0);
+  }
+  return { k: kc, fef: fc };
+}
+
+/**
+ * Rotations at the released DOFs, from the kept ones: d_r = −k_rr⁻¹ (k_rc d_c + fef_r), with the full
+ * (uncondensed) k and fef. Writes them into d in place.
+ */
+export function recoverReleased(k: Float64Array, fef: Float64Array | null, r: number[], d: Float64Array): void {
+  if (r.length === 0) return;
+  const inv = invertReleasedBlock(k, r);
+  const rhs = r.map((ri) => {
+    let v = fef ? fef[ri] : 0;
+    for (let j = 0; j < 6; j++) if (!r.includes(j)) v += k[ri * 6 + j] * d[j];
+    return v;
+  });
+  r.forEach((ri, p) => {
+    d[ri] = -(inv[p][0] * rhs[0] + (r.length > 1 ? inv[p][1] * rhs[1] : 0));
+  });
+}
+
+/** Global → local for a 6-vector: per node [c s 0; −s c 0; 0 0 1]. */
+export function toLocal(V: ArrayLike<number>, c: number, s: number, out = new Float64Array(6)): Float64Array {
+  for (let n = 0; n < 6; n += 3) {
+    const X = V[n];
+    const Y = V[n + 1];
+    out[n] = c * X + s * Y;
+    out[n + 1] = -s * X + c * Y;
+    out[n + 2] = V[n + 2];
+  }
+  return out;
+}
+
+/** Local → global for a 6-vector (the transpose of `toLocal`). */
+export function toGlobal(v: ArrayLike<number>, c: number, s: number, out = new Float64Array(6)): Float64Array {
+  for (let n = 0; n < 6; n += 3) {
+    const x = v[n];
+    const y = v[n + 1];
+    out[n] = c * x - s * y;
+    out[n + 1] = s * x + c * y;
+    out[n + 2] = v[n + 2];
+  }
+  return out;
+}
+
+/** K = Tᵀ k T, with T block-diagonal of the 3×3 node rotation. */
+export function toGlobalStiffness(k: Float64Array, c: number, s: number, out = new Float64Array(36)): Float64Array {
+  // R (3×3 per node block) applied as: (k T) then Tᵀ (k T); exploit that T only mixes the first two of each three.
+  const kt = new Float64Array(36);
+  for (let i = 0; i < 6; i++) {
+    for (let n = 0; n < 6; n += 3) {
+      const a = k[i * 6 + n];
+      const b = k[i * 6 + n + 1];
+      kt[i * 6 + n] = a * c - b * s;
+      kt[i * 6 + n + 1] = a * s + b * c;
+      kt[i * 6 + n + 2] = k[i * 6 + n + 2];
+    }
+  }
+  for (let j = 0; j < 6; j++) {
+    for (let n = 0; n < 6; n += 3) {
+      const a = kt[n * 6 + j];
+      const b = kt[(n + 1) * 6 + j];
+      out[n * 6 + j] = c * a - s * b;
+      out[(n + 1) * 6 + j] = s * a + c * b;
+      out[(n + 2) * 6 + j] = kt[(n + 2) * 6 + j];
+    }
+  }
+  return out;
+}

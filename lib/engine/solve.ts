@@ -1,0 +1,37 @@
+/**
+ * Factor K once (sparse LDLᵀ with a fill-reducing ordering) and solve every load case with that factor.
+ * A pivot failure is mapped back to the node and direction that is free, as an `unstable` error.
+ */
+import type { Model } from "./model";
+import { DOF_NAMES, DOFS_PER_NODE, type DofMap } from "./dofs";
+import { unstableError, type EngineError } from "./diagnostics";
+import { factorizeSymmetric, multiplySymmetric, type CholeskyFactor, type FactorStats, type SymmetricCsc } from "./sparse";
+
+export type FactorOutcome = { ok: true; factor: CholeskyFactor; stats: FactorStats } | { ok: false; error: EngineError; stats: FactorStats };
+
+export function factorStiffness(model: Model, K: SymmetricCsc, dofs: DofMap): FactorOutcome {
+  const result = factorizeSymmetric(K, {
+    ordering: "amd",
+    blockSize: dofs.uniformBlocks ? DOFS_PER_NODE : 1,
+  });
+  if (result.ok) return { ok: true, factor: result.factor, stats: result.factor.stats };
+  const g = dofs.freeToGlobal[result.equation];
+  const node = model.nodes[Math.floor(g / DOFS_PER_NODE)].id;
+  return { ok: false, error: unstableError(node, DOF_NAMES[g % DOFS_PER_NODE]), stats: result.stats };
+}
+
+function norm2(v: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < v.length; i++) s += v[i] * v[i];
+  return Math.sqrt(s);
+}
+
+/** ‖K u − f‖ / ‖f‖; the absolute ‖K u − f‖ when f = 0, so the figure stays finite. */
+export function relativeResidual(K: SymmetricCsc, u: Float64Array, f: Float64Array): number {
+  const Ku = multiplySymmetric(K, u);
+  let s = 0;
+  for (let i = 0; i < f.length; i++) s += (Ku[i] - f[i]) ** 2;
+  const fn = norm2(f);
+  if (fn === 0) return Math.sqrt(s);
+  return Math.sqrt(s) / fn;
+}

@@ -1,0 +1,69 @@
+/** Small builders and checks shared by the engine tests. */
+import { expect } from "vitest";
+import { analyze, type AnalysisResult, type LoadInput, type ModelInput } from "@/lib/engine";
+
+export type SupportKind = "fixed" | "pin" | "roller" | "free";
+
+const SUPPORTS: Record<SupportKind, { ux: "fixed" | "free"; uy: "fixed" | "free"; rz: "fixed" | "free" }> = {
+  fixed: { ux: "fixed", uy: "fixed", rz: "fixed" },
+  pin: { ux: "fixed", uy: "fixed", rz: "free" },
+  roller: { ux: "free", uy: "fixed", rz: "free" },
+  free: { ux: "free", uy: "free", rz: "free" },
+};
+
+export const E = 200e9;
+export const I = 8e-5;
+export const A = 5e-3;
+
+/**
+ * A horizontal line of members m1, m2, … between nodes n0, n1, … with the given supports, and one load case
+ * "L" holding `loads`. Pins hold x so the axial direction is never a mechanism.
+ */
+export function lineBeam(spans: number[], supports: SupportKind[], loads: LoadInput[]): ModelInput {
+  let x = 0;
+  const xs = [0, ...spans.map((s) => (x += s))];
+  return {
+    nodes: xs.map((xi, i) => ({ id: `n${i}`, x: xi, y: 0, support: SUPPORTS[supports[i]] })),
+    members: spans.map((_, i) => ({ id: `m${i + 1}`, start: `n${i}`, end: `n${i + 1}`, E, A, I })),
+    loadCases: [{ id: "L", loads }],
+  };
+}
+
+export function analyzeOrThrow(model: unknown): AnalysisResult {
+  const out = analyze(model);
+  if (!out.ok) throw new Error(`analysis failed: ${JSON.stringify(out.errors)}`);
+  return out.result;
+}
+
+/** |actual − expected| ≤ rel·max(|expected|, scale): relative, with a floor for expected values near 0. */
+export function expectClose(actual: number | undefined, expected: number, rel = 1e-9, scale = 0): void {
+  expect(actual).toBeDefined();
+  const tol = rel * Math.max(Math.abs(expected), scale);
+  if (!(Math.abs((actual as number) - expected) <= tol)) {
+    throw new Error(`expected ${actual} to be within ${tol} of ${expected}`);
+  }
+}
+
+/** Every number reachable from value is finite (typed arrays included). */
+export function expectAllFinite(value: unknown, path = "result"): void {
+  if (typeof value === "number") {
+    if (!Number.isFinite(value)) throw new Error(`${path} is ${value}`);
+  } else if (ArrayBuffer.isView(value)) {
+    const arr = value as unknown as ArrayLike<number>;
+    for (let i = 0; i < arr.length; i++) if (!Number.isFinite(arr[i])) throw new Error(`${path}[${i}] is ${arr[i]}`);
+  } else if (value !== null && typeof value === "object") {
+    for (const [k, v] of Object.entries(value)) expectAllFinite(v, `${path}.${k}`);
+  }
+}
+
+/** Deterministic pseudo-random numbers (mulberry32), so failing seeds can be replayed. */
+export function seededRandom(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}

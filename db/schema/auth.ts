@@ -1,21 +1,26 @@
 // The four tables better-auth reads and writes (user, session, account, verification) plus its
 // rate-limit table, written by hand from its schema so that drizzle-kit owns the migrations.
 // Gusset adds two columns to the user: the role and when the account was deactivated.
-import { boolean, index, integer, bigint, pgTable, text, timestamp } from "drizzle-orm/pg-core";
+import { sql } from "drizzle-orm";
+import { boolean, check, index, integer, bigint, pgTable, text, timestamp } from "drizzle-orm/pg-core";
 
-export const user = pgTable("user", {
-  id: text("id").primaryKey(),
-  name: text("name").notNull(),
-  email: text("email").notNull().unique(),
-  emailVerified: boolean("email_verified").notNull().default(false),
-  image: text("image"),
-  /** One of ROLES in lib/auth/roles.ts; checked in SQL by the migration's constraint. */
-  role: text("role", { enum: ["admin", "lead", "engineer", "auditor"] }).notNull().default("engineer"),
-  /** Set when an admin deactivates the account; a deactivated user cannot sign in. */
-  deactivatedAt: timestamp("deactivated_at", { withTimezone: true }),
-  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
-  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
-});
+export const user = pgTable(
+  "user",
+  {
+    id: text("id").primaryKey(),
+    name: text("name").notNull(),
+    email: text("email").notNull().unique(),
+    emailVerified: boolean("email_verified").notNull().default(false),
+    image: text("image"),
+    /** One of ROLES in lib/auth/roles.ts; checked in SQL by the migration's constraint. */
+    role: text("role", { enum: ["admin", "lead", "engineer", "auditor"] }).notNull().default("engineer"),
+    /** Set when an admin deactivates the account; a deactivated user cannot sign in. */
+    deactivatedAt: timestamp("deactivated_at", { withTimezone: true }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [check("user_role_check", sql`${t.role} in ('admin', 'lead', 'engineer', 'auditor')`)],
+);
 export type User = typeof user.$inferSelect;
 export type NewUser = typeof user.$inferInsert;
 

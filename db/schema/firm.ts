@@ -1,5 +1,6 @@
 // One firm runs one deployment: the firm's own details, its projects (jobs) and open invitations.
-import { index, pgTable, text, timestamp, uuid } from "drizzle-orm/pg-core";
+import { sql } from "drizzle-orm";
+import { check, index, pgTable, text, timestamp, uuid } from "drizzle-orm/pg-core";
 import { user } from "./auth";
 
 export const firm = pgTable("firm", {
@@ -37,7 +38,10 @@ export const invitations = pgTable(
     revokedAt: timestamp("revoked_at", { withTimezone: true }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("invitations_email_idx").on(t.email)],
+  (t) => [
+    index("invitations_email_idx").on(t.email),
+    check("invitations_role_check", sql`${t.role} in ('admin', 'lead', 'engineer', 'auditor')`),
+  ],
 );
 export type Invitation = typeof invitations.$inferSelect;
 export type NewInvitation = typeof invitations.$inferInsert;

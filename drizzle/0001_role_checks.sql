@@ -1,0 +1,2 @@
+ALTER TABLE "user" ADD CONSTRAINT "user_role_check" CHECK ("user"."role" in ('admin', 'lead', 'engineer', 'auditor'));--> statement-breakpoint
+ALTER TABLE "invitations" ADD CONSTRAINT "invitations_role_check" CHECK ("invitations"."role" in ('admin', 'lead', 'engineer', 'auditor'));

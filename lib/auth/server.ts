@@ -1,0 +1,217 @@
+import "server-only";
+// The better-auth instance: e-mail + password only, sessions and rate-limit counters in PostgreSQL.
+// Nobody signs up: people join by invitation (lib/data/invitations.ts). The admin plugin is left out on
+// purpose: its endpoints would change roles and bans without our guard and audit trail.
+//
+// Its HTTP endpoints are mounted at /api/auth/* (app/api/auth/[...all]/route.ts). That is the one route
+// that does not go through lib/auth/guard.ts: it is the auth library's own endpoint set, protected by
+// better-auth itself (sign-up disabled, rate limits, origin check) plus the hooks below.
+import { betterAuth } from "better-auth";
+import { drizzleAdapter } from "better-auth/adapters/drizzle";
+import { APIError, createAuthMiddleware, getIP, isAPIError } from "better-auth/api";
+import { nextCookies } from "better-auth/next-js";
+import { eq } from "drizzle-orm";
+import { db } from "@/db";
+import { account, rateLimit, session, user, verification } from "@/db/schema";
+import { recordAuditEvent } from "@/lib/data/audit";
+import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "@/lib/data/auth-schemas";
+import { sendMail } from "@/lib/mail/send-mail";
+import { renderPasswordResetMail } from "@/lib/mail/templates";
+
+export const ACCOUNT_DEACTIVATED_CODE = "ACCOUNT_DEACTIVATED";
+export const ACCOUNT_DEACTIVATED_MESSAGE =
+  "This account has been deactivated. Ask your admin to reactivate it.";
+
+/** Sign-in attempts per IP address per minute (also counts successful ones). */
+export const SIGN_IN_RATE_LIMIT = { window: 60, max: Number(process.env.GUSSET_SIGN_IN_RATE_LIMIT_MAX ?? 5) };
+export const PASSWORD_RESET_RATE_LIMIT = { window: 60, max: 3 };
+
+function getBaseUrl(): string {
+  return process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000";
+}
+
+/** 127.0.0.1 and localhost are the same machine to a person; accept both as origins for the demo. */
+function getTrustedOrigins(): string[] {
+  const base = new URL(getBaseUrl());
+  const origins = [base.origin];
+  for (const [from, to] of [["127.0.0.1", "localhost"], ["localhost", "127.0.0.1"]] as const) {
+    if (base.hostname === from) origins.push(`${base.protocol}//${to}${base.port ? `:${base.port}` : ""}`);
+  }
+  return origins;
+}
+
+async function findUserByEmail(email: string) {
+  const [row] = await db
+    .select({ id: user.id, name: user.name, deactivatedAt: user.deactivatedAt })
+    .from(user)
+    .where(eq(user.email, email.trim().toLowerCase()));
+  return row ?? null;
+}
+
+type HookContext = Parameters<Parameters<typeof createAuthMiddleware>[0]>[0];
+
+function getClientIp(ctx: HookContext): string | null {
+  const source = ctx.request ?? ctx.headers;
+  return source ? getIP(source, ctx.context.options) : null;
+}
+
+function readEmail(body: unknown): string | null {
+  const email = (body as { email?: unknown } | undefined)?.email;
+  return typeof email === "string" ? email.trim().toLowerCase().slice(0, 320) : null;
+}
+
+/** Audit trail for sign-in attempts and password resets, read from what the endpoint returned. */
+async function auditAuthEndpoint(ctx: HookContext): Promise<void> {
+  const returned = ctx.context.returned;
+  const failed = isAPIError(returned);
+  const ipAddress = getClientIp(ctx);
+  if (ctx.path === "/sign-in/email") {
+    const email = readEmail(ctx.body);
+    if (!failed) {
+      const signedIn = ctx.context.newSession?.user;
+      await recordAuditEvent({
+        action: "auth.sign-in",
+        actorId: signedIn?.id,
+        actorEmail: signedIn?.email ?? email,
+        subject: signedIn ? `user:${signedIn.id}` : null,
+        ipAddress,
+      });
+      return;
+    }
+    const known = email ? await findUserByEmail(email) : null;
+    const reason = (returned as APIError).body?.code ?? "UNKNOWN";
+    await recordAuditEvent({
+      action: "auth.sign-in.failed",
+      actorId: known?.id ?? null,
+      actorEmail: email,
+      subject: known ? `user:${known.id}` : null,
+      details: { reason, knownUser: Boolean(known) },
+      ipAddress,
+    });
+  } else if (ctx.path === "/request-password-reset") {
+    const email = readEmail(ctx.body);
+    const known = email ? await findUserByEmail(email) : null;
+    await recordAuditEvent({
+      action: "auth.password-reset.requested",
+      actorId: known?.id ?? null,
+      actorEmail: email,
+      subject: known ? `user:${known.id}` : null,
+      details: { knownUser: Boolean(known), ...(failed ? { reason: (returned as APIError).body?.code } : {}) },
+      ipAddress,
+    });
+  } else if (ctx.path === "/reset-password" && failed) {
+    await recordAuditEvent({
+      action: "auth.password-reset.failed",
+      details: { reason: (returned as APIError).body?.code ?? "UNKNOWN" },
+      ipAddress,
+    });
+  }
+}
+
+export const auth = betterAuth({
+  appName: "Gusset",
+  baseURL: getBaseUrl(),
+  secret: process.env.BETTER_AUTH_SECRET,
+  trustedOrigins: getTrustedOrigins(),
+  database: drizzleAdapter(db, {
+    provider: "pg",
+    schema: { user, session, account, verification, rateLimit },
+    transaction: true,
+  }),
+  emailAndPassword: {
+    enabled: true,
+    disableSignUp: true,
+    minPasswordLength: PASSWORD_MIN_LENGTH,
+    maxPasswordLength: PASSWORD_MAX_LENGTH,
+    revokeSessionsOnPasswordReset: true,
+    resetPasswordTokenExpiresIn: 60 * 60,
+    async sendResetPassword({ user: recipient, token }) {
+      const known = await findUserByEmail(recipient.email);
+      if (!known || known.deactivatedAt) return; // a deactivated account gets no reset link
+      // Our own page (app/(auth)/reset-password) takes the token, not better-auth's redirect endpoint.
+      const url = `${getBaseUrl()}/reset-password?token=${encodeURIComponent(token)}`;
+      await sendMail(renderPasswordResetMail({ to: recipient.email, name: recipient.name, url }));
+    },
+    async onPasswordReset({ user: changed }) {
+      await recordAuditEvent({
+        action: "auth.password-reset",
+        actorId: changed.id,
+        actorEmail: changed.email,
+        subject: `user:${changed.id}`,
+      });
+    },
+  },
+  user: {
+    additionalFields: {
+      role: { type: "string", required: false, defaultValue: "engineer", input: false },
+      deactivatedAt: { type: "date", required: false, input: false },
+    },
+  },
+  session: {
+    // No cookie cache: every request reads the session row, so deleting it (deactivation) ends it at once.
+    cookieCache: { enabled: false },
+  },
+  rateLimit: {
+    enabled: true,
+    storage: "database",
+    modelName: "rateLimit",
+    customRules: {
+      "/sign-in/email": SIGN_IN_RATE_LIMIT,
+      "/request-password-reset": PASSWORD_RESET_RATE_LIMIT,
+      "/reset-password": { window: 60, max: 10 },
+    },
+  },
+  databaseHooks: {
+    session: {
+      create: {
+        // Runs after the password was verified, so the message reveals nothing to a stranger.
+        async before(newSession) {
+          const [row] = await db
+            .select({ deactivatedAt: user.deactivatedAt })
+            .from(user)
+            .where(eq(user.id, newSession.userId));
+          if (!row || row.deactivatedAt) {
+            throw APIError.from("FORBIDDEN", { code: ACCOUNT_DEACTIVATED_CODE, message: ACCOUNT_DEACTIVATED_MESSAGE });
+          }
+        },
+      },
+    },
+  },
+  hooks: {
+    after: createAuthMiddleware(async (ctx) => {
+      try {
+        await auditAuthEndpoint(ctx);
+      } catch (error) {
+        // An audit failure must not turn a good sign-in into an error page; it is logged for the admin.
+        console.error("[gusset] could not write the auth audit event:", error);
+      }
+    }),
+  },
+  plugins: [nextCookies()],
+});
+
+export type Auth = typeof auth;
+
+/**
+ * The HTTP entry for /api/auth/*. Rate-limited requests are answered by better-auth before any hook
+ * runs, so the refused sign-in attempt is written to the audit trail here.
+ */
+export async function handleAuthRequest(request: Request): Promise<Response> {
+  const path = new URL(request.url).pathname;
+  const isSignIn = request.method === "POST" && path.endsWith("/sign-in/email");
+  const copy = isSignIn ? request.clone() : null;
+  const response = await auth.handler(request);
+  if (copy && response.status === 429) {
+    const email = readEmail(await copy.json().catch(() => null));
+    const known = email ? await findUserByEmail(email).catch(() => null) : null;
+    await recordAuditEvent({
+      action: "auth.sign-in.failed",
+      actorId: known?.id ?? null,
+      actorEmail: email,
+      subject: known ? `user:${known.id}` : null,
+      details: { reason: "RATE_LIMITED", knownUser: Boolean(known) },
+      ipAddress: getIP(request, auth.options),
+    }).catch((error) => console.error("[gusset] could not write the auth audit event:", error));
+  }
+  return response;
+}

@@ -1,0 +1,61 @@
+import "server-only";
+// Who is asking, for pages, server actions and route handlers. The only module that reads the
+// request's headers; everything below it takes the actor as an argument.
+import { headers } from "next/headers";
+import { forbidden, redirect } from "next/navigation";
+import { acceptInvitation } from "@/lib/data/invitations";
+import type { Actor } from "./actor";
+import { can, type Action } from "./permissions";
+import { isRole } from "./roles";
+import { auth } from "./server";
+
+export type { Actor } from "./actor";
+
+/** The signed-in person for these request headers, or null (no session, expired, or deactivated). */
+export async function getActorFromHeaders(requestHeaders: Headers): Promise<Actor | null> {
+  const current = await auth.api.getSession({ headers: requestHeaders });
+  if (!current) return null;
+  const { id, name, email, role, deactivatedAt } = current.user;
+  // Sessions are deleted on deactivation; this is the second lock in case one slipped through.
+  if (deactivatedAt || !isRole(role)) return null;
+  return { id, name, email, role };
+}
+
+export async function getActor(): Promise<Actor | null> {
+  return getActorFromHeaders(await headers());
+}
+
+/**
+ * For pages: an anonymous visitor is sent to sign in (and brought back afterwards); a signed-in person
+ * whose role lacks the action gets the 403 page (app/forbidden.tsx).
+ */
+export async function requirePageActor(action?: Action, options?: { next?: string }): Promise<Actor> {
+  const requestHeaders = await headers();
+  const actor = await getActorFromHeaders(requestHeaders);
+  if (!actor) redirect(`/sign-in?next=${encodeURIComponent(safePath(options?.next ?? currentPath(requestHeaders)))}`);
+  if (action && !can(actor.role, action)) forbidden();
+  return actor;
+}
+
+/**
+ * The path being viewed, for the sign-in page's ?next=. Next does not hand a page its own URL: a
+ * proxy.ts may set x-gusset-path; client-side navigations carry next-url; otherwise home.
+ */
+function currentPath(requestHeaders: Headers): string {
+  return requestHeaders.get("x-gusset-path") ?? requestHeaders.get("next-url") ?? "/home";
+}
+
+/** Only same-site paths, so ?next= cannot send someone to another site after signing in. */
+export function safePath(candidate: string | null | undefined, fallback = "/home"): string {
+  if (!candidate || !candidate.startsWith("/") || candidate.startsWith("//") || candidate.startsWith("/\\")) return fallback;
+  return candidate;
+}
+
+/**
+ * For the invitation page's server action: accept, then sign in with this request's headers so the
+ * session cookie is set on the response (nextCookies). Throws AppError with a clear message for an
+ * unknown, expired, used or withdrawn link.
+ */
+export async function acceptInvitationAndSignIn(input: { token: string; password: string }): Promise<{ userId: string; email: string }> {
+  return acceptInvitation({ ...input, signIn: { headers: new Headers(await headers()) } });
+}

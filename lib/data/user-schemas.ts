@@ -1,0 +1,23 @@
+// One schema per people-management use case, shared by the admin forms and the server actions.
+import { z } from "zod";
+import { ROLES } from "@/lib/auth/roles";
+import { emailField } from "./auth-schemas";
+
+const roleField = z.enum(ROLES, { error: "Choose a role." });
+const userIdField = z.string().trim().min(1, "Choose a person.");
+
+export const inviteUserSchema = z.object({
+  email: emailField,
+  name: z.string().trim().min(1, "Enter the person's name.").max(120, "Use at most 120 characters."),
+  role: roleField,
+});
+export type InviteUserInput = z.infer<typeof inviteUserSchema>;
+
+export const setUserRoleSchema = z.object({ userId: userIdField, role: roleField });
+export type SetUserRoleInput = z.infer<typeof setUserRoleSchema>;
+
+export const deactivateUserSchema = z.object({ userId: userIdField });
+export type DeactivateUserInput = z.infer<typeof deactivateUserSchema>;
+
+export const reactivateUserSchema = z.object({ userId: userIdField });
+export type ReactivateUserInput = z.infer<typeof reactivateUserSchema>;

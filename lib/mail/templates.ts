@@ -1,0 +1,54 @@
+// The e-mails Gusset sends. Plain wording, the link on its own line, no tracking, nothing to install.
+import { ROLE_LABELS, type Role } from "@/lib/auth/roles";
+import type { OutgoingMail } from "./send-mail";
+
+function escapeHtml(value: string): string {
+  return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+}
+
+function layout(paragraphs: string[], link: { url: string; label: string }): string {
+  const body = paragraphs.map((p) => `<p style="margin:0 0 16px">${escapeHtml(p)}</p>`).join("");
+  return `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1f2933;max-width:560px;margin:24px auto;line-height:1.5">
+<p style="font-weight:700;font-size:18px;margin:0 0 24px">Gusset</p>${body}
+<p style="margin:24px 0"><a href="${escapeHtml(link.url)}" style="background:#1d4e89;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(link.label)}</a></p>
+<p style="margin:0 0 16px;font-size:13px;color:#52606d">Or paste this link into your browser:<br>${escapeHtml(link.url)}</p>
+<p style="font-size:13px;color:#52606d">Gusset — your firm's library of calculation standards.</p></body></html>`;
+}
+
+export function renderInvitationMail(args: {
+  to: string;
+  name: string;
+  role: Role;
+  invitedByName: string;
+  firmName: string;
+  url: string;
+  expiresAt: Date;
+}): OutgoingMail {
+  const expires = args.expiresAt.toISOString().slice(0, 10);
+  const paragraphs = [
+    `Hello ${args.name},`,
+    `${args.invitedByName} has invited you to ${args.firmName} on Gusset as ${ROLE_LABELS[args.role]}.`,
+    `Open the link below to choose your password and sign in. The link works once and expires on ${expires}.`,
+    `If you did not expect this invitation, you can ignore this e-mail.`,
+  ];
+  return {
+    to: args.to,
+    subject: `You're invited to ${args.firmName} on Gusset`,
+    text: `${paragraphs.join("\n\n")}\n\n${args.url}\n\n— Gusset`,
+    html: layout(paragraphs, { url: args.url, label: "Accept the invitation" }),
+  };
+}
+
+export function renderPasswordResetMail(args: { to: string; name: string; url: string }): OutgoingMail {
+  const paragraphs = [
+    `Hello ${args.name},`,
+    `Someone asked to reset the password of your Gusset account. Open the link below to choose a new one. The link works once and expires in one hour.`,
+    `Resetting signs you out everywhere. If you did not ask for this, ignore this e-mail: your password stays as it is.`,
+  ];
+  return {
+    to: args.to,
+    subject: "Reset your Gusset password",
+    text: `${paragraphs.join("\n\n")}\n\n${args.url}\n\n— Gusset`,
+    html: layout(paragraphs, { url: args.url, label: "Choose a new password" }),
+  };
+}

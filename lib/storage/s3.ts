@@ -1,0 +1,87 @@
+import "server-only";
+// Object storage for attachments (S3-compatible: the fake s3rver of `npm start`, or the firm's S3).
+// Both checksum settings are needed: without them a streamed upload can be stored with extra bytes
+// and no error (stack.md).
+import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
+import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
+
+type StorageConfig = { client: S3Client; bucket: string };
+
+let cached: { key: string; config: StorageConfig } | null = null;
+
+function requireEnv(name: string): string {
+  const value = process.env[name];
+  if (!value) throw new Error(`${name} is not set (npm start and npm test set it).`);
+  return value;
+}
+
+/** Read from the environment when first used, so a script or test may set S3_* before. */
+export function getStorage(): StorageConfig {
+  const endpoint = requireEnv("S3_ENDPOINT");
+  const bucket = requireEnv("S3_BUCKET");
+  const key = `${endpoint}|${bucket}`;
+  if (cached?.key !== key) {
+    const client = new S3Client({
+      endpoint,
+      region: process.env.S3_REGION ?? "us-east-1",
+      forcePathStyle: true,
+      credentials: { accessKeyId: requireEnv("S3_ACCESS_KEY_ID"), secretAccessKey: requireEnv("S3_SECRET_ACCESS_KEY") },
+      requestChecksumCalculation: "WHEN_REQUIRED",
+      responseChecksumValidation: "WHEN_REQUIRED",
+    });
+    cached = { key, config: { client, bucket } };
+  }
+  return cached.config;
+}
+
+export async function putObject({
+  key,
+  body,
+  contentType = "application/octet-stream",
+}: {
+  key: string;
+  body: Uint8Array | string;
+  contentType?: string;
+}): Promise<{ key: string; etag: string | null }> {
+  const { client, bucket } = getStorage();
+  const result = await client.send(new PutObjectCommand({ Bucket: bucket, Key: key, Body: body, ContentType: contentType }));
+  return { key, etag: result.ETag ?? null };
+}
+
+/** The whole object in memory (attachments are small); null when there is no such key. */
+export async function getObject({ key }: { key: string }): Promise<{ body: Uint8Array; contentType: string | null } | null> {
+  const { client, bucket } = getStorage();
+  try {
+    const result = await client.send(new GetObjectCommand({ Bucket: bucket, Key: key }));
+    if (!result.Body) return null;
+    return { body: await result.Body.transformToByteArray(), contentType: result.ContentType ?? null };
+  } catch (error) {
+    if ((error as { name?: string }).name === "NoSuchKey") return null;
+    throw error;
+  }
+}
+
+export async function deleteObject({ key }: { key: string }): Promise<void> {
+  const { client, bucket } = getStorage();
+  await client.send(new DeleteObjectCommand({ Bucket: bucket, Key: key }));
+}
+
+/** A time-limited URL a browser can GET (download) or PUT (upload) without our credentials. */
+export async function presignUrl({
+  key,
+  method,
+  expiresInSeconds = 300,
+  contentType,
+}: {
+  key: string;
+  method: "GET" | "PUT";
+  expiresInSeconds?: number;
+  contentType?: string;
+}): Promise<string> {
+  const { client, bucket } = getStorage();
+  const command =
+    method === "GET"
+      ? new GetObjectCommand({ Bucket: bucket, Key: key })
+      : new PutObjectCommand({ Bucket: bucket, Key: key, ContentType: contentType });
+  return getSignedUrl(client, command, { expiresIn: expiresInSeconds });
+}

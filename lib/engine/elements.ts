@@ -33,27 +33,20 @@ export function memberFrame(xi: number, yi: number, xj: number, yj: number): Mem
 }
 
 export function frameLocalStiffness(E: number, A: number, I: number, L: number): Float64Array {
-  const k = new Float64Array(36);
   const a = (E * A) / L;
   const b = (E * I) / (L * L * L);
-  const set = (r: number, c: number, v: number) => {
-    k[r * 6 + c] = v;
-    k[c * 6 + r] = v;
-  };
-  set(0, 0, a);
-  set(0, 3, -a);
-  set(3, 3, a);
-  set(1, 1, 12 * b);
-  set(1, 2, 6 * L * b);
-  set(1, 4, -12 * b);
-  set(1, 5, 6 * L * b);
-  set(2, 2, 4 * L * L * b);
-  set(2, 4, -6 * L * b);
-  set(2, 5, 2 * L * L * b);
-  set(4, 4, 12 * b);
-  set(4, 5, -6 * L * b);
-  set(5, 5, 4 * L * L * b);
-  return k;
+  const b6 = 6 * L * b;
+  const b4 = 4 * L * L * b;
+  const b2 = 2 * L * L * b;
+  // prettier-ignore
+  return Float64Array.of(
+     a,      0,       0,  -a,       0,       0,
+     0, 12 * b,      b6,   0, -12 * b,      b6,
+     0,     b6,      b4,   0,     -b6,      b2,
+    -a,      0,       0,   a,       0,       0,
+     0, -12 * b,    -b6,   0,  12 * b,     -b6,
+     0,     b6,      b2,   0,     -b6,      b4,
+  );
 }
 
 /** The released local DOFs of a member (subset of THETA_I, THETA_J). */
@@ -141,10 +134,12 @@ export function toGlobal(v: ArrayLike<number>, c: number, s: number, out = new F
   return out;
 }
 
+const SCRATCH = new Float64Array(36);
+
 /** K = Tᵀ k T, with T block-diagonal of the 3×3 node rotation. */
 export function toGlobalStiffness(k: Float64Array, c: number, s: number, out = new Float64Array(36)): Float64Array {
   // R (3×3 per node block) applied as: (k T) then Tᵀ (k T); exploit that T only mixes the first two of each three.
-  const kt = new Float64Array(36);
+  const kt = SCRATCH;
   for (let i = 0; i < 6; i++) {
     for (let n = 0; n < 6; n += 3) {
       const a = k[i * 6 + n];

@@ -10,6 +10,7 @@ import { memberFrame } from "./elements";
 /** Relative length below which a member counts as zero-length. */
 const ZERO_LENGTH_TOLERANCE = 1e-12;
 
+/** Walks the raw input once; the path array is reused (push/pop) so large models cost no allocation. */
 function findNonFinite(value: unknown, path: PropertyKey[], out: EngineError[]): void {
   if (typeof value === "number") {
     if (!Number.isFinite(value)) {
@@ -17,9 +18,21 @@ function findNonFinite(value: unknown, path: PropertyKey[], out: EngineError[]):
       out.push({ kind: "non-finite", path: where, message: `${where} is ${String(value)}; every number must be finite` });
     }
   } else if (Array.isArray(value)) {
-    value.forEach((v, i) => findNonFinite(v, [...path, i], out));
+    for (let i = 0; i < value.length; i++) {
+      const v = value[i];
+      if (v === null || (typeof v !== "number" && typeof v !== "object")) continue;
+      path.push(i);
+      findNonFinite(v, path, out);
+      path.pop();
+    }
   } else if (value !== null && typeof value === "object") {
-    for (const [k, v] of Object.entries(value)) findNonFinite(v, [...path, k], out);
+    for (const k in value) {
+      const v = (value as Record<string, unknown>)[k];
+      if (v === null || (typeof v !== "number" && typeof v !== "object")) continue;
+      path.push(k);
+      findNonFinite(v, path, out);
+      path.pop();
+    }
   }
 }
 

@@ -4,13 +4,12 @@
 // Plain Node: it runs before `npm ci` on a fresh machine.
 import { authSecret, childEnv, gussetEnv, writeEnvLocal } from "./lib/env.mjs";
 import { ensureBuild } from "./lib/build.mjs";
-import { demoSignIns, migrate, printSignIns, seed } from "./lib/database.mjs";
-import { ensureFakeS3, ensureFakeSmtp } from "./lib/fakes.mjs";
+import { demoSignIns, printSignIns } from "./lib/database.mjs";
 import { POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
 import { createLifecycle, profileSetup } from "./lib/lifecycle.mjs";
-import { createDatabaseIfMissing, ensurePostgres } from "./lib/postgres.mjs";
 import { say } from "./lib/processes.mjs";
 import { checkServerPort, startServer } from "./lib/server.mjs";
+import { prepareServices } from "./lib/services.mjs";
 
 const { timer, registry, shutdown, main, isShuttingDown } = createLifecycle();
 
@@ -19,7 +18,6 @@ await main(async () => {
   await timer.phase("system packages", () => ensureDebianPackages([POSTGRES_PACKAGE]));
 
   const setup = profileSetup("start");
-  const { ports, layout, database } = setup;
   const { secret, created } = authSecret();
   const env = gussetEnv("start", { secret });
   writeEnvLocal(env);
@@ -27,28 +25,21 @@ await main(async () => {
   const processEnv = childEnv(env);
   const url = env.BETTER_AUTH_URL;
 
-  const running = await checkServerPort(layout, ports.app);
+  const running = await checkServerPort(setup.layout, setup.ports.app);
   if (running !== null) {
     say(`Gusset is already served at ${url} (pid ${running}, started by another \`npm start\`): nothing to do`);
-    printSignIns(demoSignIns(processEnv));
+    printSignIns(await demoSignIns(processEnv));
     process.exit(0);
   }
 
-  await timer.phase("postgres", async () => {
-    const postgres = await ensurePostgres({ layout, port: ports.postgres });
-    if (postgres.started) registry.add("PostgreSQL", postgres.stop);
-    createDatabaseIfMissing(ports.postgres, database);
-  });
-  await timer.phase("migrate", () => migrate(processEnv));
-  await timer.phase("seed", () => seed(processEnv));
-  await timer.phase("fakes", async () => {
-    await ensureFakeSmtp({ ports, layout, profile: "start", registry });
-    await ensureFakeS3({ ports, layout, profile: "start", registry, bucket: env.S3_BUCKET });
-  });
-  await timer.phase("build", () => ensureBuild({ env: processEnv, layout }));
-  const server = await timer.phase("server", () => startServer({ env: processEnv, layout, port: ports.app, profile: "start", registry }));
+  await prepareServices({ setup, env: processEnv, registry, timer, fresh: false });
+  const signIns = demoSignIns(processEnv); // read while the build runs
+  await timer.phase("build", () => ensureBuild({ env: processEnv, layout: setup.layout }));
+  const server = await timer.phase("server", () =>
+    startServer({ env: processEnv, layout: setup.layout, port: setup.ports.app, profile: "start", registry }),
+  );
 
-  printSignIns(demoSignIns(processEnv));
+  printSignIns(await signIns);
   say(timer.summary());
   console.log(`\n  Gusset is running at ${url}`);
   console.log(`  Captured e-mails: ${env.FAKE_MAIL_API_URL}/messages (and the admin mailbox page)`);

@@ -8,15 +8,13 @@ import { spawn } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { authSecret, childEnv, gussetEnv, repoRoot } from "./lib/env.mjs";
-import { ensureBuild } from "./lib/build.mjs";
-import { migrate, seed } from "./lib/database.mjs";
-import { ensureFakeS3, ensureFakeSmtp } from "./lib/fakes.mjs";
+import { authSecret, childEnv, gussetEnv, portsFor, repoRoot } from "./lib/env.mjs";
+import { buildStaleness, ensureBuild } from "./lib/build.mjs";
 import { CHROMIUM_PACKAGE, POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
 import { createLifecycle, profileSetup } from "./lib/lifecycle.mjs";
-import { ensurePostgres, recreateDatabase } from "./lib/postgres.mjs";
 import { say } from "./lib/processes.mjs";
-import { checkServerPort, startServer, stopServerByPid } from "./lib/server.mjs";
+import { checkServerPort, runningServerPid, startServer, stopServerByPid } from "./lib/server.mjs";
+import { prepareServices } from "./lib/services.mjs";
 
 const vitestArgs = process.argv.slice(2);
 const { timer, registry, shutdown, main } = createLifecycle({ signalExitCode: 130 });
@@ -35,29 +33,23 @@ function onlyUnitTests(args) {
   return paths.length > 0 && paths.every((p) => /^(\.\/)?tests\/(unit|engine)(\/|$)/.test(p));
 }
 
-async function prepareServices(env) {
-  const { ports, layout, database } = profileSetup("test");
+async function prepareEverything(env) {
+  const setup = profileSetup("test");
+  const { ports, layout } = setup;
   await timer.phase("system packages", () => ensureDebianPackages([POSTGRES_PACKAGE, CHROMIUM_PACKAGE]));
-  await timer.phase("postgres", async () => {
-    const postgres = await ensurePostgres({ layout, port: ports.postgres, fast: true });
-    if (postgres.started) registry.add("PostgreSQL", postgres.stop);
-    recreateDatabase(ports.postgres, database);
-  });
-  await timer.phase("migrate", () => migrate(env));
-  await timer.phase("seed", () => seed(env));
-  await timer.phase("fakes", async () => {
-    await ensureFakeSmtp({ ports, layout, profile: "test", registry });
-    await ensureFakeS3({ ports, layout, profile: "test", registry, bucket: env.S3_BUCKET });
-  });
-  await timer.phase("build", () => ensureBuild({ env, layout }));
-  await timer.phase("server", async () => {
-    const stale = await checkServerPort(layout, ports.app);
-    if (stale !== null) {
-      say(`stopping a test server left by an earlier run (pid ${stale})`);
-      await stopServerByPid(stale);
+  const stale = await checkServerPort(layout, ports.app); // fail early when a stranger holds the port
+  if (stale !== null) {
+    say(`stopping a test server left by an earlier run (pid ${stale})`);
+    await stopServerByPid(stale);
+  }
+  await prepareServices({ setup, env, registry, timer, fresh: true });
+  await timer.phase("build", () => {
+    if (buildStaleness() !== null && runningServerPid(layout, portsFor("start").app) !== null) {
+      say("warning: rebuilding .next while `npm start` serves from it; restart `npm start` afterwards");
     }
-    await startServer({ env, layout, port: ports.app, profile: "test", registry });
+    return ensureBuild({ env, layout });
   });
+  await timer.phase("server", () => startServer({ env, layout, port: ports.app, profile: "test", registry }));
 }
 
 /** Runs vitest; resolves its exit code. Adds a JSON report so we can print one closing count line. */
@@ -86,7 +78,7 @@ await main(async () => {
   await timer.phase("npm dependencies", ensureNodeModules);
   const env = childEnv(gussetEnv("test", { secret: authSecret().secret }));
   if (onlyUnitTests(vitestArgs)) say("only unit tests asked for: no database, fakes or server started");
-  else await prepareServices(env);
+  else await prepareEverything(env);
 
   const reportFile = path.join(os.tmpdir(), `gusset-vitest-${process.pid}.json`);
   const code = await timer.phase("vitest", () => runVitest(env, reportFile));

@@ -27,16 +27,23 @@ function realpathOrSelf(p) {
   }
 }
 
+function readPostmasterPid(dataDir) {
+  try {
+    return Number.parseInt(fs.readFileSync(path.join(dataDir, "postmaster.pid"), "utf8").split("\n")[0], 10);
+  } catch {
+    return null;
+  }
+}
+
 /** A postmaster.pid whose process is gone, a zombie or another program blocks a start: remove it. */
 function removeStalePidFile(dataDir) {
-  const pidFile = path.join(dataDir, "postmaster.pid");
-  if (!fs.existsSync(pidFile)) return;
-  const pid = Number.parseInt(fs.readFileSync(pidFile, "utf8").split("\n")[0], 10);
+  const pid = readPostmasterPid(dataDir);
+  if (pid === null) return;
   if (pidAlive(pid) && /postgres|postmaster/.test(commandLineOf(pid))) {
     throw new SetupError(`PostgreSQL (pid ${pid}) runs on ${dataDir} but does not answer on its port; stop it or wait`);
   }
   say(`removing stale postmaster.pid (pid ${pid} is gone)`);
-  fs.rmSync(pidFile, { force: true });
+  fs.rmSync(path.join(dataDir, "postmaster.pid"), { force: true });
 }
 
 function initCluster(layout) {
@@ -84,7 +91,12 @@ export async function ensurePostgres({ layout, port, fast = false }) {
   return {
     started: true,
     stop: async () => {
-      const [stopCmd, stopArgs] = asClusterOwner(`${PG_BIN}/pg_ctl`, ["-D", layout.pgData, "-m", "fast", "-w", "stop"]);
+      const pid = readPostmasterPid(layout.pgData);
+      if (pid !== null && !pidAlive(pid)) {
+        fs.rmSync(path.join(layout.pgData, "postmaster.pid"), { force: true }); // died already: pg_ctl would wait on it
+        return;
+      }
+      const [stopCmd, stopArgs] = asClusterOwner(`${PG_BIN}/pg_ctl`, ["-D", layout.pgData, "-m", "fast", "-w", "-t", "30", "stop"]);
       run(stopCmd, stopArgs, { quiet: true });
     },
   };

@@ -30,14 +30,26 @@ export function run(command, args, { env, cwd, quiet = false, allowFailure = fal
   return { status: result.status, stdout: result.stdout ?? "", stderr: result.stderr ?? "" };
 }
 
-/** Like run() but without blocking the event loop, so signal handlers keep working during long steps. */
-export function runAsync(command, args, { env, cwd } = {}) {
+/**
+ * Like run() but without blocking the event loop, so signal handlers keep working during long steps and
+ * independent steps can overlap. Resolves { status, stdout, stderr } (output captured only when quiet).
+ */
+export function runAsync(command, args, { env, cwd, quiet = false, allowFailure = false } = {}) {
   return new Promise((resolve, reject) => {
-    const child = spawn(command, args, { cwd, env: env ?? process.env, stdio: ["ignore", "inherit", "inherit"] });
+    const child = spawn(command, args, {
+      cwd,
+      env: env ?? process.env,
+      stdio: quiet ? ["ignore", "pipe", "pipe"] : ["ignore", "inherit", "inherit"],
+    });
+    let stdout = "";
+    let stderr = "";
+    child.stdout?.on("data", (chunk) => (stdout += chunk));
+    child.stderr?.on("data", (chunk) => (stderr += chunk));
     child.on("error", (error) => reject(new SetupError(`${command} could not run: ${error.message}`)));
-    child.on("exit", (code, signal) => {
-      if (code === 0) resolve();
-      else reject(new SetupError(`${command} ${args.join(" ")} failed (exit ${code ?? signal})`));
+    child.on("close", (code, signal) => {
+      if (code === 0 || allowFailure) return resolve({ status: code, stdout, stderr });
+      const output = quiet ? `\n${stdout}${stderr}`.trimEnd() : "";
+      reject(new SetupError(`${command} ${args.join(" ")} failed (exit ${code ?? signal})${output}`));
     });
   });
 }

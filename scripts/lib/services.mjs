@@ -1,0 +1,31 @@
+// The services both commands need before the app: PostgreSQL with a migrated, seeded database, and the
+// fake SMTP and S3. The database chain and the fakes start side by side.
+import { migrate, seed } from "./database.mjs";
+import { ensureFakeS3, ensureFakeSmtp } from "./fakes.mjs";
+import { createDatabaseIfMissing, ensurePostgres, recreateDatabase } from "./postgres.mjs";
+
+/**
+ * `fresh` (npm test): drop and recreate the database, and start PostgreSQL without fsync when this run
+ * is the one starting it.
+ */
+export async function prepareServices({ setup, env, registry, timer, fresh }) {
+  const { ports, layout, database, profile } = setup;
+  const databaseChain = async () => {
+    await timer.phase("postgres", async () => {
+      const postgres = await ensurePostgres({ layout, port: ports.postgres, fast: fresh });
+      if (postgres.started) registry.add("PostgreSQL", postgres.stop);
+      if (fresh) recreateDatabase(ports.postgres, database);
+      else createDatabaseIfMissing(ports.postgres, database);
+    });
+    await timer.phase("migrate", () => migrate(env));
+    await timer.phase("seed", () => seed(env));
+  };
+  const fakes = () =>
+    timer.phase("fakes", () =>
+      Promise.all([
+        ensureFakeSmtp({ ports, layout, profile, registry }),
+        ensureFakeS3({ ports, layout, profile, registry, bucket: env.S3_BUCKET }),
+      ]),
+    );
+  await Promise.all([databaseChain(), fakes()]);
+}

@@ -1,0 +1,145 @@
+// Managing people: roles, deactivation (which ends open sessions and blocks sign-in), reactivation,
+// and the rule that the firm always keeps one active admin.
+import { and, eq, isNull, ne } from "drizzle-orm";
+import { describe, expect, it } from "vitest";
+import * as schema from "@/db/schema";
+import type { Actor } from "@/lib/auth/actor";
+import { ACCOUNT_DEACTIVATED_MESSAGE, auth, handleAuthRequest } from "@/lib/auth/server";
+import { getActorFromHeaders } from "@/lib/auth/session";
+import { runInTransaction } from "@/lib/data/transaction";
+import { deactivateUser, listUsers, reactivateUser, setUserRole } from "@/lib/data/users";
+import { auditEventsFor, createTestUser, sessionCount, signInHeaders } from "./helpers/people";
+
+const BASE = (process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000").replace(/\/+$/, "");
+
+class Rollback extends Error {}
+
+/** Runs `work` in a transaction that is always rolled back, so a test can shape the whole user table. */
+async function withRollback(work: (tx: Parameters<Parameters<typeof runInTransaction>[0]>[0]) => Promise<void>) {
+  await expect(
+    runInTransaction(async (tx) => {
+      await work(tx);
+      throw new Rollback();
+    }),
+  ).rejects.toBeInstanceOf(Rollback);
+}
+
+describe("deactivation", () => {
+  it("ends an open session at once and blocks the next sign-in with a clear message", async () => {
+    const { actor: admin } = await createTestUser({ role: "admin" });
+    const { actor, password } = await createTestUser({ role: "engineer" });
+    const headers = await signInHeaders(actor.email, password);
+    expect(await getActorFromHeaders(headers)).toEqual(actor);
+
+    const result = await deactivateUser({ actor: admin, userId: actor.id });
+    expect(result).toMatchObject({ id: actor.id, status: "deactivated" });
+    expect(await sessionCount(actor.id)).toBe(0);
+    expect(await getActorFromHeaders(headers)).toBeNull();
+    expect(await auth.api.getSession({ headers })).toBeNull();
+
+    await expect(auth.api.signInEmail({ body: { email: actor.email, password } })).rejects.toMatchObject({
+      body: { code: "ACCOUNT_DEACTIVATED", message: ACCOUNT_DEACTIVATED_MESSAGE },
+    });
+    expect(await sessionCount(actor.id)).toBe(0);
+    const failed = await auditEventsFor({ action: "auth.sign-in.failed", actorEmail: actor.email });
+    expect(failed.map((e) => e.details.reason)).toEqual(["ACCOUNT_DEACTIVATED"]);
+    expect(await auditEventsFor({ action: "users.deactivate", subject: `user:${actor.id}` })).toHaveLength(1);
+
+    // Through the HTTP endpoint the browser uses, too.
+    const response = await handleAuthRequest(
+      new Request(`${BASE}/api/auth/sign-in/email`, {
+        method: "POST",
+        headers: { "content-type": "application/json", origin: BASE, "x-forwarded-for": "203.0.113.77" },
+        body: JSON.stringify({ email: actor.email, password }),
+      }),
+    );
+    expect(response.status).toBe(403);
+    expect((await response.json()).message).toBe(ACCOUNT_DEACTIVATED_MESSAGE);
+  });
+
+  it("a session whose user is marked deactivated reads as signed out even if the row survived", async () => {
+    const { actor, password } = await createTestUser({ role: "lead" });
+    const headers = await signInHeaders(actor.email, password);
+    await runInTransaction(async (tx) => {
+      await tx.update(schema.user).set({ deactivatedAt: new Date() }).where(eq(schema.user.id, actor.id));
+    });
+    expect(await sessionCount(actor.id)).toBe(1);
+    expect(await getActorFromHeaders(headers)).toBeNull();
+  });
+
+  it("reactivation lets the person sign in again", async () => {
+    const { actor: admin } = await createTestUser({ role: "admin" });
+    const { actor, password } = await createTestUser({ role: "auditor", deactivated: true });
+    await expect(reactivateUser({ actor: admin, userId: actor.id })).resolves.toMatchObject({ status: "active" });
+    expect((await auth.api.signInEmail({ body: { email: actor.email, password } })).user.id).toBe(actor.id);
+    await expect(reactivateUser({ actor: admin, userId: actor.id })).rejects.toMatchObject({ code: "conflict" });
+  });
+
+  it("only an admin may deactivate", async () => {
+    const { actor: target } = await createTestUser({ role: "engineer" });
+    for (const role of ["lead", "engineer", "auditor"] as const) {
+      const { actor } = await createTestUser({ role });
+      await expect(deactivateUser({ actor, userId: target.id })).rejects.toMatchObject({ code: "forbidden" });
+    }
+    expect(await sessionCount(target.id)).toBe(0);
+  });
+});
+
+describe("roles", () => {
+  it("an admin changes a role, and the change is audited with before and after", async () => {
+    const { actor: admin } = await createTestUser({ role: "admin" });
+    const { actor } = await createTestUser({ role: "engineer" });
+    await expect(setUserRole({ actor: admin, userId: actor.id, role: "lead" })).resolves.toMatchObject({ role: "lead" });
+    const [event] = await auditEventsFor({ action: "users.set-role", subject: `user:${actor.id}` });
+    expect(event).toMatchObject({ actorId: admin.id, details: { from: "engineer", to: "lead" } });
+  });
+
+  it("no one else may change a role", async () => {
+    const { actor: target } = await createTestUser({ role: "engineer" });
+    for (const role of ["lead", "engineer", "auditor"] as const) {
+      const { actor } = await createTestUser({ role });
+      await expect(setUserRole({ actor, userId: target.id, role: "admin" })).rejects.toMatchObject({ code: "forbidden" });
+    }
+    await expect(setUserRole({ actor: null, userId: target.id, role: "admin" })).rejects.toMatchObject({ code: "unauthenticated" });
+  });
+
+  it("answers an unknown person with not-found", async () => {
+    const { actor: admin } = await createTestUser({ role: "admin" });
+    await expect(setUserRole({ actor: admin, userId: "no-such-user", role: "lead" })).rejects.toMatchObject({ code: "not-found" });
+  });
+
+  it("lists people as small records without secrets", async () => {
+    const { actor: auditor } = await createTestUser({ role: "auditor" });
+    const people = await listUsers({ actor: auditor });
+    const me = people.find((p) => p.id === auditor.id);
+    expect(me && Object.keys(me).sort()).toEqual(["createdAt", "deactivatedAt", "email", "id", "name", "role", "status"]);
+    const { actor: engineer } = await createTestUser({ role: "engineer" });
+    await expect(listUsers({ actor: engineer })).rejects.toMatchObject({ code: "forbidden" });
+  });
+});
+
+describe("the last active admin", () => {
+  it("cannot be demoted or deactivated, not even by themselves; with a second admin they can", async () => {
+    const { actor: last } = await createTestUser({ role: "admin", label: "last-admin" });
+    const { actor: other } = await createTestUser({ role: "admin", label: "other-admin" });
+    await withRollback(async (tx) => {
+      // Inside this transaction only `last` is an active admin (rolled back afterwards).
+      await tx
+        .update(schema.user)
+        .set({ deactivatedAt: new Date() })
+        .where(and(eq(schema.user.role, "admin"), isNull(schema.user.deactivatedAt), ne(schema.user.id, last.id)));
+      const message = /last active admin/;
+      await expect(setUserRole({ actor: last, userId: last.id, role: "engineer" })).rejects.toMatchObject({ code: "conflict", message: expect.stringMatching(message) });
+      await expect(deactivateUser({ actor: last, userId: last.id })).rejects.toMatchObject({ code: "conflict", message: expect.stringMatching(message) });
+      const [still] = await tx.select().from(schema.user).where(eq(schema.user.id, last.id));
+      expect(still).toMatchObject({ role: "admin", deactivatedAt: null });
+
+      // A second active admin lifts the rule.
+      await tx.update(schema.user).set({ deactivatedAt: null }).where(eq(schema.user.id, other.id));
+      const asOther: Actor = other;
+      await expect(setUserRole({ actor: asOther, userId: last.id, role: "engineer" })).resolves.toMatchObject({ role: "engineer" });
+      // Now `other` is the last one.
+      await expect(deactivateUser({ actor: asOther, userId: other.id })).rejects.toMatchObject({ code: "conflict" });
+    });
+  });
+});

@@ -82,27 +82,27 @@ export function buildAdjacency(a: SymmetricCsc, blockSize = 1): AdjacencyGraph {
   return { n: nv, ptr, adj };
 }
 
-/** Upper triangle of C = P A Pᵀ in CSC (column k holds row k of the permuted lower triangle); rows unsorted. */
-export interface PermutedUpper {
+/** Pattern-plus-values of a square sparse matrix in CSC (rows not necessarily sorted). */
+export interface CscMatrix {
   n: number;
   colPtr: Int32Array;
   rowIdx: Int32Array;
   values: Float64Array;
 }
 
-/** C = P A Pᵀ where perm[k] is the original index placed k-th; pinv is its inverse. */
-export function permuteToUpper(a: SymmetricCsc, pinv: Int32Array): PermutedUpper {
+/** Lower triangle of C = P A Pᵀ where pinv[i] is the new position of original index i; rows unsorted. */
+export function permuteToLower(a: SymmetricCsc, pinv: Int32Array): CscMatrix {
   const { n, colPtr, rowIdx, values } = a;
-  const nnz = colPtr[n];
   const outPtr = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) {
     const pj = pinv[j];
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
       const pi = pinv[rowIdx[p]];
-      outPtr[(pi > pj ? pi : pj) + 1]++;
+      outPtr[(pi < pj ? pi : pj) + 1]++;
     }
   }
   for (let k = 0; k < n; k++) outPtr[k + 1] += outPtr[k];
+  const nnz = outPtr[n];
   const outRow = new Int32Array(nnz);
   const outVal = new Float64Array(nnz);
   const fill = outPtr.slice(0, n);
@@ -110,10 +110,25 @@ export function permuteToUpper(a: SymmetricCsc, pinv: Int32Array): PermutedUpper
     const pj = pinv[j];
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
       const pi = pinv[rowIdx[p]];
-      const dst = pi > pj ? fill[pi]++ : fill[pj]++;
-      outRow[dst] = pi > pj ? pj : pi;
+      const dst = pi < pj ? fill[pi]++ : fill[pj]++;
+      outRow[dst] = pi < pj ? pj : pi;
       outVal[dst] = values[p];
     }
   }
   return { n, colPtr: outPtr, rowIdx: outRow, values: outVal };
+}
+
+/** Pattern of the transpose (for a lower-triangular input: the upper triangle, i.e. the rows of L's pattern in A). */
+export function transposePattern(c: CscMatrix): { colPtr: Int32Array; rowIdx: Int32Array } {
+  const { n, colPtr, rowIdx } = c;
+  const nnz = colPtr[n];
+  const tPtr = new Int32Array(n + 1);
+  for (let p = 0; p < nnz; p++) tPtr[rowIdx[p] + 1]++;
+  for (let k = 0; k < n; k++) tPtr[k + 1] += tPtr[k];
+  const tIdx = new Int32Array(nnz);
+  const fill = tPtr.slice(0, n);
+  for (let j = 0; j < n; j++) {
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) tIdx[fill[rowIdx[p]]++] = j;
+  }
+  return { colPtr: tPtr, rowIdx: tIdx };
 }

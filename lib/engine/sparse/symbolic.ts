@@ -1,37 +1,46 @@
-import type { PermutedUpper } from "./csc";
+import { permuteToLower, transposePattern, type CscMatrix } from "./csc";
+import { computeEliminationTree, countColumns } from "./etree";
+import { invertPermutation } from "./ordering";
+import { buildSupernodes, type SupernodalStructure } from "./supernodes";
+import { postorderForest } from "./tree";
+import type { SymmetricCsc } from "./types";
 
-/** Elimination tree and column pointers of L for C = P A Pᵀ (upper storage). */
-export interface SymbolicFactor {
-  parent: Int32Array;
-  /** L's strictly-lower column k occupies colPtr[k] .. colPtr[k+1]-1. */
-  colPtr: Int32Array;
+export interface SymbolicAnalysis {
+  /** Final elimination order: the fill-reducing order, postordered by its elimination tree. */
+  perm: Int32Array;
+  /** Lower triangle of P A Pᵀ with the final order. */
+  permuted: CscMatrix;
+  structure: SupernodalStructure;
+  /** Structural nonzeros of L, diagonal included (relaxed supernodes store some explicit zeros on top). */
+  nnzL: number;
 }
 
-/**
- * Elimination tree and column counts in one pass: row k of L is the union of the tree paths
- * from each i (with c_ik ≠ 0, i < k) up towards k. O(nnz(L)); after ldl_symbolic
- * (T. A. Davis, "Algorithm 849: a concise sparse Cholesky factorization package", ACM TOMS 2005), from memory.
- */
-export function analyzeSymbolic(c: PermutedUpper): SymbolicFactor {
-  const { n, colPtr, rowIdx } = c;
-  const parent = new Int32Array(n);
-  const flag = new Int32Array(n);
-  const counts = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
-    parent[k] = -1;
-    flag[k] = k;
-    for (let p = colPtr[k]; p < colPtr[k + 1]; p++) {
-      let i = rowIdx[p];
-      if (i >= k) continue;
-      while (flag[i] !== k) {
-        if (parent[i] === -1) parent[i] = k;
-        counts[i]++;
-        flag[i] = k;
-        i = parent[i];
-      }
+/** Elimination tree, postorder (so supernodes are contiguous), column counts and supernodes. */
+export function analyzeSymbolic(a: SymmetricCsc, fillReducing: Int32Array): SymbolicAnalysis {
+  const n = a.n;
+  let perm = fillReducing;
+  let permuted = permuteToLower(a, invertPermutation(perm));
+  const upper = transposePattern(permuted);
+  let parent = computeEliminationTree(n, upper.colPtr, upper.rowIdx);
+  const post = postorderForest(parent);
+  let isIdentity = true;
+  for (let k = 0; k < n && isIdentity; k++) isIdentity = post[k] === k;
+  if (!isIdentity) {
+    // Relabel by the postorder; fill is unchanged, but descendants now precede ancestors contiguously.
+    const composed = new Int32Array(n);
+    for (let k = 0; k < n; k++) composed[k] = perm[post[k]];
+    perm = composed;
+    permuted = permuteToLower(a, invertPermutation(perm));
+    const postInv = invertPermutation(post);
+    const relabeled = new Int32Array(n);
+    for (let k = 0; k < n; k++) {
+      const p = parent[post[k]];
+      relabeled[k] = p === -1 ? -1 : postInv[p];
     }
+    parent = relabeled;
   }
-  const lp = new Int32Array(n + 1);
-  for (let k = 0; k < n; k++) lp[k + 1] = lp[k] + counts[k];
-  return { parent, colPtr: lp };
+  const colCount = countColumns(permuted, parent);
+  let nnzL = 0;
+  for (let j = 0; j < n; j++) nnzL += colCount[j];
+  return { perm, permuted, structure: buildSupernodes(permuted, parent, colCount), nnzL };
 }

@@ -21,7 +21,7 @@ export interface FactorStats {
   orderingMs: number;
   symbolicMs: number;
   numericMs: number;
-  /** Entries of L including its unit diagonal (the D of LDLᵀ stored alongside). */
+  /** Structural nonzeros of L, diagonal included. */
   nnzL: number;
   n: number;
 }

@@ -1,0 +1,125 @@
+import type { CscMatrix } from "./csc";
+import { subtractOuterProducts } from "./dense-kernels";
+import type { SupernodalStructure } from "./supernodes";
+
+/** Columns factorised together inside a front before the rest of the panel is updated with them. */
+const PANEL_BLOCK = 16;
+
+export type NumericOutcome =
+  | { ok: true; values: Float64Array }
+  | { ok: false; position: number; pivot: number };
+
+/** Stack of dense update (Schur complement) matrices waiting for their parent front. */
+class UpdateStack {
+  data = new Float64Array(1 << 16);
+  top = 0;
+  readonly owners: number[] = [];
+  readonly offsets: number[] = [];
+
+  push(owner: number, size: number): number {
+    if (this.top + size > this.data.length) {
+      const grown = new Float64Array(Math.max(2 * this.data.length, this.top + size));
+      grown.set(this.data.subarray(0, this.top));
+      this.data = grown;
+    }
+    const offset = this.top;
+    this.owners.push(owner);
+    this.offsets.push(offset);
+    this.top += size;
+    return offset;
+  }
+}
+
+/**
+ * Multifrontal Cholesky LLᵀ (Duff & Reid 1983; Liu 1992). Supernodes are visited in postorder, so a
+ * front's children left their update matrices on top of the stack. Each front is assembled from
+ * C and the children's updates (extend-add), its pivot columns are factorised densely, and the
+ * Schur complement is pushed for the parent. L is stored as one dense rows × columns block per supernode.
+ *
+ * The pivot of column k is tested before its square root: d ≤ tolerance · diag[k] (the original
+ * diagonal, in the permuted order) is reported as a singular position, and nothing further is computed.
+ */
+export function factorMultifrontal(
+  c: CscMatrix,
+  sn: SupernodalStructure,
+  diag: Float64Array,
+  tolerance: number,
+): NumericOutcome {
+  const { colPtr: cp, rowIdx: ci, values: cx } = c;
+  const { count, superStart, superParent, rowPtr, rows, valuePtr, maxRows } = sn;
+  const lx = new Float64Array(valuePtr[count]);
+  const front = new Float64Array(maxRows * maxRows);
+  const pos = new Int32Array(sn.n);
+  const childCount = new Int32Array(count);
+  for (let s = 0; s < count; s++) if (superParent[s] !== -1) childCount[superParent[s]]++;
+  const stack = new UpdateStack();
+
+  for (let s = 0; s < count; s++) {
+    const first = superStart[s];
+    const cols = superStart[s + 1] - first;
+    const r0 = rowPtr[s];
+    const m = rowPtr[s + 1] - r0;
+    for (let r = 0; r < m; r++) pos[rows[r0 + r]] = r;
+    // Zero the lower triangle in one JIT loop: a fill() call per column costs more in call overhead.
+    for (let j = 0; j < m; j++) for (let q = j * m + j; q < j * m + m; q++) front[q] = 0;
+
+    // Assemble C's columns of this supernode.
+    for (let j = 0; j < cols; j++) {
+      const col = j * m;
+      for (let p = cp[first + j]; p < cp[first + j + 1]; p++) front[col + pos[ci[p]]] += cx[p];
+    }
+    // Extend-add the children's update matrices (the top childCount[s] of the stack).
+    const nChildren = childCount[s];
+    const stackData = stack.data;
+    for (let q = stack.owners.length - nChildren; q < stack.owners.length; q++) {
+      const child = stack.owners[q];
+      const offset = stack.offsets[q];
+      const cr0 = rowPtr[child] + superStart[child + 1] - superStart[child];
+      const mu = rowPtr[child + 1] - cr0;
+      for (let b = 0; b < mu; b++) {
+        const col = pos[rows[cr0 + b]] * m;
+        const src = offset + b * mu;
+        for (let a = b; a < mu; a++) front[col + pos[rows[cr0 + a]]] += stackData[src + a];
+      }
+    }
+    if (nChildren > 0) {
+      stack.top = stack.offsets[stack.owners.length - nChildren];
+      stack.owners.length -= nChildren;
+      stack.offsets.length -= nChildren;
+    }
+
+    // Factorise the pivot columns, left-looking by blocks so most work runs in the two-column kernel.
+    for (let k0 = 0; k0 < cols; k0 += PANEL_BLOCK) {
+      const k1 = Math.min(cols, k0 + PANEL_BLOCK);
+      subtractOuterProducts(front, m, k0, k1, 0, k0);
+      for (let k = k0; k < k1; k++) {
+        subtractOuterProducts(front, m, k, k + 1, k0, k);
+        const kk = k * m + k;
+        const d = front[kk];
+        const akk = diag[first + k];
+        // Written as !(a > b) so that NaN pivots are rejected too.
+        if (!(akk > 0) || !(d > tolerance * akk)) return { ok: false, position: first + k, pivot: d };
+        const lkk = Math.sqrt(d);
+        front[kk] = lkk;
+        const inv = 1 / lkk;
+        for (let i = kk + 1; i < k * m + m; i++) front[i] *= inv;
+      }
+    }
+    lx.set(front.subarray(0, m * cols), valuePtr[s]);
+
+    // Schur complement for the parent.
+    const mu = m - cols;
+    if (mu > 0 && superParent[s] !== -1) {
+      subtractOuterProducts(front, m, cols, m, 0, cols);
+      const offset = stack.push(s, mu * mu);
+      const data = stack.data;
+      // Copy by loop: a subarray view per column would allocate in this hot path.
+      for (let b = 0; b < mu; b++) {
+        const src = (cols + b) * m + cols;
+        const dst = offset + b * mu;
+        for (let a = b; a < mu; a++) data[dst + a] = front[src + a];
+      }
+    }
+  }
+  return { ok: true, values: lx };
+}

@@ -25,7 +25,14 @@ import { combine, evaluate, extrema, fromGlobalPolynomial, integrate, zeroPiecew
 
 export const DIAGRAM_QUANTITIES = ["N", "V", "M", "deflection", "relativeDeflection", "axialDisplacement", "stressTop", "stressBottom"] as const;
 export type DiagramQuantity = (typeof DIAGRAM_QUANTITIES)[number];
-export type DiagramValues = Partial<Record<DiagramQuantity, number>>;
+/** Always present; the others need I (relative deflection) and cTop / cBottom (stresses). */
+type AlwaysPresent = "N" | "V" | "M" | "deflection" | "axialDisplacement";
+type PerQuantity<T> = Record<AlwaysPresent, T> & Partial<Record<Exclude<DiagramQuantity, AlwaysPresent>, T>>;
+export type DiagramValues = PerQuantity<number>;
+export interface MinMax {
+  readonly max: Extreme;
+  readonly min: Extreme;
+}
 
 export interface MemberDiagram {
   readonly memberId: string;
@@ -36,9 +43,9 @@ export interface MemberDiagram {
   /** Values at x (m from the start node); at a point load or couple, the value just beyond it. */
   valueAt(x: number, side?: "left" | "right"): DiagramValues;
   /** Max and min of each quantity over the member, with where they occur. */
-  readonly extremes: Readonly<Partial<Record<DiagramQuantity, { readonly max: Extreme; readonly min: Extreme }>>>;
+  readonly extremes: Readonly<PerQuantity<MinMax>>;
   /** Sampled positions (uniform points plus both sides of every load discontinuity) and values. */
-  readonly samples: { readonly x: ReadonlyArray<number> } & Readonly<Partial<Record<DiagramQuantity, ReadonlyArray<number>>>>;
+  readonly samples: { readonly x: ReadonlyArray<number> } & Readonly<PerQuantity<ReadonlyArray<number>>>;
 }
 
 /** The span loads of a result (a case, or the scaled union of a combination's cases). */
@@ -156,12 +163,13 @@ export function memberDiagram(result: AnalysisResult, memberId: string, caseOrCo
   const quantities = DIAGRAM_QUANTITIES.filter((q) => pieceByQuantity[q] !== undefined);
   const valueAt = (x: number, side: "left" | "right" = "right"): DiagramValues => {
     const xc = Math.min(Math.max(x, 0), L);
-    return Object.fromEntries(quantities.map((q) => [q, evaluate(pieceByQuantity[q]!, xc, side)]));
+    return Object.fromEntries(quantities.map((q) => [q, evaluate(pieceByQuantity[q]!, xc, side)])) as DiagramValues;
   };
-  const extremes = Object.fromEntries(quantities.map((q) => [q, extrema(pieceByQuantity[q]!)]));
+  const extremes = Object.fromEntries(quantities.map((q) => [q, extrema(pieceByQuantity[q]!)])) as PerQuantity<MinMax>;
   const xs = samplePositions(L, breaks, options.points ?? 21);
-  const samples: { x: number[] } & Partial<Record<DiagramQuantity, number[]>> = { x: xs.map((s) => s.x) };
-  for (const q of quantities) samples[q] = xs.map((s) => evaluate(pieceByQuantity[q]!, s.x, s.side));
+  const sampled: Partial<Record<DiagramQuantity, number[]>> = {};
+  for (const q of quantities) sampled[q] = xs.map((s) => evaluate(pieceByQuantity[q]!, s.x, s.side));
+  const samples = { x: xs.map((s) => s.x), ...sampled } as MemberDiagram["samples"];
   return Object.freeze({ memberId, resultId: caseOrCombo, length: L, quantities, valueAt, extremes, samples });
 }
 
@@ -172,4 +180,44 @@ export function samplePositions(L: number, breaks: Float64Array, points: number)
   for (let k = 1; k < breaks.length - 1; k++) out.push({ x: breaks[k], side: "left" }, { x: breaks[k], side: "right" });
   // Left before right at the same x, so a plotted step is vertical.
   return out.sort((a, b) => a.x - b.x || (a.side === "left" ? -1 : 1));
+}
+
+export interface MemberEnvelope {
+  readonly memberId: string;
+  /** The load cases / combinations enveloped. */
+  readonly of: ReadonlyArray<string>;
+  readonly x: ReadonlyArray<number>;
+  readonly max: Readonly<Partial<Record<DiagramQuantity, ReadonlyArray<number>>>>;
+  readonly min: Readonly<Partial<Record<DiagramQuantity, ReadonlyArray<number>>>>;
+  /** Exact extremes over all the results, with the result that produces each. */
+  readonly extremes: Readonly<Partial<Record<DiagramQuantity, { readonly max: Extreme & { readonly from: string }; readonly min: Extreme & { readonly from: string } }>>>;
+}
+
+/**
+ * Max and min of every diagram quantity along a member over several results, given by their ids or by the id
+ * of an envelope defined in the model.
+ */
+export function memberEnvelope(result: AnalysisResult, memberId: string, of: string | ReadonlyArray<string>, options: DiagramOptions = {}): MemberEnvelope {
+  const ids = typeof of === "string" ? (result.envelopes[of]?.of ?? [of]) : of;
+  const ctx = contextOf(result);
+  const built = ids.map((id) => buildDiagram(ctx, result, memberId, id));
+  const L = built[0].L;
+  const allBreaks = Float64Array.from(new Set(built.flatMap((b) => Array.from(b.breaks)))).sort();
+  const positions = samplePositions(L, allBreaks, options.points ?? 21);
+  const quantities = DIAGRAM_QUANTITIES.filter((q) => built.every((b) => b.pieceByQuantity[q] !== undefined));
+  const max: Partial<Record<DiagramQuantity, number[]>> = {};
+  const min: Partial<Record<DiagramQuantity, number[]>> = {};
+  const extremes: Partial<Record<DiagramQuantity, { max: Extreme & { from: string }; min: Extreme & { from: string } }>> = {};
+  for (const q of quantities) {
+    const values = built.map((b) => positions.map((p) => evaluate(b.pieceByQuantity[q]!, p.x, p.side)));
+    max[q] = positions.map((_, i) => Math.max(...values.map((v) => v[i])));
+    min[q] = positions.map((_, i) => Math.min(...values.map((v) => v[i])));
+    built.forEach((b, r) => {
+      const e = extrema(b.pieceByQuantity[q]!);
+      const cur = extremes[q];
+      if (!cur || e.max.value > cur.max.value) extremes[q] = { max: { ...e.max, from: ids[r] }, min: cur?.min ?? { ...e.min, from: ids[r] } };
+      if (e.min.value < extremes[q]!.min.value) extremes[q] = { ...extremes[q]!, min: { ...e.min, from: ids[r] } };
+    });
+  }
+  return Object.freeze({ memberId, of: ids, x: positions.map((p) => p.x), max, min, extremes });
 }

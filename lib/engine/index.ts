@@ -11,5 +11,5 @@ export type { EngineError, EngineWarning, ErrorKind } from "./diagnostics";
 export { DOF_NAMES, DOFS_PER_NODE, type DofName } from "./dofs";
 export * from "./model";
 export * from "./access";
-export { memberDiagram, DIAGRAM_QUANTITIES, type DiagramQuantity, type DiagramValues, type MemberDiagram, type DiagramOptions } from "./diagrams";
+export { memberDiagram, memberEnvelope, DIAGRAM_QUANTITIES, type DiagramQuantity, type DiagramValues, type MemberDiagram, type MemberEnvelope, type DiagramOptions } from "./diagrams";
 export type { Extreme } from "./piecewise";

@@ -67,3 +67,11 @@ export function seededRandom(seed: number): () => number {
     return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
   };
 }
+
+/** |actual − expected| ≤ tolerance, for checks whose natural scale is not the expected value itself. */
+export function expectNear(actual: number | undefined, expected: number, tolerance: number): void {
+  expect(actual).toBeDefined();
+  if (!(Math.abs((actual as number) - expected) <= tolerance)) {
+    throw new Error(`expected ${actual} to be within ${tolerance} of ${expected}`);
+  }
+}

@@ -74,7 +74,7 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HT
 );
 
 /** The e-mail input of the sign-in, password and invitation forms. */
-export const EmailField = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLInputElement> & { error?: string; label?: string }>(
+export const EmailField = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLInputElement> & { error?: string; label?: string; errorTestId?: string }>(
   function EmailField({ label = "E-mail", ...rest }, ref) {
     return (
       <TextField

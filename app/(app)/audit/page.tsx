@@ -3,6 +3,7 @@ import Link from "next/link";
 import { requirePageActor } from "@/lib/auth/session";
 import { listAuditEvents } from "@/lib/data/audit";
 import { PageHeader } from "@/components/ui/page-header";
+import { TableFrame } from "@/components/ui/table";
 import { EmptyState } from "@/components/ui/empty-state";
 import { formatDateTime } from "@/components/format-date";
 
@@ -27,33 +28,21 @@ export default async function AuditPage({ searchParams }: PageProps<"/audit">) {
           Events appear here as people sign in and admins manage accounts.
         </EmptyState>
       ) : (
-        <div className="overflow-x-auto rounded-plate bg-paper-raised shadow-sheet ring-1 ring-ink-200">
-          <table className="w-full text-left text-sm" data-testid="audit-table">
-            <thead className="border-b border-ink-200 bg-paper-sunk/60 text-xs font-semibold tracking-wide text-ink-500 uppercase">
-              <tr>
-                <th scope="col" className="px-4 py-2.5">When</th>
-                <th scope="col" className="px-4 py-2.5">Who</th>
-                <th scope="col" className="px-4 py-2.5">What</th>
-                <th scope="col" className="px-4 py-2.5">Subject</th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-ink-100">
-              {events.map((event) => (
-                <tr key={event.id} data-testid="audit-row" data-action={event.action}>
-                  <td className="px-4 py-2.5 whitespace-nowrap text-ink-500 tabular">{formatDateTime(event.occurredAt)}</td>
-                  <td className="px-4 py-2.5">
-                    <span className="text-ink-900">{event.actorName ?? event.actorEmail ?? "Unknown"}</span>
-                    {event.actorName && event.actorEmail ? (
-                      <span className="block text-xs text-ink-400">{event.actorEmail}</span>
-                    ) : null}
-                  </td>
-                  <td className="px-4 py-2.5 text-ink-900">{event.label}</td>
-                  <td className="px-4 py-2.5 font-mono text-xs text-ink-500">{event.subject ?? "—"}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <TableFrame testId="audit-table" headings={["When", "Who", "What", "Subject"]}>
+          {events.map((event) => (
+            <tr key={event.id} data-testid="audit-row" data-action={event.action}>
+              <td className="px-4 py-2.5 whitespace-nowrap text-ink-500 tabular">{formatDateTime(event.occurredAt)}</td>
+              <td className="px-4 py-2.5">
+                <span className="text-ink-900">{event.actorName ?? event.actorEmail ?? "System"}</span>
+                {event.actorName && event.actorEmail ? (
+                  <span className="block text-xs text-ink-400">{event.actorEmail}</span>
+                ) : null}
+              </td>
+              <td className="px-4 py-2.5 text-ink-900">{event.label}</td>
+              <td className="px-4 py-2.5 font-mono text-xs text-ink-500">{event.subject ?? "—"}</td>
+            </tr>
+          ))}
+        </TableFrame>
       )}
       <div className="mt-4 flex gap-4 text-sm">
         {before ? (

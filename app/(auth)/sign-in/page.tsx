@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
 import { redirect } from "next/navigation";
-import { getActor } from "@/lib/auth/session";
-import { safeNextPath } from "@/components/safe-next-path";
+import { getActor, safePath } from "@/lib/auth/session";
 import { SignInForm } from "./_components/sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
@@ -13,7 +12,7 @@ const NOTICES: Record<string, string> = {
 
 export default async function SignInPage({ searchParams }: PageProps<"/sign-in">) {
   const params = await searchParams;
-  const next = safeNextPath(params.next);
+  const next = safePath(typeof params.next === "string" && !params.next.startsWith("/sign-in") ? params.next : null);
   // Someone already signed in has nothing to do here.
   if (await getActor()) redirect(next);
   const noticeKey = typeof params.notice === "string" ? params.notice : undefined;

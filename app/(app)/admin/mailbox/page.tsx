@@ -1,0 +1,49 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { requirePageActor } from "@/lib/auth/session";
+import { listCapturedMail } from "@/lib/data/mailbox";
+import { PageHeader } from "@/components/ui/page-header";
+import { EmptyState } from "@/components/ui/empty-state";
+import { formatDateTime } from "@/components/format-date";
+import { LinkedText } from "./_components/linked-text";
+
+export const metadata: Metadata = { title: "Demo mailbox" };
+
+// Present only while `npm start` runs its fake SMTP server; with real mail this page does not exist.
+export default async function MailboxPage() {
+  const actor = await requirePageActor("mailbox.read");
+  const messages = await listCapturedMail({ actor });
+  if (messages === null) notFound();
+
+  return (
+    <>
+      <PageHeader
+        title="Demo mailbox"
+        lead="E-mails Gusset has sent while running as a demo. They never left this machine. Open an invitation or reset link here to try it as the person it was sent to — in a private window, so that you stay signed in here."
+      />
+      {messages.length === 0 ? (
+        <EmptyState title="No e-mails yet">Invite someone from the People page and the invitation appears here.</EmptyState>
+      ) : (
+        <ol className="space-y-3" data-testid="mailbox">
+          {messages.map((message, index) => (
+            <li key={message.id} data-testid="mail-item" data-to={message.to.join(",")}>
+              <details open={index === 0} className="group rounded-plate bg-paper-raised shadow-sheet ring-1 ring-ink-200">
+                <summary className="flex cursor-pointer list-none flex-wrap items-baseline justify-between gap-x-4 gap-y-1 px-4 py-3">
+                  <span className="font-medium text-ink-900" data-testid="mail-subject">
+                    {message.subject || "(no subject)"}
+                  </span>
+                  <span className="text-xs text-ink-500 tabular">
+                    to {message.to.join(", ") || "—"} · {message.date ? formatDateTime(message.date) : "date unknown"}
+                  </span>
+                </summary>
+                <div className="border-t border-ink-100 px-4 py-4">
+                  <LinkedText text={message.text || "(this e-mail has no plain-text part)"} />
+                </div>
+              </details>
+            </li>
+          ))}
+        </ol>
+      )}
+    </>
+  );
+}

@@ -1,6 +1,7 @@
 // Invitation → e-mail (really received by the fake SMTP) → accept → sign in; and every way a link can
 // be wrong (unknown, expired, used, withdrawn), each with a clear message and nothing changed.
 import { eq } from "drizzle-orm";
+import { redirect } from "next/navigation";
 import { describe, expect, it, vi } from "vitest";
 import { db } from "@/db";
 import * as schema from "@/db/schema";
@@ -66,6 +67,19 @@ describe("invitations", () => {
     const { userId } = await acceptInvitation({ token, password: NEW_PASSWORD, signIn: { headers: new Headers() } });
     expect(await sessionCount(userId)).toBe(1);
     expect(await auditEventsFor({ action: "auth.sign-in", actorEmail: email })).toHaveLength(1);
+  });
+
+  it("as a server action that redirects: commits, signs in, then lets Next redirect", async () => {
+    const { email, token } = await inviteAndReadToken();
+    const action = guardedAction({ schema: acceptInvitationSchema, permission: "public" }, async ({ token: t, password }) => {
+      await acceptInvitation({ token: t, password, signIn: { headers: new Headers() } });
+      redirect("/home");
+    });
+    await expect(action(null, { token, password: NEW_PASSWORD, confirmPassword: NEW_PASSWORD })).rejects.toMatchObject({
+      digest: expect.stringContaining("NEXT_REDIRECT"),
+    });
+    const [created] = await db.select().from(schema.user).where(eq(schema.user.email, email));
+    expect(await sessionCount(created.id)).toBe(1);
   });
 
   it("refuses a used link with a clear message and changes nothing", async () => {

@@ -91,7 +91,7 @@ export function analyze(input: unknown): AnalysisOutcome {
     return {
       id: lc.id,
       kind: "load-case",
-      sources: [{ caseIndex: c, factor: 1 }],
+      sources: [{ caseIndex: c, caseId: lc.id, factor: 1 }],
       displacements: D,
       reactions,
       endForces,

@@ -19,7 +19,7 @@ export function combineCases(
   dofs: DofMap,
 ): CaseResult {
   const caseIndex = new Map(model.loadCases.map((c, i) => [c.id, i]));
-  const sources: LoadSource[] = Object.entries(combo.factors).map(([id, factor]) => ({ caseIndex: caseIndex.get(id)!, factor }));
+  const sources: LoadSource[] = Object.entries(combo.factors).map(([id, factor]) => ({ caseIndex: caseIndex.get(id)!, caseId: id, factor }));
   const factors = sources.map((s) => s.factor);
   const pick = <T>(f: (i: number) => T) => sources.map((s) => f(s.caseIndex));
   const first = cases[0];

@@ -90,6 +90,10 @@ export function condense(k: Float64Array, fef: Float64Array | null, r: number[])
     }
     if (fef && fc) fc[i] = fef[i] - r.reduce((sum, rq, q) => sum + w[q] * fef[rq], 0);
   }
+  if (r.length === 2) {
+    // Hinged at both ends, a member has no transverse stiffness; set exactly what rounding leaves near zero.
+    for (const i of [1, 4]) for (let j = 0; j < 6; j++) kc[i * 6 + j] = kc[j * 6 + i] = 0;
+  }
   return { k: kc, fef: fc };
 }
 

@@ -13,3 +13,4 @@ export * from "./model";
 export * from "./access";
 export { memberDiagram, memberEnvelope, DIAGRAM_QUANTITIES, type DiagramQuantity, type DiagramValues, type MemberDiagram, type MemberEnvelope, type DiagramOptions } from "./diagrams";
 export type { Extreme } from "./piecewise";
+export { resultToJson, type SerializeOptions } from "./serialize";

@@ -28,6 +28,7 @@ export interface EquilibriumResidual {
 
 export interface LoadSource {
   readonly caseIndex: number;
+  readonly caseId: string;
   readonly factor: number;
 }
 

@@ -24,9 +24,18 @@ async function withClient<T>(url: URL, work: (client: pg.Client) => Promise<T>):
 
 const admin = (sql: string) => withClient(serverUrl, (client) => client.query(sql));
 
+function runMigrate() {
+  const tsx = path.resolve("node_modules/.bin/tsx");
+  return spawnSync(tsx, ["scripts/migrate.ts"], { env: { ...process.env, DATABASE_URL: freshUrl.toString() }, encoding: "utf8" });
+}
+
+let firstRun: ReturnType<typeof runMigrate>;
+
+// Migrated once here, so each test below can run alone or in any order.
 beforeAll(async () => {
   await admin(`create database "${databaseName}"`);
-});
+  firstRun = runMigrate();
+}, 60_000);
 
 afterAll(async () => {
   await admin(`drop database if exists "${databaseName}" with (force)`);
@@ -34,12 +43,8 @@ afterAll(async () => {
 
 describe("migrations on an empty database", () => {
   it("apply cleanly with scripts/migrate.ts, and a second run applies nothing", () => {
-    const tsx = path.resolve("node_modules/.bin/tsx");
-    const run = () =>
-      spawnSync(tsx, ["scripts/migrate.ts"], { env: { ...process.env, DATABASE_URL: freshUrl.toString() }, encoding: "utf8" });
-    const first = run();
-    expect(first.status, first.stderr).toBe(0);
-    const second = run();
+    expect(firstRun.status, firstRun.stderr).toBe(0);
+    const second = runMigrate();
     expect(second.status, second.stderr).toBe(0);
     expect(second.stdout).toMatch(/ 0 new migration/);
   }, 60_000);

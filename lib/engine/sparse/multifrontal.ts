@@ -3,7 +3,7 @@ import { subtractOuterProducts } from "./dense-kernels";
 import type { SupernodalStructure } from "./supernodes";
 
 /** Columns factorised together inside a front before the rest of the panel is updated with them. */
-const PANEL_BLOCK = 16;
+const PANEL_BLOCK = 8;
 
 export type NumericOutcome =
   | { ok: true; values: Float64Array }

@@ -92,6 +92,32 @@ describe("factorizeSymmetric", () => {
     }
   });
 
+  it("reports an equation of a floating bar buried in the middle of a large frame", () => {
+    // Two extra equations inserted at position p (renumbering the frame around them) form [k −k; −k k]:
+    // the numeric factorisation, not the diagonal pre-check, must find them inside big supernodes.
+    const frame = buildFrameMatrix(20, 20);
+    const a = frame.matrix;
+    const p = Math.floor(a.n / 2) + 1;
+    const renumber = (i: number): number => (i < p ? i : i + 2);
+    const builder = new SymmetricTripletBuilder(a.n + 2);
+    for (let j = 0; j < a.n; j++) {
+      for (let q = a.colPtr[j]; q < a.colPtr[j + 1]; q++) builder.add(renumber(a.rowIdx[q]), renumber(j), a.values[q]);
+    }
+    const k = 4.2e5;
+    builder.add(p, p, k);
+    builder.add(p + 1, p + 1, k);
+    builder.add(p + 1, p, -k);
+    const withBar = builder.toCsc();
+    for (const method of methods) {
+      const result = factorizeSymmetric(withBar, { ordering: method });
+      expect(result.ok).toBe(false);
+      if (!result.ok) expect([p, p + 1]).toContain(result.equation);
+    }
+    // Stiffening the bar to ground makes it solvable again.
+    builder.add(p, p, k);
+    expect(factorizeSymmetric(builder.toCsc()).ok).toBe(true);
+  });
+
   it("detects the rigid-body modes of an unsupported frame", () => {
     const floating = buildFrameMatrix(3, 2, { supported: false });
     for (const method of methods) {
@@ -103,6 +129,23 @@ describe("factorizeSymmetric", () => {
     }
     // The same frame with its base fixed is fine.
     expect(factorizeSymmetric(buildFrameMatrix(3, 2).matrix, { blockSize: 3 }).ok).toBe(true);
+  });
+
+  it("applies pivotTolerance relative to the original diagonal", () => {
+    // d₂ = 1 − (1 − ε)² ≈ 2ε relative to A₂₂ = 1.
+    const builder = new SymmetricTripletBuilder(2);
+    const eps = 1e-12;
+    builder.add(0, 0, 1);
+    builder.add(1, 1, 1);
+    builder.add(1, 0, 1 - eps);
+    const a = builder.toCsc();
+    const strict = factorizeSymmetric(a, { ordering: "natural" });
+    expect(strict.ok).toBe(false);
+    if (!strict.ok) {
+      expect(strict.equation).toBe(1);
+      expect(strict.pivot / (2 * eps)).toBeCloseTo(1, 2);
+    }
+    expect(factorizeSymmetric(a, { ordering: "natural", pivotTolerance: 1e-13 }).ok).toBe(true);
   });
 
   it("solve rejects non-finite or wrongly sized right-hand sides", () => {

@@ -26,6 +26,10 @@ export const ACCOUNT_DEACTIVATED_MESSAGE =
 export const SIGN_IN_RATE_LIMIT = { window: 60, max: Number(process.env.GUSSET_SIGN_IN_RATE_LIMIT_MAX ?? 5) };
 export const PASSWORD_RESET_RATE_LIMIT = { window: 60, max: 3 };
 
+function readList(value: string | undefined): string[] {
+  return (value ?? "").split(",").map((item) => item.trim()).filter(Boolean);
+}
+
 function getBaseUrl(): string {
   return process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000";
 }
@@ -115,7 +119,26 @@ export const auth = betterAuth({
   trustedOrigins: getTrustedOrigins(),
   // better-auth skips the origin check when NODE_ENV is "test"; Gusset checks it everywhere, so the
   // tests exercise what production does.
-  advanced: { disableOriginCheck: false },
+  advanced: {
+    disableOriginCheck: false,
+    // Behind a load balancer, name its addresses (GUSSET_TRUSTED_PROXIES="10.0.0.0/8,…") so the rate
+    // limit keys on the client's address rather than one shared bucket.
+    ipAddress: { trustedProxies: readList(process.env.GUSSET_TRUSTED_PROXIES) },
+  },
+  // Endpoints Gusset does not use are switched off: no self sign-up, and profile, e-mail and account
+  // changes go through our own guarded actions (audited) or do not exist yet.
+  disabledPaths: [
+    "/sign-up/email",
+    "/sign-in/social",
+    "/update-user",
+    "/delete-user",
+    "/delete-user/callback",
+    "/change-email",
+    "/link-social",
+    "/unlink-account",
+    "/send-verification-email",
+    "/verify-email",
+  ],
   // Failed sign-ins are in the audit trail already; keep test output readable.
   logger: { level: process.env.NODE_ENV === "test" ? "error" : "warn" },
   database: drizzleAdapter(db, {

@@ -2,6 +2,7 @@ import "server-only";
 // Who is asking, for pages, server actions and route handlers. The only module that reads the
 // request's headers; everything below it takes the actor as an argument.
 import { headers } from "next/headers";
+import { cache } from "react";
 import { forbidden, redirect } from "next/navigation";
 import { acceptInvitation } from "@/lib/data/invitations";
 import type { Actor } from "./actor";
@@ -21,18 +22,16 @@ export async function getActorFromHeaders(requestHeaders: Headers): Promise<Acto
   return { id, name, email, role };
 }
 
-export async function getActor(): Promise<Actor | null> {
-  return getActorFromHeaders(await headers());
-}
+/** Read once per page render (layout and page share it through React's cache). */
+export const getActor = cache(async (): Promise<Actor | null> => getActorFromHeaders(await headers()));
 
 /**
  * For pages: an anonymous visitor is sent to sign in (and brought back afterwards); a signed-in person
  * whose role lacks the action gets the 403 page (app/forbidden.tsx).
  */
 export async function requirePageActor(action?: Action, options?: { next?: string }): Promise<Actor> {
-  const requestHeaders = await headers();
-  const actor = await getActorFromHeaders(requestHeaders);
-  if (!actor) redirect(`/sign-in?next=${encodeURIComponent(safePath(options?.next ?? currentPath(requestHeaders)))}`);
+  const actor = await getActor();
+  if (!actor) redirect(`/sign-in?next=${encodeURIComponent(safePath(options?.next ?? currentPath(await headers())))}`);
   if (action && !can(actor.role, action)) forbidden();
   return actor;
 }

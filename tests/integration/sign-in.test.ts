@@ -15,8 +15,8 @@ async function post(path: string, body: unknown, { ip = uniqueIp(), origin = BAS
       body: JSON.stringify(body),
     }),
   );
-  const text = await response.text();
-  return { status: response.status, body: text ? JSON.parse(text) : null, headers: response.headers };
+  const isJson = response.headers.get("content-type")?.includes("application/json");
+  return { status: response.status, body: isJson ? await response.json() : await response.text(), headers: response.headers };
 }
 
 function changedTables(before: Record<string, number>, after: Record<string, number>) {
@@ -70,10 +70,11 @@ describe("sign-in", () => {
     expect(changedTables(before, await countRows())).toEqual(["audit_events"]);
   });
 
-  it("has no sign-up: people join by invitation only", async () => {
+  it("has no sign-up (people join by invitation only) and no unguarded profile endpoints", async () => {
     const before = await countRows();
     const result = await post("/sign-up/email", { email: uniqueEmail("self"), password: "a-long-password", name: "Self Signed" });
-    expect(result.status).toBeGreaterThanOrEqual(400);
+    expect(result.status).toBe(404);
+    for (const path of ["/update-user", "/delete-user", "/change-email"]) expect((await post(path, {})).status).toBe(404);
     expect(await countRows()).toEqual(before);
   });
 

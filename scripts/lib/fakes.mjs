@@ -39,7 +39,7 @@ export async function ensureFakeSmtp({ ports, layout, profile, registry }) {
     ["--smtp-port", String(ports.smtp), "--api-port", String(ports.mailApi)],
     { layout, profile, registry },
   );
-  await waitFor(`fake SMTP (log: ${logFile})`, () => fakeSmtpAnswers(ports.mailApi), { child, timeoutMs: 20_000 });
+  await waitFor("fake SMTP", () => fakeSmtpAnswers(ports.mailApi), { child, logFile, timeoutMs: 20_000 });
   say(`fake SMTP on 127.0.0.1:${ports.smtp}, mailbox API http://127.0.0.1:${ports.mailApi}/messages`);
 }
 
@@ -56,6 +56,6 @@ export async function ensureFakeS3({ ports, layout, profile, registry, bucket })
     ["--port", String(ports.s3), "--directory", layout.s3, "--bucket", bucket],
     { layout, profile, registry },
   );
-  await waitFor(`fake S3 (log: ${logFile})`, () => fakeS3Answers(ports.s3), { child, timeoutMs: 20_000 });
+  await waitFor("fake S3", () => fakeS3Answers(ports.s3), { child, logFile, timeoutMs: 20_000 });
   say(`fake S3 on http://127.0.0.1:${ports.s3} (bucket ${bucket})`);
 }

@@ -28,7 +28,9 @@ export async function ensureDebianPackages(wanted) {
   if (!isRoot) {
     throw new SetupError(
       `${names.join(" and ")} ${missing.length > 1 ? "are" : "is"} not installed and this is not root. Install with:\n` +
-        `  sudo mkdir -p /etc/postgresql-common/createcluster.d && echo 'create_main_cluster = false' | sudo tee /etc/postgresql-common/createcluster.d/00-no-main.conf\n` +
+        (names.includes("postgresql-15")
+          ? `  sudo mkdir -p /etc/postgresql-common/createcluster.d && echo 'create_main_cluster = false' | sudo tee /etc/postgresql-common/createcluster.d/00-no-main.conf\n`
+          : "") +
         `  sudo apt-get update && sudo apt-get install -y --no-install-recommends ${names.join(" ")}\n` +
         `then run this command again.`,
     );

@@ -99,14 +99,26 @@ export async function httpGet(url, timeoutMs = 2000) {
   }
 }
 
-export async function waitFor(what, check, { timeoutMs = 60_000, intervalMs = 150, child } = {}) {
+/** The last lines of a log file, indented, for an error message. */
+export function tailOf(file, lines = 12) {
+  try {
+    const text = fs.readFileSync(file, "utf8").trimEnd().split("\n").slice(-lines);
+    return `\n  last lines of ${file}:\n${text.map((line) => `    ${line}`).join("\n")}`;
+  } catch {
+    return "";
+  }
+}
+
+/** Polls check() until it is true; fails early when `child` exits, quoting the end of `logFile`. */
+export async function waitFor(what, check, { timeoutMs = 60_000, intervalMs = 150, child, logFile } = {}) {
   const deadline = Date.now() + timeoutMs;
+  const log = () => (logFile ? tailOf(logFile) : "");
   while (Date.now() < deadline) {
-    if (child && child.exitCode !== null) throw new SetupError(`${what} exited (code ${child.exitCode}) before it was ready`);
+    if (child && child.exitCode !== null) throw new SetupError(`${what} exited (code ${child.exitCode}) before it was ready${log()}`);
     if (await check()) return;
     await new Promise((resolve) => setTimeout(resolve, intervalMs));
   }
-  throw new SetupError(`${what} was not ready after ${timeoutMs / 1000}s`);
+  throw new SetupError(`${what} was not ready after ${timeoutMs / 1000}s${log()}`);
 }
 
 /** A pid is alive when it exists and is not a zombie (dead processes are reaped late in these sandboxes). */
@@ -178,4 +190,15 @@ export function stopChild(child, graceMs = 5000) {
     });
     child.kill("SIGTERM");
   });
+}
+
+/**
+ * Runs steps side by side and waits for all of them, so a failure in one never leaves another still
+ * starting a service after the clean-up; then throws the first failure.
+ */
+export async function allOrFirstError(steps) {
+  const results = await Promise.allSettled(steps);
+  const failure = results.find((r) => r.status === "rejected");
+  if (failure) throw failure.reason;
+  return results.map((r) => r.value);
 }

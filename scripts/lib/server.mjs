@@ -49,11 +49,13 @@ export async function startServer({ env, layout, port, profile, registry }) {
     fs.rmSync(pidFile, { force: true });
   });
   const url = `http://127.0.0.1:${port}`;
-  await waitFor(`the Next server (log: ${logFile})`, async () => (await httpGet(url, 5000)) !== null, {
+  await waitFor("the Next server", async () => (await httpGet(url, 5000)) !== null, {
     child,
+    logFile,
     timeoutMs: 90_000,
     intervalMs: 200,
   });
-  say(`Next server answers on ${url} (log: ${path.relative(repoRoot, logFile) || logFile})`);
+  const shownLog = path.relative(repoRoot, logFile).startsWith("..") ? logFile : path.relative(repoRoot, logFile);
+  say(`Next server answers on ${url} (log: ${shownLog})`);
   return child;
 }

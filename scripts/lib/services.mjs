@@ -2,6 +2,7 @@
 // fake SMTP and S3. The database chain and the fakes start side by side.
 import { migrate, seed } from "./database.mjs";
 import { ensureFakeS3, ensureFakeSmtp } from "./fakes.mjs";
+import { allOrFirstError } from "./processes.mjs";
 import { createDatabaseIfMissing, ensurePostgres, recreateDatabase } from "./postgres.mjs";
 
 /**
@@ -22,10 +23,10 @@ export async function prepareServices({ setup, env, registry, timer, fresh }) {
   };
   const fakes = () =>
     timer.phase("fakes", () =>
-      Promise.all([
+      allOrFirstError([
         ensureFakeSmtp({ ports, layout, profile, registry }),
         ensureFakeS3({ ports, layout, profile, registry, bucket: env.S3_BUCKET }),
       ]),
     );
-  await Promise.all([databaseChain(), fakes()]);
+  await allOrFirstError([databaseChain(), fakes()]);
 }

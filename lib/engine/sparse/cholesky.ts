@@ -25,18 +25,25 @@ class SupernodalFactor implements CholeskyFactor {
       if (!Number.isFinite(v)) throw new Error(`solve: right-hand side entry ${perm[k]} is not finite (${v})`);
       x[k] = v;
     }
+    // Rows below each supernode's diagonal block go through a dense work vector, so the inner
+    // loops run over contiguous memory and each row of x is gathered or scattered once.
+    const work = new Float64Array(this.structure.maxRows);
     // Forward: L y = P b.
     for (let s = 0; s < count; s++) {
       const first = superStart[s];
       const cols = superStart[s + 1] - first;
       const r0 = rowPtr[s];
       const m = rowPtr[s + 1] - r0;
+      const below = m - cols;
+      work.fill(0, 0, below);
       for (let k = 0; k < cols; k++) {
         const col = valuePtr[s] + k * m;
         const xk = (x[first + k] /= lx[col + k]);
-        if (xk === 0) continue;
-        for (let i = k + 1; i < m; i++) x[rows[r0 + i]] -= lx[col + i] * xk;
+        for (let i = k + 1; i < cols; i++) x[first + i] -= lx[col + i] * xk;
+        const tail = col + cols;
+        for (let i = 0; i < below; i++) work[i] += lx[tail + i] * xk;
       }
+      for (let i = 0; i < below; i++) x[rows[r0 + cols + i]] -= work[i];
     }
     // Backward: Lᵀ z = y.
     for (let s = count - 1; s >= 0; s--) {
@@ -44,10 +51,14 @@ class SupernodalFactor implements CholeskyFactor {
       const cols = superStart[s + 1] - first;
       const r0 = rowPtr[s];
       const m = rowPtr[s + 1] - r0;
+      const below = m - cols;
+      for (let i = 0; i < below; i++) work[i] = x[rows[r0 + cols + i]];
       for (let k = cols - 1; k >= 0; k--) {
         const col = valuePtr[s] + k * m;
         let sum = x[first + k];
-        for (let i = k + 1; i < m; i++) sum -= lx[col + i] * x[rows[r0 + i]];
+        for (let i = k + 1; i < cols; i++) sum -= lx[col + i] * x[first + i];
+        const tail = col + cols;
+        for (let i = 0; i < below; i++) sum -= lx[tail + i] * work[i];
         x[first + k] = sum / lx[col + k];
       }
     }

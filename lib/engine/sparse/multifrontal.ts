@@ -46,7 +46,7 @@ export function factorMultifrontal(
   tolerance: number,
 ): NumericOutcome {
   const { colPtr: cp, rowIdx: ci, values: cx } = c;
-  const { count, superStart, superParent, rowPtr, rows, valuePtr, maxRows } = sn;
+  const { count, superStart, superParent, rowPtr, rows, parentPos, valuePtr, maxRows } = sn;
   const lx = new Float64Array(valuePtr[count]);
   const front = new Float64Array(maxRows * maxRows);
   const pos = new Int32Array(sn.n);
@@ -77,9 +77,9 @@ export function factorMultifrontal(
       const cr0 = rowPtr[child] + superStart[child + 1] - superStart[child];
       const mu = rowPtr[child + 1] - cr0;
       for (let b = 0; b < mu; b++) {
-        const col = pos[rows[cr0 + b]] * m;
+        const col = parentPos[cr0 + b] * m;
         const src = offset + b * mu;
-        for (let a = b; a < mu; a++) front[col + pos[rows[cr0 + a]]] += stackData[src + a];
+        for (let a = b; a < mu; a++) front[col + parentPos[cr0 + a]] += stackData[src + a];
       }
     }
     if (nChildren > 0) {

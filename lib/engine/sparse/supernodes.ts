@@ -12,6 +12,11 @@ export interface SupernodalStructure {
   rows: Int32Array;
   /** Offset of s's dense column-major block (rows × columns) in the values array. */
   valuePtr: Int32Array;
+  /**
+   * For each row of s below its own columns (same layout as `rows`, own-column slots unused), the
+   * position of that row within the parent supernode's rows: the extend-add map of the front.
+   */
+  parentPos: Int32Array;
   /** Largest number of rows of any supernode (the largest frontal matrix). */
   maxRows: number;
   /** Stored entries of L on and below the diagonal, explicit zeros of relaxed supernodes included. */
@@ -158,5 +163,15 @@ export function buildSupernodes(c: CscMatrix, parent: Int32Array, colCount: Int3
     valuePtr[s + 1] = valuePtr[s] + m * cols;
     storedL += m * cols - (cols * (cols - 1)) / 2;
   }
-  return { n, count, superStart, superParent, rowPtr, rows: rows.slice(0, top), valuePtr, maxRows, storedL };
+  const finalRows = rows.slice(0, top);
+  const parentPos = new Int32Array(top);
+  const local = new Int32Array(n);
+  for (let s = count - 1; s >= 0; s--) {
+    const p = superParent[s];
+    if (p === -1) continue;
+    for (let q = rowPtr[p]; q < rowPtr[p + 1]; q++) local[finalRows[q]] = q - rowPtr[p];
+    const cols = superStart[s + 1] - superStart[s];
+    for (let q = rowPtr[s] + cols; q < rowPtr[s + 1]; q++) parentPos[q] = local[finalRows[q]];
+  }
+  return { n, count, superStart, superParent, rowPtr, rows: finalRows, parentPos, valuePtr, maxRows, storedL };
 }

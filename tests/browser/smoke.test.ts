@@ -1,21 +1,12 @@
 // The served test build opens in Debian's chromium: an answer below 500 and a page title.
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, expect, it } from "vitest";
-import { launchBrowser } from "../support/browser";
+import { expect, it } from "vitest";
+import { useBrowser } from "../support/browser";
 import { testEnv } from "../support/env";
 
-let browser: Browser;
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = useBrowser();
 
 it("opens the app's home page", async () => {
-  const page = await browser.newPage();
+  const page = await browser().newPage();
   const response = await page.goto(testEnv.baseUrl, { waitUntil: "load" });
   expect(response, "no HTTP response").not.toBeNull();
   expect(response!.status()).toBeLessThan(500);

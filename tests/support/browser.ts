@@ -1,5 +1,6 @@
 // Launches Debian's chromium through playwright-core with the flags that work in these sandboxes.
 import { chromium, type Browser } from "playwright-core";
+import { afterAll, beforeAll } from "vitest";
 
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
 
@@ -17,4 +18,23 @@ export function launchBrowser(): Promise<Browser> {
       "--disable-sync",
     ],
   });
+}
+
+/**
+ * One browser for a test file: launched before its tests, closed after them.
+ *   const browser = useBrowser();
+ *   it("…", async () => { const page = await browser().newPage(); … });
+ */
+export function useBrowser(): () => Browser {
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+  return () => {
+    if (!browser) throw new Error("useBrowser(): the browser is only there inside tests");
+    return browser;
+  };
 }

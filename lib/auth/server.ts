@@ -22,8 +22,11 @@ export const ACCOUNT_DEACTIVATED_CODE = "ACCOUNT_DEACTIVATED";
 export const ACCOUNT_DEACTIVATED_MESSAGE =
   "This account has been deactivated. Ask your admin to reactivate it.";
 
-/** Sign-in attempts per IP address per minute (also counts successful ones). */
-export const SIGN_IN_RATE_LIMIT = { window: 60, max: Number(process.env.GUSSET_SIGN_IN_RATE_LIMIT_MAX ?? 5) };
+/**
+ * Sign-in attempts per client address per minute (successful ones count too). GUSSET_SIGN_IN_RATE_LIMIT_MAX
+ * may raise it where many people share one address.
+ */
+export const SIGN_IN_RATE_LIMIT = { window: 60, max: Number(process.env.GUSSET_SIGN_IN_RATE_LIMIT_MAX) || 5 };
 export const PASSWORD_RESET_RATE_LIMIT = { window: 60, max: 3 };
 
 function readList(value: string | undefined): string[] {

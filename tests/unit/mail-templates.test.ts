@@ -1,0 +1,39 @@
+// The e-mails say who, what and until when in plain words, carry the link in text and HTML, and
+// escape names in the HTML (a name is typed by an admin and could hold markup).
+import { describe, expect, it } from "vitest";
+import { renderInvitationMail, renderPasswordResetMail } from "@/lib/mail/templates";
+
+describe("invitation e-mail", () => {
+  const mail = renderInvitationMail({
+    to: "new.person@firm.example",
+    name: "Robin <b>Example</b>",
+    role: "auditor",
+    invitedByName: "Alex Admin",
+    firmName: "Example Structural",
+    url: "http://127.0.0.1:3000/invite/abc_DEF-123",
+    expiresAt: new Date("2030-01-08T12:00:00Z"),
+  });
+
+  it("says who invites whom, as what, and until when", () => {
+    expect(mail.subject).toBe("You're invited to Example Structural on Gusset");
+    expect(mail.text).toContain("Alex Admin has invited you to Example Structural on Gusset as QA auditor.");
+    expect(mail.text).toContain("expires on 2030-01-08");
+  });
+
+  it("carries the link in both parts and escapes markup in the HTML", () => {
+    expect(mail.text).toContain("http://127.0.0.1:3000/invite/abc_DEF-123");
+    expect(mail.html).toContain('href="http://127.0.0.1:3000/invite/abc_DEF-123"');
+    expect(mail.html).not.toContain("<b>Example</b>");
+    expect(mail.html).toContain("Robin &#60;b&#62;Example&#60;/b&#62;");
+  });
+});
+
+describe("password reset e-mail", () => {
+  it("links to the reset page and says what resetting does", () => {
+    const mail = renderPasswordResetMail({ to: "a@firm.example", name: "Sam", url: "http://127.0.0.1:3000/reset-password?token=t1" });
+    expect(mail.subject).toBe("Reset your Gusset password");
+    expect(mail.text).toContain("http://127.0.0.1:3000/reset-password?token=t1");
+    expect(mail.text).toMatch(/signs you out everywhere/);
+    expect(mail.html).toContain("reset-password?token=t1");
+  });
+});

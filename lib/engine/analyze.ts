@@ -4,7 +4,7 @@
  * model, and never lets NaN or Infinity out.
  */
 import { validateModel } from "./validate";
-import { buildIdIndex, resolveCaseLoads, type CaseLoads } from "./loads";
+import { resolveCaseLoads, type CaseLoads } from "./loads";
 import { assembleStiffness, caseFixedEndForces, casePrescribed, caseRhs, prepareMembers, rotationalStiffness } from "./assembly";
 import { buildDofMap, DOFS_PER_NODE, DofKind } from "./dofs";
 import { factorStiffness, relativeResidual } from "./solve";
@@ -39,10 +39,11 @@ export function analyze(input: unknown): AnalysisOutcome {
   const model = valid.model;
   const tValidated = performance.now();
 
-  const index = buildIdIndex(model);
+  const index = { node: valid.nodeIndex, member: valid.memberIndex };
   const members = prepareMembers(model, index.node);
   const dofs = buildDofMap(model, rotationalStiffness(model, members));
-  const caseLoads: CaseLoads[] = model.loadCases.map((_, c) => resolveCaseLoads(model, c, members.map((p) => p.frame), index));
+  const frames = members.map((p) => p.frame);
+  const caseLoads: CaseLoads[] = model.loadCases.map((_, c) => resolveCaseLoads(model, c, frames, index));
   // A moment applied where nothing resists rotation cannot be carried: name the node.
   for (const loads of caseLoads) {
     for (let n = 0; n < model.nodes.length; n++) {

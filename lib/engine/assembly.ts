@@ -22,7 +22,7 @@ export interface PreparedMember {
   readonly I: number;
   /** Whether bending deflection along the member can be computed (I was given). */
   readonly hasBending: boolean;
-  readonly released: number[];
+  readonly released: ReadonlyArray<number>;
   /** Condensed local stiffness (zero rows/columns at released DOFs). */
   readonly k: Float64Array;
 }

@@ -35,31 +35,32 @@ export function memberFrame(xi: number, yi: number, xj: number, yj: number): Mem
 export function frameLocalStiffness(E: number, A: number, I: number, L: number): Float64Array {
   const a = (E * A) / L;
   const b = (E * I) / (L * L * L);
+  const b12 = 12 * b;
   const b6 = 6 * L * b;
   const b4 = 4 * L * L * b;
   const b2 = 2 * L * L * b;
-  // prettier-ignore
-  return Float64Array.of(
-     a,      0,       0,  -a,       0,       0,
-     0, 12 * b,      b6,   0, -12 * b,      b6,
-     0,     b6,      b4,   0,     -b6,      b2,
-    -a,      0,       0,   a,       0,       0,
-     0, -12 * b,    -b6,   0,  12 * b,     -b6,
-     0,     b6,      b2,   0,     -b6,      b4,
-  );
+  const k = new Float64Array(36);
+  k[0] = k[21] = a;
+  k[3] = k[18] = -a;
+  k[7] = k[28] = b12;
+  k[10] = k[25] = -b12;
+  k[8] = k[13] = k[11] = k[31] = b6;
+  k[16] = k[26] = k[29] = k[34] = -b6;
+  k[14] = k[35] = b4;
+  k[17] = k[32] = b2;
+  return k;
 }
 
 /** The released local DOFs of a member (subset of THETA_I, THETA_J). */
-export function releasedDofs(kind: "frame" | "truss", startMoment: boolean, endMoment: boolean): number[] {
-  if (kind === "truss") return [THETA_I, THETA_J];
-  const r: number[] = [];
-  if (startMoment) r.push(THETA_I);
-  if (endMoment) r.push(THETA_J);
-  return r;
+const RELEASE_SETS: ReadonlyArray<ReadonlyArray<number>> = [[], [THETA_I], [THETA_J], [THETA_I, THETA_J]];
+
+export function releasedDofs(kind: "frame" | "truss", startMoment: boolean, endMoment: boolean): ReadonlyArray<number> {
+  if (kind === "truss") return RELEASE_SETS[3];
+  return RELEASE_SETS[(startMoment ? 1 : 0) + (endMoment ? 2 : 0)];
 }
 
 /** Inverse of the (1×1 or 2×2) released block k_rr. */
-function invertReleasedBlock(k: Float64Array, r: number[]): number[][] {
+function invertReleasedBlock(k: Float64Array, r: ReadonlyArray<number>): number[][] {
   if (r.length === 1) return [[1 / k[r[0] * 6 + r[0]]]];
   const a = k[r[0] * 6 + r[0]];
   const b = k[r[0] * 6 + r[1]];
@@ -75,7 +76,7 @@ function invertReleasedBlock(k: Float64Array, r: number[]): number[][] {
  * Static condensation of the released DOFs r:  k* = k_cc − k_cr k_rr⁻¹ k_rc,  fef* = fef_c − k_cr k_rr⁻¹ fef_r.
  * The result keeps the 6×6 layout with zero rows and columns at r, so the released end carries no moment.
  */
-export function condense(k: Float64Array, fef: Float64Array | null, r: number[]): { k: Float64Array; fef: Float64Array | null } {
+export function condense(k: Float64Array, fef: Float64Array | null, r: ReadonlyArray<number>): { k: Float64Array; fef: Float64Array | null } {
   if (r.length === 0) return { k, fef };
   const inv = invertReleasedBlock(k, r);
   const kc = new Float64Array(36);
@@ -101,7 +102,7 @@ export function condense(k: Float64Array, fef: Float64Array | null, r: number[])
  * Rotations at the released DOFs, from the kept ones: d_r = −k_rr⁻¹ (k_rc d_c + fef_r), with the full
  * (uncondensed) k and fef. Writes them into d in place.
  */
-export function recoverReleased(k: Float64Array, fef: Float64Array | null, r: number[], d: Float64Array): void {
+export function recoverReleased(k: Float64Array, fef: Float64Array | null, r: ReadonlyArray<number>, d: Float64Array): void {
   if (r.length === 0) return;
   const inv = invertReleasedBlock(k, r);
   const rhs = r.map((ri) => {

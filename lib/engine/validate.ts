@@ -3,9 +3,8 @@
  * a schema cannot phrase well: non-finite numbers (named by path), references between ids, member lengths,
  * property signs, and load positions along members.
  */
-import { ModelSchema, type Model } from "./model";
+import { ModelSchema, type Load, type Model } from "./model";
 import { formatPath, type EngineError } from "./diagnostics";
-import { memberFrame } from "./elements";
 
 /** Relative length below which a member counts as zero-length. */
 const ZERO_LENGTH_TOLERANCE = 1e-12;
@@ -36,15 +35,16 @@ function findNonFinite(value: unknown, path: PropertyKey[], out: EngineError[]):
   }
 }
 
-function checkDuplicates(model: Model, out: EngineError[]): void {
+function checkDuplicates(model: Model, nodeIndex: Map<string, number>, memberIndex: Map<string, number>, out: EngineError[]): void {
   const groups = [
-    ["node", model.nodes],
-    ["member", model.members],
-    ["load-case", model.loadCases],
-    ["combination", model.combinations],
-    ["envelope", model.envelopes],
+    ["node", model.nodes, nodeIndex.size],
+    ["member", model.members, memberIndex.size],
+    ["load-case", model.loadCases, -1],
+    ["combination", model.combinations, -1],
+    ["envelope", model.envelopes, -1],
   ] as const;
-  for (const [entity, items] of groups) {
+  for (const [entity, items, distinct] of groups) {
+    if (distinct === items.length) continue; // the index maps already prove the ids distinct
     const seen = new Set<string>();
     for (const item of items) {
       if (seen.has(item.id)) out.push({ kind: "duplicate-id", entity, id: item.id, message: `Two ${entity}s share the id "${item.id}"` });
@@ -58,35 +58,41 @@ function checkDuplicates(model: Model, out: EngineError[]): void {
   }
 }
 
-function positive(value: number | undefined, path: string, property: string, out: EngineError[]): void {
+function positive(value: number | undefined, where: string, property: string, out: EngineError[]): void {
   if (value !== undefined && !(value > 0)) {
+    const path = `${where}.${property}`;
     out.push({ kind: "non-positive-property", path, property, value, message: `${path} is ${value}; ${property} must be greater than zero` });
   }
 }
 
-function checkMembers(model: Model, nodeIndex: Map<string, number>, out: EngineError[]): number[] {
-  const lengths: number[] = [];
-  const extent = model.nodes.reduce((e, n) => Math.max(e, Math.abs(n.x), Math.abs(n.y)), 0) || 1;
+function checkMembers(model: Model, nodeIndex: Map<string, number>, out: EngineError[]): Float64Array {
+  const lengths = new Float64Array(model.members.length).fill(NaN);
+  let extent = 0;
+  for (const n of model.nodes) extent = Math.max(extent, Math.abs(n.x), Math.abs(n.y));
+  extent ||= 1;
   model.members.forEach((m, i) => {
-    const where = `members[${i}]`;
     const a = nodeIndex.get(m.start);
     const b = nodeIndex.get(m.end);
-    for (const [end, n] of [["start", m.start], ["end", m.end]] as const) {
-      if (!nodeIndex.has(n)) out.push({ kind: "unknown-node", path: `${where}.${end}`, node: n, message: `Member ${m.id} refers to node "${n}", which does not exist` });
-    }
-    lengths.push(NaN);
-    if (a !== undefined && b !== undefined) {
-      const f = memberFrame(model.nodes[a].x, model.nodes[a].y, model.nodes[b].x, model.nodes[b].y);
-      if (!(f.length > ZERO_LENGTH_TOLERANCE * extent)) {
+    if (a === undefined || b === undefined) {
+      for (const [end, n] of [["start", m.start], ["end", m.end]] as const) {
+        if (!nodeIndex.has(n)) out.push({ kind: "unknown-node", path: `members[${i}].${end}`, node: n, message: `Member ${m.id} refers to node "${n}", which does not exist` });
+      }
+    } else {
+      const length = Math.hypot(model.nodes[b].x - model.nodes[a].x, model.nodes[b].y - model.nodes[a].y);
+      if (!(length > ZERO_LENGTH_TOLERANCE * extent)) {
         out.push({ kind: "zero-length-member", member: m.id, message: `Member ${m.id} has zero length: nodes ${m.start} and ${m.end} coincide` });
-      } else lengths[i] = f.length;
+      } else lengths[i] = length;
     }
-    positive(m.E, `${where}.E`, "E", out);
-    positive(m.A, `${where}.A`, "A", out);
-    positive(m.I, `${where}.I`, "I", out);
-    positive(m.cTop, `${where}.cTop`, "cTop", out);
-    positive(m.cBottom, `${where}.cBottom`, "cBottom", out);
-    positive(m.density, `${where}.density`, "density", out);
+    // Paths are built only when something is wrong: large models should not pay for strings.
+    if (!(m.E > 0 && m.A > 0) || m.I !== undefined || m.cTop !== undefined || m.cBottom !== undefined || m.density !== undefined) {
+      const where = `members[${i}]`;
+      positive(m.E, where, "E", out);
+      positive(m.A, where, "A", out);
+      positive(m.I, where, "I", out);
+      positive(m.cTop, where, "cTop", out);
+      positive(m.cBottom, where, "cBottom", out);
+      positive(m.density, where, "density", out);
+    }
     if (m.kind === "frame" && m.I === undefined) {
       out.push({ kind: "missing-property", member: m.id, property: "I", message: `Frame member ${m.id} needs I (second moment of area)` });
     }
@@ -94,37 +100,45 @@ function checkMembers(model: Model, nodeIndex: Map<string, number>, out: EngineE
   return lengths;
 }
 
-function checkPosition(x: number | undefined, L: number, path: string, member: string, out: EngineError[]): void {
+function outside(x: number | undefined, L: number): boolean {
   // A small tolerance lets templates place loads at L computed with rounding.
-  if (x !== undefined && (x < -1e-9 * L || x > L * (1 + 1e-9))) {
-    out.push({ kind: "load-outside-member", path, member, message: `${path} = ${x} m lies outside member ${member} (length ${L} m)` });
-  }
+  return x !== undefined && (x < -1e-9 * L || x > L * (1 + 1e-9));
 }
 
-function checkLoads(model: Model, nodeIndex: Map<string, number>, lengths: number[], out: EngineError[]): void {
-  const memberIndex = new Map(model.members.map((m, i) => [m.id, i]));
+function checkMemberLoad(load: Exclude<Load, { kind: "nodal" | "self-weight" }>, L: number, where: string, out: EngineError[]): void {
+  const positions: [string, number | undefined][] = load.kind === "distributed" ? [["from", load.from], ["to", load.to]] : [["position", load.position]];
+  for (const [name, x] of positions) {
+    if (outside(x, L)) out.push({ kind: "load-outside-member", path: `${where}.${name}`, member: load.member, message: `${where}.${name} = ${x} m lies outside member ${load.member} (length ${L} m)` });
+  }
+  if (load.kind !== "distributed") return;
+  if ((load.from ?? 0) >= (load.to ?? L)) out.push({ kind: "invalid-load", path: where, message: `${where}: "from" must be less than "to"` });
+  if (load.projected && load.direction.startsWith("local")) out.push({ kind: "invalid-load", path: `${where}.projected`, message: `${where}: projected intensities need a global direction` });
+}
+
+function checkLoads(model: Model, nodeIndex: Map<string, number>, memberIndex: Map<string, number>, lengths: Float64Array, out: EngineError[]): void {
   model.loadCases.forEach((lc, c) => {
-    lc.loads.forEach((load, l) => {
-      const where = `loadCases[${c}].loads[${l}]`;
-      if (load.kind === "self-weight") return;
+    const loads = lc.loads;
+    for (let l = 0; l < loads.length; l++) {
+      const load = loads[l];
+      if (load.kind === "self-weight") continue;
       if (load.kind === "nodal") {
-        if (!nodeIndex.has(load.node)) out.push({ kind: "unknown-node", path: `${where}.node`, node: load.node, message: `A load in case ${lc.id} acts on node "${load.node}", which does not exist` });
-        return;
+        if (!nodeIndex.has(load.node)) out.push({ kind: "unknown-node", path: `loadCases[${c}].loads[${l}].node`, node: load.node, message: `A load in case ${lc.id} acts on node "${load.node}", which does not exist` });
+        continue;
       }
       const m = memberIndex.get(load.member);
       if (m === undefined) {
-        out.push({ kind: "unknown-member", path: `${where}.member`, member: load.member, message: `A load in case ${lc.id} acts on member "${load.member}", which does not exist` });
-        return;
+        out.push({ kind: "unknown-member", path: `loadCases[${c}].loads[${l}].member`, member: load.member, message: `A load in case ${lc.id} acts on member "${load.member}", which does not exist` });
+        continue;
       }
       const L = lengths[m];
-      if (!Number.isFinite(L)) return;
-      if (load.kind === "distributed") {
-        checkPosition(load.from, L, `${where}.from`, load.member, out);
-        checkPosition(load.to, L, `${where}.to`, load.member, out);
-        if ((load.from ?? 0) >= (load.to ?? L)) out.push({ kind: "invalid-load", path: where, message: `${where}: "from" must be less than "to"` });
-        if (load.projected && load.direction.startsWith("local")) out.push({ kind: "invalid-load", path: `${where}.projected`, message: `${where}: projected intensities need a global direction` });
-      } else checkPosition(load.position, L, `${where}.position`, load.member, out);
-    });
+      if (!Number.isFinite(L)) continue;
+      // Most loads are fine: check cheaply first, build the path string only for a real problem.
+      const suspicious =
+        load.kind === "distributed"
+          ? load.from !== undefined || load.to !== undefined || (load.projected && load.direction.startsWith("local"))
+          : outside(load.position, L);
+      if (suspicious) checkMemberLoad(load, L, `loadCases[${c}].loads[${l}]`, out);
+    }
   });
 }
 
@@ -135,7 +149,7 @@ function checkResultReferences(model: Model, out: EngineError[]): void {
       const r = n.support?.[dir];
       if (typeof r !== "object") continue;
       const path = `nodes[${i}].support.${dir}`;
-      if (r.kind === "spring") positive(r.stiffness, `${path}.stiffness`, "spring stiffness", out);
+      if (r.kind === "spring") positive(r.stiffness, path, "stiffness", out);
       else if (r.loadCase !== undefined && !caseIds.has(r.loadCase)) {
         out.push({ kind: "unknown-load-case", path: `${path}.loadCase`, loadCase: r.loadCase, message: `Node ${n.id} settles in load case "${r.loadCase}", which does not exist` });
       }
@@ -154,14 +168,27 @@ function checkResultReferences(model: Model, out: EngineError[]): void {
   });
 }
 
-export type ValidationOutcome = { ok: true; model: Model; lengths: number[] } | { ok: false; errors: EngineError[] };
+function indexById(items: ReadonlyArray<{ id: string }>): Map<string, number> {
+  const index = new Map<string, number>();
+  for (let i = 0; i < items.length; i++) index.set(items[i].id, i);
+  return index;
+}
+
+export interface ValidModel {
+  readonly model: Model;
+  readonly nodeIndex: Map<string, number>;
+  readonly memberIndex: Map<string, number>;
+}
+
+export type ValidationOutcome = ({ ok: true } & ValidModel) | { ok: false; errors: EngineError[] };
 
 export function validateModel(input: unknown): ValidationOutcome {
-  const errors: EngineError[] = [];
-  findNonFinite(input, [], errors);
-  if (errors.length > 0) return { ok: false, errors };
   const parsed = ModelSchema.safeParse(input);
   if (!parsed.success) {
+    // The schema rejects NaN and ±Infinity too; name those precisely, by path, before anything else.
+    const nonFinite: EngineError[] = [];
+    findNonFinite(input, [], nonFinite);
+    if (nonFinite.length > 0) return { ok: false, errors: nonFinite };
     return {
       ok: false,
       errors: parsed.error.issues.map((issue) => {
@@ -171,10 +198,12 @@ export function validateModel(input: unknown): ValidationOutcome {
     };
   }
   const model = parsed.data;
-  const nodeIndex = new Map(model.nodes.map((n, i) => [n.id, i]));
-  checkDuplicates(model, errors);
+  const errors: EngineError[] = [];
+  const nodeIndex = indexById(model.nodes);
+  const memberIndex = indexById(model.members);
+  checkDuplicates(model, nodeIndex, memberIndex, errors);
   const lengths = checkMembers(model, nodeIndex, errors);
-  checkLoads(model, nodeIndex, lengths, errors);
+  checkLoads(model, nodeIndex, memberIndex, lengths, errors);
   checkResultReferences(model, errors);
-  return errors.length > 0 ? { ok: false, errors } : { ok: true, model, lengths };
+  return errors.length > 0 ? { ok: false, errors } : { ok: true, model, nodeIndex, memberIndex };
 }

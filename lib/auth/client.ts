@@ -27,6 +27,8 @@ const MESSAGES: Record<string, string> = {
   ACCOUNT_DEACTIVATED: "This account has been deactivated. Ask your admin to reactivate it.",
   INVALID_TOKEN: "This reset link is invalid, used or expired. Ask for a new one.",
   USER_NOT_FOUND: "This reset link is invalid, used or expired. Ask for a new one.",
+  INVALID_ORIGIN: "This page's address does not match Gusset's. Reload and try again.",
+  MISSING_OR_NULL_ORIGIN: "This page's address does not match Gusset's. Reload and try again.",
 };
 
 /** A sentence for the person, whatever better-auth answered. */

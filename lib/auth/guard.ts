@@ -56,7 +56,9 @@ export function guardedAction<S extends z.ZodType, T>(
 /**
  * For route handlers: JSON errors `{ error: { code, message, fieldErrors? } }` with 400/401/403/404/
  * 409/422/429/500, success `{ data }` with 200 (or the handler's own Response). Parses the JSON body
- * (POST/PUT/PATCH; form bodies too) or the search params (GET/HEAD/DELETE) with the schema.
+ * (POST/PUT/PATCH; form bodies too) or the search params (GET/HEAD/DELETE) with the schema. A handler
+ * that returns its own Response (a file, a custom shape) writes its own audit event: `audit` is only
+ * called with plain results.
  */
 export function guardedRoute<S extends z.ZodType, T>(
   options: GuardOptions<S, T> & { schema?: S },

@@ -23,8 +23,18 @@ export interface PreparedMember {
   /** Whether bending deflection along the member can be computed (I was given). */
   readonly hasBending: boolean;
   readonly released: ReadonlyArray<number>;
-  /** Condensed local stiffness (zero rows/columns at released DOFs). */
-  readonly k: Float64Array;
+  /**
+   * Condensed local stiffness of a member with releases; null without releases, where the plain frame matrix
+   * is rebuilt on use (cheaper than keeping tens of thousands of small arrays alive).
+   */
+  readonly condensed: Float64Array | null;
+}
+
+/** The member's local stiffness as used in K (condensed for releases), written into `out`. */
+export function localStiffness(p: PreparedMember, out: Float64Array): Float64Array {
+  if (p.condensed) out.set(p.condensed);
+  else frameLocalStiffness(p.E, p.A, p.I, p.frame.length, out);
+  return out;
 }
 
 export function prepareMembers(model: Model, nodeIndex: Map<string, number>): PreparedMember[] {
@@ -36,8 +46,8 @@ export function prepareMembers(model: Model, nodeIndex: Map<string, number>): Pr
     const frame = memberFrame(a.x, a.y, b.x, b.y);
     const I = m.I ?? 1;
     const released = releasedDofs(m.kind, m.releases?.startMoment ?? false, m.releases?.endMoment ?? false);
-    const k = condense(frameLocalStiffness(m.E, m.A, I, frame.length), null, released).k;
-    return { start, end, frame, E: m.E, A: m.A, I, hasBending: m.I !== undefined, released, k };
+    const condensed = released.length > 0 ? condense(frameLocalStiffness(m.E, m.A, I, frame.length), null, released).k : null;
+    return { start, end, frame, E: m.E, A: m.A, I, hasBending: m.I !== undefined, released, condensed };
   });
 }
 
@@ -67,11 +77,12 @@ export function memberDofs(p: PreparedMember, out = new Int32Array(6)): Int32Arr
 
 export function assembleStiffness(members: ReadonlyArray<PreparedMember>, dofs: DofMap): SymmetricCsc {
   const builder = new SymmetricTripletBuilder(dofs.nFree, 21 * members.length + dofs.nFree);
+  const k = new Float64Array(36);
   const K = new Float64Array(36);
   const g = new Int32Array(6);
   const eq = new Int32Array(6);
   for (const p of members) {
-    toGlobalStiffness(p.k, p.frame.c, p.frame.s, K);
+    toGlobalStiffness(localStiffness(p, k), p.frame.c, p.frame.s, K);
     memberDofs(p, g);
     for (let a = 0; a < 6; a++) eq[a] = dofs.equation[g[a]];
     for (let a = 0; a < 6; a++) {
@@ -135,11 +146,12 @@ export function caseRhs(
     }
   }
   if (D2) {
+    const k = new Float64Array(36);
     const K = new Float64Array(36);
     for (const p of members) {
       memberDofs(p, g);
       if (!g.some((gb) => D2[gb] !== 0)) continue;
-      toGlobalStiffness(p.k, p.frame.c, p.frame.s, K);
+      toGlobalStiffness(localStiffness(p, k), p.frame.c, p.frame.s, K);
       for (let a = 0; a < 6; a++) {
         const e = dofs.equation[g[a]];
         if (e < 0) continue;

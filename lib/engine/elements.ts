@@ -32,14 +32,14 @@ export function memberFrame(xi: number, yi: number, xj: number, yj: number): Mem
   return { length, c: dx / length, s: dy / length };
 }
 
-export function frameLocalStiffness(E: number, A: number, I: number, L: number): Float64Array {
+export function frameLocalStiffness(E: number, A: number, I: number, L: number, k: Float64Array = new Float64Array(36)): Float64Array {
   const a = (E * A) / L;
   const b = (E * I) / (L * L * L);
   const b12 = 12 * b;
   const b6 = 6 * L * b;
   const b4 = 4 * L * L * b;
   const b2 = 2 * L * L * b;
-  const k = new Float64Array(36);
+  k.fill(0);
   k[0] = k[21] = a;
   k[3] = k[18] = -a;
   k[7] = k[28] = b12;

@@ -10,7 +10,7 @@
  *   forces and moments the nodes apply to the member, along local x, y and counter-clockwise.
  */
 import { DOFS_PER_NODE, DofKind, type DofMap } from "./dofs";
-import { memberDofs, type PreparedMember } from "./assembly";
+import { localStiffness, memberDofs, type PreparedMember } from "./assembly";
 import { toGlobal, toLocal } from "./elements";
 import type { Model } from "./model";
 
@@ -93,14 +93,16 @@ export function recoverForces(
   const Dm = new Float64Array(6);
   const d = new Float64Array(6);
   const F = new Float64Array(6);
+  const k = new Float64Array(36);
   members.forEach((p, m) => {
+    localStiffness(p, k);
     memberDofs(p, g);
     for (let a = 0; a < 6; a++) Dm[a] = D[g[a]];
     toLocal(Dm, p.frame.c, p.frame.s, d);
     const o = 6 * m;
     for (let i = 0; i < 6; i++) {
       let v = fef[o + i];
-      for (let j = 0; j < 6; j++) v += p.k[i * 6 + j] * d[j];
+      for (let j = 0; j < 6; j++) v += k[i * 6 + j] * d[j];
       endForces[o + i] = v;
     }
     toGlobal(endForces.subarray(o, o + 6), p.frame.c, p.frame.s, F);
@@ -121,19 +123,23 @@ export function equilibriumResidual(model: Model, applied: ArrayLike<number>, re
   let mz = 0;
   let scaleF = 0;
   let scaleM = 0;
-  model.nodes.forEach((node, n) => {
+  const nodes = model.nodes;
+  for (let n = 0; n < nodes.length; n++) {
+    const { x, y } = nodes[n];
     const o = DOFS_PER_NODE * n;
-    for (const v of [applied, reactions]) {
+    // Applied loads and reactions are summed the same way: each is a force system acting on the structure.
+    for (let pass = 0; pass < 2; pass++) {
+      const v = pass === 0 ? applied : reactions;
       const X = v[o];
       const Y = v[o + 1];
       const M = v[o + 2];
       fx += X;
       fy += Y;
-      mz += node.x * Y - node.y * X + M;
+      mz += x * Y - y * X + M;
       scaleF += Math.abs(X) + Math.abs(Y);
-      scaleM += Math.abs(node.x * Y) + Math.abs(node.y * X) + Math.abs(M);
+      scaleM += Math.abs(x * Y) + Math.abs(y * X) + Math.abs(M);
     }
-  });
+  }
   const rf = scaleF > 0 ? Math.max(Math.abs(fx), Math.abs(fy)) / scaleF : 0;
   const rm = scaleM > 0 ? Math.abs(mz) / scaleM : 0;
   return { fx, fy, mz, relative: Math.max(rf, rm) };

@@ -90,45 +90,59 @@ export interface CscMatrix {
   values: Float64Array;
 }
 
-/** Lower triangle of C = P A Pᵀ where pinv[i] is the new position of original index i; rows unsorted. */
-export function permuteToLower(a: SymmetricCsc, pinv: Int32Array): CscMatrix {
+/** Both triangles of A (diagonal once), for gathering whole columns in any order. */
+export function expandSymmetric(a: SymmetricCsc): CscMatrix {
   const { n, colPtr, rowIdx, values } = a;
-  const outPtr = new Int32Array(n + 1);
+  const ptr = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) {
-    const pj = pinv[j];
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
-      const pi = pinv[rowIdx[p]];
-      outPtr[(pi < pj ? pi : pj) + 1]++;
+      const i = rowIdx[p];
+      ptr[j + 1]++;
+      if (i !== j) ptr[i + 1]++;
     }
   }
-  for (let k = 0; k < n; k++) outPtr[k + 1] += outPtr[k];
-  const nnz = outPtr[n];
-  const outRow = new Int32Array(nnz);
-  const outVal = new Float64Array(nnz);
-  const fill = outPtr.slice(0, n);
+  for (let k = 0; k < n; k++) ptr[k + 1] += ptr[k];
+  const idx = new Int32Array(ptr[n]);
+  const val = new Float64Array(ptr[n]);
+  const fill = ptr.slice(0, n);
   for (let j = 0; j < n; j++) {
-    const pj = pinv[j];
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
-      const pi = pinv[rowIdx[p]];
-      const dst = pi < pj ? fill[pi]++ : fill[pj]++;
-      outRow[dst] = pi < pj ? pj : pi;
-      outVal[dst] = values[p];
+      const i = rowIdx[p];
+      let q = fill[j]++;
+      idx[q] = i;
+      val[q] = values[p];
+      if (i !== j) {
+        q = fill[i]++;
+        idx[q] = j;
+        val[q] = values[p];
+      }
     }
   }
-  return { n, colPtr: outPtr, rowIdx: outRow, values: outVal };
+  return { n, colPtr: ptr, rowIdx: idx, values: val };
 }
 
-/** Pattern of the transpose (for a lower-triangular input: the upper triangle, i.e. the rows of L's pattern in A). */
-export function transposePattern(c: CscMatrix): { colPtr: Int32Array; rowIdx: Int32Array } {
-  const { n, colPtr, rowIdx } = c;
-  const nnz = colPtr[n];
-  const tPtr = new Int32Array(n + 1);
-  for (let p = 0; p < nnz; p++) tPtr[rowIdx[p] + 1]++;
-  for (let k = 0; k < n; k++) tPtr[k + 1] += tPtr[k];
-  const tIdx = new Int32Array(nnz);
-  const fill = tPtr.slice(0, n);
-  for (let j = 0; j < n; j++) {
-    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) tIdx[fill[rowIdx[p]]++] = j;
+/**
+ * Lower triangle of C = P A Pᵀ (perm[k] = original index placed k-th, pinv its inverse) from the
+ * expanded A; rows unsorted. Gathering column by column in the new order writes sequentially,
+ * which is several times faster than scattering entries to random columns once n is large.
+ */
+export function permuteToLower(full: CscMatrix, perm: Int32Array, pinv: Int32Array): CscMatrix {
+  const { n, colPtr, rowIdx, values } = full;
+  const nnz = (colPtr[n] + n) / 2;
+  const outPtr = new Int32Array(n + 1);
+  const outRow = new Int32Array(nnz);
+  const outVal = new Float64Array(nnz);
+  let q = 0;
+  for (let k = 0; k < n; k++) {
+    const j = perm[k];
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const pi = pinv[rowIdx[p]];
+      if (pi >= k) {
+        outRow[q] = pi;
+        outVal[q++] = values[p];
+      }
+    }
+    outPtr[k + 1] = q;
   }
-  return { colPtr: tPtr, rowIdx: tIdx };
+  return { n, colPtr: outPtr, rowIdx: outRow, values: outVal };
 }

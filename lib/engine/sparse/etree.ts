@@ -4,16 +4,21 @@ import type { CscMatrix } from "./csc";
 // in T. A. Davis, Direct Methods for Sparse Linear Systems (SIAM 2006), written from memory.
 // Column counts use the row-subtree skeleton method of Gilbert, Ng & Peyton (1994): O(nnz(A) α).
 
-/** parent[j] of the elimination tree (-1 for roots) from the upper triangle's pattern (column k lists i < k). */
-export function computeEliminationTree(n: number, upperPtr: Int32Array, upperIdx: Int32Array): Int32Array {
+/**
+ * parent[k] of the elimination tree of P A Pᵀ (-1 for roots), read straight from the expanded A
+ * (both triangles): row k of the permuted lower triangle is column perm[k] of A mapped through pinv.
+ */
+export function computeEliminationTree(full: CscMatrix, perm: Int32Array, pinv: Int32Array): Int32Array {
+  const { n, colPtr, rowIdx } = full;
   const parent = new Int32Array(n);
   const ancestor = new Int32Array(n);
   for (let k = 0; k < n; k++) {
     parent[k] = -1;
     ancestor[k] = -1;
-    for (let p = upperPtr[k]; p < upperPtr[k + 1]; p++) {
+    const j = perm[k];
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
       // Walk from i to the root of its current subtree, compressing the path to k.
-      let i = upperIdx[p];
+      let i = pinv[rowIdx[p]];
       while (i !== -1 && i < k) {
         const next = ancestor[i];
         ancestor[i] = k;

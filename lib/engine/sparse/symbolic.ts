@@ -1,4 +1,4 @@
-import { permuteToLower, transposePattern, type CscMatrix } from "./csc";
+import { expandSymmetric, permuteToLower, type CscMatrix } from "./csc";
 import { computeEliminationTree, countColumns } from "./etree";
 import { invertPermutation } from "./ordering";
 import { buildSupernodes, type SupernodalStructure } from "./supernodes";
@@ -18,10 +18,10 @@ export interface SymbolicAnalysis {
 /** Elimination tree, postorder (so supernodes are contiguous), column counts and supernodes. */
 export function analyzeSymbolic(a: SymmetricCsc, fillReducing: Int32Array): SymbolicAnalysis {
   const n = a.n;
+  const full = expandSymmetric(a);
   let perm = fillReducing;
-  let permuted = permuteToLower(a, invertPermutation(perm));
-  const upper = transposePattern(permuted);
-  let parent = computeEliminationTree(n, upper.colPtr, upper.rowIdx);
+  let pinv = invertPermutation(perm);
+  let parent = computeEliminationTree(full, perm, pinv);
   const post = postorderForest(parent);
   let isIdentity = true;
   for (let k = 0; k < n && isIdentity; k++) isIdentity = post[k] === k;
@@ -30,7 +30,7 @@ export function analyzeSymbolic(a: SymmetricCsc, fillReducing: Int32Array): Symb
     const composed = new Int32Array(n);
     for (let k = 0; k < n; k++) composed[k] = perm[post[k]];
     perm = composed;
-    permuted = permuteToLower(a, invertPermutation(perm));
+    pinv = invertPermutation(perm);
     const postInv = invertPermutation(post);
     const relabeled = new Int32Array(n);
     for (let k = 0; k < n; k++) {
@@ -39,6 +39,7 @@ export function analyzeSymbolic(a: SymmetricCsc, fillReducing: Int32Array): Symb
     }
     parent = relabeled;
   }
+  const permuted = permuteToLower(full, perm, pinv);
   const colCount = countColumns(permuted, parent);
   let nnzL = 0;
   for (let j = 0; j < n; j++) nnzL += colCount[j];

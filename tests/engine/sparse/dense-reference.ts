@@ -1,5 +1,5 @@
-import type { SymmetricCsc } from "../../../lib/engine/sparse";
-import { SymmetricTripletBuilder } from "../../../lib/engine/sparse";
+import type { SymmetricCsc } from "@/lib/engine/sparse";
+import { SymmetricTripletBuilder } from "@/lib/engine/sparse";
 
 /** Deterministic LCG (Numerical Recipes constants) so failures reproduce. */
 export function createRandom(seed: number): () => number {

@@ -1,4 +1,4 @@
-import { SymmetricTripletBuilder, type SymmetricCsc } from "../../../lib/engine/sparse";
+import { SymmetricTripletBuilder, type SymmetricCsc } from "@/lib/engine/sparse";
 
 /** Stiffness pattern and values of a regular multi-storey, multi-bay 2D frame: 3 equations (u, v, θ) per node, fixed base nodes dropped. */
 export interface FrameMatrix {

@@ -22,6 +22,13 @@ export function uniqueIp(): string {
   return `198.51.${a}.${b === 0 ? 1 : b}`;
 }
 
+// scrypt is slow on purpose; one hash per distinct password is enough for test users.
+const hashes = new Map<string, Promise<string>>();
+function hashOnce(password: string): Promise<string> {
+  if (!hashes.has(password)) hashes.set(password, hashPassword(password));
+  return hashes.get(password)!;
+}
+
 export async function createTestUser({
   role,
   label = role,
@@ -42,7 +49,7 @@ export async function createTestUser({
     accountId: id,
     providerId: "credential",
     userId: id,
-    password: await hashPassword(password),
+    password: await hashOnce(password),
   });
   return { actor: { id, name, email, role }, password };
 }

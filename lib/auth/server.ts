@@ -14,6 +14,7 @@ import { eq } from "drizzle-orm";
 import { db } from "@/db";
 import { account, rateLimit, session, user, verification } from "@/db/schema";
 import { recordAuditEvent } from "@/lib/data/audit";
+import { consumeRateLimit } from "@/lib/data/rate-limit";
 import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "@/lib/data/auth-schemas";
 import { sendMail } from "@/lib/mail/send-mail";
 import { renderPasswordResetMail } from "@/lib/mail/templates";
@@ -23,10 +24,13 @@ export const ACCOUNT_DEACTIVATED_MESSAGE =
   "This account has been deactivated. Ask your admin to reactivate it.";
 
 /**
- * Sign-in attempts per client address per minute (successful ones count too). GUSSET_SIGN_IN_RATE_LIMIT_MAX
- * may raise it where many people share one address.
+ * Sign-in attempts per minute for one account from one client address (successful ones count too).
+ * Checked in handleAuthRequest: better-auth keys its limits on the address alone, and a whole office
+ * behind one NAT address would lock itself out at 9 a.m. GUSSET_SIGN_IN_RATE_LIMIT_MAX may change it.
  */
 export const SIGN_IN_RATE_LIMIT = { window: 60, max: Number(process.env.GUSSET_SIGN_IN_RATE_LIMIT_MAX) || 5 };
+/** All sign-in attempts from one client address per minute, whatever the account (better-auth's rule). */
+export const SIGN_IN_ADDRESS_RATE_LIMIT = { window: 60, max: 30 };
 export const PASSWORD_RESET_RATE_LIMIT = { window: 60, max: 3 };
 
 function readList(value: string | undefined): string[] {
@@ -187,7 +191,7 @@ export const auth = betterAuth({
     storage: "database",
     modelName: "rateLimit",
     customRules: {
-      "/sign-in/email": SIGN_IN_RATE_LIMIT,
+      "/sign-in/email": SIGN_IN_ADDRESS_RATE_LIMIT,
       "/request-password-reset": PASSWORD_RESET_RATE_LIMIT,
       "/reset-password": { window: 60, max: 10 },
     },
@@ -223,26 +227,61 @@ export const auth = betterAuth({
 
 export type Auth = typeof auth;
 
-/**
- * The HTTP entry for /api/auth/*. Rate-limited requests are answered by better-auth before any hook
- * runs, so the refused sign-in attempt is written to the audit trail here.
- */
-export async function handleAuthRequest(request: Request): Promise<Response> {
-  const path = new URL(request.url).pathname;
-  const isSignIn = request.method === "POST" && path.endsWith("/sign-in/email");
-  const copy = isSignIn ? request.clone() : null;
-  const response = await auth.handler(request);
-  if (copy && response.status === 429) {
-    const email = readEmail(await copy.json().catch(() => null));
-    const known = email ? await findUserByEmail(email).catch(() => null) : null;
+/** The e-mail a sign-in request names, from a JSON or form body; the request itself stays unread. */
+async function readRequestEmail(request: Request): Promise<string | null> {
+  const copy = request.clone();
+  if ((copy.headers.get("content-type") ?? "").includes("application/x-www-form-urlencoded")) {
+    const form = await copy.formData().catch(() => null);
+    return readEmail({ email: form?.get("email") });
+  }
+  return readEmail(await copy.json().catch(() => null));
+}
+
+async function auditRateLimitedSignIn(email: string | null, ipAddress: string | null): Promise<void> {
+  try {
+    const known = email ? await findUserByEmail(email) : null;
     await recordAuditEvent({
       action: "auth.sign-in.failed",
       actorId: known?.id ?? null,
       actorEmail: email,
       subject: known ? `user:${known.id}` : null,
       details: { reason: "RATE_LIMITED", knownUser: Boolean(known) },
-      ipAddress: getIP(request, auth.options),
-    }).catch((error) => console.error("[gusset] could not write the auth audit event:", error));
+      ipAddress,
+    });
+  } catch (error) {
+    console.error("[gusset] could not write the auth audit event:", error);
   }
+}
+
+function tooManyRequests(retryAfterSeconds: number): Response {
+  return Response.json(
+    { code: "TOO_MANY_REQUESTS", message: "Too many requests. Please try again later." },
+    { status: 429, headers: { "X-Retry-After": String(retryAfterSeconds) } },
+  );
+}
+
+/**
+ * The HTTP entry for /api/auth/*. Sign-in attempts are first counted per account and address (see
+ * SIGN_IN_RATE_LIMIT); every refused attempt, ours or better-auth's per-address one (answered before
+ * any hook runs), is written to the audit trail here.
+ */
+export async function handleAuthRequest(request: Request): Promise<Response> {
+  const isSignIn = request.method === "POST" && new URL(request.url).pathname.endsWith("/sign-in/email");
+  if (!isSignIn) return auth.handler(request);
+  const email = await readRequestEmail(request);
+  const ipAddress = getIP(request, auth.options);
+  if (email) {
+    const decision = await consumeRateLimit({
+      key: `sign-in|${ipAddress ?? "no-trusted-ip"}|${email}`,
+      windowSeconds: SIGN_IN_RATE_LIMIT.window,
+      max: SIGN_IN_RATE_LIMIT.max,
+    });
+    if (!decision.allowed) {
+      await auditRateLimitedSignIn(email, ipAddress);
+      return tooManyRequests(decision.retryAfterSeconds);
+    }
+  }
+  const response = await auth.handler(request);
+  if (response.status === 429) await auditRateLimitedSignIn(email, ipAddress);
   return response;
 }

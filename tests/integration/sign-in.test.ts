@@ -2,7 +2,7 @@
 // answer and changes nothing but the failed-sign-in audit event; attempts are rate-limited per address.
 import { describe, expect, it } from "vitest";
 import { describeAuthError } from "@/lib/auth/client";
-import { SIGN_IN_RATE_LIMIT, handleAuthRequest } from "@/lib/auth/server";
+import { SIGN_IN_ADDRESS_RATE_LIMIT, SIGN_IN_RATE_LIMIT, handleAuthRequest } from "@/lib/auth/server";
 import { auditEventsFor, countRows, createTestUser, uniqueEmail, uniqueIp } from "./helpers/people";
 
 const BASE = (process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000").replace(/\/+$/, "");
@@ -91,20 +91,36 @@ describe("sign-in", () => {
     expect(ok.status).toBe(200);
   });
 
-  it(`allows ${SIGN_IN_RATE_LIMIT.max} attempts a minute per address, then answers 429 and audits the refusal`, async () => {
+  it(`allows ${SIGN_IN_RATE_LIMIT.max} attempts a minute per account and address, then answers 429 and audits the refusal`, async () => {
     const { actor, password } = await createTestUser({ role: "engineer" });
+    const { actor: colleague, password: colleaguePassword } = await createTestUser({ role: "lead" });
     const ip = uniqueIp();
     for (let attempt = 1; attempt <= SIGN_IN_RATE_LIMIT.max; attempt++) {
       expect((await post("/sign-in/email", { email: actor.email, password: "wrong-password-x" }, { ip })).status).toBe(401);
     }
+    const before = await countRows();
     // Even the right password is refused until the window has passed.
     const limited = await post("/sign-in/email", { email: actor.email, password }, { ip });
     expect(limited.status).toBe(429);
     expect(Number(limited.headers.get("x-retry-after"))).toBeGreaterThan(0);
     expect(describeAuthError({ status: 429 })).toMatch(/Too many attempts/);
+    expect(changedTables(before, await countRows())).toEqual(["audit_events"]);
     const events = await auditEventsFor({ action: "auth.sign-in.failed", actorEmail: actor.email });
     expect(events.map((e) => e.details.reason)).toContain("RATE_LIMITED");
-    // Another address is not affected.
+    // A colleague behind the same office address is not locked out, nor is the account from elsewhere.
+    expect((await post("/sign-in/email", { email: colleague.email, password: colleaguePassword }, { ip })).status).toBe(200);
     expect((await post("/sign-in/email", { email: actor.email, password })).status).toBe(200);
+  });
+
+  it(`allows ${SIGN_IN_ADDRESS_RATE_LIMIT.max} attempts a minute per address across accounts`, async () => {
+    const ip = uniqueIp();
+    for (let attempt = 1; attempt <= SIGN_IN_ADDRESS_RATE_LIMIT.max; attempt++) {
+      const result = await post("/sign-in/email", { email: uniqueEmail("spray"), password: "guess-password" }, { ip });
+      expect(result.status).toBe(401);
+    }
+    const email = uniqueEmail("spray");
+    expect((await post("/sign-in/email", { email, password: "guess-password" }, { ip })).status).toBe(429);
+    const [event] = await auditEventsFor({ action: "auth.sign-in.failed", actorEmail: email });
+    expect(event.details).toMatchObject({ reason: "RATE_LIMITED", knownUser: false });
   });
 });

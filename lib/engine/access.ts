@@ -4,7 +4,7 @@
  */
 import type { AnalysisResult } from "./analysis-types";
 import type { CaseResult } from "./results";
-import { DOFS_PER_NODE } from "./dofs";
+import { globalDof } from "./dofs";
 
 export interface NodeVector {
   readonly ux: number;
@@ -38,13 +38,13 @@ function indexOrThrow(ids: ReadonlyArray<string>, id: string, what: string): num
 }
 
 export function nodeDisplacement(result: AnalysisResult, nodeId: string, caseOrCombo: string): NodeVector {
-  const o = DOFS_PER_NODE * indexOrThrow(result.nodeIds, nodeId, "node");
+  const o = globalDof(indexOrThrow(result.nodeIds, nodeId, "node"), 0);
   const d = resultFor(result, caseOrCombo).displacements;
   return { ux: d[o], uy: d[o + 1], rz: d[o + 2] };
 }
 
 export function nodeReaction(result: AnalysisResult, nodeId: string, caseOrCombo: string): NodeForce {
-  const o = DOFS_PER_NODE * indexOrThrow(result.nodeIds, nodeId, "node");
+  const o = globalDof(indexOrThrow(result.nodeIds, nodeId, "node"), 0);
   const r = resultFor(result, caseOrCombo).reactions;
   return { fx: r[o], fy: r[o + 1], mz: r[o + 2] };
 }

@@ -6,7 +6,7 @@
 import { validateModel } from "./validate";
 import { resolveCaseLoads, type CaseLoads } from "./loads";
 import { assembleStiffness, caseFixedEndForces, casePrescribed, caseRhs, prepareMembers, rotationalStiffness } from "./assembly";
-import { buildDofMap, DOFS_PER_NODE, DofKind } from "./dofs";
+import { buildDofMap, DofKind, globalDof, RZ } from "./dofs";
 import { factorStiffness, relativeResidual } from "./solve";
 import { appliedNodalLoads, equilibriumResidual, fullDisplacements, recoverForces, type CaseResult, type CaseVectors } from "./results";
 import { combineCases, envelopeResults, type EnvelopeResult } from "./combinations";
@@ -47,7 +47,7 @@ export function analyze(input: unknown): AnalysisOutcome {
   // A moment applied where nothing resists rotation cannot be carried: name the node.
   for (const loads of caseLoads) {
     for (let n = 0; n < model.nodes.length; n++) {
-      if (dofs.kind[DOFS_PER_NODE * n + 2] === DofKind.NoStiffness && loads.nodal[DOFS_PER_NODE * n + 2] !== 0) {
+      if (dofs.kind[globalDof(n, RZ)] === DofKind.NoStiffness && loads.nodal[globalDof(n, RZ)] !== 0) {
         return { ok: false, errors: [unstableError(model.nodes[n].id, "rz")] };
       }
     }

@@ -4,8 +4,8 @@
  *   K11 D1 = P1 − FEF1 − K12 D2   (D2 = prescribed displacements of restrained DOFs).
  */
 import type { Model } from "./model";
-import { DOFS_PER_NODE, DofKind, prescribedValue, type DofMap } from "./dofs";
-import { condense, frameLocalStiffness, memberFrame, releasedDofs, toGlobal, toGlobalStiffness, type MemberFrame } from "./elements";
+import { DOFS_PER_NODE, DofKind, dofLocation, globalDof, prescribedValue, type DofMap } from "./dofs";
+import { condense, frameLocalStiffness, memberFrame, releasedDofs, THETA_I, THETA_J, toGlobal, toGlobalStiffness, type MemberFrame } from "./elements";
 import { fixedEndForces, type CaseLoads } from "./loads";
 import { SymmetricTripletBuilder, type SymmetricCsc } from "./sparse";
 
@@ -60,8 +60,8 @@ export function fullLocalStiffness(p: PreparedMember): Float64Array {
 export function rotationalStiffness(model: Model, members: ReadonlyArray<PreparedMember>): boolean[] {
   const stiff = model.nodes.map((n) => (n.support?.rz ?? "free") !== "free");
   for (const p of members) {
-    if (!p.released.includes(2)) stiff[p.start] = true;
-    if (!p.released.includes(5)) stiff[p.end] = true;
+    if (!p.released.includes(THETA_I)) stiff[p.start] = true;
+    if (!p.released.includes(THETA_J)) stiff[p.end] = true;
   }
   return stiff;
 }
@@ -69,8 +69,8 @@ export function rotationalStiffness(model: Model, members: ReadonlyArray<Prepare
 /** Global DOF indices of a member's six DOFs. */
 export function memberDofs(p: PreparedMember, out = new Int32Array(6)): Int32Array {
   for (let d = 0; d < DOFS_PER_NODE; d++) {
-    out[d] = DOFS_PER_NODE * p.start + d;
-    out[DOFS_PER_NODE + d] = DOFS_PER_NODE * p.end + d;
+    out[d] = globalDof(p.start, d);
+    out[DOFS_PER_NODE + d] = globalDof(p.end, d);
   }
   return out;
 }
@@ -118,7 +118,8 @@ export function casePrescribed(model: Model, dofs: DofMap, caseId: string): Floa
   let D2: Float64Array | null = null;
   for (let g = 0; g < dofs.kind.length; g++) {
     if (dofs.kind[g] !== DofKind.Prescribed) continue;
-    const v = prescribedValue(model, Math.floor(g / DOFS_PER_NODE), g % DOFS_PER_NODE, caseId);
+    const { node, direction } = dofLocation(g);
+    const v = prescribedValue(model, node, direction, caseId);
     if (v !== 0) (D2 ??= new Float64Array(dofs.kind.length))[g] = v;
   }
   return D2;

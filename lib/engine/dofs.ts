@@ -14,8 +14,18 @@ export const DOF_NAMES = ["ux", "uy", "rz"] as const;
 export type DofName = (typeof DOF_NAMES)[number];
 export const DOFS_PER_NODE = DOF_NAMES.length;
 
+/** Direction indices within a node's three DOFs. */
+export const UX = 0;
+export const UY = 1;
+export const RZ = 2;
+
 export function globalDof(node: number, direction: number): number {
   return DOFS_PER_NODE * node + direction;
+}
+
+/** The node and direction of a global DOF index (inverse of `globalDof`). */
+export function dofLocation(g: number): { node: number; direction: number } {
+  return { node: Math.floor(g / DOFS_PER_NODE), direction: g % DOFS_PER_NODE };
 }
 
 /** How a global DOF is treated. */

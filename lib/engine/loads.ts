@@ -6,7 +6,7 @@
  * along local axes), so f = k d + fef. The equivalent nodal loads are −FEF (global).
  */
 import type { Load, Model } from "./model";
-import { DOFS_PER_NODE } from "./dofs";
+import { DOFS_PER_NODE, globalDof, RZ, UX, UY } from "./dofs";
 import type { MemberFrame } from "./elements";
 
 /** Standard gravity, m/s², for self-weight from density. */
@@ -72,9 +72,9 @@ function addDistributed(target: SpanLoads, px: [number, number], py: [number, nu
 function addLoad(load: Load, model: Model, frames: ReadonlyArray<MemberFrame>, index: IdIndex, out: CaseLoads): void {
   if (load.kind === "nodal") {
     const n = index.node.get(load.node)!;
-    out.nodal[DOFS_PER_NODE * n] += load.fx;
-    out.nodal[DOFS_PER_NODE * n + 1] += load.fy;
-    out.nodal[DOFS_PER_NODE * n + 2] += load.mz;
+    out.nodal[globalDof(n, UX)] += load.fx;
+    out.nodal[globalDof(n, UY)] += load.fy;
+    out.nodal[globalDof(n, RZ)] += load.mz;
     return;
   }
   if (load.kind === "self-weight") {

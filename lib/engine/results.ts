@@ -9,7 +9,7 @@
  * - Member end forces are local, in the stiffness convention: [fx_i, fy_i, mz_i, fx_j, fy_j, mz_j] are the
  *   forces and moments the nodes apply to the member, along local x, y and counter-clockwise.
  */
-import { DOFS_PER_NODE, DofKind, type DofMap } from "./dofs";
+import { DofKind, globalDof, type DofMap } from "./dofs";
 import { localStiffness, memberDofs, type PreparedMember } from "./assembly";
 import { toGlobal, toLocal } from "./elements";
 import type { Model } from "./model";
@@ -126,7 +126,7 @@ export function equilibriumResidual(model: Model, applied: ArrayLike<number>, re
   const nodes = model.nodes;
   for (let n = 0; n < nodes.length; n++) {
     const { x, y } = nodes[n];
-    const o = DOFS_PER_NODE * n;
+    const o = globalDof(n, 0);
     // Applied loads and reactions are summed the same way: each is a force system acting on the structure.
     for (let pass = 0; pass < 2; pass++) {
       const v = pass === 0 ? applied : reactions;

@@ -6,7 +6,7 @@ import type { AnalysisResult } from "./analysis-types";
 import type { CaseResult } from "./results";
 import type { VectorEnvelope } from "./combinations";
 import { memberDiagram, memberEnvelope } from "./diagrams";
-import { DOF_NAMES, DOFS_PER_NODE } from "./dofs";
+import { DOF_NAMES, DOFS_PER_NODE, globalDof } from "./dofs";
 
 export interface SerializeOptions {
   /** Include sampled diagrams with this many uniform points per member (0 or omitted = extremes only). */
@@ -21,7 +21,7 @@ function perNode(ids: ReadonlyArray<string>, v: ArrayLike<number>, names: Readon
   const out: Record<string, Record<string, number>> = {};
   ids.forEach((id, n) => {
     if (!keep(n)) return;
-    out[id] = Object.fromEntries(names.map((name, d) => [name, v[DOFS_PER_NODE * n + d]]));
+    out[id] = Object.fromEntries(names.map((name, d) => [name, v[globalDof(n, d)]]));
   });
   return out;
 }
@@ -38,7 +38,7 @@ function perMember(ids: ReadonlyArray<string>, v: ArrayLike<number>) {
 function supported(result: AnalysisResult): (n: number) => boolean {
   // A node has reactions to report when any of its results is non-zero in any case (fixed or spring DOFs).
   const all = [...Object.values(result.loadCases), ...Object.values(result.combinations)];
-  return (n) => all.some((r) => r.reactions[3 * n] !== 0 || r.reactions[3 * n + 1] !== 0 || r.reactions[3 * n + 2] !== 0);
+  return (n) => all.some((r) => DOF_NAMES.some((_, d) => r.reactions[globalDof(n, d)] !== 0));
 }
 
 function caseToJson(result: AnalysisResult, r: CaseResult, options: SerializeOptions): Json {

@@ -3,7 +3,7 @@
  * A pivot failure is mapped back to the node and direction that is free, as an `unstable` error.
  */
 import type { Model } from "./model";
-import { DOF_NAMES, DOFS_PER_NODE, type DofMap } from "./dofs";
+import { DOF_NAMES, DOFS_PER_NODE, dofLocation, type DofMap } from "./dofs";
 import { unstableError, type EngineError } from "./diagnostics";
 import { factorizeSymmetric, multiplySymmetric, type CholeskyFactor, type FactorStats, type SymmetricCsc } from "./sparse";
 
@@ -15,9 +15,9 @@ export function factorStiffness(model: Model, K: SymmetricCsc, dofs: DofMap): Fa
     blockSize: dofs.uniformBlocks ? DOFS_PER_NODE : 1,
   });
   if (result.ok) return { ok: true, factor: result.factor, stats: result.factor.stats };
-  const g = dofs.freeToGlobal[result.equation];
-  const node = model.nodes[Math.floor(g / DOFS_PER_NODE)].id;
-  return { ok: false, error: unstableError(node, DOF_NAMES[g % DOFS_PER_NODE]), stats: result.stats };
+  // The factorisation reports the equation in original numbering; map it back to the node and direction.
+  const { node, direction } = dofLocation(dofs.freeToGlobal[result.equation]);
+  return { ok: false, error: unstableError(model.nodes[node].id, DOF_NAMES[direction]), stats: result.stats };
 }
 
 function norm2(v: Float64Array): number {

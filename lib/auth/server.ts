@@ -71,6 +71,19 @@ function readEmail(body: unknown): string | null {
   return typeof email === "string" ? email.trim().toLowerCase().slice(0, 320) : null;
 }
 
+/** `reason` is better-auth's error code (INVALID_EMAIL_OR_PASSWORD, ACCOUNT_DEACTIVATED, …) or RATE_LIMITED. */
+async function auditFailedSignIn(email: string | null, reason: string, ipAddress: string | null): Promise<void> {
+  const known = email ? await findUserByEmail(email) : null;
+  await recordAuditEvent({
+    action: "auth.sign-in.failed",
+    actorId: known?.id ?? null,
+    actorEmail: email,
+    subject: known ? `user:${known.id}` : null,
+    details: { reason, knownUser: Boolean(known) },
+    ipAddress,
+  });
+}
+
 /** Audit trail for sign-in attempts and password resets, read from what the endpoint returned. */
 async function auditAuthEndpoint(ctx: HookContext): Promise<void> {
   const returned = ctx.context.returned;
@@ -89,16 +102,7 @@ async function auditAuthEndpoint(ctx: HookContext): Promise<void> {
       });
       return;
     }
-    const known = email ? await findUserByEmail(email) : null;
-    const reason = (returned as APIError).body?.code ?? "UNKNOWN";
-    await recordAuditEvent({
-      action: "auth.sign-in.failed",
-      actorId: known?.id ?? null,
-      actorEmail: email,
-      subject: known ? `user:${known.id}` : null,
-      details: { reason, knownUser: Boolean(known) },
-      ipAddress,
-    });
+    await auditFailedSignIn(email, (returned as APIError).body?.code ?? "UNKNOWN", ipAddress);
   } else if (ctx.path === "/request-password-reset") {
     const email = readEmail(ctx.body);
     const known = email ? await findUserByEmail(email) : null;
@@ -238,19 +242,9 @@ async function readRequestEmail(request: Request): Promise<string | null> {
 }
 
 async function auditRateLimitedSignIn(email: string | null, ipAddress: string | null): Promise<void> {
-  try {
-    const known = email ? await findUserByEmail(email) : null;
-    await recordAuditEvent({
-      action: "auth.sign-in.failed",
-      actorId: known?.id ?? null,
-      actorEmail: email,
-      subject: known ? `user:${known.id}` : null,
-      details: { reason: "RATE_LIMITED", knownUser: Boolean(known) },
-      ipAddress,
-    });
-  } catch (error) {
-    console.error("[gusset] could not write the auth audit event:", error);
-  }
+  await auditFailedSignIn(email, "RATE_LIMITED", ipAddress).catch((error) =>
+    console.error("[gusset] could not write the auth audit event:", error),
+  );
 }
 
 function tooManyRequests(retryAfterSeconds: number): Response {

@@ -121,6 +121,26 @@ describe("load directions", () => {
   });
 });
 
+describe("stresses", () => {
+  it("extreme-fibre stresses are N/A ∓ M·c/I, tension positive", () => {
+    const L = 6;
+    const w = 10e3;
+    const model = lineBeam([L], ["pin", "roller"], [
+      { kind: "distributed", member: "m1", direction: "global-y", wStart: -w },
+      { kind: "point", member: "m1", direction: "local-x", position: L, value: 200e3 },
+    ]);
+    model.members![0] = { ...model.members![0], cTop: 0.1, cBottom: 0.2 };
+    const r = analyzeOrThrow(model);
+    const d = memberDiagram(r, "m1", "L");
+    const M = (w * L * L) / 8;
+    // 200 kN pulls the roller end: tension N = 200 kN throughout; sagging M puts the bottom fibre in tension.
+    expectClose(d.valueAt(L / 2).N, 200e3);
+    expectClose(d.extremes.stressBottom!.max.value, 200e3 / 5e-3 + (M * 0.2) / I);
+    expectClose(d.extremes.stressTop!.min.value, 200e3 / 5e-3 - (M * 0.1) / I);
+    expectClose(d.extremes.stressTop!.min.x, L / 2);
+  });
+});
+
 describe("combinations and envelopes", () => {
   const base = randomFrame(42, { releases: true });
   const loads = base.loadCases![0].loads!;

@@ -2,7 +2,9 @@ import Link from "next/link";
 import { GussetMark } from "@/components/gusset-mark";
 import { buttonClasses } from "@/components/ui/button";
 
-// The frame for 403 and 404 pages: they render outside the signed-in shell (root layout only).
+// The frame for 403 and 404 pages. A 403 from a signed-in page renders inside the shell (which has
+// the brand already), a 404 for an unknown address renders alone: the `in-[.app-shell-main]` variants
+// drop the brand and the full height when an ancestor is the shell's main area.
 export function StatusPage({
   code,
   title,
@@ -15,13 +17,13 @@ export function StatusPage({
   testId: string;
 }) {
   return (
-    <main className="grid min-h-dvh place-items-center px-6" data-testid={testId}>
+    <section className="grid min-h-dvh place-items-center px-6 in-[.app-shell-main]:min-h-[60dvh]" data-testid={testId}>
       <div className="w-full max-w-lg">
-        <div className="flex items-center gap-2.5 text-plate-700">
+        <div className="mb-10 flex items-center gap-2.5 text-plate-700 in-[.app-shell-main]:hidden">
           <GussetMark className="h-7 w-7" />
           <span className="text-lg font-semibold tracking-tight text-ink-950">Gusset</span>
         </div>
-        <p className="mt-10 font-mono text-sm text-ink-400 tabular">{code}</p>
+        <p className="font-mono text-sm text-ink-400 tabular">{code}</p>
         <h1 className="mt-1 text-2xl font-semibold tracking-tight text-ink-950">{title}</h1>
         <div className="mt-3 space-y-3 text-[0.95rem] leading-relaxed text-ink-700">{children}</div>
         <div className="mt-8 flex gap-3">
@@ -30,6 +32,6 @@ export function StatusPage({
           </Link>
         </div>
       </div>
-    </main>
+    </section>
   );
 }

@@ -40,7 +40,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
           </p>
           <UserMenu name={actor.name} email={actor.email} roleLabel={ROLE_LABELS[actor.role]} />
         </header>
-        <main className="mx-auto w-full max-w-6xl flex-1 px-6 py-8" data-testid="app-main" data-role={actor.role}>
+        <main className="app-shell-main mx-auto w-full max-w-6xl flex-1 px-6 py-8" data-testid="app-main" data-role={actor.role}>
           {children}
         </main>
       </div>

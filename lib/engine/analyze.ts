@@ -53,6 +53,10 @@ export function analyze(input: unknown): AnalysisOutcome {
     }
   }
   const K: SymmetricCsc | null = dofs.nFree > 0 ? assembleStiffness(members, dofs) : null;
+  // Finite inputs can still overflow (E = 1e300): stop here with a message rather than let NaN spread.
+  if (K && !allFinite(K.values)) {
+    return { ok: false, errors: [{ kind: "numerical", message: "The stiffness matrix overflows; check the magnitudes of E, A, I and spring stiffnesses (SI units: Pa, m², m⁴)" }] };
+  }
   const tAssembled = performance.now();
 
   let factor: CholeskyFactor | null = null;
@@ -72,6 +76,10 @@ export function analyze(input: unknown): AnalysisOutcome {
     const fef = caseFixedEndForces(members, caseLoads[c]);
     const D2 = casePrescribed(model, dofs, lc.id);
     const rhs = caseRhs(members, dofs, caseLoads[c], fef, D2);
+    if (!allFinite(rhs) || !allFinite(fef)) {
+      errors.push({ kind: "numerical", message: `Load case ${lc.id}: the loads overflow; check their magnitudes (SI units: N, N/m, N·m)` });
+      return;
+    }
     const u = factor ? factor.solve(rhs) : new Float64Array(0);
     if (!allFinite(u)) errors.push({ kind: "numerical", message: `Load case ${lc.id}: the solution is not finite; check for extreme stiffness ratios` });
     const residual = K ? relativeResidual(K, u, rhs) : 0;

@@ -98,6 +98,15 @@ describe("invalid models", () => {
     expect(errors).toContainEqual(expect.objectContaining({ kind: "non-finite", path: "members[0].E" }));
   });
 
+  it("finite inputs that overflow are reported, not thrown or returned as NaN", () => {
+    const stiff = good();
+    stiff.members = [{ ...stiff.members![0], E: 1e306, I: 1e5 }];
+    expect(errorsOf(stiff)[0].kind).toBe("numerical");
+    const heavy = good();
+    heavy.loadCases = [{ id: "L", loads: [{ kind: "distributed", member: "m1", direction: "global-y", wStart: -1e307 }] }];
+    expect(errorsOf(heavy)[0].kind).toBe("numerical");
+  });
+
   it("shape errors from the schema carry a path", () => {
     const errors = errorsOf({ nodes: [{ id: "a", x: "1", y: 0 }] });
     expect(errors[0]).toMatchObject({ kind: "invalid-model", path: "nodes[0].x" });

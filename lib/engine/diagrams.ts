@@ -131,13 +131,17 @@ function buildDiagram(ctx: AnalysisContext, result: AnalysisResult, memberId: st
   const fefFull = fixedEndForces(loads, L);
   if (p.hasBending) recoverReleased(fullLocalStiffness(p), fefFull, p.released, d);
 
-  const u = combine([[fromGlobalPolynomial([d[0], (d[3] - d[0]) / L], breaks), 1], [integrate(combine([[statics(fefFull[0], 0, 0, pieces, breaks).N, 1 / (p.E * p.A)]], breaks), 0), 1]], breaks);
+  // Axial: linear shape functions plus the particular solution EA u_p' = N_p, u_p(0) = 0 (N_p from the fixed-end forces).
+  const Np = statics(fefFull[0], 0, 0, pieces, breaks).N;
+  const up = integrate(combine([[Np, 1 / (p.E * p.A)]], breaks), 0);
+  const u = combine([[fromGlobalPolynomial([d[0], (d[3] - d[0]) / L], breaks), 1], [up, 1]], breaks);
   const chord = fromGlobalPolynomial([d[1], (d[4] - d[1]) / L], breaks);
   let v = chord;
   if (p.hasBending) {
     const EI = p.E * p.I;
     // Hermite cubics: v = N1 v_i + N2 θ_i + N3 v_j + N4 θ_j, written out as one polynomial in x.
     const hermite = [d[1], d[2], (3 * (d[4] - d[1])) / L ** 2 - (2 * d[2] + d[5]) / L, (2 * (d[1] - d[4])) / L ** 3 + (d[2] + d[5]) / L ** 2];
+    // Particular solution: EI v_p'' = M_p with v_p = v_p' = 0 at x = 0; the fixed-end forces make them vanish at L too.
     const Mp = statics(0, fefFull[1], fefFull[2], pieces, breaks).M;
     const vp = integrate(integrate(combine([[Mp, 1 / EI]], breaks), 0), 0);
     v = combine([[fromGlobalPolynomial(hermite, breaks), 1], [vp, 1]], breaks);

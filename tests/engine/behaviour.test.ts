@@ -106,6 +106,17 @@ describe("load directions", () => {
     expectClose(memberDiagram(projected, "R", "S").extremes.M!.max.value, (2e3 * 16) / 8);
   });
 
+  it("axial distributed load on a bar fixed at one end: N = p(L − x), u = p(Lx − x²/2)/EA", () => {
+    const L = 5;
+    const p = 4e3;
+    const r = analyzeOrThrow(lineBeam([L], ["fixed", "free"], [{ kind: "distributed", member: "m1", direction: "local-x", wStart: p }]));
+    const d = memberDiagram(r, "m1", "L");
+    // Statics and EA u' = N (common practice).
+    expectClose(d.valueAt(1).N, p * (L - 1));
+    expectClose(d.valueAt(2).axialDisplacement, (p * (L * 2 - (2 * 2) / 2)) / (E * 5e-3));
+    expectClose(nodeDisplacement(r, "n1", "L").ux, (p * L * L) / (2 * E * 5e-3));
+  });
+
   it("self-weight is ρ·A·g downwards", () => {
     const model = lineBeam([6], ["pin", "roller"], [{ kind: "self-weight" }]);
     model.members![0] = { ...model.members![0], density: 7850 };

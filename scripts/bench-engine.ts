@@ -3,7 +3,7 @@
  *
  * Frames: storey 3.5 m, bay 6 m, fixed bases, E = 210 GPa, columns HEB 300 (A = 149 cm², I = 25 170 cm⁴),
  * beams IPE 400 (A = 84.5 cm², I = 23 130 cm⁴). Case G: 25 kN/m on every beam. Case W: 10 kN at each floor's
- * left node. Prints members, DOF, ms per stage, and memory; a storeys sweep at 20 bays; and, at 10×10, the same
+ * left node. Prints members, DOF, ms per stage, process CPU ms (wall times are noisy on a shared machine), and memory; a storeys sweep at 20 bays; and, at 10×10, the same
  * stiffness matrix solved densely with mathjs lusolve for the ratio.
  */
 import { cpus, loadavg } from "node:os";
@@ -61,25 +61,27 @@ function run(storeys: number, bays: number, repeats = 3) {
 let peakRss = 0;
 
 function once(model: ModelInput, storeys: number, bays: number) {
+  const cpu0 = process.cpuUsage();
   const t0 = performance.now();
   const out = analyze(model);
   const total = performance.now() - t0;
+  const cpu = process.cpuUsage(cpu0);
   const mem = process.memoryUsage();
   peakRss = Math.max(peakRss, mem.rss);
   if (!out.ok) throw new Error(JSON.stringify(out.errors.slice(0, 3)));
   const s = out.result.stats;
-  return { storeys, bays, s, total, rss: mem.rss, heap: mem.heapUsed, residual: out.result.loadCases.G.relativeResidual };
+  return { storeys, bays, s, total, cpuMs: (cpu.user + cpu.system) / 1000, rss: mem.rss, heap: mem.heapUsed, residual: out.result.loadCases.G.relativeResidual };
 }
 
 function header() {
-  console.log("size      members     DOF   nnz(L)  valid  assem  order symbol factor  solve recover  total  excl.valid  heap   residual");
+  console.log("size      members     DOF   nnz(L)  valid  assem  order symbol factor  solve recover  total  excl.valid  cpu   heap   residual");
 }
 
 function line(r: ReturnType<typeof run>) {
   const { s } = r;
   console.log(
     `${`${r.storeys}×${r.bays}`.padEnd(8)} ${String(s.members).padStart(8)} ${String(s.equations).padStart(7)} ${String(s.nnzL).padStart(8)}` +
-      `${ms(s.validationMs)}${ms(s.assemblyMs)}${ms(s.orderingMs)}${ms(s.symbolicMs)}${ms(s.factorMs)}${ms(s.solveMs)}${ms(s.recoveryMs)}${ms(r.total)}   ${ms(r.total - s.validationMs)}  ${mb(r.heap).padStart(6)}  ${r.residual.toExponential(1)}`,
+      `${ms(s.validationMs)}${ms(s.assemblyMs)}${ms(s.orderingMs)}${ms(s.symbolicMs)}${ms(s.factorMs)}${ms(s.solveMs)}${ms(s.recoveryMs)}${ms(r.total)}   ${ms(r.total - s.validationMs)}${ms(r.cpuMs)} ${mb(r.heap).padStart(6)}  ${r.residual.toExponential(1)}`,
   );
 }
 

@@ -138,6 +138,14 @@ export function pidAlive(pid) {
   }
 }
 
+export function cwdOf(pid) {
+  try {
+    return fs.realpathSync(`/proc/${pid}/cwd`);
+  } catch {
+    return "";
+  }
+}
+
 export function commandLineOf(pid) {
   try {
     return fs.readFileSync(`/proc/${pid}/cmdline`, "utf8").split("\0").join(" ");
@@ -148,7 +156,7 @@ export function commandLineOf(pid) {
 
 /**
  * Child services this invocation started, stopped in reverse order on exit.
- * Each entry: { name, stop: async () => void }.
+ * Each entry: { name, stop: async () => void | false }.
  */
 export function createServiceRegistry() {
   const services = [];
@@ -160,8 +168,8 @@ export function createServiceRegistry() {
       while (services.length > 0) {
         const service = services.pop();
         try {
-          await service.stop();
-          say(`stopped ${service.name}`);
+          // stop() returns false when it chose to leave the service running (and said why).
+          if ((await service.stop()) !== false) say(`stopped ${service.name}`);
         } catch (error) {
           say(`could not stop ${service.name}: ${error.message}`);
         }

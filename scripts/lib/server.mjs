@@ -3,7 +3,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { repoRoot } from "./env.mjs";
 import {
-  SetupError, commandLineOf, httpGet, pidAlive, portAnswers, say, spawnService, stopChild, waitFor,
+  SetupError, commandLineOf, cwdOf, httpGet, pidAlive, portAnswers, say, spawnService, stopChild, waitFor,
 } from "./processes.mjs";
 
 function pidFileFor(layout, port) {
@@ -15,7 +15,7 @@ export function runningServerPid(layout, port) {
   const pidFile = pidFileFor(layout, port);
   if (!fs.existsSync(pidFile)) return null;
   const pid = Number.parseInt(fs.readFileSync(pidFile, "utf8"), 10);
-  if (pidAlive(pid) && commandLineOf(pid).includes("next")) return pid;
+  if (pidAlive(pid) && commandLineOf(pid).includes("next") && cwdOf(pid) === fs.realpathSync(repoRoot)) return pid;
   fs.rmSync(pidFile, { force: true });
   return null;
 }

@@ -2,8 +2,20 @@
 // fake SMTP and S3. The database chain and the fakes start side by side.
 import { migrate, seed } from "./database.mjs";
 import { ensureFakeS3, ensureFakeSmtp } from "./fakes.mjs";
-import { allOrFirstError } from "./processes.mjs";
+import { portsFor } from "./env.mjs";
+import { allOrFirstError, say } from "./processes.mjs";
 import { createDatabaseIfMissing, ensurePostgres, recreateDatabase } from "./postgres.mjs";
+import { runningServerPid } from "./server.mjs";
+
+// One cluster serves both commands: `npm test` run while `npm start` serves (or the other way round)
+// reuses the cluster the first one started, which must then not stop it under the other's feet.
+async function stopUnlessShared(postgres, { profile, layout }) {
+  const other = profile === "start" ? "test" : "start";
+  const otherServer = runningServerPid(layout, portsFor(other).app);
+  if (otherServer === null) return postgres.stop();
+  say(`leaving PostgreSQL running: the ${other} server (pid ${otherServer}) still uses it`);
+  return false;
+}
 
 /**
  * `fresh` (npm test): drop and recreate the database, and start PostgreSQL without fsync when this run
@@ -14,7 +26,7 @@ export async function prepareServices({ setup, env, registry, timer, fresh }) {
   const databaseChain = async () => {
     await timer.phase("postgres", async () => {
       const postgres = await ensurePostgres({ layout, port: ports.postgres, fast: fresh });
-      if (postgres.started) registry.add("PostgreSQL", postgres.stop);
+      if (postgres.started) registry.add("PostgreSQL", () => stopUnlessShared(postgres, setup));
       if (fresh) recreateDatabase(ports.postgres, database);
       else createDatabaseIfMissing(ports.postgres, database);
     });

@@ -71,7 +71,8 @@ function countsLine(reportFile) {
   const failedFiles = (report.testResults ?? []).filter((f) => f.status === "failed" && f.assertionResults?.length === 0);
   for (const file of failedFiles) say(`${path.relative(repoRoot, file.name)} failed before running its tests: ${file.message ?? ""}`);
   const skipped = (report.numPendingTests ?? 0) + (report.numTodoTests ?? 0);
-  return `vitest: ${report.numPassedTests} passed, ${report.numFailedTests} failed, ${skipped} skipped`;
+  const failed = report.numFailedTests + failedFiles.length; // a file that cannot load counts as one failure
+  return `vitest: ${report.numPassedTests} passed, ${failed} failed, ${skipped} skipped`;
 }
 
 await main(async () => {

@@ -1,4 +1,5 @@
 // Installs what a fresh machine lacks: npm dependencies, Debian's postgresql-15 and chromium.
+import crypto from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
 import { repoRoot } from "./env.mjs";
@@ -7,16 +8,25 @@ import { SetupError, isRoot, runAsync, say } from "./processes.mjs";
 export const PG_BIN = "/usr/lib/postgresql/15/bin";
 export const CHROMIUM = "/usr/bin/chromium";
 
-/** `npm ci` when node_modules is missing or older than package-lock.json. Returns true when it installed. */
+/**
+ * `npm ci` when node_modules is missing or package-lock.json is newer than the last install (and its
+ * content changed: a checkout that only touched the file does not reinstall). Returns true when it installed.
+ */
 export async function ensureNodeModules() {
   const lock = path.join(repoRoot, "package-lock.json");
   const installedMarker = path.join(repoRoot, "node_modules", ".package-lock.json");
+  const lockHashFile = path.join(repoRoot, "node_modules", ".gusset-lock.sha256");
   const hasLock = fs.existsSync(lock);
   const installed = fs.existsSync(installedMarker);
-  if (installed && (!hasLock || fs.statSync(lock).mtimeMs <= fs.statSync(installedMarker).mtimeMs)) return false;
+  const lockHash = hasLock ? crypto.createHash("sha256").update(fs.readFileSync(lock)).digest("hex") : "";
+  if (installed) {
+    if (!hasLock || fs.statSync(lock).mtimeMs <= fs.statSync(installedMarker).mtimeMs) return false;
+    if (fs.existsSync(lockHashFile) && fs.readFileSync(lockHashFile, "utf8").trim() === lockHash) return false;
+  }
   const args = hasLock ? ["ci", "--no-audit", "--no-fund"] : ["install", "--no-audit", "--no-fund"];
-  say(installed ? "package-lock.json is newer than node_modules: reinstalling" : "node_modules is missing: installing");
+  say(installed ? "package-lock.json changed since the last install: reinstalling" : "node_modules is missing: installing");
   await runAsync("npm", args, { cwd: repoRoot });
+  if (hasLock) fs.writeFileSync(lockHashFile, `${lockHash}\n`);
   return true;
 }
 

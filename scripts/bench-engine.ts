@@ -89,7 +89,7 @@ function denseComparison(storeys: number, bays: number) {
   const valid = validateModel(regularFrame(storeys, bays));
   if (!valid.ok) throw new Error("invalid benchmark model");
   const { model, nodeIndex, memberIndex } = valid;
-  const members = prepareMembers(model, nodeIndex);
+  const members = prepareMembers(valid);
   const dofs = buildDofMap(model, rotationalStiffness(model, members));
   const K = assembleStiffness(members, dofs);
   const n = K.n;

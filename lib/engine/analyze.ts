@@ -40,7 +40,7 @@ export function analyze(input: unknown): AnalysisOutcome {
   const tValidated = performance.now();
 
   const index = { node: valid.nodeIndex, member: valid.memberIndex };
-  const members = prepareMembers(model, index.node);
+  const members = prepareMembers(valid);
   const dofs = buildDofMap(model, rotationalStiffness(model, members));
   const frames = members.map((p) => p.frame);
   const caseLoads: CaseLoads[] = model.loadCases.map((_, c) => resolveCaseLoads(model, c, frames, index));

@@ -8,6 +8,7 @@ import { DOFS_PER_NODE, DofKind, dofLocation, globalDof, prescribedValue, type D
 import { condense, frameLocalStiffness, memberFrame, releasedDofs, THETA_I, THETA_J, toGlobal, toGlobalStiffness, type MemberFrame } from "./elements";
 import { fixedEndForces, type CaseLoads } from "./loads";
 import { SymmetricTripletBuilder, type SymmetricCsc } from "./sparse";
+import type { ValidModel } from "./validate";
 
 export interface PreparedMember {
   readonly start: number;
@@ -37,18 +38,21 @@ export function localStiffness(p: PreparedMember, out: Float64Array): Float64Arr
   return out;
 }
 
-export function prepareMembers(model: Model, nodeIndex: Map<string, number>): PreparedMember[] {
-  return model.members.map((m) => {
-    const start = nodeIndex.get(m.start)!;
-    const end = nodeIndex.get(m.end)!;
+export function prepareMembers({ model, memberEnds }: Pick<ValidModel, "model" | "memberEnds">): PreparedMember[] {
+  const members: PreparedMember[] = new Array(model.members.length);
+  for (let i = 0; i < members.length; i++) {
+    const m = model.members[i];
+    const start = memberEnds[2 * i];
+    const end = memberEnds[2 * i + 1];
     const a = model.nodes[start];
     const b = model.nodes[end];
     const frame = memberFrame(a.x, a.y, b.x, b.y);
     const I = m.I ?? 1;
     const released = releasedDofs(m.kind, m.releases?.startMoment ?? false, m.releases?.endMoment ?? false);
     const condensed = released.length > 0 ? condense(frameLocalStiffness(m.E, m.A, I, frame.length), null, released).k : null;
-    return { start, end, frame, E: m.E, A: m.A, I, hasBending: m.I !== undefined, released, condensed };
-  });
+    members[i] = { start, end, frame, E: m.E, A: m.A, I, hasBending: m.I !== undefined, released, condensed };
+  }
+  return members;
 }
 
 /** The full (uncondensed) local stiffness of a prepared member. */

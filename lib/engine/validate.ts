@@ -65,7 +65,7 @@ function positive(value: number | undefined, where: string, property: string, ou
   }
 }
 
-function checkMembers(model: Model, nodeIndex: Map<string, number>, out: EngineError[]): Float64Array {
+function checkMembers(model: Model, nodeIndex: Map<string, number>, memberEnds: Int32Array, out: EngineError[]): Float64Array {
   const lengths = new Float64Array(model.members.length).fill(NaN);
   let extent = 0;
   for (const n of model.nodes) extent = Math.max(extent, Math.abs(n.x), Math.abs(n.y));
@@ -78,6 +78,8 @@ function checkMembers(model: Model, nodeIndex: Map<string, number>, out: EngineE
         if (!nodeIndex.has(n)) out.push({ kind: "unknown-node", path: `members[${i}].${end}`, node: n, message: `Member ${m.id} refers to node "${n}", which does not exist` });
       }
     } else {
+      memberEnds[2 * i] = a;
+      memberEnds[2 * i + 1] = b;
       const length = Math.hypot(model.nodes[b].x - model.nodes[a].x, model.nodes[b].y - model.nodes[a].y);
       if (!(length > ZERO_LENGTH_TOLERANCE * extent)) {
         out.push({ kind: "zero-length-member", member: m.id, message: `Member ${m.id} has zero length: nodes ${m.start} and ${m.end} coincide` });
@@ -178,6 +180,8 @@ export interface ValidModel {
   readonly model: Model;
   readonly nodeIndex: Map<string, number>;
   readonly memberIndex: Map<string, number>;
+  /** Start and end node index of each member (2 per member), looked up once here. */
+  readonly memberEnds: Int32Array;
 }
 
 export type ValidationOutcome = ({ ok: true } & ValidModel) | { ok: false; errors: EngineError[] };
@@ -202,8 +206,9 @@ export function validateModel(input: unknown): ValidationOutcome {
   const nodeIndex = indexById(model.nodes);
   const memberIndex = indexById(model.members);
   checkDuplicates(model, nodeIndex, memberIndex, errors);
-  const lengths = checkMembers(model, nodeIndex, errors);
+  const memberEnds = new Int32Array(2 * model.members.length);
+  const lengths = checkMembers(model, nodeIndex, memberEnds, errors);
   checkLoads(model, nodeIndex, memberIndex, lengths, errors);
   checkResultReferences(model, errors);
-  return errors.length > 0 ? { ok: false, errors } : { ok: true, model, nodeIndex, memberIndex };
+  return errors.length > 0 ? { ok: false, errors } : { ok: true, model, nodeIndex, memberIndex, memberEnds };
 }

@@ -16,7 +16,7 @@ const seeds = fc.integer({ min: 1, max: 2 ** 31 - 1 });
 function stiffnessOf(model: ModelInput) {
   const v = validateModel(model);
   if (!v.ok) throw new Error(JSON.stringify(v.errors));
-  const members = prepareMembers(v.model, new Map(v.model.nodes.map((n, i) => [n.id, i])));
+  const members = prepareMembers(v);
   const dofs = buildDofMap(v.model, rotationalStiffness(v.model, members));
   return { model: v.model, dofs, K: assembleStiffness(members, dofs) };
 }

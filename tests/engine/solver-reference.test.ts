@@ -15,7 +15,7 @@ describe("sparse solve", () => {
       fc.property(fc.integer({ min: 1, max: 2 ** 31 - 1 }), (seed) => {
         const v = validateModel(randomFrame(seed, { releases: true }));
         if (!v.ok) throw new Error("invalid random frame");
-        const members = prepareMembers(v.model, v.nodeIndex);
+        const members = prepareMembers(v);
         const dofs = buildDofMap(v.model, rotationalStiffness(v.model, members));
         const K = assembleStiffness(members, dofs);
         const loads = resolveCaseLoads(v.model, 0, members.map((p) => p.frame), { node: v.nodeIndex, member: v.memberIndex });

@@ -115,13 +115,6 @@ export interface IdIndex {
   readonly member: Map<string, number>;
 }
 
-export function buildIdIndex(model: Model): IdIndex {
-  return {
-    node: new Map(model.nodes.map((n, i) => [n.id, i])),
-    member: new Map(model.members.map((m, i) => [m.id, i])),
-  };
-}
-
 /** Resolves the loads of one case. The model must have passed validation (references and positions). */
 export function resolveCaseLoads(model: Model, caseIndex: number, frames: ReadonlyArray<MemberFrame>, index: IdIndex): CaseLoads {
   const out: CaseLoads = { nodal: new Float64Array(DOFS_PER_NODE * model.nodes.length), span: new Map() };

@@ -5,8 +5,8 @@
  * (rotation about Z, counter-clockwise positive). The global DOF index of (node n, direction d) is 3n + d.
  *
  * Equations are numbered node-major over the FREE DOFs only (restrained ones drop out of K entirely), so a
- * node that keeps all three DOFs occupies three consecutive equations. When every node keeps either all or
- * none of its DOFs, the sparse solver can order the compressed node graph (blockSize = 3).
+ * node that keeps all three DOFs occupies three consecutive equations. When every node keeps the same number
+ * of DOFs (or none), the sparse solver can order the compressed node graph (blockSize = that number).
  */
 import type { Model, Restraint } from "./model";
 
@@ -49,8 +49,11 @@ export interface DofMap {
   readonly kind: Uint8Array;
   /** Spring stiffness per global DOF (0 where none). */
   readonly spring: Float64Array;
-  /** True when every node has 3 or 0 free equations, so blockSize = 3 is valid for the solver. */
-  readonly uniformBlocks: boolean;
+  /**
+   * Free equations per node when every node that has any has the same number (3 for a frame with fixed
+   * supports, 2 for a pin-jointed truss), else 1: the solver may then order the compressed node graph.
+   */
+  readonly blockSize: number;
 }
 
 function restraintKind(r: Restraint): DofKind {
@@ -69,7 +72,7 @@ export function buildDofMap(model: Model, rotationallyStiff: ReadonlyArray<boole
   const kind = new Uint8Array(nDofs);
   const spring = new Float64Array(nDofs);
   const freeToGlobal: number[] = [];
-  let uniformBlocks = true;
+  let blockSize = 0;
   model.nodes.forEach((node, n) => {
     let freeHere = 0;
     DOF_NAMES.forEach((name, d) => {
@@ -86,9 +89,9 @@ export function buildDofMap(model: Model, rotationallyStiff: ReadonlyArray<boole
         freeHere++;
       }
     });
-    if (freeHere !== 0 && freeHere !== DOFS_PER_NODE) uniformBlocks = false;
+    if (freeHere !== 0) blockSize = blockSize === 0 || blockSize === freeHere ? freeHere : 1;
   });
-  return { nNodes, nFree: freeToGlobal.length, equation, freeToGlobal: Int32Array.from(freeToGlobal), kind, spring, uniformBlocks };
+  return { nNodes, nFree: freeToGlobal.length, equation, freeToGlobal: Int32Array.from(freeToGlobal), kind, spring, blockSize: blockSize || 1 };
 }
 
 /** Prescribed displacement of a DOF in a load case (0 when fixed or not prescribed in that case). */

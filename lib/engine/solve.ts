@@ -3,7 +3,7 @@
  * A pivot failure is mapped back to the node and direction that is free, as an `unstable` error.
  */
 import type { Model } from "./model";
-import { DOF_NAMES, DOFS_PER_NODE, dofLocation, type DofMap } from "./dofs";
+import { DOF_NAMES, dofLocation, type DofMap } from "./dofs";
 import { unstableError, type EngineError } from "./diagnostics";
 import { factorizeSymmetric, multiplySymmetric, type CholeskyFactor, type FactorStats, type SymmetricCsc } from "./sparse";
 
@@ -12,7 +12,7 @@ export type FactorOutcome = { ok: true; factor: CholeskyFactor; stats: FactorSta
 export function factorStiffness(model: Model, K: SymmetricCsc, dofs: DofMap): FactorOutcome {
   const result = factorizeSymmetric(K, {
     ordering: "amd",
-    blockSize: dofs.uniformBlocks ? DOFS_PER_NODE : 1,
+    blockSize: dofs.blockSize,
   });
   if (result.ok) return { ok: true, factor: result.factor, stats: result.factor.stats };
   // The factorisation reports the equation in original numbering; map it back to the node and direction.

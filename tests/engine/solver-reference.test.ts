@@ -20,7 +20,7 @@ describe("sparse solve", () => {
         const K = assembleStiffness(members, dofs);
         const loads = resolveCaseLoads(v.model, 0, members.map((p) => p.frame), { node: v.nodeIndex, member: v.memberIndex });
         const f = caseRhs(members, dofs, loads, caseFixedEndForces(members, loads), null);
-        const factored = factorizeSymmetric(K, { ordering: "amd", blockSize: dofs.uniformBlocks ? 3 : 1 });
+        const factored = factorizeSymmetric(K, { ordering: "amd", blockSize: dofs.blockSize });
         expect(factored.ok).toBe(true);
         if (!factored.ok) return;
         const sparse = factored.factor.solve(f);

@@ -22,7 +22,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   return (
     <div className="min-h-dvh md:grid md:grid-cols-[15rem_1fr]">
       <aside className="border-b border-ink-200 bg-paper-raised md:sticky md:top-0 md:h-dvh md:border-r md:border-b-0">
-        <div className="flex h-full flex-col gap-6 px-3 py-4">
+        <div className="flex h-full flex-col gap-3 px-3 py-3 md:gap-6 md:py-4">
           <Link href="/home" className="flex items-center gap-2.5 px-2 text-plate-700" data-testid="brand">
             <GussetMark className="h-7 w-7" />
             <span className="text-lg font-semibold tracking-tight text-ink-950">Gusset</span>

@@ -12,17 +12,18 @@ export function SideNav({ items }: { items: Pick<NavItem, "href" | "label" | "ic
     { key: "work" },
     { key: "admin", heading: "Administration" },
   ];
+  // On narrow screens the entries sit in one scrolling row under the brand; from md up, a column.
   return (
-    <nav aria-label="Main" data-testid="main-nav" className="flex flex-col gap-6">
+    <nav aria-label="Main" data-testid="main-nav" className="-mx-1 flex gap-1 overflow-x-auto px-1 md:mx-0 md:flex-col md:gap-6 md:overflow-visible md:px-0">
       {groups.map(({ key, heading }) => {
         const groupItems = items.filter((item) => item.group === key);
         if (groupItems.length === 0) return null;
         return (
-          <div key={key}>
+          <div key={key} className="contents md:block">
             {heading ? (
-              <p className="mb-2 px-3 text-[0.7rem] font-semibold tracking-wider text-ink-400 uppercase">{heading}</p>
+              <p className="mb-2 hidden px-3 text-[0.7rem] font-semibold tracking-wider text-ink-400 uppercase md:block">{heading}</p>
             ) : null}
-            <ul className="flex flex-col gap-0.5">
+            <ul className="flex gap-1 md:flex-col md:gap-0.5">
               {groupItems.map((item) => {
                 const active = pathname === item.href || pathname.startsWith(`${item.href}/`);
                 return (
@@ -31,7 +32,7 @@ export function SideNav({ items }: { items: Pick<NavItem, "href" | "label" | "ic
                       href={item.href}
                       data-testid={`nav-${item.href.replace(/^\//, "").replace(/\//g, "-")}`}
                       aria-current={active ? "page" : undefined}
-                      className={`flex items-center gap-3 rounded-plate px-3 py-2 text-sm transition-colors ${
+                      className={`flex items-center gap-3 rounded-plate px-3 py-2 text-sm whitespace-nowrap transition-colors ${
                         active
                           ? "bg-plate-100 font-semibold text-plate-900"
                           : "text-ink-700 hover:bg-paper-sunk hover:text-ink-950"

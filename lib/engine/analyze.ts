@@ -5,8 +5,8 @@
  */
 import { validateModel } from "./validate";
 import { resolveCaseLoads, type CaseLoads } from "./loads";
-import { assembleStiffness, caseFixedEndForces, casePrescribed, caseRhs, prepareMembers, rotationalStiffness } from "./assembly";
-import { buildDofMap, DofKind, globalDof, RZ } from "./dofs";
+import { assembleStiffness, caseFixedEndForces, casePrescribed, caseRhs, prepareMembers, rotationalStiffness, type PreparedMember } from "./assembly";
+import { buildDofMap, DofKind, globalDof, RZ, type DofMap } from "./dofs";
 import { factorStiffness, relativeResidual } from "./solve";
 import { appliedNodalLoads, equilibriumResidual, fullDisplacements, recoverForces, type CaseResult, type CaseVectors } from "./results";
 import { combineCases, envelopeResults, type EnvelopeResult } from "./combinations";
@@ -14,6 +14,7 @@ import { unstableError, type EngineError, type EngineWarning } from "./diagnosti
 import { attachContext } from "./context";
 import { ENGINE_VERSION } from "./version";
 import type { AnalysisOutcome, AnalysisResult } from "./analysis-types";
+import type { Model } from "./model";
 import type { CholeskyFactor, SymmetricCsc } from "./sparse";
 
 /** Relative solver residual above which a result is flagged as ill-conditioned. */
@@ -32,6 +33,56 @@ function deepFreeze<T>(value: T): T {
   return value;
 }
 
+interface SolvedCase {
+  readonly u: Float64Array;
+  readonly D2: Float64Array | null;
+  readonly residual: number;
+  readonly vectors: CaseVectors;
+}
+
+/** Right-hand side, solution and solver residual of one load case, with the factor shared by all cases. */
+function solveCase(model: Model, c: number, members: ReadonlyArray<PreparedMember>, dofs: DofMap, loads: CaseLoads, K: SymmetricCsc | null, factor: CholeskyFactor | null): SolvedCase | EngineError {
+  const id = model.loadCases[c].id;
+  const fef = caseFixedEndForces(members, loads);
+  const D2 = casePrescribed(model, dofs, id);
+  const rhs = caseRhs(members, dofs, loads, fef, D2);
+  if (!allFinite(rhs) || !allFinite(fef)) {
+    return { kind: "numerical", message: `Load case ${id}: the loads overflow; check their magnitudes (SI units: N, N/m, N·m)` };
+  }
+  const u = factor ? factor.solve(rhs) : new Float64Array(0);
+  if (!allFinite(u)) return { kind: "numerical", message: `Load case ${id}: the solution is not finite; check for extreme stiffness ratios` };
+  const residual = K ? relativeResidual(K, u, rhs) : 0;
+  return { u, D2, residual, vectors: { applied: appliedNodalLoads(members, loads.nodal, fef, loads.span.keys()), fef, rhs } };
+}
+
+/** Displacements, end forces, reactions and checks of one solved load case. */
+function recoverCase(model: Model, c: number, members: ReadonlyArray<PreparedMember>, dofs: DofMap, loads: CaseLoads, solved: SolvedCase): CaseResult {
+  const id = model.loadCases[c].id;
+  const D = fullDisplacements(dofs, solved.u, solved.D2);
+  const { endForces, reactions } = recoverForces(members, dofs, D, solved.vectors.fef, loads.nodal);
+  return {
+    id,
+    kind: "load-case",
+    sources: [{ caseIndex: c, caseId: id, factor: 1 }],
+    displacements: D,
+    reactions,
+    endForces,
+    equilibrium: equilibriumResidual(model, solved.vectors.applied, reactions),
+    relativeResidual: solved.residual,
+  };
+}
+
+/** A moment applied where nothing resists rotation cannot be carried: name the node. */
+function momentOnPinnedNode(model: Model, dofs: DofMap, caseLoads: ReadonlyArray<CaseLoads>): EngineError | null {
+  for (const loads of caseLoads) {
+    for (let n = 0; n < model.nodes.length; n++) {
+      const g = globalDof(n, RZ);
+      if (dofs.kind[g] === DofKind.NoStiffness && loads.nodal[g] !== 0) return unstableError(model.nodes[n].id, "rz");
+    }
+  }
+  return null;
+}
+
 export function analyze(input: unknown): AnalysisOutcome {
   const t0 = performance.now();
   const valid = validateModel(input);
@@ -44,14 +95,8 @@ export function analyze(input: unknown): AnalysisOutcome {
   const dofs = buildDofMap(model, rotationalStiffness(model, members));
   const frames = members.map((p) => p.frame);
   const caseLoads: CaseLoads[] = model.loadCases.map((_, c) => resolveCaseLoads(model, c, frames, index));
-  // A moment applied where nothing resists rotation cannot be carried: name the node.
-  for (const loads of caseLoads) {
-    for (let n = 0; n < model.nodes.length; n++) {
-      if (dofs.kind[globalDof(n, RZ)] === DofKind.NoStiffness && loads.nodal[globalDof(n, RZ)] !== 0) {
-        return { ok: false, errors: [unstableError(model.nodes[n].id, "rz")] };
-      }
-    }
-  }
+  const pinnedMoment = momentOnPinnedNode(model, dofs, caseLoads);
+  if (pinnedMoment) return { ok: false, errors: [pinnedMoment] };
   const K: SymmetricCsc | null = dofs.nFree > 0 ? assembleStiffness(members, dofs) : null;
   // Finite inputs can still overflow (E = 1e300): stop here with a message rather than let NaN spread.
   if (K && !allFinite(K.values)) {
@@ -59,6 +104,7 @@ export function analyze(input: unknown): AnalysisOutcome {
   }
   const tAssembled = performance.now();
 
+  // K is factored once; every load case reuses the factor.
   let factor: CholeskyFactor | null = null;
   let factorStats = { orderingMs: 0, symbolicMs: 0, numericMs: 0, nnzL: 0 };
   if (K) {
@@ -69,45 +115,19 @@ export function analyze(input: unknown): AnalysisOutcome {
   }
   const tFactored = performance.now();
 
-  const vectors: CaseVectors[] = [];
-  const solutions: { u: Float64Array; D2: Float64Array | null; residual: number }[] = [];
-  const errors: EngineError[] = [];
-  model.loadCases.forEach((lc, c) => {
-    const fef = caseFixedEndForces(members, caseLoads[c]);
-    const D2 = casePrescribed(model, dofs, lc.id);
-    const rhs = caseRhs(members, dofs, caseLoads[c], fef, D2);
-    if (!allFinite(rhs) || !allFinite(fef)) {
-      errors.push({ kind: "numerical", message: `Load case ${lc.id}: the loads overflow; check their magnitudes (SI units: N, N/m, N·m)` });
-      return;
-    }
-    const u = factor ? factor.solve(rhs) : new Float64Array(0);
-    if (!allFinite(u)) errors.push({ kind: "numerical", message: `Load case ${lc.id}: the solution is not finite; check for extreme stiffness ratios` });
-    const residual = K ? relativeResidual(K, u, rhs) : 0;
-    vectors.push({ applied: appliedNodalLoads(members, caseLoads[c].nodal, fef, caseLoads[c].span.keys()), fef, rhs });
-    solutions.push({ u, D2, residual });
-  });
-  if (errors.length > 0) return { ok: false, errors };
+  const solved: SolvedCase[] = [];
+  for (let c = 0; c < model.loadCases.length; c++) {
+    const s = solveCase(model, c, members, dofs, caseLoads[c], K, factor);
+    if ("kind" in s) return { ok: false, errors: [s] };
+    solved.push(s);
+  }
   const tSolved = performance.now();
 
-  const warnings: EngineWarning[] = [];
-  const cases: CaseResult[] = model.loadCases.map((lc, c) => {
-    const { u, D2, residual } = solutions[c];
-    const D = fullDisplacements(dofs, u, D2);
-    const { endForces, reactions } = recoverForces(members, dofs, D, vectors[c].fef, caseLoads[c].nodal);
-    if (residual > RESIDUAL_WARNING) {
-      warnings.push({ kind: "ill-conditioned", loadCase: lc.id, relativeResidual: residual, message: `Load case ${lc.id}: relative residual ${residual.toExponential(2)}; the structure may be nearly a mechanism` });
-    }
-    return {
-      id: lc.id,
-      kind: "load-case",
-      sources: [{ caseIndex: c, caseId: lc.id, factor: 1 }],
-      displacements: D,
-      reactions,
-      endForces,
-      equilibrium: equilibriumResidual(model, vectors[c].applied, reactions),
-      relativeResidual: residual,
-    };
-  });
+  const cases = solved.map((s, c) => recoverCase(model, c, members, dofs, caseLoads[c], s));
+  const warnings: EngineWarning[] = cases
+    .filter((r) => r.relativeResidual > RESIDUAL_WARNING)
+    .map((r) => ({ kind: "ill-conditioned", loadCase: r.id, relativeResidual: r.relativeResidual, message: `Load case ${r.id}: relative residual ${r.relativeResidual.toExponential(2)}; the structure may be nearly a mechanism` }));
+  const vectors = solved.map((s) => s.vectors);
   const combos = model.combinations.map((combo) => combineCases(model, combo, cases, vectors, K, dofs));
   const byId = new Map([...cases, ...combos].map((r) => [r.id, r]));
   const envelopes: Record<string, EnvelopeResult> = {};
@@ -144,13 +164,6 @@ export function analyze(input: unknown): AnalysisOutcome {
     },
   };
   deepFreeze(result);
-  attachContext(result, {
-    model,
-    members,
-    memberIndex: index.member,
-    nodeIndex: index.node,
-    caseLoads,
-    caseFef: vectors.map((v) => v.fef),
-  });
+  attachContext(result, { model, members, memberIndex: index.member, nodeIndex: index.node, caseLoads });
   return { ok: true, result };
 }

@@ -13,8 +13,6 @@ export interface AnalysisContext {
   readonly memberIndex: ReadonlyMap<string, number>;
   readonly nodeIndex: ReadonlyMap<string, number>;
   readonly caseLoads: ReadonlyArray<CaseLoads>;
-  /** Full (uncondensed) fixed-end forces are recomputed on demand; these are the condensed ones, per case. */
-  readonly caseFef: ReadonlyArray<Float64Array>;
 }
 
 const contexts = new WeakMap<AnalysisResult, AnalysisContext>();

@@ -20,9 +20,7 @@ export type EngineError =
   | { kind: "unstable"; node: string; direction: DofName; message: string }
   | { kind: "numerical"; message: string };
 
-export type EngineWarning =
-  | { kind: "ill-conditioned"; loadCase: string; relativeResidual: number; message: string }
-  | { kind: "moment-on-pinned-node"; node: string; message: string };
+export type EngineWarning = { kind: "ill-conditioned"; loadCase: string; relativeResidual: number; message: string };
 
 export type ErrorKind = EngineError["kind"];
 

@@ -5,6 +5,7 @@
  */
 import { ModelSchema, type Load, type Model } from "./model";
 import { formatPath, type EngineError } from "./diagnostics";
+import { DOF_NAMES } from "./dofs";
 
 /** Relative length below which a member counts as zero-length. */
 const ZERO_LENGTH_TOLERANCE = 1e-12;
@@ -147,8 +148,9 @@ function checkLoads(model: Model, nodeIndex: Map<string, number>, memberIndex: M
 function checkResultReferences(model: Model, out: EngineError[]): void {
   const caseIds = new Set(model.loadCases.map((c) => c.id));
   model.nodes.forEach((n, i) => {
-    for (const dir of ["ux", "uy", "rz"] as const) {
-      const r = n.support?.[dir];
+    if (!n.support) return;
+    for (const dir of DOF_NAMES) {
+      const r = n.support[dir];
       if (typeof r !== "object") continue;
       const path = `nodes[${i}].support.${dir}`;
       if (r.kind === "spring") positive(r.stiffness, path, "stiffness", out);

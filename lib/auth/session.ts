@@ -4,7 +4,6 @@ import "server-only";
 import { headers } from "next/headers";
 import { cache } from "react";
 import { forbidden, redirect } from "next/navigation";
-import { acceptInvitation } from "@/lib/data/invitations";
 import type { Actor } from "./actor";
 import { can, type Action } from "./permissions";
 import { isRole } from "./roles";
@@ -37,24 +36,15 @@ export async function requirePageActor(action?: Action, options?: { next?: strin
 }
 
 /**
- * The path being viewed, for the sign-in page's ?next=. Next does not hand a page its own URL: a
- * proxy.ts may set x-gusset-path; client-side navigations carry next-url; otherwise home.
+ * The path being viewed, for the sign-in page's ?next=. Next does not hand a page its own URL; a
+ * proxy.ts may pass it on as x-gusset-path (pathname + search). Otherwise home.
  */
 function currentPath(requestHeaders: Headers): string {
-  return requestHeaders.get("x-gusset-path") ?? requestHeaders.get("next-url") ?? "/home";
+  return requestHeaders.get("x-gusset-path") ?? "/home";
 }
 
 /** Only same-site paths, so ?next= cannot send someone to another site after signing in. */
 export function safePath(candidate: string | null | undefined, fallback = "/home"): string {
   if (!candidate || !candidate.startsWith("/") || candidate.startsWith("//") || candidate.startsWith("/\\")) return fallback;
   return candidate;
-}
-
-/**
- * For the invitation page's server action: accept, then sign in with this request's headers so the
- * session cookie is set on the response (nextCookies). Throws AppError with a clear message for an
- * unknown, expired, used or withdrawn link.
- */
-export async function acceptInvitationAndSignIn(input: { token: string; password: string }): Promise<{ userId: string; email: string }> {
-  return acceptInvitation({ ...input, signIn: { headers: new Headers(await headers()) } });
 }

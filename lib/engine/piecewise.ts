@@ -88,51 +88,63 @@ export function fromGlobalPolynomial(a: ReadonlyArray<number>, breaks: Float64Ar
   return out;
 }
 
-function derivativeRoots(c: Float64Array, h: number): number[] {
-  // d/dt of Σ c_p t^p
-  const d = Array.from({ length: NC - 1 }, (_, p) => (p + 1) * c[p + 1]);
-  let deg = d.length - 1;
-  const scale = d.reduce((m, v, p) => Math.max(m, Math.abs(v) * h ** p), 0);
-  while (deg >= 0 && Math.abs(d[deg]) * h ** deg <= 1e-14 * scale) deg--;
+function hornerArray(c: ReadonlyArray<number>, t: number): number {
+  let v = 0;
+  for (let p = c.length - 1; p >= 0; p--) v = v * t + c[p];
+  return v;
+}
+
+/** Root of c on [a, b] where it changes sign, by bisection to full precision. */
+function bisect(c: ReadonlyArray<number>, a: number, b: number, fa: number): number {
+  for (let it = 0; it < 200; it++) {
+    const m = (a + b) / 2;
+    if (m === a || m === b) break;
+    const fm = hornerArray(c, m);
+    if (fm === 0) return m;
+    if (fa * fm < 0) b = m;
+    else {
+      a = m;
+      fa = fm;
+    }
+  }
+  return (a + b) / 2;
+}
+
+/**
+ * Real roots of Σ c_p t^p in (0, h), ascending. Up to quadratics in closed form; higher degrees split [0, h]
+ * at the roots of the derivative (found the same way), so each piece is monotone and holds at most one root.
+ */
+function rootsIn(c: ReadonlyArray<number>, h: number): number[] {
+  let deg = c.length - 1;
+  const scale = c.reduce((m, v, p) => Math.max(m, Math.abs(v) * h ** p), 0);
+  while (deg >= 0 && Math.abs(c[deg]) * h ** deg <= 1e-14 * scale) deg--;
+  const inside = (ts: number[]) => ts.filter((t) => t > 0 && t < h).sort((a, b) => a - b);
   if (deg <= 0) return [];
-  if (deg === 1) return [-d[0] / d[1]];
+  if (deg === 1) return inside([-c[0] / c[1]]);
   if (deg === 2) {
-    const [c0, c1, c2] = d;
+    const [c0, c1, c2] = c;
     const disc = c1 * c1 - 4 * c2 * c0;
     if (disc < 0) return [];
     // The stable form of the quadratic formula avoids cancellation.
     const q = -0.5 * (c1 + Math.sign(c1 || 1) * Math.sqrt(disc));
-    return q === 0 ? [0] : [q / c2, c0 / q];
+    return inside(q === 0 ? [0] : [q / c2, c0 / q]);
   }
-  // Higher degree (deflection): bracket sign changes on a fine grid, then bisect to full precision.
-  const f = (t: number) => d.reduce((acc, _, p) => acc + d[p] * t ** p, 0);
+  const poly = c.slice(0, deg + 1);
+  const derivative = poly.slice(1).map((v, p) => (p + 1) * v);
+  const ends = [0, ...rootsIn(derivative, h), h];
   const roots: number[] = [];
-  const n = 64;
-  let t0 = 0;
-  let f0 = f(0);
-  for (let i = 1; i <= n; i++) {
-    const t1 = (h * i) / n;
-    const f1 = f(t1);
-    if (f0 === 0) roots.push(t0);
-    else if (f0 * f1 < 0) {
-      let a = t0;
-      let b = t1;
-      let fa = f0;
-      for (let it = 0; it < 100 && b - a > 1e-15 * h; it++) {
-        const m = (a + b) / 2;
-        const fm = f(m);
-        if (fa * fm <= 0) b = m;
-        else {
-          a = m;
-          fa = fm;
-        }
-      }
-      roots.push((a + b) / 2);
-    }
-    t0 = t1;
-    f0 = f1;
+  for (let i = 0; i + 1 < ends.length; i++) {
+    const fa = hornerArray(poly, ends[i]);
+    const fb = hornerArray(poly, ends[i + 1]);
+    if (fa === 0 && i > 0) roots.push(ends[i]);
+    else if (fa * fb < 0) roots.push(bisect(poly, ends[i], ends[i + 1], fa));
   }
-  return roots;
+  return inside(roots);
+}
+
+/** Stationary points of a segment polynomial inside (0, h). */
+function derivativeRoots(c: Float64Array, h: number): number[] {
+  return rootsIn(Array.from({ length: NC - 1 }, (_, p) => (p + 1) * c[p + 1]), h);
 }
 
 export interface Extreme {
@@ -154,7 +166,7 @@ export function extrema(pp: Piecewise): { max: Extreme; min: Extreme } {
     const h = pp.breaks[k + 1] - x0;
     consider(horner(c, 0), x0);
     consider(horner(c, h), x0 + h);
-    for (const t of derivativeRoots(c, h)) if (t > 0 && t < h) consider(horner(c, t), x0 + t);
+    for (const t of derivativeRoots(c, h)) consider(horner(c, t), x0 + t);
   });
   return { max, min };
 }

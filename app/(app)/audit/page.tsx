@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageActor } from "@/lib/auth/session";
 import { listAuditEvents } from "@/lib/data/audit";
+import { listAuditEventsSchema } from "@/lib/data/audit-schemas";
 import { PageHeader } from "@/components/ui/page-header";
 import { TableFrame } from "@/components/ui/table";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -13,9 +14,10 @@ const PAGE_SIZE = 50;
 
 export default async function AuditPage({ searchParams }: PageProps<"/audit">) {
   const actor = await requirePageActor("audit.read");
-  const { before: beforeParam } = await searchParams;
-  const before = typeof beforeParam === "string" && /^\d+$/.test(beforeParam) ? Number(beforeParam) : undefined;
-  const { events, nextBefore } = await listAuditEvents({ actor, limit: PAGE_SIZE, before });
+  // A hand-edited address with a bad page marker shows the newest events rather than an error.
+  const parsed = listAuditEventsSchema.safeParse({ limit: PAGE_SIZE, ...(await searchParams) });
+  const { limit, before } = parsed.success ? parsed.data : { limit: PAGE_SIZE, before: undefined };
+  const { events, nextBefore } = await listAuditEvents({ actor, limit, before });
 
   return (
     <>

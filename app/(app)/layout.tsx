@@ -1,5 +1,5 @@
 import Link from "next/link";
-import { requirePageActor } from "@/lib/auth/session";
+import { getActor } from "@/lib/auth/session";
 import { can } from "@/lib/auth/permissions";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { getFirmName } from "@/lib/data/firm";
@@ -9,10 +9,13 @@ import { NAV_ITEMS } from "./_components/nav-items";
 import { SideNav } from "./_components/side-nav";
 import { UserMenu } from "./_components/user-menu";
 
-// The signed-in shell. Each page below still calls requirePageActor(action) itself: a layout does
-// not re-run on client navigation, so it cannot be the access check for the pages it wraps.
+// The signed-in shell. It is not the access check: a layout does not re-run on client navigation,
+// and it cannot know the address asked for. Each page calls requirePageActor(action, { next }) first,
+// which sends an anonymous visitor to sign in and back to that page afterwards; until then this
+// layout draws no shell (and no names) for someone it does not know.
 export default async function AppLayout({ children }: { children: React.ReactNode }) {
-  const actor = await requirePageActor();
+  const actor = await getActor();
+  if (!actor) return children;
   const [firmName, mailboxEnabled] = await Promise.all([getFirmName(), isMailboxEnabled()]);
 
   const items = NAV_ITEMS.filter((item) => item.permission === null || can(actor.role, item.permission))

@@ -189,6 +189,18 @@ describe("pages", () => {
   }
 });
 
+describe("signing in brings people back", () => {
+  const signedInPages = Object.values(PAGES).filter(({ expect: e }) => e.anonymous === "sign-in" && e.admin !== "home");
+  for (const { path: url } of signedInPages) {
+    it(`anonymous ${url} → /sign-in?next=${url}`, async () => {
+      const response = await fetch(appUrl(url), { redirect: "manual" });
+      const location = new URL(response.headers.get("location") ?? "", testEnv.baseUrl);
+      expect(location.pathname).toBe("/sign-in");
+      expect(location.searchParams.get("next")).toBe(url);
+    });
+  }
+});
+
 describe("API routes", () => {
   for (const [entry, { path: url, expect: expected }] of Object.entries(API_ROUTES)) {
     it(`GET ${url} (${entry})`, async () => {

@@ -13,7 +13,7 @@ export const metadata: Metadata = { title: "Audit trail" };
 const PAGE_SIZE = 50;
 
 export default async function AuditPage({ searchParams }: PageProps<"/audit">) {
-  const actor = await requirePageActor("audit.read");
+  const actor = await requirePageActor("audit.read", { next: "/audit" });
   // A hand-edited address with a bad page marker shows the newest events rather than an error.
   const parsed = listAuditEventsSchema.safeParse({ limit: PAGE_SIZE, ...(await searchParams) });
   const { limit, before } = parsed.success ? parsed.data : { limit: PAGE_SIZE, before: undefined };

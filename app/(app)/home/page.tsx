@@ -9,7 +9,7 @@ import { RecentAuditEvents, RecentProjects } from "./_components/recent-lists";
 export const metadata: Metadata = { title: "Home" };
 
 export default async function HomePage() {
-  const actor = await requirePageActor();
+  const actor = await requirePageActor(undefined, { next: "/home" });
   const [summary, mailbox] = await Promise.all([getHomeSummary({ actor }), isMailboxEnabled()]);
   const firstName = actor.name.split(" ")[0];
 

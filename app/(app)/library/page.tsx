@@ -7,7 +7,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 export const metadata: Metadata = { title: "Library" };
 
 export default async function LibraryPage() {
-  const actor = await requirePageActor("library.read");
+  const actor = await requirePageActor("library.read", { next: "/library" });
   const writes = can(actor.role, "templates.write-draft");
   return (
     <>

@@ -9,7 +9,7 @@ import { formatDate } from "@/components/format-date";
 export const metadata: Metadata = { title: "Projects" };
 
 export default async function ProjectsPage() {
-  const actor = await requirePageActor("projects.read");
+  const actor = await requirePageActor("projects.read", { next: "/projects" });
   const projects = await listProjects({ actor });
 
   return (

@@ -6,7 +6,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 export const metadata: Metadata = { title: "Runs" };
 
 export default async function RunsPage() {
-  await requirePageActor("runs.read");
+  await requirePageActor("runs.read", { next: "/runs" });
   return (
     <>
       <PageHeader

@@ -11,7 +11,7 @@ export const metadata: Metadata = { title: "Demo mailbox" };
 
 // Present only while `npm start` runs its fake SMTP server; with real mail this page does not exist.
 export default async function MailboxPage() {
-  const actor = await requirePageActor("mailbox.read");
+  const actor = await requirePageActor("mailbox.read", { next: "/admin/mailbox" });
   const messages = await listCapturedMail({ actor });
   if (messages === null) notFound();
 

@@ -12,7 +12,7 @@ import { UserRow } from "./_components/user-row";
 export const metadata: Metadata = { title: "People" };
 
 export default async function PeoplePage() {
-  const actor = await requirePageActor("users.read");
+  const actor = await requirePageActor("users.read", { next: "/admin/users" });
   const [people, invitations] = await Promise.all([listUsers({ actor }), listPendingInvitations({ actor })]);
   // Controls are offered to roles that hold the permission; the actions check it again on the server.
   const controls = { setRole: can(actor.role, "users.set-role"), deactivate: can(actor.role, "users.deactivate") };

@@ -35,7 +35,7 @@ export default async function AuditPage({ searchParams }: PageProps<"/audit">) {
             <tr key={event.id} data-testid="audit-row" data-action={event.action}>
               <td className="px-4 py-2.5 whitespace-nowrap text-ink-500 tabular">{formatDateTime(event.occurredAt)}</td>
               <td className="px-4 py-2.5">
-                <span className="text-ink-900">{event.actorName ?? event.actorEmail ?? "System"}</span>
+                <span className="text-ink-900">{event.actorName ?? event.actorEmail ?? "—"}</span>
                 {event.actorName && event.actorEmail ? (
                   <span className="block text-xs text-ink-400">{event.actorEmail}</span>
                 ) : null}

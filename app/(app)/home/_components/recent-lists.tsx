@@ -25,7 +25,9 @@ export function RecentAuditEvents({ events }: { events: AuditEventDto[] }) {
           <span className="text-xs leading-5 text-ink-400 tabular">{formatDateTime(event.occurredAt)}</span>
           <span className="text-ink-700">
             {event.label}
-            <span className="text-ink-400"> · {event.actorName ?? event.actorEmail ?? "system"}</span>
+            {event.actorName || event.actorEmail ? (
+              <span className="text-ink-400"> · {event.actorName ?? event.actorEmail}</span>
+            ) : null}
           </span>
         </li>
       ))}

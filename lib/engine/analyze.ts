@@ -40,19 +40,33 @@ interface SolvedCase {
   readonly vectors: CaseVectors;
 }
 
-/** Right-hand side, solution and solver residual of one load case, with the factor shared by all cases. */
-function solveCase(model: Model, c: number, members: ReadonlyArray<PreparedMember>, dofs: DofMap, loads: CaseLoads, K: SymmetricCsc | null, factor: CholeskyFactor | null): SolvedCase | EngineError {
-  const id = model.loadCases[c].id;
-  const fef = caseFixedEndForces(members, loads);
-  const D2 = casePrescribed(model, dofs, id);
-  const rhs = caseRhs(members, dofs, loads, fef, D2);
-  if (!allFinite(rhs) || !allFinite(fef)) {
-    return { kind: "numerical", message: `Load case ${id}: the loads overflow; check their magnitudes (SI units: N, N/m, N·m)` };
+/**
+ * Right-hand sides, solutions and solver residuals of every load case. The factor is shared, and all cases
+ * are solved in one pass over it.
+ */
+function solveCases(model: Model, members: ReadonlyArray<PreparedMember>, dofs: DofMap, caseLoads: ReadonlyArray<CaseLoads>, K: SymmetricCsc | null, factor: CholeskyFactor | null): SolvedCase[] | EngineError {
+  const parts = [];
+  for (let c = 0; c < model.loadCases.length; c++) {
+    const id = model.loadCases[c].id;
+    const loads = caseLoads[c];
+    const fef = caseFixedEndForces(members, loads);
+    const D2 = casePrescribed(model, dofs, id);
+    const rhs = caseRhs(members, dofs, loads, fef, D2);
+    if (!allFinite(rhs) || !allFinite(fef)) {
+      return { kind: "numerical", message: `Load case ${id}: the loads overflow; check their magnitudes (SI units: N, N/m, N·m)` };
+    }
+    parts.push({ id, loads, fef, D2, rhs });
   }
-  const u = factor ? factor.solve(rhs) : new Float64Array(0);
-  if (!allFinite(u)) return { kind: "numerical", message: `Load case ${id}: the solution is not finite; check for extreme stiffness ratios` };
-  const residual = K ? relativeResidual(K, u, rhs) : 0;
-  return { u, D2, residual, vectors: { applied: appliedNodalLoads(members, loads.nodal, fef, loads.span.keys()), fef, rhs } };
+  const us = factor ? factor.solveMany(parts.map((p) => p.rhs)) : parts.map(() => new Float64Array(0));
+  const solved: SolvedCase[] = [];
+  for (let c = 0; c < parts.length; c++) {
+    const { id, loads, fef, D2, rhs } = parts[c];
+    const u = us[c];
+    if (!allFinite(u)) return { kind: "numerical", message: `Load case ${id}: the solution is not finite; check for extreme stiffness ratios` };
+    const residual = K ? relativeResidual(K, u, rhs) : 0;
+    solved.push({ u, D2, residual, vectors: { applied: appliedNodalLoads(members, loads.nodal, fef, loads.span.keys()), fef, rhs } });
+  }
+  return solved;
 }
 
 /** Displacements, end forces, reactions and checks of one solved load case. */
@@ -115,12 +129,8 @@ export function analyze(input: unknown): AnalysisOutcome {
   }
   const tFactored = performance.now();
 
-  const solved: SolvedCase[] = [];
-  for (let c = 0; c < model.loadCases.length; c++) {
-    const s = solveCase(model, c, members, dofs, caseLoads[c], K, factor);
-    if ("kind" in s) return { ok: false, errors: [s] };
-    solved.push(s);
-  }
+  const solved = solveCases(model, members, dofs, caseLoads, K, factor);
+  if (!Array.isArray(solved)) return { ok: false, errors: [solved] };
   const tSolved = performance.now();
 
   const cases = solved.map((s, c) => recoverCase(model, c, members, dofs, caseLoads[c], s));

@@ -1,18 +1,26 @@
 /**
- * Factor K once (sparse LDLᵀ with a fill-reducing ordering) and solve every load case with that factor.
+ * Factor K once (sparse Cholesky, LLᵀ, with a fill-reducing ordering) and solve every load case with that factor.
  * A pivot failure is mapped back to the node and direction that is free, as an `unstable` error.
  */
 import type { Model } from "./model";
 import { DOF_NAMES, dofLocation, type DofMap } from "./dofs";
 import { unstableError, type EngineError } from "./diagnostics";
-import { factorizeSymmetric, multiplySymmetric, type CholeskyFactor, type FactorStats, type SymmetricCsc } from "./sparse";
+import { FactorWorkspace, factorizeSymmetric, multiplySymmetric, type CholeskyFactor, type FactorStats, type SymmetricCsc } from "./sparse";
 
 export type FactorOutcome = { ok: true; factor: CholeskyFactor; stats: FactorStats } | { ok: false; error: EngineError; stats: FactorStats };
 
+/**
+ * Storage for L shared by every analysis: the factor never leaves `analyze`, which is synchronous, so the
+ * next analysis may overwrite it; repeated analyses then skip faulting in tens of megabytes of fresh pages.
+ */
+const workspace = new FactorWorkspace();
+
+/** The factor returned is valid until the next call (its storage is the shared workspace). */
 export function factorStiffness(model: Model, K: SymmetricCsc, dofs: DofMap): FactorOutcome {
   const result = factorizeSymmetric(K, {
     ordering: "amd",
     blockSize: dofs.blockSize,
+    workspace,
   });
   if (result.ok) return { ok: true, factor: result.factor, stats: result.factor.stats };
   // The factorisation reports the equation in original numbering; map it back to the node and direction.

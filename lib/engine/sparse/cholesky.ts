@@ -3,6 +3,7 @@ import { factorMultifrontal } from "./multifrontal";
 import { computeOrdering } from "./ordering";
 import { analyzeSymbolic } from "./symbolic";
 import type { SupernodalStructure } from "./supernodes";
+import { scratch } from "./workspace";
 import type { CholeskyFactor, FactorOptions, FactorResult, FactorStats, SymmetricCsc } from "./types";
 
 /** L Lᵀ = P A Pᵀ with L held as dense supernodal blocks. */
@@ -16,18 +17,32 @@ class SupernodalFactor implements CholeskyFactor {
   ) {}
 
   solve(b: Float64Array): Float64Array {
+    return this.solveMany([b])[0];
+  }
+
+  /**
+   * All right-hand sides in one pass over L: L is read from memory once for the lot instead of once per
+   * case, and the inner loops update every case with each entry of L. Rows of x hold the cases side by side.
+   */
+  solveMany(bs: ReadonlyArray<Float64Array>): Float64Array[] {
     const { n, perm, values: lx } = this;
-    const { count, superStart, rowPtr, rows, valuePtr } = this.structure;
-    if (b.length !== n) throw new Error(`solve: right-hand side has length ${b.length}, expected ${n}`);
-    const x = new Float64Array(n);
-    for (let k = 0; k < n; k++) {
-      const v = b[perm[k]];
-      if (!Number.isFinite(v)) throw new Error(`solve: right-hand side entry ${perm[k]} is not finite (${v})`);
-      x[k] = v;
+    const { count, superStart, rowPtr, rows, valuePtr, maxRows } = this.structure;
+    const nr = bs.length;
+    if (nr === 0) return [];
+    const x = scratch.floats("solve-x", n * nr);
+    for (let r = 0; r < nr; r++) {
+      const b = bs[r];
+      if (b.length !== n) throw new Error(`solve: right-hand side has length ${b.length}, expected ${n}`);
+      for (let k = 0; k < n; k++) {
+        const v = b[perm[k]];
+        if (!Number.isFinite(v)) throw new Error(`solve: right-hand side entry ${perm[k]} is not finite (${v})`);
+        x[k * nr + r] = v;
+      }
     }
-    // Rows below each supernode's diagonal block go through a dense work vector, so the inner
-    // loops run over contiguous memory and each row of x is gathered or scattered once.
-    const work = new Float64Array(this.structure.maxRows);
+    // Rows below each supernode's diagonal block go through a dense work block, so the inner loops run
+    // over contiguous memory and each row of x is gathered or scattered once.
+    const work = scratch.floats("solve-work", maxRows * nr);
+    const xk = scratch.floats("solve-xk", nr);
     // Forward: L y = P b.
     for (let s = 0; s < count; s++) {
       const first = superStart[s];
@@ -35,15 +50,27 @@ class SupernodalFactor implements CholeskyFactor {
       const r0 = rowPtr[s];
       const m = rowPtr[s + 1] - r0;
       const below = m - cols;
-      work.fill(0, 0, below);
+      work.fill(0, 0, below * nr);
       for (let k = 0; k < cols; k++) {
         const col = valuePtr[s] + k * m;
-        const xk = (x[first + k] /= lx[col + k]);
-        for (let i = k + 1; i < cols; i++) x[first + i] -= lx[col + i] * xk;
+        const dk = lx[col + k];
+        const xb = (first + k) * nr;
+        for (let r = 0; r < nr; r++) xk[r] = x[xb + r] /= dk;
+        for (let i = k + 1; i < cols; i++) {
+          const l = lx[col + i];
+          const xi = (first + i) * nr;
+          for (let r = 0; r < nr; r++) x[xi + r] -= l * xk[r];
+        }
         const tail = col + cols;
-        for (let i = 0; i < below; i++) work[i] += lx[tail + i] * xk;
+        for (let i = 0; i < below; i++) {
+          const l = lx[tail + i];
+          for (let r = 0; r < nr; r++) work[i * nr + r] += l * xk[r];
+        }
       }
-      for (let i = 0; i < below; i++) x[rows[r0 + cols + i]] -= work[i];
+      for (let i = 0; i < below; i++) {
+        const xi = rows[r0 + cols + i] * nr;
+        for (let r = 0; r < nr; r++) x[xi + r] -= work[i * nr + r];
+      }
     }
     // Backward: Lᵀ z = y.
     for (let s = count - 1; s >= 0; s--) {
@@ -52,18 +79,33 @@ class SupernodalFactor implements CholeskyFactor {
       const r0 = rowPtr[s];
       const m = rowPtr[s + 1] - r0;
       const below = m - cols;
-      for (let i = 0; i < below; i++) work[i] = x[rows[r0 + cols + i]];
+      for (let i = 0; i < below; i++) {
+        const xi = rows[r0 + cols + i] * nr;
+        for (let r = 0; r < nr; r++) work[i * nr + r] = x[xi + r];
+      }
       for (let k = cols - 1; k >= 0; k--) {
         const col = valuePtr[s] + k * m;
-        let sum = x[first + k];
-        for (let i = k + 1; i < cols; i++) sum -= lx[col + i] * x[first + i];
+        for (let r = 0; r < nr; r++) xk[r] = x[(first + k) * nr + r];
+        for (let i = k + 1; i < cols; i++) {
+          const l = lx[col + i];
+          const xi = (first + i) * nr;
+          for (let r = 0; r < nr; r++) xk[r] -= l * x[xi + r];
+        }
         const tail = col + cols;
-        for (let i = 0; i < below; i++) sum -= lx[tail + i] * work[i];
-        x[first + k] = sum / lx[col + k];
+        for (let i = 0; i < below; i++) {
+          const l = lx[tail + i];
+          for (let r = 0; r < nr; r++) xk[r] -= l * work[i * nr + r];
+        }
+        const dk = lx[col + k];
+        for (let r = 0; r < nr; r++) x[(first + k) * nr + r] = xk[r] / dk;
       }
     }
-    const out = new Float64Array(n);
-    for (let k = 0; k < n; k++) out[perm[k]] = x[k];
+    const out: Float64Array[] = [];
+    for (let r = 0; r < nr; r++) {
+      const o = new Float64Array(n);
+      for (let k = 0; k < n; k++) o[perm[k]] = x[k * nr + r];
+      out.push(o);
+    }
     return out;
   }
 }
@@ -93,7 +135,7 @@ export function factorizeSymmetric(a: SymmetricCsc, options: FactorOptions = {})
   t0 = t1;
   const diag = new Float64Array(n);
   for (let k = 0; k < n; k++) diag[k] = diagA[perm[k]];
-  const outcome = factorMultifrontal(permuted, structure, diag, tolerance);
+  const outcome = factorMultifrontal(permuted, structure, diag, tolerance, options.workspace ?? null);
   stats.numericMs = performance.now() - t0;
   if (!outcome.ok) {
     return { ok: false, kind: "not-positive-definite", equation: perm[outcome.position], pivot: outcome.pivot, stats };

@@ -1,5 +1,5 @@
 // Sparse symmetric positive-definite solver of the frame engine: triplet assembly, fill-reducing
-// orderings, and an LDLᵀ factorisation with singularity reporting in original equation numbers.
+// orderings, and a supernodal Cholesky (LLᵀ) factorisation with singularity reporting in original equation numbers.
 export type {
   CholeskyFactor,
   FactorOptions,
@@ -12,3 +12,4 @@ export { SymmetricTripletBuilder } from "./triplets";
 export { multiplySymmetric } from "./csc";
 export { computeOrdering } from "./ordering";
 export { factorizeSymmetric } from "./cholesky";
+export { FactorWorkspace } from "./workspace";

@@ -1,6 +1,7 @@
 import type { CscMatrix } from "./csc";
 import { subtractOuterProducts } from "./dense-kernels";
 import type { SupernodalStructure } from "./supernodes";
+import { scratch, type FactorWorkspace } from "./workspace";
 
 /** Columns factorised together inside a front before the rest of the panel is updated with them. */
 const PANEL_BLOCK = 8;
@@ -9,25 +10,26 @@ export type NumericOutcome =
   | { ok: true; values: Float64Array }
   | { ok: false; position: number; pivot: number };
 
-/** Stack of dense update (Schur complement) matrices waiting for their parent front. */
-class UpdateStack {
-  data = new Float64Array(1 << 16);
-  top = 0;
-  readonly owners: number[] = [];
-  readonly offsets: number[] = [];
-
-  push(owner: number, size: number): number {
-    if (this.top + size > this.data.length) {
-      const grown = new Float64Array(Math.max(2 * this.data.length, this.top + size));
-      grown.set(this.data.subarray(0, this.top));
-      this.data = grown;
+/**
+ * Peak size of the stack of update (Schur complement) matrices: supernodes run in postorder, each pops its
+ * children's matrices and pushes its own. Known up front, the stack is one array that never grows or copies.
+ */
+function peakUpdateStack(sn: SupernodalStructure): number {
+  const { count, superStart, superParent, rowPtr } = sn;
+  const pending = new Float64Array(count); // summed sizes of each supernode's children's update matrices
+  let top = 0;
+  let peak = 0;
+  for (let s = 0; s < count; s++) {
+    top -= pending[s];
+    const mu = rowPtr[s + 1] - rowPtr[s] - (superStart[s + 1] - superStart[s]);
+    const p = superParent[s];
+    if (mu > 0 && p !== -1) {
+      top += mu * mu;
+      pending[p] += mu * mu;
+      if (top > peak) peak = top;
     }
-    const offset = this.top;
-    this.owners.push(owner);
-    this.offsets.push(offset);
-    this.top += size;
-    return offset;
   }
+  return peak;
 }
 
 /**
@@ -44,15 +46,21 @@ export function factorMultifrontal(
   sn: SupernodalStructure,
   diag: Float64Array,
   tolerance: number,
+  workspace: FactorWorkspace | null = null,
 ): NumericOutcome {
   const { colPtr: cp, rowIdx: ci, values: cx } = c;
   const { count, superStart, superParent, rowPtr, rows, parentPos, valuePtr, maxRows } = sn;
-  const lx = new Float64Array(valuePtr[count]);
-  const front = new Float64Array(maxRows * maxRows);
+  // Every entry of lx is written below (whole front columns are copied), so reused storage needs no clearing.
+  const lx = workspace ? workspace.floats("L", valuePtr[count]) : new Float64Array(valuePtr[count]);
+  const front = scratch.floats("front", maxRows * maxRows);
+  const stackData = scratch.floats("updates", peakUpdateStack(sn));
   const pos = new Int32Array(sn.n);
-  const childCount = new Int32Array(count);
-  for (let s = 0; s < count; s++) if (superParent[s] !== -1) childCount[superParent[s]]++;
-  const stack = new UpdateStack();
+  // The stack's entries (owner supernode, offset), and how many of each supernode's children pushed one.
+  const owners = new Int32Array(count);
+  const offsets = new Int32Array(count);
+  const pushed = new Int32Array(count);
+  let depth = 0;
+  let stackTop = 0;
 
   for (let s = 0; s < count; s++) {
     const first = superStart[s];
@@ -68,12 +76,11 @@ export function factorMultifrontal(
       const col = j * m;
       for (let p = cp[first + j]; p < cp[first + j + 1]; p++) front[col + pos[ci[p]]] += cx[p];
     }
-    // Extend-add the children's update matrices (the top childCount[s] of the stack).
-    const nChildren = childCount[s];
-    const stackData = stack.data;
-    for (let q = stack.owners.length - nChildren; q < stack.owners.length; q++) {
-      const child = stack.owners[q];
-      const offset = stack.offsets[q];
+    // Extend-add the children's update matrices: postorder puts them on top of the stack, in order.
+    const nChildren = pushed[s];
+    for (let q = depth - nChildren; q < depth; q++) {
+      const child = owners[q];
+      const offset = offsets[q];
       const cr0 = rowPtr[child] + superStart[child + 1] - superStart[child];
       const mu = rowPtr[child + 1] - cr0;
       for (let b = 0; b < mu; b++) {
@@ -83,9 +90,8 @@ export function factorMultifrontal(
       }
     }
     if (nChildren > 0) {
-      stack.top = stack.offsets[stack.owners.length - nChildren];
-      stack.owners.length -= nChildren;
-      stack.offsets.length -= nChildren;
+      depth -= nChildren;
+      stackTop = offsets[depth];
     }
 
     // Factorise the pivot columns, left-looking by blocks so most work runs in the two-column kernel.
@@ -111,8 +117,12 @@ export function factorMultifrontal(
     const mu = m - cols;
     if (mu > 0 && superParent[s] !== -1) {
       subtractOuterProducts(front, m, cols, m, 0, cols);
-      const offset = stack.push(s, mu * mu);
-      const data = stack.data;
+      const offset = stackTop;
+      owners[depth] = s;
+      offsets[depth++] = offset;
+      stackTop += mu * mu;
+      pushed[superParent[s]]++;
+      const data = stackData;
       // Copy by loop: a subarray view per column would allocate in this hot path.
       for (let b = 0; b < mu; b++) {
         const src = (cols + b) * m + cols;

@@ -1,3 +1,5 @@
+import type { FactorWorkspace } from "./workspace";
+
 /** Lower triangle (incl. diagonal) of a symmetric matrix in compressed sparse column form; row indices sorted ascending within each column, no duplicates. */
 export interface SymmetricCsc {
   n: number;
@@ -15,6 +17,11 @@ export interface FactorOptions {
   blockSize?: number;
   /** A pivot d_k with d_k <= pivotTolerance * A_kk (original diagonal) or A_kk <= 0 means singular there. Default 1e-10. */
   pivotTolerance?: number;
+  /**
+   * Storage for L reused across factorisations (see FactorWorkspace): the factor is then valid only until the
+   * next factorisation with the same workspace. Default: L gets storage of its own.
+   */
+  workspace?: FactorWorkspace;
 }
 
 export interface FactorStats {
@@ -31,6 +38,8 @@ export interface CholeskyFactor {
   readonly stats: FactorStats;
   /** Solves A x = b; b is not modified. */
   solve(b: Float64Array): Float64Array;
+  /** Solves A X = B for several right-hand sides in one pass over the factor; none is modified. */
+  solveMany(bs: ReadonlyArray<Float64Array>): Float64Array[];
 }
 
 export type FactorResult =

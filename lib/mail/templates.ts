@@ -10,7 +10,7 @@ function layout(paragraphs: string[], link: { url: string; label: string }): str
   const body = paragraphs.map((p) => `<p style="margin:0 0 16px">${escapeHtml(p)}</p>`).join("");
   return `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1f2933;max-width:560px;margin:24px auto;line-height:1.5">
 <p style="font-weight:700;font-size:18px;margin:0 0 24px">Gusset</p>${body}
-<p style="margin:24px 0"><a href="${escapeHtml(link.url)}" style="background:#1d4e89;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(link.label)}</a></p>
+<p style="margin:24px 0"><a href="${escapeHtml(link.url)}" style="background:#1f5a5f;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(link.label)}</a></p>
 <p style="margin:0 0 16px;font-size:13px;color:#52606d">Or paste this link into your browser:<br>${escapeHtml(link.url)}</p>
 <p style="font-size:13px;color:#52606d">Gusset — your firm's library of calculation standards.</p></body></html>`;
 }

@@ -1,5 +1,5 @@
 /**
- * Closed-form beams from ../shared/docs/check-values.md. Each check cites its source beside it.
+ * Closed-form beams from published handbook tables. Each check cites its source beside it.
  * Loads act downwards (global −y), so hogging moments and downward deflections come out negative.
  */
 import { describe, it, expect } from "vitest";

@@ -21,28 +21,42 @@ class SupernodalFactor implements CholeskyFactor {
   }
 
   /**
-   * All right-hand sides in one pass over L: L is read from memory once for the lot instead of once per
-   * case, and the inner loops update every case with each entry of L. Rows of x hold the cases side by side.
+   * Right-hand sides two at a time, so each pass over L (read from memory, tens of megabytes for a large
+   * frame) serves two cases, with both updates in registers; an odd one out pairs with a zero vector.
    */
   solveMany(bs: ReadonlyArray<Float64Array>): Float64Array[] {
-    const { n, perm, values: lx } = this;
-    const { count, superStart, rowPtr, rows, valuePtr, maxRows } = this.structure;
+    const { n, perm } = this;
     const nr = bs.length;
-    if (nr === 0) return [];
-    const x = scratch.floats("solve-x", n * nr);
+    const xs = scratch.floats("solve-x", n * (nr + (nr % 2)));
     for (let r = 0; r < nr; r++) {
       const b = bs[r];
       if (b.length !== n) throw new Error(`solve: right-hand side has length ${b.length}, expected ${n}`);
+      const x = xs.subarray(r * n, r * n + n);
       for (let k = 0; k < n; k++) {
         const v = b[perm[k]];
         if (!Number.isFinite(v)) throw new Error(`solve: right-hand side entry ${perm[k]} is not finite (${v})`);
-        x[k * nr + r] = v;
+        x[k] = v;
       }
     }
-    // Rows below each supernode's diagonal block go through a dense work block, so the inner loops run
+    if (nr % 2 === 1) xs.fill(0, nr * n, nr * n + n);
+    for (let r = 0; r < nr; r += 2) this.solvePair(xs.subarray(r * n, r * n + n), xs.subarray(r * n + n, r * n + 2 * n));
+    const out: Float64Array[] = [];
+    for (let r = 0; r < nr; r++) {
+      const o = new Float64Array(n);
+      for (let k = 0; k < n; k++) o[perm[k]] = xs[r * n + k];
+      out.push(o);
+    }
+    return out;
+  }
+
+  /** L Lᵀ x = b for two permuted right-hand sides, in place. */
+  private solvePair(x0: Float64Array, x1: Float64Array): void {
+    const lx = this.values;
+    const { count, superStart, rowPtr, rows, valuePtr, maxRows } = this.structure;
+    // Rows below each supernode's diagonal block go through dense work vectors, so the inner loops run
     // over contiguous memory and each row of x is gathered or scattered once.
-    const work = scratch.floats("solve-work", maxRows * nr);
-    const xk = scratch.floats("solve-xk", nr);
+    const w0 = scratch.floats("solve-w0", maxRows);
+    const w1 = scratch.floats("solve-w1", maxRows);
     // Forward: L y = P b.
     for (let s = 0; s < count; s++) {
       const first = superStart[s];
@@ -50,26 +64,29 @@ class SupernodalFactor implements CholeskyFactor {
       const r0 = rowPtr[s];
       const m = rowPtr[s + 1] - r0;
       const below = m - cols;
-      work.fill(0, 0, below * nr);
+      w0.fill(0, 0, below);
+      w1.fill(0, 0, below);
       for (let k = 0; k < cols; k++) {
         const col = valuePtr[s] + k * m;
-        const dk = lx[col + k];
-        const xb = (first + k) * nr;
-        for (let r = 0; r < nr; r++) xk[r] = x[xb + r] /= dk;
+        const d = lx[col + k];
+        const a = (x0[first + k] /= d);
+        const b = (x1[first + k] /= d);
         for (let i = k + 1; i < cols; i++) {
           const l = lx[col + i];
-          const xi = (first + i) * nr;
-          for (let r = 0; r < nr; r++) x[xi + r] -= l * xk[r];
+          x0[first + i] -= l * a;
+          x1[first + i] -= l * b;
         }
         const tail = col + cols;
         for (let i = 0; i < below; i++) {
           const l = lx[tail + i];
-          for (let r = 0; r < nr; r++) work[i * nr + r] += l * xk[r];
+          w0[i] += l * a;
+          w1[i] += l * b;
         }
       }
       for (let i = 0; i < below; i++) {
-        const xi = rows[r0 + cols + i] * nr;
-        for (let r = 0; r < nr; r++) x[xi + r] -= work[i * nr + r];
+        const r = rows[r0 + cols + i];
+        x0[r] -= w0[i];
+        x1[r] -= w1[i];
       }
     }
     // Backward: Lᵀ z = y.
@@ -80,33 +97,30 @@ class SupernodalFactor implements CholeskyFactor {
       const m = rowPtr[s + 1] - r0;
       const below = m - cols;
       for (let i = 0; i < below; i++) {
-        const xi = rows[r0 + cols + i] * nr;
-        for (let r = 0; r < nr; r++) work[i * nr + r] = x[xi + r];
+        const r = rows[r0 + cols + i];
+        w0[i] = x0[r];
+        w1[i] = x1[r];
       }
       for (let k = cols - 1; k >= 0; k--) {
         const col = valuePtr[s] + k * m;
-        for (let r = 0; r < nr; r++) xk[r] = x[(first + k) * nr + r];
+        let a = x0[first + k];
+        let b = x1[first + k];
         for (let i = k + 1; i < cols; i++) {
           const l = lx[col + i];
-          const xi = (first + i) * nr;
-          for (let r = 0; r < nr; r++) xk[r] -= l * x[xi + r];
+          a -= l * x0[first + i];
+          b -= l * x1[first + i];
         }
         const tail = col + cols;
         for (let i = 0; i < below; i++) {
           const l = lx[tail + i];
-          for (let r = 0; r < nr; r++) xk[r] -= l * work[i * nr + r];
+          a -= l * w0[i];
+          b -= l * w1[i];
         }
-        const dk = lx[col + k];
-        for (let r = 0; r < nr; r++) x[(first + k) * nr + r] = xk[r] / dk;
+        const d = lx[col + k];
+        x0[first + k] = a / d;
+        x1[first + k] = b / d;
       }
     }
-    const out: Float64Array[] = [];
-    for (let r = 0; r < nr; r++) {
-      const o = new Float64Array(n);
-      for (let k = 0; k < n; k++) o[perm[k]] = x[k * nr + r];
-      out.push(o);
-    }
-    return out;
   }
 }
 

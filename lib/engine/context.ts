@@ -3,6 +3,7 @@
  * keyed by the result so the result itself stays plain, immutable data.
  */
 import type { Model } from "./model";
+import type { IdLookup } from "./id-index";
 import type { PreparedMember } from "./assembly";
 import type { CaseLoads } from "./loads";
 import type { AnalysisResult } from "./analysis-types";
@@ -10,8 +11,8 @@ import type { AnalysisResult } from "./analysis-types";
 export interface AnalysisContext {
   readonly model: Model;
   readonly members: ReadonlyArray<PreparedMember>;
-  readonly memberIndex: ReadonlyMap<string, number>;
-  readonly nodeIndex: ReadonlyMap<string, number>;
+  readonly memberIndex: IdLookup;
+  readonly nodeIndex: IdLookup;
   readonly caseLoads: ReadonlyArray<CaseLoads>;
 }
 

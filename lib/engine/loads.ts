@@ -6,6 +6,7 @@
  * along local axes), so f = k d + fef. The equivalent nodal loads are −FEF (global).
  */
 import type { Load, Model } from "./model";
+import type { IdLookup } from "./id-index";
 import { DOFS_PER_NODE, globalDof, RZ, UX, UY } from "./dofs";
 import type { MemberFrame } from "./elements";
 
@@ -111,8 +112,8 @@ function addLoad(load: Load, model: Model, frames: ReadonlyArray<MemberFrame>, i
 }
 
 export interface IdIndex {
-  readonly node: Map<string, number>;
-  readonly member: Map<string, number>;
+  readonly node: IdLookup;
+  readonly member: IdLookup;
 }
 
 /** Resolves the loads of one case. The model must have passed validation (references and positions). */

@@ -6,6 +6,7 @@
 import { ModelSchema, type Load, type Model } from "./model";
 import { formatPath, type EngineError } from "./diagnostics";
 import { DOF_NAMES } from "./dofs";
+import { IdIndex, type IdLookup } from "./id-index";
 
 /** Relative length below which a member counts as zero-length. */
 const ZERO_LENGTH_TOLERANCE = 1e-12;
@@ -36,7 +37,7 @@ function findNonFinite(value: unknown, path: PropertyKey[], out: EngineError[]):
   }
 }
 
-function checkDuplicates(model: Model, nodeIndex: Map<string, number>, memberIndex: Map<string, number>, out: EngineError[]): void {
+function checkDuplicates(model: Model, nodeIndex: IdLookup, memberIndex: IdLookup, out: EngineError[]): void {
   const groups = [
     ["node", model.nodes, nodeIndex.size],
     ["member", model.members, memberIndex.size],
@@ -66,7 +67,7 @@ function positive(value: number | undefined, where: string, property: string, ou
   }
 }
 
-function checkMembers(model: Model, nodeIndex: Map<string, number>, memberEnds: Int32Array, out: EngineError[]): Float64Array {
+function checkMembers(model: Model, nodeIndex: IdLookup, memberEnds: Int32Array, out: EngineError[]): Float64Array {
   const lengths = new Float64Array(model.members.length).fill(NaN);
   let extent = 0;
   for (const n of model.nodes) extent = Math.max(extent, Math.abs(n.x), Math.abs(n.y));
@@ -118,7 +119,7 @@ function checkMemberLoad(load: Exclude<Load, { kind: "nodal" | "self-weight" }>,
   if (load.projected && load.direction.startsWith("local")) out.push({ kind: "invalid-load", path: `${where}.projected`, message: `${where}: projected intensities need a global direction` });
 }
 
-function checkLoads(model: Model, nodeIndex: Map<string, number>, memberIndex: Map<string, number>, lengths: Float64Array, out: EngineError[]): void {
+function checkLoads(model: Model, nodeIndex: IdLookup, memberIndex: IdLookup, lengths: Float64Array, out: EngineError[]): void {
   model.loadCases.forEach((lc, c) => {
     const loads = lc.loads;
     for (let l = 0; l < loads.length; l++) {
@@ -172,16 +173,10 @@ function checkResultReferences(model: Model, out: EngineError[]): void {
   });
 }
 
-function indexById(items: ReadonlyArray<{ id: string }>): Map<string, number> {
-  const index = new Map<string, number>();
-  for (let i = 0; i < items.length; i++) index.set(items[i].id, i);
-  return index;
-}
-
 export interface ValidModel {
   readonly model: Model;
-  readonly nodeIndex: Map<string, number>;
-  readonly memberIndex: Map<string, number>;
+  readonly nodeIndex: IdLookup;
+  readonly memberIndex: IdLookup;
   /** Start and end node index of each member (2 per member), looked up once here. */
   readonly memberEnds: Int32Array;
 }
@@ -205,8 +200,8 @@ export function validateModel(input: unknown): ValidationOutcome {
   }
   const model = parsed.data;
   const errors: EngineError[] = [];
-  const nodeIndex = indexById(model.nodes);
-  const memberIndex = indexById(model.members);
+  const nodeIndex = new IdIndex(model.nodes);
+  const memberIndex = new IdIndex(model.members);
   checkDuplicates(model, nodeIndex, memberIndex, errors);
   const memberEnds = new Int32Array(2 * model.members.length);
   const lengths = checkMembers(model, nodeIndex, memberEnds, errors);

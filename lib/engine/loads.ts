@@ -39,16 +39,49 @@ export interface CaseLoads {
   /** Global nodal loads, 3 per node (fx, fy, mz). */
   readonly nodal: Float64Array;
   /** Span loads by member index (absent = unloaded member). */
-  readonly span: Map<number, SpanLoads>;
+  readonly span: SpanTable;
 }
 
-function spanOf(span: Map<number, SpanLoads>, m: number): SpanLoads {
-  let s = span.get(m);
-  if (!s) {
-    s = { distributed: [], concentrated: [] };
-    span.set(m, s);
+/**
+ * Span loads by member index, iterated in the order members were first loaded (as a Map would be). Members are
+ * numbered 0..n−1, so a slot array sized once replaces a Map that regrows and copies as 10,000s of members fill it.
+ */
+export class SpanTable implements Iterable<[number, SpanLoads]> {
+  private readonly slot: Int32Array;
+  private readonly loaded: number[] = [];
+  private readonly entries: SpanLoads[] = [];
+
+  constructor(members: number) {
+    this.slot = new Int32Array(members).fill(-1);
   }
-  return s;
+
+  get size(): number {
+    return this.loaded.length;
+  }
+
+  get(m: number): SpanLoads | undefined {
+    const k = this.slot[m];
+    return k >= 0 ? this.entries[k] : undefined;
+  }
+
+  /** The member's span loads, created empty on first use. */
+  of(m: number): SpanLoads {
+    const k = this.slot[m];
+    if (k >= 0) return this.entries[k];
+    const s: SpanLoads = { distributed: [], concentrated: [] };
+    this.slot[m] = this.loaded.length;
+    this.loaded.push(m);
+    this.entries.push(s);
+    return s;
+  }
+
+  keys(): IterableIterator<number> {
+    return this.loaded.values();
+  }
+
+  *[Symbol.iterator](): IterableIterator<[number, SpanLoads]> {
+    for (let k = 0; k < this.loaded.length; k++) yield [this.loaded[k], this.entries[k]];
+  }
 }
 
 /** Local (px, py) of a force given along `direction` with magnitude w. */
@@ -83,13 +116,13 @@ function addLoad(load: Load, model: Model, frames: ReadonlyArray<MemberFrame>, i
       if (!m.density) return;
       const w = -m.density * m.A * GRAVITY * load.factor;
       const [px, py] = localComponents("global-y", w, frames[i]);
-      addDistributed(spanOf(out.span, i), [px, px], [py, py], 0, frames[i].length);
+      addDistributed(out.span.of(i), [px, px], [py, py], 0, frames[i].length);
     });
     return;
   }
   const m = index.member.get(load.member)!;
   const f = frames[m];
-  const target = spanOf(out.span, m);
+  const target = out.span.of(m);
   if (load.kind === "couple") {
     target.concentrated.push({ axis: 2, a: load.position, value: load.value });
     return;
@@ -118,7 +151,7 @@ export interface IdIndex {
 
 /** Resolves the loads of one case. The model must have passed validation (references and positions). */
 export function resolveCaseLoads(model: Model, caseIndex: number, frames: ReadonlyArray<MemberFrame>, index: IdIndex): CaseLoads {
-  const out: CaseLoads = { nodal: new Float64Array(DOFS_PER_NODE * model.nodes.length), span: new Map() };
+  const out: CaseLoads = { nodal: new Float64Array(DOFS_PER_NODE * model.nodes.length), span: new SpanTable(model.members.length) };
   for (const load of model.loadCases[caseIndex].loads) addLoad(load, model, frames, index, out);
   return out;
 }

@@ -147,7 +147,8 @@ export function assembleStiffness(members: ReadonlyArray<PreparedMember>, dofs: 
 /** Fixed-end forces of one case, condensed for releases, local, 6 per member (zeros where unloaded). */
 export function caseFixedEndForces(members: ReadonlyArray<PreparedMember>, loads: CaseLoads): Float64Array {
   const fef = new Float64Array(6 * members.length);
-  for (const [m, span] of loads.span) {
+  for (const m of loads.span.keys()) {
+    const span = loads.span.get(m)!;
     const p = members[m];
     let f = fixedEndForces(span, p.frame.length);
     if (p.released.length > 0) f = condense(fullLocalStiffness(p), f, p.released).fef!;
@@ -182,7 +183,7 @@ export function caseRhs(
   const F = new Float64Array(6);
   for (const m of loads.span.keys()) {
     const p = members[m];
-    toGlobal(fef.subarray(6 * m, 6 * m + 6), p.frame.c, p.frame.s, F);
+    toGlobal(fef, p.frame.c, p.frame.s, F, 6 * m);
     memberDofs(p, g);
     for (let a = 0; a < 6; a++) {
       const e = dofs.equation[g[a]];

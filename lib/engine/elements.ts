@@ -128,13 +128,14 @@ export function toLocal(V: ArrayLike<number>, c: number, s: number, out = new Fl
 }
 
 /** Local → global for a 6-vector (the transpose of `toLocal`). */
-export function toGlobal(v: ArrayLike<number>, c: number, s: number, out = new Float64Array(6)): Float64Array {
+export function toGlobal(v: ArrayLike<number>, c: number, s: number, out = new Float64Array(6), offset = 0): Float64Array {
+  // `offset` reads a member's six values inside a long vector without a subarray view per member.
   for (let n = 0; n < 6; n += 3) {
-    const x = v[n];
-    const y = v[n + 1];
+    const x = v[offset + n];
+    const y = v[offset + n + 1];
     out[n] = c * x - s * y;
     out[n + 1] = s * x + c * y;
-    out[n + 2] = v[n + 2];
+    out[n + 2] = v[offset + n + 2];
   }
   return out;
 }

@@ -69,7 +69,7 @@ export function appliedNodalLoads(members: ReadonlyArray<PreparedMember>, nodal:
   const F = new Float64Array(6);
   for (const m of loaded) {
     const p = members[m];
-    toGlobal(fef.subarray(6 * m, 6 * m + 6), p.frame.c, p.frame.s, F);
+    toGlobal(fef, p.frame.c, p.frame.s, F, 6 * m);
     memberDofs(p, g);
     for (let a = 0; a < 6; a++) applied[g[a]] -= F[a];
   }
@@ -105,7 +105,7 @@ export function recoverForces(
       for (let j = 0; j < 6; j++) v += k[i * 6 + j] * d[j];
       endForces[o + i] = v;
     }
-    toGlobal(endForces.subarray(o, o + 6), p.frame.c, p.frame.s, F);
+    toGlobal(endForces, p.frame.c, p.frame.s, F, o);
     for (let a = 0; a < 6; a++) memberSum[g[a]] += F[a];
   });
   const reactions = new Float64Array(D.length);

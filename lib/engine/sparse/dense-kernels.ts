@@ -4,8 +4,8 @@
 
 /**
  * For target columns j in [jFrom, jTo) and rows i in [j, ld):
- *   f[j*ld + i] -= Σ_{t in [tFrom, tTo)} f[t*ld + i] · f[t*ld + j]
- * i.e. the lower part of F[:, J] −= L[:, T] · L[J, T]ᵀ with L the columns T of f.
+ *   f[base + j*ld + i] -= Σ_{t in [tFrom, tTo)} f[base + t*ld + i] · f[base + t*ld + j]
+ * i.e. the lower part of F[:, J] −= L[:, T] · L[J, T]ᵀ with L the columns T of the block F at `base`.
  */
 export function subtractOuterProducts(
   f: Float64Array,
@@ -14,6 +14,7 @@ export function subtractOuterProducts(
   jTo: number,
   tFrom: number,
   tTo: number,
+  base = 0,
 ): void {
   if (tTo <= tFrom) return;
   let j = jFrom;
@@ -22,17 +23,17 @@ export function subtractOuterProducts(
     for (let a = 0; a < 3; a++) {
       for (let i = j + a; i < j + 3; i++) {
         let sum = 0;
-        for (let t = tFrom; t < tTo; t++) sum += f[t * ld + i] * f[t * ld + j + a];
-        f[(j + a) * ld + i] -= sum;
+        for (let t = tFrom; t < tTo; t++) sum += f[base + t * ld + i] * f[base + t * ld + j + a];
+        f[base + (j + a) * ld + i] -= sum;
       }
     }
-    const c0 = j * ld;
+    const c0 = base + j * ld;
     const c1 = c0 + ld;
     const c2 = c1 + ld;
     const c3 = c2 + ld;
     let t = tFrom;
     for (; t + 3 < tTo; t += 4) {
-      const p0 = t * ld;
+      const p0 = base + t * ld;
       const p1 = p0 + ld;
       const p2 = p1 + ld;
       const p3 = p2 + ld;
@@ -64,7 +65,7 @@ export function subtractOuterProducts(
       }
     }
     for (; t < tTo; t++) {
-      const pt = t * ld;
+      const pt = base + t * ld;
       const a = f[pt + j];
       const b = f[pt + j + 1];
       const d = f[pt + j + 2];
@@ -79,10 +80,10 @@ export function subtractOuterProducts(
     }
   }
   for (; j < jTo; j++) {
-    const cj = j * ld;
+    const cj = base + j * ld;
     let t = tFrom;
     for (; t + 3 < tTo; t += 4) {
-      const p0 = t * ld;
+      const p0 = base + t * ld;
       const p1 = p0 + ld;
       const p2 = p1 + ld;
       const p3 = p2 + ld;
@@ -93,7 +94,7 @@ export function subtractOuterProducts(
       for (let i = j; i < ld; i++) f[cj + i] -= f[p0 + i] * a0 + f[p1 + i] * a1 + f[p2 + i] * a2 + f[p3 + i] * a3;
     }
     for (; t < tTo; t++) {
-      const pt = t * ld;
+      const pt = base + t * ld;
       const a = f[pt + j];
       for (let i = j; i < ld; i++) f[cj + i] -= f[pt + i] * a;
     }

@@ -49,10 +49,17 @@ export function factorMultifrontal(
   workspace: FactorWorkspace | null = null,
 ): NumericOutcome {
   const { colPtr: cp, rowIdx: ci, values: cx } = c;
-  const { count, superStart, superParent, rowPtr, rows, parentPos, valuePtr, maxRows } = sn;
-  // Every entry of lx is written below (whole front columns are copied), so reused storage needs no clearing.
-  const lx = workspace ? workspace.floats("L", valuePtr[count]) : new Float64Array(valuePtr[count]);
-  const front = scratch.floats("front", maxRows * maxRows);
+  const { count, superStart, superParent, rowPtr, rows, parentPos, valuePtr } = sn;
+  // Each front (m × m, column-major) is built where supernode s's block of L begins: its first columns are
+  // that block, so L needs no copy out of a separate front, and the trailing columns spill over storage of
+  // later supernodes, which postorder has not written yet. L is sized for the furthest spill.
+  let size = valuePtr[count];
+  for (let s = 0; s < count; s++) {
+    const m = rowPtr[s + 1] - rowPtr[s];
+    size = Math.max(size, valuePtr[s] + m * m);
+  }
+  // Every entry of L is written before it is read, so reused storage needs no clearing.
+  const lx = workspace ? workspace.floats("L", size) : new Float64Array(size);
   const stackData = scratch.floats("updates", peakUpdateStack(sn));
   const pos = new Int32Array(sn.n);
   // The stack's entries (owner supernode, offset), and how many of each supernode's children pushed one.
@@ -67,14 +74,15 @@ export function factorMultifrontal(
     const cols = superStart[s + 1] - first;
     const r0 = rowPtr[s];
     const m = rowPtr[s + 1] - r0;
+    const fb = valuePtr[s];
     for (let r = 0; r < m; r++) pos[rows[r0 + r]] = r;
     // Zero the lower triangle in one JIT loop: a fill() call per column costs more in call overhead.
-    for (let j = 0; j < m; j++) for (let q = j * m + j; q < j * m + m; q++) front[q] = 0;
+    for (let j = 0; j < m; j++) for (let q = fb + j * m + j; q < fb + j * m + m; q++) lx[q] = 0;
 
     // Assemble C's columns of this supernode.
     for (let j = 0; j < cols; j++) {
-      const col = j * m;
-      for (let p = cp[first + j]; p < cp[first + j + 1]; p++) front[col + pos[ci[p]]] += cx[p];
+      const col = fb + j * m;
+      for (let p = cp[first + j]; p < cp[first + j + 1]; p++) lx[col + pos[ci[p]]] += cx[p];
     }
     // Extend-add the children's update matrices: postorder puts them on top of the stack, in order.
     const nChildren = pushed[s];
@@ -84,9 +92,9 @@ export function factorMultifrontal(
       const cr0 = rowPtr[child] + superStart[child + 1] - superStart[child];
       const mu = rowPtr[child + 1] - cr0;
       for (let b = 0; b < mu; b++) {
-        const col = parentPos[cr0 + b] * m;
+        const col = fb + parentPos[cr0 + b] * m;
         const src = offset + b * mu;
-        for (let a = b; a < mu; a++) front[col + parentPos[cr0 + a]] += stackData[src + a];
+        for (let a = b; a < mu; a++) lx[col + parentPos[cr0 + a]] += stackData[src + a];
       }
     }
     if (nChildren > 0) {
@@ -97,26 +105,25 @@ export function factorMultifrontal(
     // Factorise the pivot columns, left-looking by blocks so most work runs in the two-column kernel.
     for (let k0 = 0; k0 < cols; k0 += PANEL_BLOCK) {
       const k1 = Math.min(cols, k0 + PANEL_BLOCK);
-      subtractOuterProducts(front, m, k0, k1, 0, k0);
+      subtractOuterProducts(lx, m, k0, k1, 0, k0, fb);
       for (let k = k0; k < k1; k++) {
-        subtractOuterProducts(front, m, k, k + 1, k0, k);
-        const kk = k * m + k;
-        const d = front[kk];
+        subtractOuterProducts(lx, m, k, k + 1, k0, k, fb);
+        const kk = fb + k * m + k;
+        const d = lx[kk];
         const akk = diag[first + k];
         // Written as !(a > b) so that NaN pivots are rejected too.
         if (!(akk > 0) || !(d > tolerance * akk)) return { ok: false, position: first + k, pivot: d };
         const lkk = Math.sqrt(d);
-        front[kk] = lkk;
+        lx[kk] = lkk;
         const inv = 1 / lkk;
-        for (let i = kk + 1; i < k * m + m; i++) front[i] *= inv;
+        for (let i = kk + 1; i < fb + k * m + m; i++) lx[i] *= inv;
       }
     }
-    lx.set(front.subarray(0, m * cols), valuePtr[s]);
 
     // Schur complement for the parent.
     const mu = m - cols;
     if (mu > 0 && superParent[s] !== -1) {
-      subtractOuterProducts(front, m, cols, m, 0, cols);
+      subtractOuterProducts(lx, m, cols, m, 0, cols, fb);
       const offset = stackTop;
       owners[depth] = s;
       offsets[depth++] = offset;
@@ -125,9 +132,9 @@ export function factorMultifrontal(
       const data = stackData;
       // Copy by loop: a subarray view per column would allocate in this hot path.
       for (let b = 0; b < mu; b++) {
-        const src = (cols + b) * m + cols;
+        const src = fb + (cols + b) * m + cols;
         const dst = offset + b * mu;
-        for (let a = b; a < mu; a++) data[dst + a] = front[src + a];
+        for (let a = b; a < mu; a++) data[dst + a] = lx[src + a];
       }
     }
   }

@@ -1,5 +1,5 @@
 // ESLint, run directly (`npm run lint`; Next 16 has no `next lint`). Besides the recommended sets, two
-// import rules hold the architecture in place (style.md practices 2 and 10):
+// import rules hold the architecture in place (DEVELOPERS.md, "Layout"):
 //   1. only the data-access layer (lib/data/**), the auth library's adapter (lib/auth/server.ts), db/,
 //      scripts and tests may import the database handle;
 //   2. lib/engine/** is pure TypeScript: nothing from React, Next, the database, auth or Node I/O.
@@ -16,7 +16,7 @@ const dbHandlePattern = {
   message: DB_HANDLE_MESSAGE,
 };
 
-const ENGINE_MESSAGE = "lib/engine is pure TypeScript: no React, Next, database, auth or Node I/O (style.md practice 10).";
+const ENGINE_MESSAGE = "lib/engine is pure TypeScript: no React, Next, database, auth or Node I/O (DEVELOPERS.md, Layout).";
 const engineForbiddenPaths = [
   "react",
   "react-dom",

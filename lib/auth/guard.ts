@@ -1,5 +1,5 @@
 import "server-only";
-// The one wrapper for every server action and route handler (style.md practice 5). It loads the actor,
+// The one wrapper for every server action and route handler (DEVELOPERS.md, "Conventions"). It loads the actor,
 // checks the declared permission, parses the input with the declared zod schema, runs the handler in
 // one transaction together with the audit event, and turns errors into messages. A handler cannot
 // forget the check because it never runs without it; a failed check or validation writes nothing.

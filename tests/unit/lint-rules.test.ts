@@ -74,3 +74,14 @@ describe("lib/engine", () => {
     expect(await restrictedImports("lib/engine/solve.ts", code)).toEqual([]);
   });
 });
+
+describe("the whole tree", () => {
+  // The rules above only help if the real files obey them; CI runs this, so a violation cannot land.
+  it("passes ESLint with no errors", async () => {
+    const results = await eslint.lintFiles(["."]);
+    const errors = results.flatMap((r) =>
+      r.messages.filter((m) => m.severity === 2).map((m) => `${r.filePath.slice(process.cwd().length + 1)}:${m.line} ${m.ruleId ?? ""} ${m.message}`),
+    );
+    expect(errors).toEqual([]);
+  }, 120_000);
+});

@@ -11,10 +11,10 @@ import { lusolve } from "mathjs";
 import { analyze, type ModelInput } from "../lib/engine";
 import { validateModel } from "../lib/engine/validate";
 import { resolveCaseLoads } from "../lib/engine/loads";
-import { denseFromCsc } from "../lib/engine/solve-dense";
 import { factorizeSymmetric } from "../lib/engine/sparse";
 import { assembleStiffness, caseFixedEndForces, caseRhs, prepareMembers, rotationalStiffness } from "../lib/engine/assembly";
 import { buildDofMap } from "../lib/engine/dofs";
+import { toDense } from "../tests/engine/sparse/dense-reference";
 
 const STOREY = 3.5;
 const BAY = 6;
@@ -101,7 +101,7 @@ function denseComparison(storeys: number, bays: number) {
   const dofs = buildDofMap(model, rotationalStiffness(model, members));
   const K = assembleStiffness(members, dofs);
   const n = K.n;
-  const dense = denseFromCsc(K).map((row) => Array.from(row));
+  const dense = toDense(K);
   const rhs = model.loadCases.map((_, c) => {
     const loads = resolveCaseLoads(model, c, members.map((p) => p.frame), { node: nodeIndex, member: memberIndex });
     return caseRhs(members, dofs, loads, caseFixedEndForces(members, loads), null);

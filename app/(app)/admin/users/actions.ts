@@ -2,6 +2,9 @@
 // People management. Thin: the guard checks the session, the permission and the input; the data
 // functions do the work and write their own audit events. The page is refreshed after each change.
 import { revalidatePath } from "next/cache";
+import type { z } from "zod";
+import type { Actor } from "@/lib/auth/actor";
+import type { Action } from "@/lib/auth/permissions";
 import { guardedAction } from "@/lib/auth/guard";
 import { deactivateUser, inviteUser, reactivateUser, setUserRole } from "@/lib/data/users";
 import { revokeInvitation } from "@/lib/data/invitations";
@@ -10,41 +13,25 @@ import { deactivateUserSchema, inviteUserSchema, reactivateUserSchema, setUserRo
 
 const PAGE = "/admin/users";
 
-export const inviteUserAction = guardedAction({ schema: inviteUserSchema, permission: "users.invite" }, async (input, { actor }) => {
-  const invitation = await inviteUser({ actor, ...input });
-  revalidatePath(PAGE);
-  return invitation;
-});
-
-export const setUserRoleAction = guardedAction({ schema: setUserRoleSchema, permission: "users.set-role" }, async (input, { actor }) => {
-  const updated = await setUserRole({ actor, ...input });
-  revalidatePath(PAGE);
-  return updated;
-});
-
-export const deactivateUserAction = guardedAction(
-  { schema: deactivateUserSchema, permission: "users.deactivate" },
-  async (input, { actor }) => {
-    const updated = await deactivateUser({ actor, ...input });
+/** A guarded action that hands its input and the actor to one data function, then refreshes the page. */
+function peopleAction<S extends z.ZodType<object>, T>(
+  schema: S,
+  permission: Action,
+  work: (args: z.infer<S> & { actor: Actor | null }) => Promise<T>,
+) {
+  return guardedAction({ schema, permission }, async (input, { actor }) => {
+    const result = await work({ actor, ...input });
     revalidatePath(PAGE);
-    return updated;
-  },
-);
+    return result;
+  });
+}
 
-export const reactivateUserAction = guardedAction(
-  { schema: reactivateUserSchema, permission: "users.deactivate" },
-  async (input, { actor }) => {
-    const updated = await reactivateUser({ actor, ...input });
-    revalidatePath(PAGE);
-    return updated;
-  },
-);
+export const inviteUserAction = peopleAction(inviteUserSchema, "users.invite", inviteUser);
 
-export const revokeInvitationAction = guardedAction(
-  { schema: revokeInvitationSchema, permission: "users.invite" },
-  async (input, { actor }) => {
-    const revoked = await revokeInvitation({ actor, ...input });
-    revalidatePath(PAGE);
-    return revoked;
-  },
-);
+export const setUserRoleAction = peopleAction(setUserRoleSchema, "users.set-role", setUserRole);
+
+export const deactivateUserAction = peopleAction(deactivateUserSchema, "users.deactivate", deactivateUser);
+
+export const reactivateUserAction = peopleAction(reactivateUserSchema, "users.deactivate", reactivateUser);
+
+export const revokeInvitationAction = peopleAction(revokeInvitationSchema, "users.invite", revokeInvitation);

@@ -1,6 +1,6 @@
 "use client";
 
-import type { FieldErrors, UseFormRegister } from "react-hook-form";
+import type { UseFormRegister } from "react-hook-form";
 import { PASSWORD_MIN_LENGTH } from "@/lib/data/auth-schemas";
 import { TextField } from "@/components/ui/field";
 
@@ -12,7 +12,8 @@ export function NewPasswordFields<T extends PasswordPair>({
   errors,
 }: {
   register: UseFormRegister<T>;
-  errors: FieldErrors<PasswordPair>;
+  /** The message to show beneath each field, if any. */
+  errors: { password?: string; confirmPassword?: string };
 }) {
   // The generic register is narrowed to the two fields every caller's form has.
   const reg = register as unknown as UseFormRegister<PasswordPair>;
@@ -25,7 +26,7 @@ export function NewPasswordFields<T extends PasswordPair>({
         hint={`At least ${PASSWORD_MIN_LENGTH} characters. A short sentence is easy to remember and hard to guess.`}
         data-testid="new-password"
         errorTestId="new-password-error"
-        error={errors.password?.message}
+        error={errors.password}
         {...reg("password")}
       />
       <TextField
@@ -34,7 +35,7 @@ export function NewPasswordFields<T extends PasswordPair>({
         autoComplete="new-password"
         data-testid="confirm-password"
         errorTestId="confirm-password-error"
-        error={errors.confirmPassword?.message}
+        error={errors.confirmPassword}
         {...reg("confirmPassword")}
       />
     </>

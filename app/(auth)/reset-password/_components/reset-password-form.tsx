@@ -36,7 +36,10 @@ export function ResetPasswordForm({ token }: { token: string }) {
     <form onSubmit={onSubmit} noValidate className="space-y-5" data-testid="reset-password-form">
       <FormError message={serverError ?? errors.token?.message} />
       <input type="hidden" {...register("token")} />
-      <NewPasswordFields register={register} errors={errors} />
+      <NewPasswordFields
+        register={register}
+        errors={{ password: errors.password?.message, confirmPassword: errors.confirmPassword?.message }}
+      />
       <Button type="submit" className="w-full" pending={isSubmitting} pendingLabel="Saving…" data-testid="reset-password-submit">
         Set new password
       </Button>

@@ -34,10 +34,8 @@ export function AcceptInvitationForm({ token }: { token: string }) {
       <NewPasswordFields
         register={register}
         errors={{
-          password: errors.password ?? (server.field.password ? { type: "server", message: server.field.password } : undefined),
-          confirmPassword:
-            errors.confirmPassword ??
-            (server.field.confirmPassword ? { type: "server", message: server.field.confirmPassword } : undefined),
+          password: errors.password?.message ?? server.field.password,
+          confirmPassword: errors.confirmPassword?.message ?? server.field.confirmPassword,
         }}
       />
       <Button type="submit" className="w-full" pending={pending} pendingLabel="Setting up your account…" data-testid="accept-invitation-submit">

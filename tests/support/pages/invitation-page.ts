@@ -1,5 +1,6 @@
 // The page an invitation link opens: who is invited and as what, then choose a password.
 import type { Page } from "playwright-core";
+import { fillNewPassword } from "./password-pages";
 
 export class InvitationPage {
   constructor(readonly page: Page) {}
@@ -11,16 +12,14 @@ export class InvitationPage {
   readonly unusableMessage = () => this.page.getByTestId("invitation-message");
   readonly passwordError = () => this.page.getByTestId("new-password-error");
   readonly confirmError = () => this.page.getByTestId("confirm-password-error");
-  readonly formError = () => this.page.getByTestId("form-error");
 
   async open(link: string): Promise<void> {
     await this.page.goto(link);
-    await this.page.locator('[data-testid="invitation-details"], [data-testid="invitation-unusable"]').first().waitFor();
+    await this.details().or(this.unusable()).first().waitFor();
   }
 
   async submitPasswords(password: string, confirmation = password): Promise<void> {
-    await this.page.getByTestId("new-password").fill(password);
-    await this.page.getByTestId("confirm-password").fill(confirmation);
+    await fillNewPassword(this.page, password, confirmation);
     await this.page.getByTestId("accept-invitation-submit").click();
   }
 

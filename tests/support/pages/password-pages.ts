@@ -29,8 +29,13 @@ export class ResetPasswordPage {
   }
 
   async submit(password: string, confirmation = password): Promise<void> {
-    await this.page.getByTestId("new-password").fill(password);
-    await this.page.getByTestId("confirm-password").fill(confirmation);
+    await fillNewPassword(this.page, password, confirmation);
     await this.page.getByTestId("reset-password-submit").click();
   }
+}
+
+/** The "choose a password" pair the reset and invitation pages share (components/new-password-fields.tsx). */
+export async function fillNewPassword(page: Page, password: string, confirmation: string): Promise<void> {
+  await page.getByTestId("new-password").fill(password);
+  await page.getByTestId("confirm-password").fill(confirmation);
 }

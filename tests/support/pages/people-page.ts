@@ -7,9 +7,9 @@ export class PeoplePage {
   constructor(readonly page: Page) {}
 
   readonly inviteSent = () => this.page.getByTestId("invite-sent");
-  readonly inviteFormError = () => this.page.getByTestId("invite-form").getByTestId("form-error");
   readonly inviteEmailError = () => this.page.getByTestId("invite-email-error");
-  readonly row = (email: string) => this.page.locator(`[data-testid="user-row"][data-email="${email}"]`);
+  /** A person's row; `state` narrows it to the row once it shows that status or role. */
+  readonly row = (email: string, state = "") => this.page.locator(`[data-testid="user-row"][data-email="${email}"]${state}`);
   readonly pendingInvitation = (email: string) => this.page.locator(`[data-testid="pending-invitation"][data-email="${email}"]`);
 
   async goto(): Promise<void> {
@@ -34,18 +34,18 @@ export class PeoplePage {
     const row = this.row(email);
     await row.getByTestId("user-deactivate").click();
     await row.getByTestId("user-deactivate-confirm").click();
-    await this.page.locator(`[data-testid="user-row"][data-email="${email}"][data-status="deactivated"]`).waitFor();
+    await this.row(email, '[data-status="deactivated"]').waitFor();
   }
 
   async reactivate(email: string): Promise<void> {
     await this.row(email).getByTestId("user-reactivate").click();
-    await this.page.locator(`[data-testid="user-row"][data-email="${email}"][data-status="active"]`).waitFor();
+    await this.row(email, '[data-status="active"]').waitFor();
   }
 
   async setRole(email: string, role: Role): Promise<void> {
     const row = this.row(email);
     await row.getByTestId("user-role-select").selectOption(role);
     await row.getByTestId("user-role-save").click();
-    await this.page.locator(`[data-testid="user-row"][data-email="${email}"][data-role="${role}"]`).waitFor();
+    await this.row(email, `[data-role="${role}"]`).waitFor();
   }
 }

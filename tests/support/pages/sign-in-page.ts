@@ -2,6 +2,7 @@
 // patient person would: when the page says "Too many attempts", wait a minute and press again.
 import type { Page } from "playwright-core";
 import { appUrl } from "../env";
+import { SIGN_IN_MINUTE_MS } from "./timeouts";
 
 const RATE_LIMITED = /too many attempts/i;
 
@@ -48,7 +49,7 @@ export class SignInPage {
       if (outcome === "no answer") throw new Error(`signing in as ${email}: no answer within 20 s`);
       const message = (await this.formError().textContent()) ?? "";
       if (!RATE_LIMITED.test(message) || Date.now() > deadline) return "error";
-      await this.page.waitForTimeout(61_000);
+      await this.page.waitForTimeout(SIGN_IN_MINUTE_MS);
     }
   }
 

@@ -3,7 +3,8 @@ import fs from "node:fs";
 import path from "node:path";
 import { drizzle } from "drizzle-orm/node-postgres";
 import { migrate } from "drizzle-orm/node-postgres/migrator";
-import pg from "pg";
+import type pg from "pg";
+import { runDatabaseScript } from "./lib/database-script";
 
 const migrationsFolder = path.resolve(import.meta.dirname, "..", "drizzle");
 
@@ -16,33 +17,15 @@ async function countApplied(pool: pg.Pool): Promise<number> {
   }
 }
 
-async function main(): Promise<number> {
-  const url = process.env.DATABASE_URL;
-  if (!url) {
-    console.error("migrate: DATABASE_URL is not set");
-    return 1;
-  }
+runDatabaseScript("migrate", async (pool, url) => {
   const database = new URL(url).pathname.slice(1);
   if (!fs.existsSync(path.join(migrationsFolder, "meta", "_journal.json"))) {
     console.log("migrate: drizzle/ has no migrations yet (no meta/_journal.json): nothing to apply");
     return 0;
   }
-  const pool = new pg.Pool({ connectionString: url, max: 1 });
-  try {
-    const before = await countApplied(pool);
-    await migrate(drizzle(pool), { migrationsFolder });
-    const after = await countApplied(pool);
-    console.log(`migrate: ${after - before} new migration(s) applied to ${database}, ${after} in total`);
-    return 0;
-  } finally {
-    await pool.end();
-  }
-}
-
-main().then(
-  (code) => process.exit(code),
-  (error: unknown) => {
-    console.error("migrate: failed:", error instanceof Error ? error.message : error);
-    process.exit(1);
-  },
-);
+  const before = await countApplied(pool);
+  await migrate(drizzle(pool), { migrationsFolder });
+  const after = await countApplied(pool);
+  console.log(`migrate: ${after - before} new migration(s) applied to ${database}, ${after} in total`);
+  return 0;
+});

@@ -1,7 +1,7 @@
 import "server-only";
 // The invitation link: look it up, accept it (set a password, become a user, sign in), and the
 // admin's list of open invitations. Only the SHA-256 of a token is stored; the link carries the token.
-import { and, desc, eq, gt, isNull, sql } from "drizzle-orm";
+import { desc, eq, sql } from "drizzle-orm";
 import { generateId } from "better-auth";
 import { account, invitations, user } from "@/db/schema";
 import { assertCanOrThrow, type Actor } from "@/lib/auth/actor";
@@ -11,7 +11,7 @@ import { AppError } from "@/lib/errors";
 import { recordAuditEvent } from "./audit";
 import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "./auth-schemas";
 import { currentDb, runAfterCommit, runInTransaction } from "./transaction";
-import { hashInvitationToken, type InvitationDto } from "./users";
+import { hashInvitationToken, pendingInvitationCondition, toInvitationDto, type InvitationDto } from "./users";
 
 export type InvitationStatus = "valid" | "expired" | "used" | "revoked";
 
@@ -116,16 +116,9 @@ export async function listPendingInvitations({ actor }: { actor: Actor | null })
   const rows = await currentDb()
     .select()
     .from(invitations)
-    .where(pendingCondition())
+    .where(pendingInvitationCondition())
     .orderBy(desc(invitations.createdAt));
-  return rows.map((row) => ({
-    id: row.id,
-    email: row.email,
-    name: row.name,
-    role: row.role,
-    expiresAt: row.expiresAt.toISOString(),
-    createdAt: row.createdAt.toISOString(),
-  }));
+  return rows.map((row) => toInvitationDto(row));
 }
 
 export async function countPendingInvitations({ actor }: { actor: Actor | null }): Promise<number> {
@@ -133,7 +126,7 @@ export async function countPendingInvitations({ actor }: { actor: Actor | null }
   const [row] = await currentDb()
     .select({ n: sql<number>`count(*)`.mapWith(Number) })
     .from(invitations)
-    .where(pendingCondition());
+    .where(pendingInvitationCondition());
   return row.n;
 }
 
@@ -149,7 +142,7 @@ export async function revokeInvitation({
     const [row] = await tx.select().from(invitations).where(eq(invitations.id, invitationId)).for("update");
     if (!row) throw new AppError("not-found", "That invitation no longer exists.");
     const status = statusOf(row);
-    if (status !== "valid") throw new AppError("conflict", `That invitation is already ${status === "used" ? "used" : status}.`);
+    if (status !== "valid") throw new AppError("conflict", `That invitation is already ${status}.`);
     await tx.update(invitations).set({ revokedAt: new Date() }).where(eq(invitations.id, invitationId));
     await recordAuditEvent({
       actorId: actor.id,
@@ -160,8 +153,4 @@ export async function revokeInvitation({
     });
     return { id: row.id, email: row.email };
   });
-}
-
-function pendingCondition() {
-  return and(isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, new Date()));
 }

@@ -55,6 +55,29 @@ function toUserDto(row: { id: string; name: string; email: string; role: Role; c
   };
 }
 
+export function toInvitationDto(row: {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  expiresAt: Date;
+  createdAt: Date;
+}): InvitationDto {
+  return {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    expiresAt: row.expiresAt.toISOString(),
+    createdAt: row.createdAt.toISOString(),
+  };
+}
+
+/** Invitations still open at `now`: not accepted, not withdrawn, not expired. */
+export function pendingInvitationCondition(now = new Date()) {
+  return and(isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, now));
+}
+
 export function hashInvitationToken(token: string): string {
   return createHash("sha256").update(token).digest("hex");
 }
@@ -94,6 +117,35 @@ async function assertNotLastActiveAdminOrThrow(userId: string, what: string): Pr
   }
 }
 
+/** Changes one person's row and writes the audit event for it, inside the caller's transaction. */
+async function updateUserWithAudit({
+  actor,
+  target,
+  set,
+  action,
+  details,
+}: {
+  actor: Actor;
+  target: { id: string; email: string };
+  set: Partial<typeof user.$inferInsert>;
+  action: string;
+  details?: Record<string, unknown>;
+}): Promise<UserDto> {
+  const [updated] = await currentDb()
+    .update(user)
+    .set({ updatedAt: new Date(), ...set })
+    .where(eq(user.id, target.id))
+    .returning(userColumns);
+  await recordAuditEvent({
+    actorId: actor.id,
+    actorEmail: actor.email,
+    action,
+    subject: `user:${target.id}`,
+    details: { email: target.email, ...details },
+  });
+  return toUserDto(updated);
+}
+
 /**
  * Creates an invitation and e-mails its link. Earlier open invitations to the same address are revoked,
  * so only the newest link works. The e-mail is sent inside the transaction: if it cannot be sent, no
@@ -123,14 +175,7 @@ export async function inviteUser({
     const replaced = await tx
       .update(invitations)
       .set({ revokedAt: now })
-      .where(
-        and(
-          eq(invitations.email, normalizedEmail),
-          isNull(invitations.acceptedAt),
-          isNull(invitations.revokedAt),
-          gt(invitations.expiresAt, now),
-        ),
-      )
+      .where(and(eq(invitations.email, normalizedEmail), pendingInvitationCondition(now)))
       .returning({ id: invitations.id });
     const token = randomBytes(32).toString("base64url");
     const expiresAt = new Date(now.getTime() + INVITATION_LIFETIME_DAYS * 24 * 60 * 60 * 1000);
@@ -160,14 +205,7 @@ export async function inviteUser({
       console.error("[gusset] invitation e-mail not sent:", error);
       throw new AppError("internal", "The invitation e-mail could not be sent, so no invitation was made. Try again later.");
     }
-    return {
-      id: created.id,
-      email: created.email,
-      name: created.name,
-      role: created.role,
-      expiresAt: created.expiresAt.toISOString(),
-      createdAt: created.createdAt.toISOString(),
-    };
+    return toInvitationDto(created);
   });
 }
 
@@ -181,23 +219,11 @@ export async function setUserRole({
   role: Role;
 }): Promise<UserDto> {
   assertCanOrThrow(actor, "users.set-role");
-  return runInTransaction(async (tx) => {
+  return runInTransaction(async () => {
     const target = await getUserOrThrow(userId);
     if (target.role === role) return toUserDto(target);
     if (target.role === "admin" && !target.deactivatedAt) await assertNotLastActiveAdminOrThrow(userId, "change the role of");
-    const [updated] = await tx
-      .update(user)
-      .set({ role, updatedAt: new Date() })
-      .where(eq(user.id, userId))
-      .returning(userColumns);
-    await recordAuditEvent({
-      actorId: actor.id,
-      actorEmail: actor.email,
-      action: "users.set-role",
-      subject: `user:${userId}`,
-      details: { email: target.email, from: target.role, to: role },
-    });
-    return toUserDto(updated);
+    return updateUserWithAudit({ actor, target, set: { role }, action: "users.set-role", details: { from: target.role, to: role } });
   });
 }
 
@@ -208,42 +234,25 @@ export async function deactivateUser({ actor, userId }: { actor: Actor | null; u
     const target = await getUserOrThrow(userId);
     if (target.deactivatedAt) throw new AppError("conflict", `${target.name} is already deactivated.`);
     if (target.role === "admin") await assertNotLastActiveAdminOrThrow(userId, "deactivate");
-    const now = new Date();
-    const [updated] = await tx
-      .update(user)
-      .set({ deactivatedAt: now, updatedAt: now })
-      .where(eq(user.id, userId))
-      .returning(userColumns);
+    // Same transaction as the row change, so the sessions end only if the deactivation commits.
     const ended = await tx.delete(session).where(eq(session.userId, userId)).returning({ id: session.id });
-    await recordAuditEvent({
-      actorId: actor.id,
-      actorEmail: actor.email,
+    const now = new Date();
+    return updateUserWithAudit({
+      actor,
+      target,
+      set: { deactivatedAt: now, updatedAt: now },
       action: "users.deactivate",
-      subject: `user:${userId}`,
-      details: { email: target.email, sessionsEnded: ended.length },
+      details: { sessionsEnded: ended.length },
     });
-    return toUserDto(updated);
   });
 }
 
 export async function reactivateUser({ actor, userId }: { actor: Actor | null; userId: string }): Promise<UserDto> {
   assertCanOrThrow(actor, "users.deactivate");
-  return runInTransaction(async (tx) => {
+  return runInTransaction(async () => {
     const target = await getUserOrThrow(userId);
     if (!target.deactivatedAt) throw new AppError("conflict", `${target.name} is already active.`);
-    const [updated] = await tx
-      .update(user)
-      .set({ deactivatedAt: null, updatedAt: new Date() })
-      .where(eq(user.id, userId))
-      .returning(userColumns);
-    await recordAuditEvent({
-      actorId: actor.id,
-      actorEmail: actor.email,
-      action: "users.reactivate",
-      subject: `user:${userId}`,
-      details: { email: target.email },
-    });
-    return toUserDto(updated);
+    return updateUserWithAudit({ actor, target, set: { deactivatedAt: null }, action: "users.reactivate" });
   });
 }
 

@@ -71,17 +71,27 @@ function readEmail(body: unknown): string | null {
   return typeof email === "string" ? email.trim().toLowerCase().slice(0, 320) : null;
 }
 
-/** `reason` is better-auth's error code (INVALID_EMAIL_OR_PASSWORD, ACCOUNT_DEACTIVATED, …) or RATE_LIMITED. */
-async function auditFailedSignIn(email: string | null, reason: string, ipAddress: string | null): Promise<void> {
+/** An event about the account a request names by e-mail; `knownUser` says whether there is one. */
+async function auditForEmail(
+  action: string,
+  email: string | null,
+  details: Record<string, unknown>,
+  ipAddress: string | null,
+): Promise<void> {
   const known = email ? await findUserByEmail(email) : null;
   await recordAuditEvent({
-    action: "auth.sign-in.failed",
+    action,
     actorId: known?.id ?? null,
     actorEmail: email,
     subject: known ? `user:${known.id}` : null,
-    details: { reason, knownUser: Boolean(known) },
+    details: { ...details, knownUser: Boolean(known) },
     ipAddress,
   });
+}
+
+/** `reason` is better-auth's error code (INVALID_EMAIL_OR_PASSWORD, ACCOUNT_DEACTIVATED, …) or RATE_LIMITED. */
+async function auditFailedSignIn(email: string | null, reason: string, ipAddress: string | null): Promise<void> {
+  await auditForEmail("auth.sign-in.failed", email, { reason }, ipAddress);
 }
 
 /** Audit trail for sign-in attempts and password resets, read from what the endpoint returned. */
@@ -104,16 +114,8 @@ async function auditAuthEndpoint(ctx: HookContext): Promise<void> {
     }
     await auditFailedSignIn(email, (returned as APIError).body?.code ?? "UNKNOWN", ipAddress);
   } else if (ctx.path === "/request-password-reset") {
-    const email = readEmail(ctx.body);
-    const known = email ? await findUserByEmail(email) : null;
-    await recordAuditEvent({
-      action: "auth.password-reset.requested",
-      actorId: known?.id ?? null,
-      actorEmail: email,
-      subject: known ? `user:${known.id}` : null,
-      details: { knownUser: Boolean(known), ...(failed ? { reason: (returned as APIError).body?.code } : {}) },
-      ipAddress,
-    });
+    const details = failed ? { reason: (returned as APIError).body?.code } : {};
+    await auditForEmail("auth.password-reset.requested", readEmail(ctx.body), details, ipAddress);
   } else if (ctx.path === "/reset-password" && failed) {
     await recordAuditEvent({
       action: "auth.password-reset.failed",

@@ -1,4 +1,4 @@
-// The four roles of product.md. Stored on the user row as these keys.
+// The four roles. Stored on the user row as these keys.
 export const ROLES = ["admin", "lead", "engineer", "auditor"] as const;
 export type Role = (typeof ROLES)[number];
 

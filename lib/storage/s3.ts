@@ -1,7 +1,7 @@
 import "server-only";
 // Object storage for attachments (S3-compatible: the fake s3rver of `npm start`, or the firm's S3).
 // Both checksum settings are needed: without them a streamed upload can be stored with extra bytes
-// and no error (stack.md).
+// and no error.
 import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
 

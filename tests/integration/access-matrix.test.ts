@@ -1,5 +1,5 @@
 // Who gets what: every server action (app/**/actions.ts) and every route handler (app/api/**/route.ts)
-// against an anonymous visitor and each role, as a table written from product.md's roles, not from
+// against an anonymous visitor and each role, as a table written from the product's rules for each role, not from
 // lib/auth/permissions.ts, so a wrong permission in code fails here. A new action or route without a
 // row in these tables fails the "covers every…" tests.
 //

@@ -1,5 +1,5 @@
 // The local services `npm test` starts really work: PostgreSQL on DATABASE_URL, the fake SMTP with its
-// mailbox API, and the fake S3 with the client settings the app uses (stack.md).
+// mailbox API, and the fake S3 with the client settings the app uses.
 import crypto from "node:crypto";
 import { Readable } from "node:stream";
 import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
@@ -60,7 +60,7 @@ describe("fake S3", () => {
     region: testEnv.s3.region,
     forcePathStyle: true,
     credentials: { accessKeyId: testEnv.s3.accessKeyId, secretAccessKey: testEnv.s3.secretAccessKey },
-    // Without these two a streamed upload is stored with extra bytes and no error (stack.md).
+    // Without these two a streamed upload is stored with extra bytes and no error.
     requestChecksumCalculation: "WHEN_REQUIRED",
     responseChecksumValidation: "WHEN_REQUIRED",
   });

@@ -1,5 +1,5 @@
 // Object storage round trip against the fake S3 with the app's client settings: the bytes that go in
-// come back unchanged (stack.md: without the checksum settings they would not), also via presigned URLs.
+// come back unchanged (without the checksum settings they would not), also via presigned URLs.
 import { randomBytes } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { deleteObject, getObject, presignUrl, putObject } from "@/lib/storage/s3";

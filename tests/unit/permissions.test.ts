@@ -1,5 +1,5 @@
 // The permission table, cell by cell: every role × every action answers exactly what ROLE_PERMISSIONS
-// says, plus the product's rules stated independently of that table (product.md, "People and roles").
+// says, plus the product's rules stated independently of that table.
 import { describe, expect, it } from "vitest";
 import { ACTIONS, ROLE_PERMISSIONS, can, type Action } from "@/lib/auth/permissions";
 import { ROLES } from "@/lib/auth/roles";

@@ -13,6 +13,7 @@ import { validateModel } from "../lib/engine/validate";
 import { resolveCaseLoads } from "../lib/engine/loads";
 import { factorizeSymmetric } from "../lib/engine/sparse";
 import { assembleStiffness, caseFixedEndForces, caseRhs, prepareMembers, rotationalStiffness } from "../lib/engine/assembly";
+import { appliedNodalLoads } from "../lib/engine/results";
 import { buildDofMap } from "../lib/engine/dofs";
 import { toDense } from "../tests/engine/sparse/dense-reference";
 
@@ -104,7 +105,7 @@ function denseComparison(storeys: number, bays: number) {
   const dense = toDense(K);
   const rhs = model.loadCases.map((_, c) => {
     const loads = resolveCaseLoads(model, c, members.map((p) => p.frame), { node: nodeIndex, member: memberIndex });
-    return caseRhs(members, dofs, loads, caseFixedEndForces(members, loads), null);
+    return caseRhs(members, dofs, appliedNodalLoads(members, loads, caseFixedEndForces(members, loads)), null);
   });
   const t0 = performance.now();
   const denseSolutions = rhs.map((b) => (lusolve(dense, Array.from(b)) as number[][]).map((row) => row[0]));

@@ -51,20 +51,21 @@ function solveCases(model: Model, members: ReadonlyArray<PreparedMember>, dofs: 
     const loads = caseLoads[c];
     const fef = caseFixedEndForces(members, loads);
     const D2 = casePrescribed(model, dofs, id);
-    const rhs = caseRhs(members, dofs, loads, fef, D2);
+    const applied = appliedNodalLoads(members, loads, fef);
+    const rhs = caseRhs(members, dofs, applied, D2);
     if (!allFinite(rhs) || !allFinite(fef)) {
       return { kind: "numerical", message: `Load case ${id}: the loads overflow; check their magnitudes (SI units: N, N/m, N·m)` };
     }
-    parts.push({ id, loads, fef, D2, rhs });
+    parts.push({ id, fef, D2, rhs, applied });
   }
   const us = factor ? factor.solveMany(parts.map((p) => p.rhs)) : parts.map(() => new Float64Array(0));
   const solved: SolvedCase[] = [];
   for (let c = 0; c < parts.length; c++) {
-    const { id, loads, fef, D2, rhs } = parts[c];
+    const { id, fef, D2, rhs, applied } = parts[c];
     const u = us[c];
     if (!allFinite(u)) return { kind: "numerical", message: `Load case ${id}: the solution is not finite; check for extreme stiffness ratios` };
     const residual = K ? relativeResidual(K, u, rhs) : 0;
-    solved.push({ u, D2, residual, vectors: { applied: appliedNodalLoads(members, loads.nodal, fef, loads.span.keys()), fef, rhs } });
+    solved.push({ u, D2, residual, vectors: { applied, fef, rhs } });
   }
   return solved;
 }

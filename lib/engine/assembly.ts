@@ -5,7 +5,7 @@
  */
 import type { Model } from "./model";
 import { DOFS_PER_NODE, DofKind, dofLocation, globalDof, prescribedValue, type DofMap } from "./dofs";
-import { condense, frameLocalStiffness, memberFrame, releasedDofs, THETA_I, THETA_J, toGlobal, toGlobalStiffness, type MemberFrame } from "./elements";
+import { condense, frameLocalStiffness, memberFrame, releasedDofs, THETA_I, THETA_J, toGlobalStiffness, type MemberFrame } from "./elements";
 import { fixedEndForces, type CaseLoads } from "./loads";
 import type { SymmetricCsc } from "./sparse";
 import { patternPosition, stiffnessPattern } from "./stiffness-pattern";
@@ -169,28 +169,20 @@ export function casePrescribed(model: Model, dofs: DofMap, caseId: string): Floa
   return D2;
 }
 
-/** Right-hand side over the free equations: P1 − FEF1 − K12 D2. */
+/**
+ * Right-hand side over the free equations: P1 − FEF1 − K12 D2, where `applied` (P − FEF, global, from
+ * `appliedNodalLoads`) already holds the first two terms.
+ */
 export function caseRhs(
   members: ReadonlyArray<PreparedMember>,
   dofs: DofMap,
-  loads: CaseLoads,
-  fef: Float64Array,
+  applied: Float64Array,
   D2: Float64Array | null,
 ): Float64Array {
   const f = new Float64Array(dofs.nFree);
-  for (let e = 0; e < dofs.nFree; e++) f[e] = loads.nodal[dofs.freeToGlobal[e]];
-  const g = new Int32Array(6);
-  const F = new Float64Array(6);
-  for (const m of loads.span.keys()) {
-    const p = members[m];
-    toGlobal(fef, p.frame.c, p.frame.s, F, 6 * m);
-    memberDofs(p, g);
-    for (let a = 0; a < 6; a++) {
-      const e = dofs.equation[g[a]];
-      if (e >= 0) f[e] -= F[a];
-    }
-  }
+  for (let e = 0; e < dofs.nFree; e++) f[e] = applied[dofs.freeToGlobal[e]];
   if (D2) {
+    const g = new Int32Array(6);
     const k = new Float64Array(36);
     const K = new Float64Array(36);
     for (const p of members) {

@@ -13,6 +13,7 @@ import { DofKind, globalDof, type DofMap } from "./dofs";
 import { localStiffness, memberDofs, type PreparedMember } from "./assembly";
 import { toGlobal, toLocal } from "./elements";
 import type { Model } from "./model";
+import type { CaseLoads } from "./loads";
 
 export type ReadonlyVector = Readonly<Float64Array>;
 
@@ -63,11 +64,11 @@ export function fullDisplacements(dofs: DofMap, u: Float64Array, D2: Float64Arra
 }
 
 /** Global applied nodal loads: P − Σ FEF (the span loads' statically equivalent nodal loads). */
-export function appliedNodalLoads(members: ReadonlyArray<PreparedMember>, nodal: Float64Array, fef: Float64Array, loaded: Iterable<number>): Float64Array {
-  const applied = Float64Array.from(nodal);
+export function appliedNodalLoads(members: ReadonlyArray<PreparedMember>, loads: CaseLoads, fef: Float64Array): Float64Array {
+  const applied = Float64Array.from(loads.nodal);
   const g = new Int32Array(6);
   const F = new Float64Array(6);
-  for (const m of loaded) {
+  for (const m of loads.span.keys()) {
     const p = members[m];
     toGlobal(fef, p.frame.c, p.frame.s, F, 6 * m);
     memberDofs(p, g);

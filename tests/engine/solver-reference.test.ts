@@ -3,6 +3,7 @@ import { describe, it, expect } from "vitest";
 import fc from "fast-check";
 import { validateModel } from "@/lib/engine/validate";
 import { assembleStiffness, caseFixedEndForces, caseRhs, prepareMembers, rotationalStiffness } from "@/lib/engine/assembly";
+import { appliedNodalLoads } from "@/lib/engine/results";
 import { buildDofMap } from "@/lib/engine/dofs";
 import { resolveCaseLoads } from "@/lib/engine/loads";
 import { factorizeSymmetric } from "@/lib/engine/sparse";
@@ -37,7 +38,7 @@ function compareWithDense(model: ModelInput, expectedBlockSize?: number) {
   if (expectedBlockSize !== undefined) expect(dofs.blockSize).toBe(expectedBlockSize);
   const K = assembleStiffness(members, dofs);
   const loads = resolveCaseLoads(v.model, 0, members.map((p) => p.frame), { node: v.nodeIndex, member: v.memberIndex });
-  const f = caseRhs(members, dofs, loads, caseFixedEndForces(members, loads), null);
+  const f = caseRhs(members, dofs, appliedNodalLoads(members, loads, caseFixedEndForces(members, loads)), null);
   const factored = factorizeSymmetric(K, { ordering: "amd", blockSize: dofs.blockSize });
   expect(factored.ok).toBe(true);
   if (!factored.ok) return;

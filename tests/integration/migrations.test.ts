@@ -1,44 +1,23 @@
 // The migrations in drizzle/ build the whole schema on an EMPTY database (a fresh one made for this
 // test on the same server, dropped afterwards), through the same script `npm start` runs; and what the
 // database itself enforces: append-only audit events and the role CHECKs.
-import { spawnSync } from "node:child_process";
-import { randomBytes } from "node:crypto";
-import path from "node:path";
-import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { scratchDatabase, serverUrl, withClient } from "./helpers/scratch-database";
 
-const serverUrl = new URL(process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/gusset_test");
-const databaseName = `gusset_migrate_check_${randomBytes(4).toString("hex")}`;
-const freshUrl = new URL(serverUrl);
-freshUrl.pathname = `/${databaseName}`;
-
-async function withClient<T>(url: URL, work: (client: pg.Client) => Promise<T>): Promise<T> {
-  const client = new pg.Client({ connectionString: url.toString() });
-  await client.connect();
-  try {
-    return await work(client);
-  } finally {
-    await client.end();
-  }
-}
-
-const admin = (sql: string) => withClient(serverUrl, (client) => client.query(sql));
-
-function runMigrate() {
-  const tsx = path.resolve("node_modules/.bin/tsx");
-  return spawnSync(tsx, ["scripts/migrate.ts"], { env: { ...process.env, DATABASE_URL: freshUrl.toString() }, encoding: "utf8" });
-}
+const scratch = scratchDatabase("migrate");
+const freshUrl = scratch.url;
+const runMigrate = () => scratch.runScript("scripts/migrate.ts");
 
 let firstRun: ReturnType<typeof runMigrate>;
 
 // Migrated once here, so each test below can run alone or in any order.
 beforeAll(async () => {
-  await admin(`create database "${databaseName}"`);
+  await scratch.create();
   firstRun = runMigrate();
 }, 60_000);
 
 afterAll(async () => {
-  await admin(`drop database if exists "${databaseName}" with (force)`);
+  await scratch.drop();
 });
 
 describe("migrations on an empty database", () => {

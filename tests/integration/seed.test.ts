@@ -1,45 +1,27 @@
 // The demo seed: fills an empty database once (firm, one user per role, two projects) and leaves a
 // database with users alone; the demo users can sign in with the passwords the README prints.
-import { spawnSync } from "node:child_process";
-import { randomBytes } from "node:crypto";
-import path from "node:path";
-import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_FIRM_NAME, DEMO_PROJECTS, DEMO_USERS } from "@/db/demo-users";
 import { auth } from "@/lib/auth/server";
+import { scratchDatabase, withClient } from "./helpers/scratch-database";
 
-const serverUrl = new URL(process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/gusset_test");
-const databaseName = `gusset_seed_check_${randomBytes(4).toString("hex")}`;
-const freshUrl = new URL(serverUrl);
-freshUrl.pathname = `/${databaseName}`;
-
-function runScript(script: string, args: string[] = []) {
-  const tsx = path.resolve("node_modules/.bin/tsx");
-  return spawnSync(tsx, [...args, script], { env: { ...process.env, DATABASE_URL: freshUrl.toString() }, encoding: "utf8" });
-}
-
-async function query(url: URL, sql: string) {
-  const client = new pg.Client({ connectionString: url.toString() });
-  await client.connect();
-  try {
-    return (await client.query(sql)).rows;
-  } finally {
-    await client.end();
-  }
-}
+const scratch = scratchDatabase("seed");
+const freshUrl = scratch.url;
+const runScript = scratch.runScript;
+const query = async (url: URL, sql: string) => (await withClient(url, (client) => client.query(sql))).rows;
 
 let firstSeed: ReturnType<typeof runScript>;
 
 // Migrated and seeded once here, so the tests below can run alone or in any order.
 beforeAll(async () => {
-  await query(serverUrl, `create database "${databaseName}"`);
+  await scratch.create();
   const migrated = runScript("scripts/migrate.ts");
   expect(migrated.status, migrated.stderr).toBe(0);
   firstSeed = runScript("scripts/seed.ts", ["--conditions=react-server"]);
 }, 90_000);
 
 afterAll(async () => {
-  await query(serverUrl, `drop database if exists "${databaseName}" with (force)`);
+  await scratch.drop();
 });
 
 describe("demo seed", () => {

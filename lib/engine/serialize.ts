@@ -17,10 +17,10 @@ type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
 
 const FORCE_NAMES = ["fx", "fy", "mz"] as const;
 
-function perNode(ids: ReadonlyArray<string>, v: ArrayLike<number>, names: ReadonlyArray<string>, keep: (n: number) => boolean = () => true) {
+function perNode(ids: ReadonlyArray<string>, v: ArrayLike<number>, names: ReadonlyArray<string>, keep?: ReadonlyArray<boolean>) {
   const out: Record<string, Record<string, number>> = {};
   ids.forEach((id, n) => {
-    if (!keep(n)) return;
+    if (keep && !keep[n]) return;
     out[id] = Object.fromEntries(names.map((name, d) => [name, v[globalDof(n, d)]]));
   });
   return out;
@@ -35,13 +35,13 @@ function perMember(ids: ReadonlyArray<string>, v: ArrayLike<number>) {
   return out;
 }
 
-function supported(result: AnalysisResult): (n: number) => boolean {
-  // A node has reactions to report when any of its results is non-zero in any case (fixed or spring DOFs).
+/** Per node: has it reactions to report, i.e. is any of them non-zero in any result (fixed or spring DOFs)? */
+function supportedNodes(result: AnalysisResult): boolean[] {
   const all = [...Object.values(result.loadCases), ...Object.values(result.combinations)];
-  return (n) => all.some((r) => DOF_NAMES.some((_, d) => r.reactions[globalDof(n, d)] !== 0));
+  return result.nodeIds.map((_, n) => all.some((r) => DOF_NAMES.some((_, d) => r.reactions[globalDof(n, d)] !== 0)));
 }
 
-function caseToJson(result: AnalysisResult, r: CaseResult, options: SerializeOptions): Json {
+function caseToJson(result: AnalysisResult, r: CaseResult, supported: ReadonlyArray<boolean>, options: SerializeOptions): Json {
   const members: Record<string, Json> = {};
   for (const id of result.memberIds) {
     const d = memberDiagram(result, id, r.id, { points: options.points || 2 });
@@ -51,7 +51,7 @@ function caseToJson(result: AnalysisResult, r: CaseResult, options: SerializeOpt
     kind: r.kind,
     ...(r.kind === "combination" ? { factors: Object.fromEntries(r.sources.map((s) => [s.caseId, s.factor])) } : {}),
     displacements: perNode(result.nodeIds, r.displacements, DOF_NAMES),
-    reactions: perNode(result.nodeIds, r.reactions, FORCE_NAMES, supported(result)),
+    reactions: perNode(result.nodeIds, r.reactions, FORCE_NAMES, supported),
     endForces: perMember(result.memberIds, r.endForces),
     [options.points ? "diagrams" : "diagramExtremes"]: members,
     equilibrium: { ...r.equilibrium },
@@ -77,6 +77,7 @@ function envelopeToJson(result: AnalysisResult, e: VectorEnvelope, of: ReadonlyA
 const END_FORCE_NAMES = ["startFx", "startFy", "startMz", "endFx", "endFy", "endMz"];
 
 export function resultToJson(result: AnalysisResult, options: SerializeOptions = {}): Json {
+  const supported = supportedNodes(result);
   const envelopes: Record<string, Json> = {};
   for (const [id, env] of Object.entries(result.envelopes)) {
     envelopes[id] = {
@@ -92,8 +93,8 @@ export function resultToJson(result: AnalysisResult, options: SerializeOptions =
     analysis: { ...result.analysis },
     stats: { ...result.stats },
     warnings: result.warnings.map((w) => ({ ...w })),
-    loadCases: Object.fromEntries(Object.values(result.loadCases).map((r) => [r.id, caseToJson(result, r, options)])),
-    combinations: Object.fromEntries(Object.values(result.combinations).map((r) => [r.id, caseToJson(result, r, options)])),
+    loadCases: Object.fromEntries(Object.values(result.loadCases).map((r) => [r.id, caseToJson(result, r, supported, options)])),
+    combinations: Object.fromEntries(Object.values(result.combinations).map((r) => [r.id, caseToJson(result, r, supported, options)])),
     envelopes,
   };
 }

@@ -13,7 +13,6 @@
  * condenses to zero, so truss and released frame members share one code path.
  */
 
-export const LOCAL_SIZE = 6;
 /** Local indices of the end rotations (the DOFs a moment release frees). */
 export const THETA_I = 2;
 export const THETA_J = 5;

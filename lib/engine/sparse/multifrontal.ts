@@ -102,7 +102,7 @@ export function factorMultifrontal(
       stackTop = offsets[depth];
     }
 
-    // Factorise the pivot columns, left-looking by blocks so most work runs in the two-column kernel.
+    // Factorise the pivot columns, left-looking by blocks so most work runs in the unrolled kernel (dense-kernels.ts).
     for (let k0 = 0; k0 < cols; k0 += PANEL_BLOCK) {
       const k1 = Math.min(cols, k0 + PANEL_BLOCK);
       subtractOuterProducts(lx, m, k0, k1, 0, k0, fb);

@@ -112,12 +112,13 @@ describe("three-bar plane truss, textbook example", () => {
   // Source: D. L. Logan, A First Course in the Finite Element Method, 4th ed. (2007), Example 3.5 (from memory).
   // Three bars meet at node 1 and run to pinned supports: bar 1 vertical (L = 120 in), bar 2 diagonal at 45°
   // (L = 120√2 in), bar 3 horizontal (L = 120 in); E = 30×10⁶ psi, A = 2 in² for all; 10 000 lb down at node 1.
-  // Book answers: u1 = 0.414×10⁻² in, v1 = −1.59×10⁻² in; σ1 = 3965 psi, σ2 = 1471 psi, σ3 = −1035 psi.
-  // The book computes stresses from its rounded displacements, so σ1 and σ3 are checked to 0.1 % and σ2 to 0.5 %
-  // (unrounded, this model gives 3964.5, 1464.5 and −1035.5 psi). Modelled in SI: the engine works in N, m, Pa.
+  // Book answers (rounded, stresses from its rounded displacements): u1 = 0.414×10⁻² in, v1 = −1.59×10⁻² in;
+  // σ1 = 3965 psi, σ2 = 1471 psi, σ3 = −1035 psi. The engine is checked against the exact solution of this model,
+  // solved below by hand (two unknowns), not against the rounded figures. Modelled in SI: the engine works in N, m, Pa.
   const IN = 0.0254;
   const LBF = 4.4482216152605;
   const PSI = LBF / IN ** 2;
+  const [EPSI, AIN2, PLB] = [30e6, 2, 10_000];
   const truss: ModelInput = {
     nodes: [
       { id: "1", x: 0, y: 0 },
@@ -129,18 +130,49 @@ describe("three-bar plane truss, textbook example", () => {
       ["b1", "2", "1"],
       ["b2", "3", "1"],
       ["b3", "4", "1"],
-    ].map(([id, start, end]) => ({ id, start, end, kind: "truss" as const, E: 30e6 * PSI, A: 2 * IN ** 2 })),
-    loadCases: [{ id: "P", loads: [{ kind: "nodal", node: "1", fy: -10_000 * LBF }] }],
+    ].map(([id, start, end]) => ({ id, start, end, kind: "truss" as const, E: EPSI * PSI, A: AIN2 * IN ** 2 })),
+    loadCases: [{ id: "P", loads: [{ kind: "nodal", node: "1", fy: -PLB * LBF }] }],
   };
 
-  it("displacement of the loaded node and the bar stresses", () => {
+  /**
+   * Exact solution in inches and psi: K = Σ (EA/L)·n·nᵀ over the bars (n = unit vector from node 1 to the bar's
+   * support), K·[u, v] = [0, −P] by Cramer's rule; a bar's elongation is −n·[u, v], its stress E·elongation/L.
+   */
+  function exactSolution() {
+    const bars = { b1: [0, 120], b2: [120, 120], b3: [120, 0] } as const;
+    let [k11, k12, k22] = [0, 0, 0];
+    for (const [dx, dy] of Object.values(bars)) {
+      const L = Math.hypot(dx, dy);
+      const k = (EPSI * AIN2) / L;
+      k11 += (k * dx * dx) / (L * L);
+      k12 += (k * dx * dy) / (L * L);
+      k22 += (k * dy * dy) / (L * L);
+    }
+    const det = k11 * k22 - k12 * k12;
+    const [Fx, Fy] = [0, -PLB];
+    const u = (k22 * Fx - k12 * Fy) / det;
+    const v = (k11 * Fy - k12 * Fx) / det;
+    const stress = (id: keyof typeof bars) => {
+      const [dx, dy] = bars[id];
+      const L = Math.hypot(dx, dy);
+      return (EPSI * -((dx * u + dy * v) / L)) / L;
+    };
+    return { u, v, stress };
+  }
+
+  it("displacement of the loaded node and the bar stresses equal the exact solution of the model", () => {
+    const exact = exactSolution();
+    // The hand solution is the book's, to the figures the book prints.
+    expectClose(exact.u, 0.414e-2, 0.5e-3 / 0.414);
+    expectClose(exact.v, -1.59e-2, 0.5e-2 / 1.59);
     const r = analyzeOrThrow(truss);
     const d = nodeDisplacement(r, "1", "P");
-    expectClose(d.ux / IN, 0.414e-2, 2e-3);
-    expectClose(d.uy / IN, -1.59e-2, 3e-3);
-    const stressPsi = (m: string) => -memberEndForces(r, m, "P").start.fx / (2 * IN ** 2) / PSI;
-    expectClose(stressPsi("b1"), 3965, 1e-3);
-    expectClose(stressPsi("b2"), 1471, 5e-3);
-    expectClose(stressPsi("b3"), -1035, 1e-3);
+    expectClose(d.ux / IN, exact.u);
+    expectClose(d.uy / IN, exact.v);
+    const stressPsi = (m: string) => -memberEndForces(r, m, "P").start.fx / (AIN2 * IN ** 2) / PSI;
+    for (const id of ["b1", "b2", "b3"] as const) expectClose(stressPsi(id), exact.stress(id));
+    // Unrounded, the model gives σ1 = 3964.5, σ2 = 1464.5, σ3 = −1035.5 psi: equilibrium at node 1 checks the hand solution.
+    expectClose((exact.stress("b1") + exact.stress("b2") / Math.SQRT2) * AIN2, PLB);
+    expectClose((exact.stress("b3") + exact.stress("b2") / Math.SQRT2) * AIN2, 0, 1e-9, PLB);
   });
 });

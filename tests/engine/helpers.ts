@@ -1,5 +1,4 @@
 /** Small builders and checks shared by the engine tests. */
-import { expect } from "vitest";
 import { analyze, type AnalysisResult, type LoadInput, type ModelInput } from "@/lib/engine";
 
 export type SupportKind = "fixed" | "pin" | "roller" | "free";
@@ -35,12 +34,24 @@ export function analyzeOrThrow(model: unknown): AnalysisResult {
   return out.result;
 }
 
+/**
+ * Guards every comparison: the value under test must be a finite number (not undefined, NaN or ±Infinity), and
+ * the expected value and tolerance finite, so a check can never pass vacuously (|x − ∞| ≤ ∞ is true).
+ */
+function finiteOrThrow(actual: number | undefined, expected: number, tolerance: number): number {
+  if (typeof actual !== "number" || !Number.isFinite(actual)) throw new Error(`expected a finite number near ${expected}, got ${actual}`);
+  if (!Number.isFinite(expected) || !Number.isFinite(tolerance) || tolerance < 0) {
+    throw new Error(`the expected value ${expected} ± ${tolerance} is not a usable reference`);
+  }
+  return actual;
+}
+
 /** |actual − expected| ≤ rel·max(|expected|, scale): relative, with a floor for expected values near 0. */
 export function expectClose(actual: number | undefined, expected: number, rel = 1e-9, scale = 0): void {
-  expect(actual).toBeDefined();
   const tol = rel * Math.max(Math.abs(expected), scale);
-  if (!(Math.abs((actual as number) - expected) <= tol)) {
-    throw new Error(`expected ${actual} to be within ${tol} of ${expected}`);
+  const value = finiteOrThrow(actual, expected, tol);
+  if (!(Math.abs(value - expected) <= tol)) {
+    throw new Error(`expected ${value} to be within ${tol} of ${expected}`);
   }
 }
 
@@ -70,8 +81,17 @@ export function seededRandom(seed: number): () => number {
 
 /** |actual − expected| ≤ tolerance, for checks whose natural scale is not the expected value itself. */
 export function expectNear(actual: number | undefined, expected: number, tolerance: number): void {
-  expect(actual).toBeDefined();
-  if (!(Math.abs((actual as number) - expected) <= tolerance)) {
-    throw new Error(`expected ${actual} to be within ${tolerance} of ${expected}`);
+  const value = finiteOrThrow(actual, expected, tolerance);
+  if (!(Math.abs(value - expected) <= tolerance)) {
+    throw new Error(`expected ${value} to be within ${tolerance} of ${expected}`);
   }
+}
+
+/**
+ * fast-check's run count for a property. `npm run mutation:engine` sets GUSSET_MUTATION and runs a quarter
+ * of them (with a fixed seed, tests/engine/mutation-setup.ts), so one mutant costs seconds, not minutes;
+ * `npm test` runs them all.
+ */
+export function runs(numRuns: number): { numRuns: number } {
+  return { numRuns: process.env.GUSSET_MUTATION ? Math.max(4, Math.ceil(numRuns / 4)) : numRuns };
 }

@@ -7,10 +7,12 @@ import { assembleStiffness, prepareMembers, rotationalStiffness } from "@/lib/en
 import { buildDofMap } from "@/lib/engine/dofs";
 import { condense, frameLocalStiffness, toGlobalStiffness } from "@/lib/engine/elements";
 import { multiplySymmetric } from "@/lib/engine/sparse";
-import { analyzeOrThrow, expectClose, expectNear, seededRandom } from "./helpers";
+import { analyzeOrThrow, expectClose, runs, seededRandom } from "./helpers";
 import { randomFrame } from "./random-frames";
+import { randomRichFrame } from "./random-rich-frames";
+import { expectNodeAndMemberEquilibrium, splitEveryMember } from "./frame-checks";
 
-const RUNS = { numRuns: 25 };
+const RUNS = runs(25);
 const seeds = fc.integer({ min: 1, max: 2 ** 31 - 1 });
 
 function stiffnessOf(model: ModelInput) {
@@ -44,7 +46,7 @@ describe("element stiffness", () => {
           }
         }
       }),
-      { numRuns: 50 },
+      runs(50),
     );
   });
 });
@@ -77,6 +79,7 @@ describe("random frames", () => {
         const rand = seededRandom(seed ^ 0x5bd1e995);
         const base = randomFrame(seed, { releases: true });
         const free = base.nodes.filter((n) => !n.support);
+        expect(free.length).toBeGreaterThan(0);
         const pick = () => ({ node: free[Math.floor(rand() * free.length)].id, dir: (["fx", "fy", "mz"] as const)[Math.floor(rand() * 3)] });
         const a = pick();
         const b = pick();
@@ -96,99 +99,57 @@ describe("random frames", () => {
       fc.property(seeds, (seed) => {
         const model = randomFrame(seed, { releases: true });
         const r = analyzeOrThrow(model);
-        const res = r.loadCases.L;
-        expect(res.equilibrium.relative).toBeLessThan(1e-10);
-        expect(res.relativeResidual).toBeLessThan(1e-10);
-        // Nodes: Σ (member end forces, global) − nodal loads − reactions = 0.
-        const sum = new Float64Array(3 * model.nodes.length);
-        const scale = new Float64Array(sum.length);
-        const nodeIndex = new Map(model.nodes.map((n, i) => [n.id, i]));
-        for (const m of model.members ?? []) {
-          const f = memberEndForces(r, m.id, "L");
-          const [a, b] = [model.nodes[nodeIndex.get(m.start)!], model.nodes[nodeIndex.get(m.end)!]];
-          const L = Math.hypot(b.x - a.x, b.y - a.y);
-          const c = (b.x - a.x) / L;
-          const s = (b.y - a.y) / L;
-          for (const [node, end] of [[m.start, f.start], [m.end, f.end]] as const) {
-            const o = 3 * nodeIndex.get(node)!;
-            const F = [c * end.fx - s * end.fy, s * end.fx + c * end.fy, end.mz];
-            F.forEach((v, d) => {
-              sum[o + d] += v;
-              scale[o + d] += Math.abs(v);
-            });
-          }
-          // Member: the diagram, integrated from the start with the span loads, must land on the end forces at L.
-          const d = memberDiagram(r, m.id, "L");
-          const atEnd = d.valueAt(L, "left");
-          const tol = 1e-8 * (Math.abs(f.start.fy) + Math.abs(f.end.fy) + Math.abs(f.start.fx) + 1);
-          expectNear(atEnd.N, f.end.fx, tol);
-          expectNear(atEnd.V, -f.end.fy, tol);
-          expectNear(atEnd.M, f.end.mz, tol * L);
-        }
-        for (const load of model.loadCases![0].loads!) {
-          if (load.kind !== "nodal") continue;
-          const o = 3 * nodeIndex.get(load.node)!;
-          [load.fx ?? 0, load.fy ?? 0, load.mz ?? 0].forEach((v, d) => (sum[o + d] -= v));
-        }
-        sum.forEach((v, i) => {
-          const residual = v - res.reactions[i];
-          expect(Math.abs(residual)).toBeLessThanOrEqual(1e-9 * (scale[i] + Math.abs(res.reactions[i])) + 1e-6);
-        });
+        expect(r.loadCases.L.equilibrium.relative).toBeLessThan(1e-10);
+        expect(r.loadCases.L.relativeResidual).toBeLessThan(1e-10);
+        expectNodeAndMemberEquilibrium(model, r, "L");
       }),
       RUNS,
     );
   });
 
-  it("results are unchanged when every member is split in two", () => {
+  it("results are unchanged when every member, and every load on it, is split in two (frames up to 10 × 10)", () => {
     fc.assert(
       fc.property(seeds, (seed) => {
-        const model = randomFrame(seed, { releases: true, simpleLoads: true });
-        const split = splitEveryMember(model);
-        const r1 = analyzeOrThrow(model);
-        const r2 = analyzeOrThrow(split);
-        for (const n of model.nodes) {
-          const d1 = nodeDisplacement(r1, n.id, "L");
-          const d2 = nodeDisplacement(r2, n.id, "L");
-          const scale = Math.max(Math.abs(d1.ux), Math.abs(d1.uy)) + 1e-12;
-          expectClose(d2.ux, d1.ux, 1e-8, scale);
-          expectClose(d2.uy, d1.uy, 1e-8, scale);
-          expectClose(d2.rz, d1.rz, 1e-8, scale / 3);
+        // Every load kind, releases at one or both ends, truss diagonals, springs and settlements (randomRichFrame).
+        const model = randomRichFrame(seed, { maxStoreys: 10, maxBays: 10 });
+        const { model: split, splitAt } = splitEveryMember(model, seed);
+        const [a, b] = [analyzeOrThrow(model), analyzeOrThrow(split)];
+        const [r1, r2] = [a.loadCases.L, b.loadCases.L];
+        // The original nodes come first in both models, so their entries line up.
+        const n = 3 * model.nodes.length;
+        const largest = (v: ArrayLike<number>, rotations: boolean) => Math.max(...Array.from(v).filter((_, i) => i < n && (i % 3 === 2) === rotations).map(Math.abs));
+        const [uScale, rzScale] = [largest(r1.displacements, false), largest(r1.displacements, true)];
+        const [fScale, mScale] = [largest(r1.reactions, false), largest(r1.reactions, true)];
+        expect(uScale).toBeGreaterThan(0);
+        expect(fScale).toBeGreaterThan(0);
+        for (let i = 0; i < n; i++) {
+          const rotation = i % 3 === 2;
+          expectClose(r2.displacements[i], r1.displacements[i], 1e-8, rotation ? rzScale : uScale);
+          expectClose(r2.reactions[i], r1.reactions[i], 1e-8, rotation ? mScale + fScale : fScale);
         }
-        for (const m of model.members ?? []) {
-          const f1 = memberEndForces(r1, m.id, "L");
-          const a = memberEndForces(r2, `${m.id}a`, "L").start;
-          const b = memberEndForces(r2, `${m.id}b`, "L").end;
-          const scale = Math.abs(f1.start.fx) + Math.abs(f1.start.fy) + Math.abs(f1.start.mz) + 1;
-          expectClose(a.fy, f1.start.fy, 1e-8, scale);
-          expectClose(a.mz, f1.start.mz, 1e-8, scale);
-          expectClose(b.mz, f1.end.mz, 1e-8, scale);
-          // Midspan of the original member = end of its first half.
-          const L = memberDiagram(r1, m.id, "L").length;
-          expectClose(memberDiagram(r2, `${m.id}a`, "L").valueAt(L / 2, "left").M, memberDiagram(r1, m.id, "L").valueAt(L / 2).M, 1e-8, scale);
-          expectClose(memberDiagram(r2, `${m.id}b`, "L").valueAt(L / 4).deflection, memberDiagram(r1, m.id, "L").valueAt((3 * L) / 4).deflection, 1e-7, 1e-9);
+        const members = model.members ?? [];
+        expect(members.length).toBeGreaterThan(0);
+        for (const m of members) {
+          const f1 = memberEndForces(a, m.id, "L");
+          const first = memberEndForces(b, `${m.id}a`, "L").start;
+          const second = memberEndForces(b, `${m.id}b`, "L").end;
+          const scale = Math.abs(f1.start.fx) + Math.abs(f1.start.fy) + Math.abs(f1.end.fy) + Math.abs(f1.start.mz) + Math.abs(f1.end.mz) + 1;
+          for (const [x, y] of [[first, f1.start], [second, f1.end]] as const) {
+            expectClose(x.fx, y.fx, 1e-8, scale);
+            expectClose(x.fy, y.fy, 1e-8, scale);
+            expectClose(x.mz, y.mz, 1e-8, scale);
+          }
+          // Along the member: at the cut, the first half's end is the original's section there.
+          const cut = splitAt.get(m.id)!;
+          const whole = memberDiagram(a, m.id, "L");
+          const half = memberDiagram(b, `${m.id}a`, "L").valueAt(cut, "left");
+          const there = whole.valueAt(cut, "left");
+          expectClose(half.M, there.M, 1e-8, scale * whole.length);
+          expectClose(half.N, there.N, 1e-8, scale);
+          expectClose(half.deflection, there.deflection, 1e-7, uScale);
         }
       }),
-      RUNS,
+      runs(15),
     );
   });
 });
-
-/** Each member becomes `<id>a` and `<id>b` meeting at a new midpoint node; full-length loads are split too. */
-function splitEveryMember(model: ModelInput): ModelInput {
-  const nodes = [...model.nodes];
-  const members: NonNullable<ModelInput["members"]> = [];
-  const byId = new Map(model.nodes.map((n) => [n.id, n]));
-  for (const m of model.members ?? []) {
-    const a = byId.get(m.start)!;
-    const b = byId.get(m.end)!;
-    nodes.push({ id: `${m.id}-mid`, x: (a.x + b.x) / 2, y: (a.y + b.y) / 2 });
-    const { releases, ...rest } = m;
-    members.push({ ...rest, id: `${m.id}a`, end: `${m.id}-mid`, ...(releases?.startMoment ? { releases: { startMoment: true } } : {}) });
-    members.push({ ...rest, id: `${m.id}b`, start: `${m.id}-mid`, ...(releases?.endMoment ? { releases: { endMoment: true } } : {}) });
-  }
-  const loads = model.loadCases![0].loads!.flatMap((l): LoadInput[] => {
-    if (l.kind !== "distributed") return [l];
-    return [{ ...l, member: `${l.member}a` }, { ...l, member: `${l.member}b` }];
-  });
-  return { ...model, nodes, members, loadCases: [{ id: "L", loads }] };
-}

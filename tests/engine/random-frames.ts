@@ -7,8 +7,6 @@ export interface RandomFrameOptions {
   readonly unsupported?: boolean;
   /** Allow moment releases at one end of some beams. */
   readonly releases?: boolean;
-  /** Only nodal loads and full-length uniform loads (split-member checks). */
-  readonly simpleLoads?: boolean;
 }
 
 /** A 1–3 storey, 1–3 bay frame with perturbed node positions, fixed bases and random sections and loads. */
@@ -45,13 +43,11 @@ export function randomFrame(seed: number, options: RandomFrameOptions = {}): Mod
     for (let b = 0; b < bays; b++) {
       const member = `B${s}_${b}`;
       loads.push({ kind: "distributed", member, direction: "global-y", wStart: between(-30e3, -5e3) });
-      if (!options.simpleLoads) {
-        loads.push({ kind: "point", member, direction: "local-y", position: between(0.5, 4), value: between(-40e3, 10e3) });
-        loads.push({ kind: "distributed", member, direction: "local-x", wStart: between(-2e3, 2e3), wEnd: between(-2e3, 2e3), from: 1, to: 3.5 });
-        loads.push({ kind: "couple", member, position: between(0.5, 4), value: between(-8e3, 8e3) });
-      }
+      loads.push({ kind: "point", member, direction: "local-y", position: between(0.5, 4), value: between(-40e3, 10e3) });
+      loads.push({ kind: "distributed", member, direction: "local-x", wStart: between(-2e3, 2e3), wEnd: between(-2e3, 2e3), from: 1, to: 3.5 });
+      loads.push({ kind: "couple", member, position: between(0.5, 4), value: between(-8e3, 8e3) });
     }
-    if (!options.simpleLoads) loads.push({ kind: "distributed", member: `C${s}_0`, direction: "global-x", wStart: between(1e3, 6e3), projected: true });
+    loads.push({ kind: "distributed", member: `C${s}_0`, direction: "global-x", wStart: between(1e3, 6e3), projected: true });
   }
   return { nodes, members, loadCases: [{ id: "L", loads }] };
 }

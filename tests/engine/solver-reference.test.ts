@@ -10,6 +10,7 @@ import { factorizeSymmetric } from "@/lib/engine/sparse";
 import { solveDense, toDense } from "./sparse/dense-reference";
 import { randomFrame } from "./random-frames";
 import type { ModelInput } from "@/lib/engine";
+import { runs } from "./helpers";
 
 /** A Pratt truss of `panels` panels pinned at both ends: every free node keeps exactly ux and uy. */
 function prattTruss(panels: number): ModelInput {
@@ -58,7 +59,7 @@ describe("sparse solve", () => {
       fc.property(fc.integer({ min: 1, max: 2 ** 31 - 1 }), (seed) => {
         compareWithDense(randomFrame(seed, { releases: true }));
       }),
-      { numRuns: 20 },
+      runs(20),
     );
   });
 });

@@ -3,19 +3,16 @@
  *
  * Frames: storey 3.5 m, bay 6 m, fixed bases, E = 210 GPa, columns HEB 300 (A = 149 cm², I = 25 170 cm⁴),
  * beams IPE 400 (A = 84.5 cm², I = 23 130 cm⁴). Case G: 25 kN/m on every beam. Case W: 10 kN at each floor's
- * left node. Prints members, DOF, ms per stage, process CPU ms (wall times are noisy on a shared machine), and memory; a storeys sweep at 20 bays; and, at 10×10, the same
- * stiffness matrix solved densely with mathjs lusolve for the ratio.
+ * left node. Prints members, DOF, ms per stage (the `timings` analyze returns beside its result), process CPU
+ * ms (wall times are noisy on a shared machine), and memory; a storeys sweep at 20 bays; and, at 10×10, the
+ * same equations (from the engine's own `linearSystem`) solved densely with mathjs lusolve for the ratio.
  */
+import path from "node:path";
 import { cpus, loadavg } from "node:os";
+import { pathToFileURL } from "node:url";
 import { lusolve } from "mathjs";
-import { analyze, type ModelInput } from "../lib/engine";
-import { validateModel } from "../lib/engine/validate";
-import { resolveCaseLoads } from "../lib/engine/loads";
+import { analyze, linearSystem, type ModelInput, type SymmetricCsc } from "../lib/engine";
 import { factorizeSymmetric } from "../lib/engine/sparse";
-import { assembleStiffness, caseFixedEndForces, caseRhs, prepareMembers, rotationalStiffness } from "../lib/engine/assembly";
-import { appliedNodalLoads } from "../lib/engine/results";
-import { buildDofMap } from "../lib/engine/dofs";
-import { toDense } from "../tests/engine/sparse/dense-reference";
 
 const STOREY = 3.5;
 const BAY = 6;
@@ -78,8 +75,7 @@ function once(model: ModelInput, storeys: number, bays: number) {
   const mem = process.memoryUsage();
   peakRss = Math.max(peakRss, mem.rss);
   if (!out.ok) throw new Error(JSON.stringify(out.errors.slice(0, 3)));
-  const s = out.result.stats;
-  return { storeys, bays, s, total, cpuMs: (cpu.user + cpu.system) / 1000, rss: mem.rss, heap: mem.heapUsed, residual: out.result.loadCases.G.relativeResidual };
+  return { storeys, bays, stats: out.result.stats, timings: out.timings, total, cpuMs: (cpu.user + cpu.system) / 1000, rss: mem.rss, heap: mem.heapUsed, residual: out.result.loadCases.G.relativeResidual };
 }
 
 function header() {
@@ -87,32 +83,38 @@ function header() {
 }
 
 function line(r: ReturnType<typeof run>) {
-  const { s } = r;
+  const { stats: s, timings: t } = r;
   console.log(
     `${`${r.storeys}×${r.bays}`.padEnd(8)} ${String(s.members).padStart(8)} ${String(s.equations).padStart(7)} ${String(s.nnzL).padStart(8)}` +
-      `${ms(s.validationMs)}${ms(s.assemblyMs)}${ms(s.orderingMs)}${ms(s.symbolicMs)}${ms(s.factorMs)}${ms(s.solveMs)}${ms(s.recoveryMs)}${ms(r.total)}   ${ms(r.total - s.validationMs)}${ms(r.cpuMs)} ${mb(r.heap).padStart(6)}  ${r.residual.toExponential(1)}`,
+      `${ms(t.validationMs)}${ms(t.assemblyMs)}${ms(t.orderingMs)}${ms(t.symbolicMs)}${ms(t.factorMs)}${ms(t.solveMs)}${ms(t.recoveryMs)}${ms(r.total)}   ${ms(r.total - t.validationMs)}${ms(r.cpuMs)} ${mb(r.heap).padStart(6)}  ${r.residual.toExponential(1)}`,
   );
 }
 
+/** The full symmetric matrix from its lower triangle (the tests keep their own copy, as an independent reference). */
+function toDense(a: SymmetricCsc): number[][] {
+  const dense = Array.from({ length: a.n }, () => new Array<number>(a.n).fill(0));
+  for (let j = 0; j < a.n; j++) {
+    for (let p = a.colPtr[j]; p < a.colPtr[j + 1]; p++) {
+      const i = a.rowIdx[p];
+      dense[i][j] += a.values[p];
+      if (i !== j) dense[j][i] += a.values[p];
+    }
+  }
+  return dense;
+}
+
 function denseComparison(storeys: number, bays: number) {
-  const valid = validateModel(regularFrame(storeys, bays));
-  if (!valid.ok) throw new Error("invalid benchmark model");
-  const { model, nodeIndex, memberIndex } = valid;
-  const members = prepareMembers(valid);
-  const dofs = buildDofMap(model, rotationalStiffness(model, members));
-  const K = assembleStiffness(members, dofs);
+  const built = linearSystem(regularFrame(storeys, bays));
+  if (!built.ok || !built.system.K) throw new Error("invalid benchmark model");
+  const { K, rhs, blockSize } = built.system;
   const n = K.n;
   const dense = toDense(K);
-  const rhs = model.loadCases.map((_, c) => {
-    const loads = resolveCaseLoads(model, c, members.map((p) => p.frame), { node: nodeIndex, member: memberIndex });
-    return caseRhs(members, dofs, appliedNodalLoads(members, loads, caseFixedEndForces(members, loads)), null);
-  });
   const t0 = performance.now();
   const denseSolutions = rhs.map((b) => (lusolve(dense, Array.from(b)) as number[][]).map((row) => row[0]));
   const denseMs = performance.now() - t0;
   // Same equations through the sparse path, timed the same way (factor once, solve both cases).
   const t1 = performance.now();
-  const factored = factorizeSymmetric(K, { ordering: "amd", blockSize: 3 });
+  const factored = factorizeSymmetric(K, { ordering: "amd", blockSize });
   if (!factored.ok) throw new Error("benchmark frame is singular");
   const sparseSolutions = rhs.map((b) => factored.factor.solve(b));
   const sparseMs = performance.now() - t1;
@@ -140,12 +142,14 @@ function main() {
   header();
   const sweep = [25, 50, 100, 200].map((st) => run(st, 20));
   for (const r of sweep) line(r);
-  const perWall = sweep.map((r) => ((r.total / r.s.equations) * 1000).toFixed(2));
-  const perCpu = sweep.map((r) => ((r.cpuMs / r.s.equations) * 1000).toFixed(2));
+  const perWall = sweep.map((r) => ((r.total / r.stats.equations) * 1000).toFixed(2));
+  const perCpu = sweep.map((r) => ((r.cpuMs / r.stats.equations) * 1000).toFixed(2));
   console.log(`µs per equation, wall: ${perWall.join(", ")}; CPU: ${perCpu.join(", ")}`);
   denseComparison(10, 10);
   const mem = process.memoryUsage();
   console.log(`\nPeak rss ${mb(peakRss)}; at the end rss ${mb(mem.rss)}, heap used ${mb(mem.heapUsed)}; load average now ${loadavg()[0].toFixed(1)}`);
 }
 
-if (!process.env.BENCH_NO_MAIN) main();
+// Runs when started as a script, not when bench-sparse.ts imports regularFrame (BENCH_NO_MAIN still skips it).
+const isMain = process.argv[1] !== undefined && import.meta.url === pathToFileURL(path.resolve(process.argv[1])).href;
+if (isMain && !process.env.BENCH_NO_MAIN) main();

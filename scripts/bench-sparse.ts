@@ -1,6 +1,14 @@
-// Micro-benchmark of the sparse solver on frame stiffness matrices: npx tsx scripts/bench-sparse.ts
+// Micro-benchmark of the sparse solver on frame stiffness matrices: npm run bench:sparse
+// The matrices are the engine's own K of the regular frames of bench-engine.ts (through linearSystem).
+import { linearSystem } from "../lib/engine";
 import { factorizeSymmetric, multiplySymmetric, type OrderingMethod } from "../lib/engine/sparse";
-import { buildFrameMatrix } from "../tests/engine/sparse/frame-matrix";
+import { regularFrame } from "./bench-engine";
+
+function frameMatrix(storeys: number, bays: number) {
+  const built = linearSystem(regularFrame(storeys, bays));
+  if (!built.ok || !built.system.K) throw new Error("invalid benchmark frame");
+  return { matrix: built.system.K, blockSize: built.system.blockSize };
+}
 
 const sizes: Array<[number, number]> = [
   [10, 10],
@@ -16,7 +24,7 @@ console.log(
   ["size", "method", "n", "nnz(A)", "nnz(L)", "order", "symbolic", "numeric", "solve", "fact.cpu", "resid"].map((s) => s.padStart(9)).join(""),
 );
 for (const [storeys, bays] of sizes) {
-  const frame = buildFrameMatrix(storeys, bays);
+  const frame = frameMatrix(storeys, bays);
   const a = frame.matrix;
   const b = new Float64Array(a.n).map((_, i) => Math.sin(i + 1));
   for (const method of methods) {

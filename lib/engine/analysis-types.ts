@@ -3,6 +3,7 @@ import type { EngineError, EngineWarning } from "./diagnostics";
 import type { CaseResult } from "./results";
 import type { EnvelopeResult } from "./combinations";
 
+/** Sizes of the analysis. They follow from the model and the engine's code alone, so they belong to the result. */
 export interface AnalysisStats {
   readonly nodes: number;
   readonly members: number;
@@ -10,7 +11,15 @@ export interface AnalysisStats {
   readonly equations: number;
   /** Entries of the factor L. */
   readonly nnzL: number;
+}
+
+/**
+ * Wall-clock times of the stages, in ms. They differ from run to run, so `analyze` returns them beside the
+ * result, never inside it: the same model always gives the same result, byte for byte.
+ */
+export interface AnalysisTimings {
   readonly validationMs: number;
+  /** Member preparation, DOF numbering, load resolution and the assembly of K. */
   readonly assemblyMs: number;
   readonly orderingMs: number;
   readonly symbolicMs: number;
@@ -23,7 +32,10 @@ export interface AnalysisStats {
 }
 
 export interface AnalysisResult {
+  /** Identity of the engine that made the result (ENGINE_IDENTITY when fresh; the stored one when restored). */
   readonly engineVersion: string;
+  /** sha256 of the engine's source (lib/engine/identity.generated.ts), hex. */
+  readonly engineSourceHash: string;
   readonly analysis: { readonly kind: "linear" };
   /** Node and member ids in model order: the index into every per-node / per-member vector. */
   readonly nodeIds: ReadonlyArray<string>;
@@ -35,4 +47,6 @@ export interface AnalysisResult {
   readonly stats: AnalysisStats;
 }
 
-export type AnalysisOutcome = { readonly ok: true; readonly result: AnalysisResult } | { readonly ok: false; readonly errors: ReadonlyArray<EngineError> };
+export type AnalysisOutcome =
+  | { readonly ok: true; readonly result: AnalysisResult; readonly timings: AnalysisTimings }
+  | { readonly ok: false; readonly errors: ReadonlyArray<EngineError> };

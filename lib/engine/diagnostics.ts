@@ -18,7 +18,9 @@ export type EngineError =
   | { kind: "load-outside-member"; path: string; member: string; message: string }
   | { kind: "invalid-load"; path: string; message: string }
   | { kind: "unstable"; node: string; direction: DofName; message: string }
-  | { kind: "numerical"; message: string };
+  | { kind: "numerical"; message: string }
+  /** A stored result (resultToJson) that does not fit its model or is damaged; see restoreResult. */
+  | { kind: "invalid-stored-result"; path: string; message: string };
 
 export type EngineWarning = { kind: "ill-conditioned"; loadCase: string; relativeResidual: number; message: string };
 

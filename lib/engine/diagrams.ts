@@ -18,7 +18,7 @@
 import type { AnalysisResult } from "./analysis-types";
 import { contextOf, type AnalysisContext } from "./context";
 import { resultFor } from "./access";
-import { fullLocalStiffness, memberDofs, type PreparedMember } from "./assembly";
+import { fullLocalStiffness, memberDofs, type PreparedMember } from "./members";
 import { recoverReleased, toLocal } from "./elements";
 import { fixedEndForces, type SpanLoads } from "./loads";
 import { combine, evaluate, extrema, fromGlobalPolynomial, integrate, zeroPiecewise, type Extreme, type Piecewise } from "./piecewise";

@@ -2,9 +2,9 @@
  * Gusset frame engine: 2D frames and trusses by the direct stiffness method. Pure TypeScript (no I/O), so
  * the server, the browser and batch workers run the same numbers. Sign conventions: lib/engine/README.md.
  */
-export { analyze } from "./analyze";
-export { ENGINE_VERSION } from "./version";
-export type { AnalysisOutcome, AnalysisResult, AnalysisStats } from "./analysis-types";
+export { analyze, linearSystem, type LinearSystem } from "./analyze";
+export { ENGINE_VERSION, ENGINE_IDENTITY, engineIdentityLabel, type EngineIdentity } from "./version";
+export type { AnalysisOutcome, AnalysisResult, AnalysisStats, AnalysisTimings } from "./analysis-types";
 export type { CaseResult, EquilibriumResidual, LoadSource, ReadonlyVector } from "./results";
 export type { EnvelopeResult, VectorEnvelope } from "./combinations";
 export type { EngineError, EngineWarning, ErrorKind } from "./diagnostics";
@@ -13,4 +13,6 @@ export * from "./model";
 export * from "./access";
 export { memberDiagram, memberEnvelope, DIAGRAM_QUANTITIES, type DiagramQuantity, type DiagramValues, type MemberDiagram, type MemberEnvelope, type DiagramOptions } from "./diagrams";
 export type { Extreme } from "./piecewise";
-export { resultToJson, type SerializeOptions } from "./serialize";
+export { resultToJson, resultToCanonicalJson, canonicalJson, type Json, type SerializeOptions } from "./serialize";
+export { restoreResult, type RestoreOutcome } from "./restore";
+export type { SymmetricCsc } from "./sparse";

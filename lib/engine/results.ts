@@ -10,10 +10,9 @@
  *   forces and moments the nodes apply to the member, along local x, y and counter-clockwise.
  */
 import { DofKind, globalDof, type DofMap } from "./dofs";
-import { localStiffness, memberDofs, type PreparedMember } from "./assembly";
+import { localStiffness, memberDofs, type PreparedMember } from "./members";
 import { toGlobal, toLocal } from "./elements";
 import type { Model } from "./model";
-import type { CaseLoads } from "./loads";
 
 export type ReadonlyVector = Readonly<Float64Array>;
 
@@ -61,20 +60,6 @@ export function fullDisplacements(dofs: DofMap, u: Float64Array, D2: Float64Arra
   const D = D2 ? Float64Array.from(D2) : new Float64Array(dofs.kind.length);
   for (let e = 0; e < dofs.nFree; e++) D[dofs.freeToGlobal[e]] = u[e];
   return D;
-}
-
-/** Global applied nodal loads: P − Σ FEF (the span loads' statically equivalent nodal loads). */
-export function appliedNodalLoads(members: ReadonlyArray<PreparedMember>, loads: CaseLoads, fef: Float64Array): Float64Array {
-  const applied = Float64Array.from(loads.nodal);
-  const g = new Int32Array(6);
-  const F = new Float64Array(6);
-  for (const m of loads.span.keys()) {
-    const p = members[m];
-    toGlobal(fef, p.frame.c, p.frame.s, F, 6 * m);
-    memberDofs(p, g);
-    for (let a = 0; a < 6; a++) applied[g[a]] -= F[a];
-  }
-  return applied;
 }
 
 /**

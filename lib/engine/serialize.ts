@@ -1,6 +1,8 @@
 /**
  * A result as plain JSON, keyed by node and member ids (for the CLI, storage and the browser). Diagram
  * extremes are included for every member; sampled diagrams only when asked for, since they dominate the size.
+ * What is stored with a run is this JSON and the model; restoreResult (restore.ts) turns the two back into a
+ * result that diagrams can be drawn from. `resultToCanonicalJson` is the byte-stable text of it.
  */
 import type { AnalysisResult } from "./analysis-types";
 import type { CaseResult } from "./results";
@@ -13,9 +15,9 @@ export interface SerializeOptions {
   readonly points?: number;
 }
 
-type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
+export type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
 
-const FORCE_NAMES = ["fx", "fy", "mz"] as const;
+export const FORCE_NAMES = ["fx", "fy", "mz"] as const;
 
 function perNode(ids: ReadonlyArray<string>, v: ArrayLike<number>, names: ReadonlyArray<string>, keep?: ReadonlyArray<boolean>) {
   const out: Record<string, Record<string, number>> = {};
@@ -74,7 +76,7 @@ function envelopeToJson(result: AnalysisResult, e: VectorEnvelope, of: ReadonlyA
   return out;
 }
 
-const END_FORCE_NAMES = ["startFx", "startFy", "startMz", "endFx", "endFy", "endMz"];
+export const END_FORCE_NAMES = ["startFx", "startFy", "startMz", "endFx", "endFy", "endMz"] as const;
 
 export function resultToJson(result: AnalysisResult, options: SerializeOptions = {}): Json {
   const supported = supportedNodes(result);
@@ -90,6 +92,7 @@ export function resultToJson(result: AnalysisResult, options: SerializeOptions =
   }
   return {
     engineVersion: result.engineVersion,
+    engineSourceHash: result.engineSourceHash,
     analysis: { ...result.analysis },
     stats: { ...result.stats },
     warnings: result.warnings.map((w) => ({ ...w })),
@@ -97,4 +100,27 @@ export function resultToJson(result: AnalysisResult, options: SerializeOptions =
     combinations: Object.fromEntries(Object.values(result.combinations).map((r) => [r.id, caseToJson(result, r, supported, options)])),
     envelopes,
   };
+}
+
+/**
+ * JSON text with object keys sorted (by UTF-16 code units) and no white space: the same value always gives the
+ * same bytes, whatever order its keys were inserted in. Numbers print as JSON.stringify prints them (the
+ * shortest form that reads back to the same double; −0 prints as 0); typed arrays print as arrays.
+ */
+export function canonicalJson(value: unknown): string {
+  if (value === null || typeof value !== "object") {
+    const text = JSON.stringify(value);
+    if (text === undefined) throw new Error(`canonicalJson: ${typeof value} has no JSON form`);
+    return text;
+  }
+  if (ArrayBuffer.isView(value)) return canonicalJson(Array.from(value as unknown as ArrayLike<number>));
+  if (Array.isArray(value)) return `[${value.map((v) => (v === undefined ? "null" : canonicalJson(v))).join(",")}]`;
+  const entries = Object.entries(value as Record<string, unknown>).filter(([, v]) => v !== undefined);
+  entries.sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
+  return `{${entries.map(([k, v]) => `${JSON.stringify(k)}:${canonicalJson(v)}`).join(",")}}`;
+}
+
+/** The canonical text of a result: byte-identical for the same model and engine, fit for storing and hashing. */
+export function resultToCanonicalJson(result: AnalysisResult, options: SerializeOptions = {}): string {
+  return canonicalJson(resultToJson(result, options));
 }

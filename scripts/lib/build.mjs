@@ -60,6 +60,16 @@ async function withBuildLock(lockFile, work) {
   }
 }
 
+/**
+ * The engine's source hash (lib/engine/identity.generated.ts) is recorded with every run, so the build must carry
+ * the current one: rewrite it when the engine changed (it is only written when it differs). Under CI it is only
+ * checked, so a forgotten `npm run engine:identity` fails the build instead of being fixed in a throwaway checkout.
+ */
+async function syncEngineIdentity(env) {
+  const check = Boolean((env ?? process.env).CI);
+  await runAsync(path.join(repoRoot, "node_modules", ".bin", "tsx"), ["scripts/engine-identity.ts", ...(check ? ["--check"] : [])], { cwd: repoRoot, env });
+}
+
 /** Builds when stale. Returns true when it built. */
 export async function ensureBuild({ env, layout }) {
   if (buildStaleness() === null) {
@@ -72,6 +82,7 @@ export async function ensureBuild({ env, layout }) {
     if (!fs.existsSync(path.join(repoRoot, "app"))) {
       throw new SetupError("app/ does not exist yet: there is nothing for `next build` to build");
     }
+    await syncEngineIdentity(env);
     say(`building (${reason}): next build`);
     await runAsync(path.join(repoRoot, "node_modules", ".bin", "next"), ["build"], { cwd: repoRoot, env });
     return true;

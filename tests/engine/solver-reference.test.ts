@@ -1,15 +1,10 @@
 /** The sparse factorisation used by the engine agrees with a dense Cholesky on random frames. */
 import { describe, it, expect } from "vitest";
 import fc from "fast-check";
-import { validateModel } from "@/lib/engine/validate";
-import { assembleStiffness, caseFixedEndForces, caseRhs, prepareMembers, rotationalStiffness } from "@/lib/engine/assembly";
-import { appliedNodalLoads } from "@/lib/engine/results";
-import { buildDofMap } from "@/lib/engine/dofs";
-import { resolveCaseLoads } from "@/lib/engine/loads";
+import { linearSystem, type ModelInput } from "@/lib/engine";
 import { factorizeSymmetric } from "@/lib/engine/sparse";
 import { solveDense, toDense } from "./sparse/dense-reference";
 import { randomFrame } from "./random-frames";
-import type { ModelInput } from "@/lib/engine";
 import { runs } from "./helpers";
 
 /** A Pratt truss of `panels` panels pinned at both ends: every free node keeps exactly ux and uy. */
@@ -32,15 +27,13 @@ function prattTruss(panels: number): ModelInput {
 }
 
 function compareWithDense(model: ModelInput, expectedBlockSize?: number) {
-  const v = validateModel(model);
-  if (!v.ok) throw new Error("invalid model");
-  const members = prepareMembers(v);
-  const dofs = buildDofMap(v.model, rotationalStiffness(v.model, members));
-  if (expectedBlockSize !== undefined) expect(dofs.blockSize).toBe(expectedBlockSize);
-  const K = assembleStiffness(members, dofs);
-  const loads = resolveCaseLoads(v.model, 0, members.map((p) => p.frame), { node: v.nodeIndex, member: v.memberIndex });
-  const f = caseRhs(members, dofs, appliedNodalLoads(members, loads, caseFixedEndForces(members, loads)), null);
-  const factored = factorizeSymmetric(K, { ordering: "amd", blockSize: dofs.blockSize });
+  // The equations exactly as analyze assembles them (the engine's own first stages).
+  const built = linearSystem(model);
+  if (!built.ok || !built.system.K) throw new Error("invalid model");
+  const { K, rhs, blockSize } = built.system;
+  if (expectedBlockSize !== undefined) expect(blockSize).toBe(expectedBlockSize);
+  const f = rhs[0];
+  const factored = factorizeSymmetric(K, { ordering: "amd", blockSize });
   expect(factored.ok).toBe(true);
   if (!factored.ok) return;
   const sparse = factored.factor.solve(f);

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import type { ModelInput } from "@/lib/engine";
-import { assembleStiffness, localStiffness, memberDofs, prepareMembers, rotationalStiffness } from "@/lib/engine/assembly";
+import { localStiffness, memberDofs, prepareMembers, rotationalStiffness } from "@/lib/engine/members";
+import { assembleStiffness } from "@/lib/engine/stiffness";
 import { buildDofMap } from "@/lib/engine/dofs";
 import { toGlobalStiffness } from "@/lib/engine/elements";
 import { SymmetricTripletBuilder, type SymmetricCsc } from "@/lib/engine/sparse";

@@ -1,13 +1,23 @@
-// Who gets what, over HTTP, for every page, every API route and every server action the build
-// contains, for an anonymous visitor and each of the four roles. The tables below are the expected
-// answers written out by hand; the build's own manifests list what exists, and anything that exists
-// without a row here fails the test, so a new route or action cannot ship without a decision.
+// Who gets what, over HTTP, for every page, every method of every route and every server action the
+// build contains, for an anonymous visitor and each of the four roles. The tables below are the
+// expected answers written out by hand; the build's own manifests (and each route's Allow header) list
+// what exists, and anything that exists without a row here fails the test, so a new route, method or
+// action cannot ship without a decision.
+//
+// An allowed cell must show that it worked: the page's own title, the route's expected body, the
+// action's `ok` answer and the rows it changed. A refused cell (sent to sign in, the 403 page, 401,
+// 403, 404) must leave every row of every table as it was; each cell runs alone, one after another,
+// so nothing else writes while it is checked.
 import fs from "node:fs";
 import path from "node:path";
+import { isDeepStrictEqual } from "node:util";
 import { beforeAll, describe, expect, it } from "vitest";
 import type { Role } from "@/lib/auth/roles";
+import { DEFAULT_MESSAGES } from "@/lib/errors";
+import { ACTION_FIXTURES, type ActionAnswer } from "../integration/helpers/action-fixtures";
 import { appUrl, testEnv } from "../support/env";
-import { demoSession, isFakeMailInUse, journeyTimeout, whoAmI, type SessionCookie } from "../support/pages";
+import { DEMO_BY_ROLE, demoSession, isFakeMailInUse, journeyTimeout, whoAmI, type SessionCookie } from "../support/pages";
+import { expectRowsUnchanged, snapshotRows, type ExpectedChange } from "../support/snapshot";
 
 type Who = "anonymous" | Role;
 const EVERYONE: Who[] = ["anonymous", "admin", "lead", "engineer", "auditor"];
@@ -15,12 +25,14 @@ const ROLES: Role[] = ["admin", "lead", "engineer", "auditor"];
 
 // ---- expectations ------------------------------------------------------------------------------
 
-/** ok: 200 page · sign-in: redirect to /sign-in · home: redirect to /home · forbidden: the 403 page · not-found: 404. */
+/** ok: 200, the page itself · sign-in: redirect to /sign-in · home: redirect to /home · forbidden: the 403 page · not-found: 404. */
 type PageOutcome = "ok" | "sign-in" | "home" | "forbidden" | "not-found";
-/** ok: 200 JSON · unauthenticated: 401 JSON · forbidden: 403 JSON (each with { error: { code } }). */
-type ApiOutcome = "ok" | "unauthenticated" | "forbidden";
-/** passes-guard: the guard let it through (the empty input then fails validation, changing nothing). */
-type ActionOutcome = "passes-guard" | "unauthenticated" | "forbidden";
+/** ok: the route's answer · unauthenticated: 401 · forbidden: 403 · not-found: 404 (the last three change nothing). */
+type ApiOutcome = "ok" | "unauthenticated" | "forbidden" | "not-found";
+/** ok: the action did its work · unauthenticated / forbidden: the guard refused and nothing changed. */
+type ActionOutcome = "ok" | "unauthenticated" | "forbidden";
+
+const REFUSED_PAGE: readonly PageOutcome[] = ["sign-in", "forbidden", "not-found"];
 
 const mailboxInUse = await isFakeMailInUse();
 
@@ -32,50 +44,160 @@ const same = <T,>(outcome: T) => Object.fromEntries(EVERYONE.map((who) => [who, 
 const anonymousElse = <T,>(anonymous: T, signedIn: T) =>
   Object.fromEntries(EVERYONE.map((who) => [who, who === "anonymous" ? anonymous : signedIn])) as Record<Who, T>;
 
-/** Keyed by the build's app-paths-manifest entry; `path` is a concrete URL for it. */
-const PAGES: Record<string, { path: string; expect: Record<Who, PageOutcome> }> = {
+/** Keyed by the build's app-paths-manifest entry; `path` is a concrete URL for it, `title` the page's own. */
+const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, PageOutcome> }> = {
   "/page": { path: "/", expect: anonymousElse<PageOutcome>("sign-in", "home") },
-  "/(auth)/sign-in/page": { path: "/sign-in", expect: anonymousElse<PageOutcome>("ok", "home") },
-  "/(auth)/forgot-password/page": { path: "/forgot-password", expect: same<PageOutcome>("ok") },
-  "/(auth)/reset-password/page": { path: "/reset-password?token=not-a-real-token", expect: same<PageOutcome>("ok") },
-  "/(auth)/invite/[token]/page": { path: "/invite/not-a-real-token", expect: same<PageOutcome>("ok") },
-  "/(app)/home/page": { path: "/home", expect: signedInPage("admin", "lead", "engineer", "auditor") },
-  "/(app)/library/page": { path: "/library", expect: signedInPage("lead", "engineer", "auditor") },
-  "/(app)/projects/page": { path: "/projects", expect: signedInPage("lead", "engineer", "auditor") },
-  "/(app)/runs/page": { path: "/runs", expect: signedInPage("lead", "engineer", "auditor") },
-  "/(app)/audit/page": { path: "/audit", expect: signedInPage("admin", "auditor") },
-  "/(app)/admin/users/page": { path: "/admin/users", expect: signedInPage("admin", "auditor") },
+  "/(auth)/sign-in/page": { path: "/sign-in", title: "Sign in", expect: anonymousElse<PageOutcome>("ok", "home") },
+  "/(auth)/forgot-password/page": { path: "/forgot-password", title: "Forgot password", expect: same<PageOutcome>("ok") },
+  "/(auth)/reset-password/page": { path: "/reset-password?token=not-a-real-token", title: "Choose a new password", expect: same<PageOutcome>("ok") },
+  "/(auth)/invite/[token]/page": { path: "/invite/not-a-real-token", title: "Accept your invitation", expect: same<PageOutcome>("ok") },
+  "/(app)/home/page": { path: "/home", title: "Home", expect: signedInPage("admin", "lead", "engineer", "auditor") },
+  "/(app)/library/page": { path: "/library", title: "Library", expect: signedInPage("lead", "engineer", "auditor") },
+  "/(app)/projects/page": { path: "/projects", title: "Projects", expect: signedInPage("lead", "engineer", "auditor") },
+  "/(app)/runs/page": { path: "/runs", title: "Runs", expect: signedInPage("lead", "engineer", "auditor") },
+  "/(app)/audit/page": { path: "/audit", title: "Audit trail", expect: signedInPage("admin", "auditor") },
+  "/(app)/admin/users/page": { path: "/admin/users", title: "People", expect: signedInPage("admin", "auditor") },
   "/(app)/admin/mailbox/page": {
     path: "/admin/mailbox",
+    title: "Demo mailbox",
     expect: { ...signedInPage("admin"), admin: mailboxInUse ? "ok" : "not-found" },
   },
   "/_not-found/page": { path: "/no-such-page-here", expect: same<PageOutcome>("not-found") },
 };
 
-const API_ROUTES: Record<string, { path: string; expect: Record<Who, ApiOutcome> }> = {
-  "/api/health/route": { path: "/api/health", expect: same<ApiOutcome>("ok") },
-  "/api/me/route": { path: "/api/me", expect: anonymousElse<ApiOutcome>("unauthenticated", "ok") },
-  // better-auth's own endpoints: the session probe answers everyone (null when signed out).
-  "/api/auth/[...all]/route": { path: "/api/auth/get-session", expect: same<ApiOutcome>("ok") },
-  "/icon.svg/route": { path: "/icon.svg", expect: same<ApiOutcome>("ok") },
-};
-
 /** Framework entries with no route of their own to probe. */
 const NOT_ROUTES = new Set(["/_global-error/page"]);
 
-function adminOnlyAction(): Record<Who, ActionOutcome> {
-  return Object.fromEntries(EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "admin" ? "passes-guard" : "forbidden"])) as Record<Who, ActionOutcome>;
+type Answer = { status: number; headers: Headers; text: string };
+type ApiRow = {
+  path: string;
+  expect: Record<Who, ApiOutcome>;
+  /** What an allowed call must answer. */
+  ok: (answer: Answer, who: Who) => void;
+  body?: unknown;
+  /** Writes a refused call makes on purpose (see ExpectedChange). */
+  except?: ExpectedChange[];
+};
+
+/** The longest rate-limit window better-auth is configured with (lib/auth/server.ts), in seconds. */
+const LONGEST_RATE_LIMIT_WINDOW_S = 60;
+
+/**
+ * better-auth counts every request to one of its paths against that path's per-address limit before
+ * it looks for a handler; when a counter's window restarts it deletes the counters whose last request
+ * is older than its longest window.
+ */
+function countedByBetterAuth(authPath: string): ExpectedChange[] {
+  return [
+    {
+      table: "rate_limit",
+      change: "added or changed",
+      why: `better-auth counts the request against its per-address limit for ${authPath}`,
+      where: (row) => String(row.key).endsWith(`|${authPath}`),
+    },
+    {
+      table: "rate_limit",
+      change: "removed",
+      why: "better-auth prunes counters idle for longer than its longest window when a window restarts",
+      where: (row) => Number(row.last_request) < Date.now() - LONGEST_RATE_LIMIT_WINDOW_S * 1000,
+      count: "any",
+    },
+  ];
 }
 
-/** Keyed "<file>#<export>" as in the build's server-reference-manifest. */
+const ALLOW_GET = "GET, HEAD, OPTIONS";
+const OPTIONS_ROW = (url: string, allow: string): ApiRow => ({
+  path: url,
+  expect: same<ApiOutcome>("ok"),
+  ok: (answer) => {
+    expect(answer.status).toBe(204);
+    expect(answer.headers.get("allow")).toBe(allow);
+  },
+});
+const jsonOf = (answer: Answer) => JSON.parse(answer.text) as unknown;
+const meOf = (who: Who) => {
+  const { name, email, role } = DEMO_BY_ROLE[who as Role];
+  return { id: expect.any(String), name, email, role };
+};
+
+/**
+ * Keyed "<METHOD> <app-paths-manifest entry>", one row for every method the route's Allow header
+ * names (Next answers OPTIONS with the methods the route file exports, plus HEAD for GET).
+ */
+const API_ROUTES: Record<string, ApiRow> = {
+  "GET /api/health/route": {
+    path: "/api/health",
+    expect: same<ApiOutcome>("ok"),
+    ok: (answer) => expect([answer.status, jsonOf(answer)]).toEqual([200, { ok: true }]),
+  },
+  "HEAD /api/health/route": { path: "/api/health", expect: same<ApiOutcome>("ok"), ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]) },
+  "OPTIONS /api/health/route": OPTIONS_ROW("/api/health", ALLOW_GET),
+  "GET /api/me/route": {
+    path: "/api/me",
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "ok"),
+    ok: (answer, who) => expect([answer.status, jsonOf(answer)]).toEqual([200, meOf(who)]),
+  },
+  "HEAD /api/me/route": {
+    path: "/api/me",
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "ok"),
+    ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]),
+  },
+  "OPTIONS /api/me/route": OPTIONS_ROW("/api/me", ALLOW_GET),
+  // better-auth's own endpoints. The session probe answers everyone (null when signed out).
+  "GET /api/auth/[...all]/route": {
+    path: "/api/auth/get-session",
+    expect: same<ApiOutcome>("ok"),
+    ok: (answer, who) => {
+      expect(answer.status).toBe(200);
+      const body = jsonOf(answer) as { user?: { email: string; role: string } } | null;
+      if (who === "anonymous") expect(body).toBeNull();
+      else expect(body?.user).toMatchObject({ email: DEMO_BY_ROLE[who].email, role: who });
+    },
+  },
+  // better-auth answers no HEAD: a 404 that changes nothing.
+  "HEAD /api/auth/[...all]/route": {
+    path: "/api/auth/get-session",
+    expect: same<ApiOutcome>("not-found"),
+    ok: () => undefined,
+    except: countedByBetterAuth("/get-session"),
+  },
+  "OPTIONS /api/auth/[...all]/route": OPTIONS_ROW("/api/auth/get-session", "GET, HEAD, OPTIONS, POST"),
+  // People join by invitation only: sign-up does not exist for anyone, signed in or not.
+  "POST /api/auth/[...all]/route": {
+    path: "/api/auth/sign-up/email",
+    body: { email: "self-signed@marrowby-fenn.example", password: "a-long-enough-password", name: "Self Signed" },
+    expect: same<ApiOutcome>("not-found"),
+    ok: () => undefined,
+  },
+  "GET /icon.svg/route": {
+    path: "/icon.svg",
+    expect: same<ApiOutcome>("ok"),
+    ok: (answer) => {
+      expect([answer.status, answer.headers.get("content-type")]).toEqual([200, "image/svg+xml"]);
+      expect(answer.text).toMatch(/^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
+    },
+  },
+  "HEAD /icon.svg/route": { path: "/icon.svg", expect: same<ApiOutcome>("ok"), ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]) },
+};
+
+// ---- server actions ------------------------------------------------------------------------------
+
+function adminOnlyAction(): Record<Who, ActionOutcome> {
+  return Object.fromEntries(EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "admin" ? "ok" : "forbidden"])) as Record<Who, ActionOutcome>;
+}
+
+/**
+ * Keyed "<file>#<export>" as in the build's server-reference-manifest. The input for each call and
+ * the proof that an allowed call did its work are in tests/integration/helpers/action-fixtures.ts.
+ */
 const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/admin/users/actions.ts#inviteUserAction": adminOnlyAction(),
   "app/(app)/admin/users/actions.ts#setUserRoleAction": adminOnlyAction(),
   "app/(app)/admin/users/actions.ts#deactivateUserAction": adminOnlyAction(),
   "app/(app)/admin/users/actions.ts#reactivateUserAction": adminOnlyAction(),
   "app/(app)/admin/users/actions.ts#revokeInvitationAction": adminOnlyAction(),
-  // The invitation link is the credential: anyone may try one.
-  "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": same<ActionOutcome>("passes-guard"),
+  // The invitation link is the credential: anyone holding a real one may accept it, and lands home.
+  "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": same<ActionOutcome>("ok"),
 };
 
 // ---- what the build contains -----------------------------------------------------------------
@@ -84,17 +206,27 @@ const buildDir = path.resolve(import.meta.dirname, "..", "..", ".next", "server"
 const readJson = (name: string) => JSON.parse(fs.readFileSync(path.join(buildDir, name), "utf8"));
 
 const routeEntries = Object.keys(readJson("app-paths-manifest.json") as Record<string, string>);
+const routeHandlerEntries = routeEntries.filter((entry) => entry.endsWith("/route"));
 
 type ManifestAction = { workers: Record<string, unknown>; filename?: string; exportedName?: string };
-const builtActions = Object.entries((readJson("server-reference-manifest.json") as { node: Record<string, ManifestAction> }).node).map(
-  ([id, entry]) => ({ id, key: `${entry.filename}#${entry.exportedName}`, worker: Object.keys(entry.workers)[0] }),
-);
+const manifestActions = readJson("server-reference-manifest.json") as Record<"node" | "edge", Record<string, ManifestAction>>;
+const builtActions = [...Object.entries(manifestActions.node), ...Object.entries(manifestActions.edge)].map(([id, entry]) => ({
+  id,
+  key: `${entry.filename}#${entry.exportedName}`,
+  worker: Object.keys(entry.workers)[0],
+}));
 
 /** "app/(app)/admin/users/page" → "/admin/users"; dynamic segments get a harmless value. */
 function pageUrlOfWorker(worker: string): string {
   const segments = worker.replace(/^app\//, "").replace(/\/page$/, "").split("/");
   const url = segments.filter((s) => !/^\(.*\)$/.test(s)).map((s) => (/^\[.*\]$/.test(s) ? "not-a-real-value" : s));
   return `/${url.join("/")}`;
+}
+
+/** A URL that reaches a route entry (its rows' path), for asking it which methods it answers. */
+function urlOfRouteEntry(entry: string): string {
+  const key = Object.keys(API_ROUTES).find((candidate) => candidate.endsWith(` ${entry}`));
+  return key ? API_ROUTES[key].path : entry.replace(/\/route$/, "");
 }
 
 // ---- asking the server ---------------------------------------------------------------------------
@@ -108,7 +240,16 @@ beforeAll(async () => {
 
 const headersFor = (who: Who): Record<string, string> => (sessions[who] ? { Cookie: sessions[who]! } : {});
 
-async function pageOutcome(who: Who, url: string): Promise<PageOutcome | string> {
+/** Runs `call` for a refused cell between two snapshots: it must change no row of any table. */
+async function unchangedBy<T>(refused: boolean, call: () => Promise<T>, except: ExpectedChange[] = []): Promise<T> {
+  if (!refused) return call();
+  const before = await snapshotRows();
+  const result = await call();
+  await expectRowsUnchanged(before, { except });
+  return result;
+}
+
+async function pageOutcome(who: Who, url: string, title: string | undefined): Promise<PageOutcome | string> {
   const response = await fetch(appUrl(url), { headers: headersFor(who), redirect: "manual" });
   const body = await response.text();
   if ([302, 303, 307, 308].includes(response.status)) {
@@ -116,74 +257,96 @@ async function pageOutcome(who: Who, url: string): Promise<PageOutcome | string>
     return target === "/sign-in" ? "sign-in" : target === "/home" ? "home" : `redirect to ${target}`;
   }
   // Every page's RSC payload carries the 403 page as a ready fallback, so its text proves nothing;
-  // the document title is set only when the 403 page is what was rendered (app/forbidden.tsx).
-  const showsForbiddenPage = /<title>Not available to your role\b/.test(body);
-  if (response.status === 403) return showsForbiddenPage ? "forbidden" : "403 without the 403 page";
-  if (response.status === 404) return "not-found";
-  if (response.status === 200) return showsForbiddenPage ? "200 showing the 403 page" : "ok";
+  // the document title is the one of the page that was rendered.
+  const shown = /<title>([^<]*)<\/title>/.exec(body)?.[1];
+  if (response.status === 403) return shown === "Not available to your role · Gusset" ? "forbidden" : `403 showing "${shown}"`;
+  if (response.status === 404) return shown === "Page not found · Gusset" ? "not-found" : `404 showing "${shown}"`;
+  if (response.status === 200) return shown === `${title} · Gusset` ? "ok" : `200 showing "${shown}"`;
   return `status ${response.status}`;
 }
 
-async function apiOutcome(who: Who, url: string): Promise<ApiOutcome | string> {
-  const response = await fetch(appUrl(url), { headers: headersFor(who), redirect: "manual" });
-  if (response.status === 200) return "ok";
-  const body = (await response.json().catch(() => null)) as { error?: { code?: string } } | null;
-  if (response.status === 401 && body?.error?.code === "unauthenticated") return "unauthenticated";
-  if (response.status === 403 && body?.error?.code === "forbidden") return "forbidden";
-  return `status ${response.status} ${JSON.stringify(body)}`;
+async function askRoute(who: Who, method: string, row: ApiRow): Promise<Answer> {
+  const headers: Record<string, string> = { ...headersFor(who), Origin: testEnv.baseUrl };
+  if (row.body) headers["Content-Type"] = "application/json";
+  const response = await fetch(appUrl(row.path), { method, headers, body: row.body ? JSON.stringify(row.body) : undefined, redirect: "manual" });
+  return { status: response.status, headers: response.headers, text: await response.text() };
+}
+
+function apiOutcome(method: string, answer: Answer): ApiOutcome | string {
+  if (answer.status === 404) return "not-found";
+  if (answer.status !== 401 && answer.status !== 403) return "answered";
+  const code = answer.status === 401 ? "unauthenticated" : "forbidden";
+  if (method === "HEAD") return code; // no body to read
+  const body = JSON.parse(answer.text) as unknown;
+  return JSON.stringify(body) === JSON.stringify({ error: { code, message: DEFAULT_MESSAGES[code] } }) ? code : `${answer.status} ${answer.text}`;
 }
 
 /**
  * Calls a server action the way Next's client does: POST to a page that uses it, `Next-Action: <id>`,
- * the arguments React-encoded in form field "0" — here (previous state, empty input). The answer is an
- * RSC stream whose root row points at the action's return value, our ActionState.
+ * the arguments React-encoded in form field "0" — here (previous state, input). The answer is an RSC
+ * stream whose root row points at the action's return value, our ActionState; a redirect() comes back
+ * as a 303 naming its target.
  */
-async function actionOutcome(who: Who, action: (typeof builtActions)[number]): Promise<ActionOutcome | string> {
+async function callAction(who: Who, action: (typeof builtActions)[number], input: unknown): Promise<ActionAnswer | string> {
   const body = new FormData();
-  body.set("0", JSON.stringify([null, {}]));
+  body.set("0", JSON.stringify([null, input]));
   const response = await fetch(appUrl(pageUrlOfWorker(action.worker)), {
     method: "POST",
     headers: { ...headersFor(who), "Next-Action": action.id, Origin: testEnv.baseUrl, Accept: "text/x-component" },
     body,
     redirect: "manual",
   });
+  const redirect = response.headers.get("x-action-redirect");
   const text = await response.text();
+  if (redirect) return { redirect: redirect.split(";")[0] };
   const rows = new Map(text.split("\n").filter(Boolean).map((line) => [line.slice(0, line.indexOf(":")), line.slice(line.indexOf(":") + 1)]));
   const root = JSON.parse(rows.get("0") ?? "null") as { a?: string } | null;
   const resultRow = root?.a?.startsWith("$@") ? rows.get(root.a.slice(2)) : undefined;
-  const state = resultRow ? (JSON.parse(resultRow) as { ok?: boolean; error?: { code?: string } }) : null;
-  if (!state) return `status ${response.status}, no action result in: ${text.slice(0, 200)}`;
-  if (state.ok === false && state.error?.code === "invalid-input") return "passes-guard";
-  if (state.ok === false && (state.error?.code === "forbidden" || state.error?.code === "unauthenticated")) return state.error.code;
-  return `unexpected answer ${JSON.stringify(state)}`;
+  if (!resultRow) return `status ${response.status}, no action result in: ${text.slice(0, 200)}`;
+  return { state: JSON.parse(resultRow) as Extract<ActionAnswer, { state: unknown }>["state"] };
 }
 
 // ---- the tests ---------------------------------------------------------------------------------
 
-describe("every route in the build has a row", () => {
+describe("every route, method and action in the build has a row", () => {
   it("pages and route handlers", () => {
-    const covered = new Set([...Object.keys(PAGES), ...Object.keys(API_ROUTES), ...NOT_ROUTES]);
+    const covered = new Set([...Object.keys(PAGES), ...Object.keys(API_ROUTES).map((key) => key.split(" ")[1]), ...NOT_ROUTES]);
     expect(routeEntries.filter((entry) => !covered.has(entry)), "routes without an expected answer").toEqual([]);
     expect([...covered].filter((entry) => !routeEntries.includes(entry)), "rows for routes that no longer exist").toEqual([]);
+  });
+
+  it("every method each route handler answers", async () => {
+    const answered: string[] = [];
+    for (const entry of routeHandlerEntries) {
+      const response = await fetch(appUrl(urlOfRouteEntry(entry)), { method: "OPTIONS", redirect: "manual" });
+      const allow = response.headers.get("allow");
+      expect(allow, `OPTIONS ${entry} names no methods`).not.toBeNull();
+      for (const method of allow!.split(",").map((m) => m.trim())) answered.push(`${method} ${entry}`);
+    }
+    expect(answered.sort()).toEqual(Object.keys(API_ROUTES).sort());
   });
 
   it("server actions", () => {
     const keys = builtActions.map((action) => action.key);
     expect(keys.filter((key) => !(key in ACTIONS)), "server actions without an expected answer").toEqual([]);
     expect(Object.keys(ACTIONS).filter((key) => !keys.includes(key)), "rows for actions that no longer exist").toEqual([]);
+    expect(Object.keys(ACTION_FIXTURES).sort(), "an input for every row").toEqual(Object.keys(ACTIONS).sort());
   });
 });
 
 describe("sessions used by the matrix", () => {
   it("belong to the right people", async () => {
-    for (const role of ROLES) expect((await whoAmI(sessions[role]))?.role).toBe(role);
+    for (const role of ROLES) expect(await whoAmI(sessions[role])).toMatchObject({ email: DEMO_BY_ROLE[role].email, role });
   });
 });
 
 describe("pages", () => {
-  for (const [entry, { path: url, expect: expected }] of Object.entries(PAGES)) {
+  for (const [entry, { path: url, title, expect: expected }] of Object.entries(PAGES)) {
     it(`${url} (${entry})`, async () => {
-      const actual = Object.fromEntries(await Promise.all(EVERYONE.map(async (who) => [who, await pageOutcome(who, url)])));
+      const actual: Record<string, PageOutcome | string> = {};
+      for (const who of EVERYONE) {
+        actual[who] = await unchangedBy(REFUSED_PAGE.includes(expected[who]), () => pageOutcome(who, url, title));
+      }
       expect(actual).toEqual(expected);
     });
   }
@@ -191,6 +354,9 @@ describe("pages", () => {
 
 describe("signing in brings people back", () => {
   const signedInPages = Object.values(PAGES).filter(({ expect: e }) => e.anonymous === "sign-in" && e.admin !== "home");
+  it("applies to every signed-in page", () => {
+    expect(signedInPages.map((page) => page.path)).toEqual(["/home", "/library", "/projects", "/runs", "/audit", "/admin/users", "/admin/mailbox"]);
+  });
   for (const { path: url } of signedInPages) {
     it(`anonymous ${url} → /sign-in?next=${url}`, async () => {
       const response = await fetch(appUrl(url), { redirect: "manual" });
@@ -201,27 +367,45 @@ describe("signing in brings people back", () => {
   }
 });
 
-describe("API routes", () => {
-  for (const [entry, { path: url, expect: expected }] of Object.entries(API_ROUTES)) {
-    it(`GET ${url} (${entry})`, async () => {
-      const actual = Object.fromEntries(await Promise.all(EVERYONE.map(async (who) => [who, await apiOutcome(who, url)])));
-      expect(actual).toEqual(expected);
+describe("route handlers, every method", () => {
+  for (const [key, row] of Object.entries(API_ROUTES)) {
+    const method = key.split(" ")[0];
+    it(`${method} ${row.path} (${key})`, async () => {
+      const actual: Record<string, ApiOutcome | string> = {};
+      for (const who of EVERYONE) {
+        const refused = row.expect[who] !== "ok";
+        const answer = await unchangedBy(refused, () => askRoute(who, method, row), row.except);
+        const outcome = apiOutcome(method, answer);
+        if (outcome === "answered" && row.expect[who] === "ok") row.ok(answer, who);
+        actual[who] = outcome === "answered" ? "ok" : outcome;
+      }
+      expect(actual).toEqual(row.expect);
     });
   }
-
-  it("/api/me says who is asking", async () => {
-    for (const role of ROLES) expect((await whoAmI(sessions[role]))?.role).toBe(role);
-    const response = await fetch(appUrl("/api/me"));
-    expect(response.status).toBe(401);
-    expect(await response.json()).toEqual({ error: { code: "unauthenticated", message: expect.any(String) } });
-  });
 });
 
 describe("server actions", () => {
+  // builtActions is never empty while ACTIONS has rows: the coverage test above compares the two.
   for (const action of builtActions) {
     it(action.key, async () => {
-      const actual = Object.fromEntries(await Promise.all(EVERYONE.map(async (who) => [who, await actionOutcome(who, action)])));
-      expect(actual).toEqual(ACTIONS[action.key]);
+      const row = ACTIONS[action.key];
+      if (!row) throw new Error(`${action.key} has no row`);
+      const actual: Record<string, ActionOutcome | string> = {};
+      for (const who of EVERYONE) {
+        const expected = row[who];
+        const { input, succeeded } = await ACTION_FIXTURES[action.key]();
+        if (expected === "ok") {
+          const answer = await callAction(who, action, input);
+          if (typeof answer === "string") throw new Error(`${who}: ${answer}`);
+          await succeeded(answer);
+          actual[who] = "ok";
+          continue;
+        }
+        const answer = await unchangedBy(true, () => callAction(who, action, input));
+        const refusal = { state: { ok: false, error: { code: expected, message: DEFAULT_MESSAGES[expected] } } };
+        actual[who] = isDeepStrictEqual(answer, refusal) ? expected : `answered ${JSON.stringify(answer)}`;
+      }
+      expect(actual).toEqual(row);
     });
   }
 });

@@ -75,5 +75,9 @@ it("a reset link without a token says it cannot be used", async () => {
   const reset = new ResetPasswordPage(page);
   await reset.open(appUrl("/reset-password?error=INVALID_TOKEN"));
   await reset.linkInvalid().waitFor();
+  expect(await reset.linkInvalid().textContent()).toMatch(/This link cannot be used.*expired, has already been used, or was copied incompletely/);
+  // No form to send, only the way to a new link.
+  expect(await page.getByTestId("reset-password-form").count()).toBe(0);
+  expect(await reset.linkInvalid().getByRole("link").getAttribute("href")).toBe("/forgot-password");
   await page.close();
 });

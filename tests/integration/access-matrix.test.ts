@@ -1,16 +1,21 @@
-// Who gets what: every server action (app/**/actions.ts) and every route handler (app/api/**/route.ts)
-// against an anonymous visitor and each role, as a table written from the product's rules for each role, not from
-// lib/auth/permissions.ts, so a wrong permission in code fails here. A new action or route without a
-// row in these tables fails the "covers every…" tests.
+// Who gets what: every server action the build exposes (its server-reference manifest) and every HTTP
+// method every route file exports, against an anonymous visitor and each role, as a table written
+// from the product's rules for each role, not from lib/auth/permissions.ts, so a wrong permission in
+// code fails here. An action or a route method without a row fails the "covers every…" tests.
 //
-// The one route left out on purpose is app/api/auth/[...all]: better-auth's own endpoint set (sign-in,
-// sign-out, reset), protected by better-auth itself (no sign-up, rate limits, origin check) and tested
-// in sign-in.test.ts and password-reset.test.ts.
+// Each cell is called with a valid input made fresh for it. An allowed cell must do its work (the
+// answer and the rows it changes are checked); a refused cell must answer with the guard's code and
+// leave every row of every table as it was (the guard writes nothing when it refuses).
+import fs from "node:fs";
+import path from "node:path";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
+import type { Actor } from "@/lib/auth/actor";
 import type { ActionState } from "@/lib/auth/guard";
 import type { Role } from "@/lib/auth/roles";
-import { inviteUser } from "@/lib/data/users";
-import { createTestUser, signInHeaders, uniqueEmail } from "./helpers/people";
+import { DEFAULT_MESSAGES } from "@/lib/errors";
+import { expectRowsUnchanged, snapshotRows } from "../support/snapshot";
+import { ACTION_FIXTURES, type ActionAnswer } from "./helpers/action-fixtures";
+import { createTestUser, sessionCount, signInHeaders } from "./helpers/people";
 
 const request = vi.hoisted(() => ({ headers: new Headers() }));
 vi.mock("next/headers", () => ({
@@ -26,7 +31,7 @@ afterEach(() => {
 type Who = "anonymous" | Role;
 const EVERYONE: Who[] = ["anonymous", "admin", "lead", "engineer", "auditor"];
 
-/** "allowed" means the guard let the call through to the handler. */
+/** allowed: the use case did its work · unauthenticated / forbidden: the guard refused, nothing changed. */
 type Expected = "allowed" | "unauthenticated" | "forbidden";
 
 const ADMIN_ONLY: Record<Who, Expected> = {
@@ -45,125 +50,229 @@ const SIGNED_IN: Record<Who, Expected> = {
 };
 const PUBLIC: Record<Who, Expected> = { anonymous: "allowed", admin: "allowed", lead: "allowed", engineer: "allowed", auditor: "allowed" };
 
-type AnyAction = (previous: ActionState<unknown>, payload: unknown) => Promise<ActionState<unknown>>;
-
-/** Each row: who may call it, and a valid input made fresh for each call (so allowed calls succeed). */
-const ACTIONS: Record<string, { expected: Record<Who, Expected>; input: () => Promise<Record<string, unknown>> }> = {
-  "admin/users/actions.ts#inviteUserAction": {
-    expected: ADMIN_ONLY,
-    input: async () => ({ email: uniqueEmail("matrix"), name: "Matrix Person", role: "engineer" }),
-  },
-  "admin/users/actions.ts#setUserRoleAction": {
-    expected: ADMIN_ONLY,
-    input: async () => ({ userId: (await createTestUser({ role: "engineer" })).actor.id, role: "lead" }),
-  },
-  "admin/users/actions.ts#deactivateUserAction": {
-    expected: ADMIN_ONLY,
-    input: async () => ({ userId: (await createTestUser({ role: "engineer" })).actor.id }),
-  },
-  "admin/users/actions.ts#reactivateUserAction": {
-    expected: ADMIN_ONLY,
-    input: async () => ({ userId: (await createTestUser({ role: "engineer", deactivated: true })).actor.id }),
-  },
-  "admin/users/actions.ts#revokeInvitationAction": {
-    expected: ADMIN_ONLY,
-    input: async () => {
-      const { actor: admin } = await createTestUser({ role: "admin" });
-      const invitation = await inviteUser({ actor: admin, email: uniqueEmail("revoke"), name: "To Revoke", role: "auditor" });
-      return { invitationId: invitation.id };
-    },
-  },
-  // Public: the link is the credential. An unknown token gets past the guard and is refused by the
-  // data function with its own clear message.
-  "invite/[token]/actions.ts#acceptInvitationAction": {
-    expected: PUBLIC,
-    input: async () => ({ token: "unknown-token", password: "long-enough-pass", confirmPassword: "long-enough-pass" }),
-  },
-};
-
-const ROUTES: Record<string, { method: string; path: string; expected: Record<Who, Expected> }> = {
-  "api/me/route.ts#GET": { method: "GET", path: "/api/me", expected: SIGNED_IN },
-  "api/health/route.ts#GET": { method: "GET", path: "/api/health", expected: PUBLIC },
-};
-const LEFT_OUT = ["api/auth/[...all]/route.ts"];
-
-const actionModules = import.meta.glob<Record<string, unknown>>("/app/**/actions.ts");
-const routeModules = import.meta.glob<Record<string, unknown>>("/app/api/**/route.ts");
-
-function shortName(file: string): string {
-  return file.replace(/^\/app\//, "").replace(/^\([^)]+\)\//, "");
-}
-
-async function exportsOf(modules: Record<string, () => Promise<Record<string, unknown>>>) {
-  const found: Record<string, unknown> = {};
-  for (const [file, load] of Object.entries(modules)) {
-    if (LEFT_OUT.includes(shortName(file))) continue;
-    for (const [name, value] of Object.entries(await load())) {
-      if (typeof value === "function") found[`${shortName(file)}#${name}`] = value;
-    }
-  }
-  return found;
-}
+// ---- the people who call -------------------------------------------------------------------------
 
 const headersFor: Partial<Record<Who, Headers>> = {};
+const actorFor: Partial<Record<Who, Actor | null>> = {};
 
 beforeAll(async () => {
   headersFor.anonymous = new Headers();
+  actorFor.anonymous = null;
   for (const role of ["admin", "lead", "engineer", "auditor"] as const) {
     const { actor, password } = await createTestUser({ role, label: `matrix-${role}` });
     headersFor[role] = await signInHeaders(actor.email, password);
+    actorFor[role] = actor;
   }
 });
 
-function outcomeOfAction(state: ActionState<unknown>): Expected | string {
-  if (state?.ok) return "allowed";
-  const code = state?.error.code;
-  return code === "unauthenticated" || code === "forbidden" ? code : "allowed"; // refused by the handler, past the guard
+// ---- server actions ------------------------------------------------------------------------------
+
+type AnyAction = (previous: ActionState<unknown>, payload: unknown) => Promise<ActionState<unknown>>;
+
+/**
+ * Keyed "<file>#<export>" exactly as the build's server-reference manifest names them. The input
+ * for each call and the proof that an allowed call did its work are in helpers/action-fixtures.ts.
+ */
+const ACTIONS: Record<string, Record<Who, Expected>> = {
+  "app/(app)/admin/users/actions.ts#inviteUserAction": ADMIN_ONLY,
+  "app/(app)/admin/users/actions.ts#setUserRoleAction": ADMIN_ONLY,
+  "app/(app)/admin/users/actions.ts#deactivateUserAction": ADMIN_ONLY,
+  "app/(app)/admin/users/actions.ts#reactivateUserAction": ADMIN_ONLY,
+  "app/(app)/admin/users/actions.ts#revokeInvitationAction": ADMIN_ONLY,
+  // Public: the link is the credential; anyone holding a real one may accept it.
+  "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": PUBLIC,
+};
+
+type ManifestEntry = { workers: Record<string, unknown>; filename?: string; exportedName?: string };
+
+const repoRoot = path.resolve(import.meta.dirname, "..", "..");
+const manifestFile = path.join(repoRoot, ".next", "server", "server-reference-manifest.json");
+
+/** Every server action in the build (`npm test` builds before it runs vitest), as "<file>#<export>". */
+function readBuiltActions(): { key: string; filename: string; exportedName: string }[] {
+  if (!fs.existsSync(manifestFile)) throw new Error(`${manifestFile} is missing: run the tests through \`npm test\`, which builds the app`);
+  const manifest = JSON.parse(fs.readFileSync(manifestFile, "utf8")) as Record<"node" | "edge", Record<string, ManifestEntry>>;
+  return [...Object.values(manifest.node), ...Object.values(manifest.edge)].map((entry) => {
+    if (!entry.filename || !entry.exportedName) throw new Error(`a manifest entry without a file or export name: ${JSON.stringify(entry)}`);
+    return { key: `${entry.filename}#${entry.exportedName}`, filename: entry.filename, exportedName: entry.exportedName };
+  });
 }
 
-function outcomeOfRoute(status: number): Expected | string {
-  if (status === 401) return "unauthenticated";
-  if (status === 403) return "forbidden";
-  return status < 500 ? "allowed" : `status ${status}`;
+async function loadAction(key: string): Promise<AnyAction> {
+  const [filename, exportedName] = key.split("#");
+  const loaded = (await import(/* @vite-ignore */ path.join(repoRoot, filename))) as Record<string, unknown>;
+  const action = loaded[exportedName];
+  if (typeof action !== "function") throw new Error(`${filename} exports no function ${exportedName}`);
+  return action as AnyAction;
+}
+
+async function callAction(action: AnyAction, input: unknown): Promise<ActionAnswer> {
+  try {
+    return { state: await action(null, input) };
+  } catch (error) {
+    // redirect() after success is Next's way of answering: digest "NEXT_REDIRECT;<type>;<url>;<status>;".
+    const digest = String((error as { digest?: unknown }).digest ?? "");
+    if (digest.startsWith("NEXT_REDIRECT;")) return { redirect: digest.split(";")[2] };
+    throw error;
+  }
 }
 
 describe("server actions", () => {
-  it("covers every exported server action", async () => {
-    expect(Object.keys(await exportsOf(actionModules)).sort()).toEqual(Object.keys(ACTIONS).sort());
+  it("covers every server action in the build's manifest, and nothing else", () => {
+    const built = readBuiltActions().map((action) => action.key);
+    expect(built.filter((key) => !(key in ACTIONS)), "server actions without a row").toEqual([]);
+    expect(Object.keys(ACTIONS).filter((key) => !built.includes(key)), "rows for actions that are not in the build").toEqual([]);
+    expect(Object.keys(ACTION_FIXTURES).sort(), "an input for every row").toEqual(Object.keys(ACTIONS).sort());
   });
 
-  for (const [name, row] of Object.entries(ACTIONS)) {
-    it.each(EVERYONE)(`${name} as %s`, async (who) => {
-      const action = (await exportsOf(actionModules))[name] as AnyAction;
-      const input = await row.input();
+  for (const [key, row] of Object.entries(ACTIONS)) {
+    it.each(EVERYONE)(`${key} as %s`, async (who) => {
+      const action = await loadAction(key);
+      const { input, succeeded } = await ACTION_FIXTURES[key]();
       request.headers = headersFor[who]!;
-      let outcome: string;
-      try {
-        outcome = outcomeOfAction(await action(null, input));
-      } catch (error) {
-        // redirect() after success (e.g. to the home page) is Next's way of answering.
-        outcome = String((error as { digest?: string }).digest).startsWith("NEXT_REDIRECT") ? "allowed" : String(error);
+      const expected = row[who];
+      if (expected === "allowed") {
+        await succeeded(await callAction(action, input));
+        return;
       }
-      expect(outcome).toBe(row.expected[who]);
+      const before = await snapshotRows();
+      const outcome = await callAction(action, input);
+      expect(outcome).toEqual({ state: { ok: false, error: { code: expected, message: DEFAULT_MESSAGES[expected] } } });
+      await expectRowsUnchanged(before);
     });
   }
 });
 
+// ---- route handlers ------------------------------------------------------------------------------
+
+const HTTP_METHODS = ["GET", "HEAD", "OPTIONS", "POST", "PUT", "PATCH", "DELETE"] as const;
+type Method = (typeof HTTP_METHODS)[number];
+type RouteHandler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
+
+type Cell = { who: Who; actor: Actor | null };
+/** The request headers for one cell, and the person whose session they carry when it is not the caller's. */
+type CellSession = { headers: Headers; sessionOf?: string };
+type RouteRow = {
+  route: string;
+  method: Method;
+  /** The URL asked for: a route with a catch-all segment may have several rows, one per path. */
+  path: string;
+  expected: Record<Who, Expected>;
+  /** The session to send; the matrix session of the caller unless a row needs one of its own. */
+  session?: (cell: Cell) => Promise<CellSession>;
+  /** What an allowed call answers, and the rows it changed. */
+  succeeded: (response: Response, cell: Cell & CellSession) => Promise<void>;
+};
+
+/**
+ * One row per (route file, exported method). app/api/auth/[...all] is better-auth's own endpoint set
+ * (protected by better-auth itself and tested in sign-in.test.ts and password-reset.test.ts); its
+ * rows here probe a session read, a sign-out, and the sign-up that must not exist.
+ */
+const ROUTES: RouteRow[] = [
+  {
+    route: "app/api/me/route.ts",
+    method: "GET",
+    path: "/api/me",
+    expected: SIGNED_IN,
+    succeeded: async (response, { actor }) => {
+      expect(response.status).toBe(200);
+      expect(await response.json()).toEqual({ id: actor!.id, name: actor!.name, email: actor!.email, role: actor!.role });
+    },
+  },
+  {
+    route: "app/api/health/route.ts",
+    method: "GET",
+    path: "/api/health",
+    expected: PUBLIC,
+    succeeded: async (response) => {
+      expect(response.status).toBe(200);
+      expect(await response.json()).toEqual({ ok: true });
+    },
+  },
+  {
+    route: "app/api/auth/[...all]/route.ts",
+    method: "GET",
+    path: "/api/auth/get-session",
+    expected: PUBLIC,
+    succeeded: async (response, { actor }) => {
+      expect(response.status).toBe(200);
+      const body = (await response.json()) as { user: { id: string; email: string; role: string } } | null;
+      if (actor) expect(body?.user).toMatchObject({ id: actor.id, email: actor.email, role: actor.role });
+      else expect(body).toBeNull();
+    },
+  },
+  {
+    route: "app/api/auth/[...all]/route.ts",
+    method: "POST",
+    path: "/api/auth/sign-out",
+    expected: PUBLIC,
+    // A session of its own for each cell, so signing out leaves the matrix sessions alone.
+    session: async ({ actor }) => {
+      if (!actor) return { headers: new Headers() };
+      const { actor: person, password } = await createTestUser({ role: actor.role });
+      const headers = await signInHeaders(person.email, password);
+      expect(await sessionCount(person.id)).toBe(1);
+      return { headers, sessionOf: person.id };
+    },
+    succeeded: async (response, { sessionOf }) => {
+      expect(response.status).toBe(200);
+      expect(await response.json()).toEqual({ success: true });
+      expect(response.headers.getSetCookie().join("\n")).toMatch(/better-auth\.session_token=;/);
+      if (sessionOf) expect(await sessionCount(sessionOf)).toBe(0); // the session row is gone
+    },
+  },
+];
+
+// Every route file; the methods each exports are the ones Next serves.
+const routeModules = import.meta.glob<Record<string, unknown>>("/app/**/route.ts");
+
+async function exportedMethods(): Promise<string[]> {
+  const found: string[] = [];
+  for (const [file, load] of Object.entries(routeModules)) {
+    for (const [name, value] of Object.entries(await load())) {
+      if ((HTTP_METHODS as readonly string[]).includes(name) && typeof value === "function") found.push(`${file.slice(1)}#${name}`);
+    }
+  }
+  return found.sort();
+}
+
+async function loadHandler(row: RouteRow): Promise<RouteHandler> {
+  const load = routeModules[`/${row.route}`];
+  if (!load) throw new Error(`no route file ${row.route}`);
+  return (await load())[row.method] as RouteHandler;
+}
+
+function makeRequest(row: RouteRow, headers: Headers): Request {
+  const withOrigin = new Headers(headers);
+  withOrigin.set("origin", new URL(process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000").origin);
+  return new Request(`${process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000"}${row.path}`, { method: row.method, headers: withOrigin });
+}
+
 describe("route handlers", () => {
-  it("covers every route handler except better-auth's own", async () => {
-    expect(Object.keys(await exportsOf(routeModules)).sort()).toEqual(Object.keys(ROUTES).sort());
+  it("covers every HTTP method every route file exports", async () => {
+    const exported = await exportedMethods();
+    const covered = [...new Set(ROUTES.map((row) => `${row.route}#${row.method}`))].sort();
+    expect(exported.filter((key) => !covered.includes(key)), "exported methods without a row").toEqual([]);
+    expect(covered.filter((key) => !exported.includes(key)), "rows for methods no route exports").toEqual([]);
   });
 
-  for (const [name, row] of Object.entries(ROUTES)) {
+  for (const row of ROUTES) {
     it.each(EVERYONE)(`${row.method} ${row.path} as %s`, async (who) => {
-      const handler = (await exportsOf(routeModules))[name] as (r: Request, c: unknown) => Promise<Response>;
-      const response = await handler(new Request(`http://127.0.0.1${row.path}`, { method: row.method, headers: headersFor[who] }), {
-        params: Promise.resolve({}),
-      });
-      expect(outcomeOfRoute(response.status)).toBe(row.expected[who]);
-      if (response.status === 401 || response.status === 403) {
-        expect((await response.json()).error.code).toBe(row.expected[who]);
+      const handler = await loadHandler(row);
+      const cell = { who, actor: actorFor[who]! };
+      const session = row.session ? await row.session(cell) : { headers: headersFor[who]! };
+      const { headers } = session;
+      const expected = row.expected[who];
+      if (expected === "allowed") {
+        await row.succeeded(await handler(makeRequest(row, headers), { params: Promise.resolve({}) }), { ...cell, ...session });
+        return;
       }
+      const before = await snapshotRows();
+      const response = await handler(makeRequest(row, headers), { params: Promise.resolve({}) });
+      expect(response.status).toBe(expected === "unauthenticated" ? 401 : 403);
+      expect(await response.json()).toEqual({ error: { code: expected, message: DEFAULT_MESSAGES[expected] } });
+      await expectRowsUnchanged(before);
     });
   }
 });

@@ -9,9 +9,10 @@ import { guardedAction, guardedRoute } from "@/lib/auth/guard";
 import { inviteUserSchema } from "@/lib/data/user-schemas";
 import { inviteUser } from "@/lib/data/users";
 import { recordAuditEvent } from "@/lib/data/audit";
-import { AppError } from "@/lib/errors";
+import { AppError, DEFAULT_MESSAGES } from "@/lib/errors";
 import { waitForMessage } from "../support/mailbox";
-import { auditEventsFor, countRows, createTestUser, signInHeaders, uniqueEmail } from "./helpers/people";
+import { expectRowsUnchanged, snapshotRows } from "../support/snapshot";
+import { auditEventsFor, createTestUser, signInHeaders, uniqueEmail } from "./helpers/people";
 
 // Server actions read the request through next/headers; here the "request" is whatever a test sets.
 const request = vi.hoisted(() => ({ headers: new Headers() }));
@@ -42,36 +43,41 @@ async function actAs(role: "admin" | "lead" | "engineer" | "auditor") {
 }
 
 describe("guardedAction", () => {
+  // The guard writes nothing when it refuses (no audit event for a refusal either): no exceptions.
   it("refuses an anonymous visitor with 'unauthenticated' and writes nothing", async () => {
-    const before = await countRows();
+    const before = await snapshotRows();
     const state = await invite(null, formData({ email: uniqueEmail("anon"), name: "Ann Example", role: "engineer" }));
     expect(state).toEqual({ ok: false, error: { code: "unauthenticated", message: "Please sign in to continue." } });
-    expect(await countRows()).toEqual(before);
+    await expectRowsUnchanged(before);
   });
 
   it("refuses a role without the permission with 'forbidden' and writes nothing", async () => {
     for (const role of ["lead", "engineer", "auditor"] as const) {
       await actAs(role);
-      const before = await countRows();
+      const before = await snapshotRows();
       const state = await invite(null, formData({ email: uniqueEmail("nope"), name: "Ann Example", role: "engineer" }));
-      expect(state).toMatchObject({ ok: false, error: { code: "forbidden" } });
-      expect(await countRows()).toEqual(before);
+      expect(state).toEqual({ ok: false, error: { code: "forbidden", message: "Your role does not allow this." } });
+      await expectRowsUnchanged(before);
     }
   });
 
   it("answers bad input with field messages, and writes no row and no audit event", async () => {
     await actAs("admin");
-    const before = await countRows();
+    const before = await snapshotRows();
     const state = await invite(null, formData({ email: "not-an-address", name: "", role: "superuser" }));
-    expect(state).not.toBeNull();
-    if (state === null || state.ok) throw new Error("expected a refusal");
-    expect(state.error.code).toBe("invalid-input");
-    expect(state.error.fieldErrors).toEqual({
-      email: ["Enter an e-mail address like name@firm.example."],
-      name: ["Enter the person's name."],
-      role: ["Choose a role."],
+    expect(state).toEqual({
+      ok: false,
+      error: {
+        code: "invalid-input",
+        message: "Some fields need attention.",
+        fieldErrors: {
+          email: ["Enter an e-mail address like name@firm.example."],
+          name: ["Enter the person's name."],
+          role: ["Choose a role."],
+        },
+      },
     });
-    expect(await countRows()).toEqual(before);
+    await expectRowsUnchanged(before);
   });
 
   it("runs the handler for the right role and writes its audit event", async () => {
@@ -104,9 +110,11 @@ describe("guardedAction", () => {
         throw new AppError("conflict", "Someone changed this first.");
       },
     );
+    const before = await snapshotRows();
     const state = await failing(null, {});
     expect(state).toEqual({ ok: false, error: { code: "conflict", message: "Someone changed this first." } });
     expect(await db.select().from(schema.auditEvents).where(eq(schema.auditEvents.subject, marker))).toEqual([]);
+    await expectRowsUnchanged(before);
   });
 
   it("hides an unexpected error behind a generic message", async () => {
@@ -116,7 +124,7 @@ describe("guardedAction", () => {
       throw new Error('relation "secret_table" does not exist');
     });
     const state = await broken(null, {});
-    expect(state).toMatchObject({ ok: false, error: { code: "internal" } });
+    expect(state).toEqual({ ok: false, error: { code: "internal", message: DEFAULT_MESSAGES.internal } });
     expect(JSON.stringify(state)).not.toContain("secret_table");
     spy.mockRestore();
   });
@@ -147,26 +155,34 @@ describe("guardedRoute", () => {
   const call = (headers: Headers, query = "limit=5") =>
     route(new Request(`http://127.0.0.1/api/test?${query}`, { headers }), { params: Promise.resolve({}) });
 
-  it("answers 401 JSON to an anonymous caller", async () => {
+  it("answers 401 JSON to an anonymous caller and writes nothing", async () => {
+    const before = await snapshotRows();
     const response = await call(new Headers());
     expect(response.status).toBe(401);
     expect(await response.json()).toEqual({ error: { code: "unauthenticated", message: "Please sign in to continue." } });
+    await expectRowsUnchanged(before);
   });
 
-  it("answers 403 JSON to a role without the permission", async () => {
+  it("answers 403 JSON to a role without the permission and writes nothing", async () => {
     const { actor, password } = await createTestUser({ role: "engineer" });
-    const response = await call(await signInHeaders(actor.email, password));
+    const headers = await signInHeaders(actor.email, password);
+    const before = await snapshotRows();
+    const response = await call(headers);
     expect(response.status).toBe(403);
-    expect((await response.json()).error.code).toBe("forbidden");
+    expect(await response.json()).toEqual({ error: { code: "forbidden", message: "Your role does not allow this." } });
+    await expectRowsUnchanged(before);
   });
 
   it("answers 422 with field messages to bad input", async () => {
     const { actor, password } = await createTestUser({ role: "auditor" });
-    const response = await call(await signInHeaders(actor.email, password), "limit=500");
+    const headers = await signInHeaders(actor.email, password);
+    const before = await snapshotRows();
+    const response = await call(headers, "limit=500");
     expect(response.status).toBe(422);
     const body = await response.json();
     expect(body.error.code).toBe("invalid-input");
     expect(Object.keys(body.error.fieldErrors)).toEqual(["limit"]);
+    await expectRowsUnchanged(before);
   });
 
   it("answers 400 to a body that is not JSON", async () => {

@@ -16,25 +16,22 @@ import {
   revokeInvitation,
 } from "@/lib/data/invitations";
 import { hashInvitationToken, inviteUser } from "@/lib/data/users";
-import { firstLink, waitForMessage } from "../support/mailbox";
-import { auditEventsFor, countRows, createTestUser, sessionCount, uniqueEmail } from "./helpers/people";
+import { expectNoChangeFrom } from "../support/snapshot";
+import { auditEventsFor, createTestUser, inviteWithToken, sessionCount, uniqueEmail } from "./helpers/people";
 
 vi.mock("next/headers", () => ({ headers: async () => new Headers(), cookies: async () => ({ set: () => undefined }) }));
 
 const NEW_PASSWORD = "a-long-enough-password";
 
 async function inviteAndReadToken(role: "engineer" | "lead" | "auditor" | "admin" = "engineer") {
-  const { actor: admin } = await createTestUser({ role: "admin" });
-  const email = uniqueEmail("invitee");
-  const invitation = await inviteUser({ actor: admin, email, name: "Dana Example", role });
-  const mail = await waitForMessage({ to: email, subjectIncludes: "invited" });
-  const link = firstLink(mail);
-  expect(link).toMatch(/\/invite\/[A-Za-z0-9_-]{43}$/);
-  return { admin, email, invitation, token: link.split("/invite/")[1], mail };
+  const invited = await inviteWithToken(role);
+  expect(invited.link).toMatch(/\/invite\/[A-Za-z0-9_-]{43}$/);
+  return invited;
 }
 
-async function expectRefusal(promise: Promise<unknown>, code: string, message: string) {
-  await expect(promise).rejects.toMatchObject({ code, message });
+/** The call is refused with this code and message, and no row of any table changes (refusals write no audit event). */
+async function expectRefusal(call: () => Promise<unknown>, code: string, message: string) {
+  await expectNoChangeFrom(() => expect(call()).rejects.toMatchObject({ code, message }));
 }
 
 describe("invitations", () => {
@@ -85,9 +82,7 @@ describe("invitations", () => {
   it("refuses a used link with a clear message and changes nothing", async () => {
     const { token } = await inviteAndReadToken();
     await acceptInvitation({ token, password: NEW_PASSWORD });
-    const before = await countRows();
-    await expectRefusal(acceptInvitation({ token, password: "another-password-1" }), "conflict", INVITATION_MESSAGES.used);
-    expect(await countRows()).toEqual(before);
+    await expectRefusal(() => acceptInvitation({ token, password: "another-password-1" }), "conflict", INVITATION_MESSAGES.used);
   });
 
   it("refuses an expired link with a clear message and changes nothing", async () => {
@@ -97,65 +92,79 @@ describe("invitations", () => {
       .set({ expiresAt: new Date(Date.now() - 1000) })
       .where(eq(schema.invitations.id, invitation.id));
     expect(await getInvitationByToken({ token })).toMatchObject({ status: "expired" });
-    const before = await countRows();
-    await expectRefusal(acceptInvitation({ token, password: NEW_PASSWORD }), "conflict", INVITATION_MESSAGES.expired);
-    expect(await countRows()).toEqual(before);
+    await expectRefusal(() => acceptInvitation({ token, password: NEW_PASSWORD }), "conflict", INVITATION_MESSAGES.expired);
   });
 
   it("refuses an unknown link with a clear message and changes nothing", async () => {
-    const before = await countRows();
     expect(await getInvitationByToken({ token: "no-such-token" })).toBeNull();
-    await expectRefusal(acceptInvitation({ token: "no-such-token", password: NEW_PASSWORD }), "not-found", INVITATION_MESSAGES.unknown);
-    expect(await countRows()).toEqual(before);
+    await expectRefusal(() => acceptInvitation({ token: "no-such-token", password: NEW_PASSWORD }), "not-found", INVITATION_MESSAGES.unknown);
   });
 
   it("refuses a withdrawn link, and a new invitation withdraws the previous one", async () => {
     const { admin, email, token, invitation } = await inviteAndReadToken();
     const again = await inviteUser({ actor: admin, email, name: "Dana Example", role: "engineer" });
     expect(await getInvitationByToken({ token })).toMatchObject({ status: "revoked" });
-    await expectRefusal(acceptInvitation({ token, password: NEW_PASSWORD }), "conflict", INVITATION_MESSAGES.revoked);
+    const [replacing] = await auditEventsFor({ action: "users.invite", subject: `invitation:${again.id}` });
+    expect(replacing.details).toEqual({ email, role: "engineer", replacedInvitations: [invitation.id] });
+    await expectRefusal(() => acceptInvitation({ token, password: NEW_PASSWORD }), "conflict", INVITATION_MESSAGES.revoked);
 
-    const pending = await listPendingInvitations({ actor: admin });
-    expect(pending.map((p) => p.id)).toContain(again.id);
-    expect(pending.map((p) => p.id)).not.toContain(invitation.id);
+    const pending = (await listPendingInvitations({ actor: admin })).filter((p) => p.email === email);
+    expect(pending.map((p) => p.id)).toEqual([again.id]);
     await revokeInvitation({ actor: admin, invitationId: again.id });
-    expect((await listPendingInvitations({ actor: admin })).map((p) => p.id)).not.toContain(again.id);
-    await expect(revokeInvitation({ actor: admin, invitationId: again.id })).rejects.toMatchObject({ code: "conflict" });
+    expect((await listPendingInvitations({ actor: admin })).filter((p) => p.email === email)).toEqual([]);
+    await expectRefusal(() => revokeInvitation({ actor: admin, invitationId: again.id }), "conflict", "That invitation is already revoked.");
   });
 
   it("refuses to invite an address that already has an account", async () => {
     const { actor: admin } = await createTestUser({ role: "admin" });
     const { actor: existing } = await createTestUser({ role: "engineer" });
-    const before = await countRows();
-    await expect(inviteUser({ actor: admin, email: existing.email, name: "Again", role: "engineer" })).rejects.toMatchObject({
-      code: "conflict",
-      fieldErrors: { email: ["This e-mail address already has an account."] },
-    });
-    expect(await countRows()).toEqual(before);
+    await expectNoChangeFrom(() =>
+      expect(inviteUser({ actor: admin, email: existing.email, name: "Again", role: "engineer" })).rejects.toMatchObject({
+        code: "conflict",
+        fieldErrors: { email: ["This e-mail address already has an account."] },
+      }),
+    );
   });
 
-  it("refuses anyone but an admin to invite or revoke", async () => {
-    for (const role of ["lead", "engineer", "auditor"] as const) {
-      const { actor } = await createTestUser({ role });
-      await expect(inviteUser({ actor, email: uniqueEmail("x"), name: "X", role: "admin" })).rejects.toMatchObject({ code: "forbidden" });
+  it("refuses anyone but an admin to invite or revoke; the admin's revocation makes the link refuse", async () => {
+    const { token, invitation } = await inviteAndReadToken();
+    const refusals = [
+      ...(["lead", "engineer", "auditor"] as const).map((role) => ({ role, code: "forbidden", message: "Your role does not allow this." })),
+      { role: null, code: "unauthenticated", message: "Please sign in to continue." },
+    ];
+    for (const { role, code, message } of refusals) {
+      const actor = role ? (await createTestUser({ role })).actor : null;
+      await expectRefusal(() => inviteUser({ actor, email: uniqueEmail("x"), name: "X", role: "admin" }), code, message);
+      await expectRefusal(() => revokeInvitation({ actor, invitationId: invitation.id }), code, message);
     }
-    await expect(inviteUser({ actor: null, email: uniqueEmail("x"), name: "X", role: "admin" })).rejects.toMatchObject({
-      code: "unauthenticated",
-    });
+    expect(await getInvitationByToken({ token })).toMatchObject({ status: "valid" });
+
+    const { actor: admin } = await createTestUser({ role: "admin" });
+    expect(await revokeInvitation({ actor: admin, invitationId: invitation.id })).toEqual({ id: invitation.id, email: invitation.email });
+    const [row] = await db.select().from(schema.invitations).where(eq(schema.invitations.id, invitation.id));
+    expect(row.revokedAt).toBeInstanceOf(Date);
+    expect(row.acceptedAt).toBeNull();
+    const [event] = await auditEventsFor({ action: "invitations.revoke", subject: `invitation:${invitation.id}` });
+    expect(event).toMatchObject({ actorId: admin.id, details: { email: invitation.email, role: "engineer" } });
+
+    // The revoked link now refuses, says why, and creates no account.
+    expect(await getInvitationByToken({ token })).toMatchObject({ status: "revoked" });
+    await expectRefusal(() => acceptInvitation({ token, password: NEW_PASSWORD }), "conflict", INVITATION_MESSAGES.revoked);
+    expect(await db.select().from(schema.user).where(eq(schema.user.email, invitation.email))).toEqual([]);
   });
 
   it("answers a too-short or mismatched password on the public form with field messages and writes nothing", async () => {
-    const { token } = await inviteAndReadToken();
+    const { token, email } = await inviteAndReadToken();
     const accept = guardedAction({ schema: acceptInvitationSchema, permission: "public" }, (input) => acceptInvitation(input));
-    const before = await countRows();
-    const short = await accept(null, { token, password: "short", confirmPassword: "short" });
-    expect(short).toMatchObject({ ok: false, error: { code: "invalid-input", fieldErrors: { password: ["Use at least 10 characters."] } } });
-    const mismatch = await accept(null, { token, password: NEW_PASSWORD, confirmPassword: "something-else" });
-    expect(mismatch).toMatchObject({ ok: false, error: { fieldErrors: { confirmPassword: ["The two passwords differ."] } } });
-    expect(await countRows()).toEqual(before);
+    await expectNoChangeFrom(async () => {
+      const short = await accept(null, { token, password: "short", confirmPassword: "short" });
+      expect(short).toMatchObject({ ok: false, error: { code: "invalid-input", fieldErrors: { password: ["Use at least 10 characters."] } } });
+      const mismatch = await accept(null, { token, password: NEW_PASSWORD, confirmPassword: "something-else" });
+      expect(mismatch).toMatchObject({ ok: false, error: { fieldErrors: { confirmPassword: ["The two passwords differ."] } } });
+    });
     expect(await getInvitationByToken({ token })).toMatchObject({ status: "valid" });
 
     const good = await accept(null, { token, password: NEW_PASSWORD, confirmPassword: NEW_PASSWORD });
-    expect(good).toMatchObject({ ok: true });
+    expect(good).toMatchObject({ ok: true, data: { email } });
   });
 });

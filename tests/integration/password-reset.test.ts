@@ -3,23 +3,56 @@
 import { describe, expect, it } from "vitest";
 import { auth, handleAuthRequest } from "@/lib/auth/server";
 import { firstLink, listMessages, waitForMessage } from "../support/mailbox";
-import { auditEventsFor, countRows, createTestUser, sessionCount, signInHeaders, uniqueEmail, uniqueIp } from "./helpers/people";
+import { expectRowsUnchanged, snapshotRows, type ExpectedChange } from "../support/snapshot";
+import { auditEventsFor, createTestUser, sessionCount, signInHeaders, uniqueEmail, uniqueIp } from "./helpers/people";
 
 const BASE = (process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000").replace(/\/+$/, "");
+const RESET_SUBJECT = "Reset your Gusset password";
 
-async function requestReset(email: string) {
+async function requestReset(email: string, ip = uniqueIp()) {
   const response = await handleAuthRequest(
     new Request(`${BASE}/api/auth/request-password-reset`, {
       method: "POST",
-      headers: { "content-type": "application/json", origin: BASE, "x-forwarded-for": uniqueIp() },
+      headers: { "content-type": "application/json", origin: BASE, "x-forwarded-for": ip },
       body: JSON.stringify({ email }),
     }),
   );
   return { status: response.status, body: await response.json() };
 }
 
+// The writes a reset request makes whatever the address (lib/auth/server.ts, better-auth's limiter).
+function resetRequestAudited(email: string, knownUser: boolean): ExpectedChange {
+  return {
+    table: "audit_events",
+    change: "added",
+    why: "every reset request is audited, known address or not",
+    where: (row) =>
+      row.action === "auth.password-reset.requested" && row.actor_email === email && (row.details as { knownUser?: boolean }).knownUser === knownUser,
+  };
+}
+function resetRequestCounted(ip: string): ExpectedChange {
+  return {
+    table: "rate_limit",
+    change: "added",
+    why: "the request counts against better-auth's per-address limit for reset requests",
+    where: (row) => row.key === `${ip}|/request-password-reset`,
+  };
+}
+
+/**
+ * The messages that reached `email` by the time a later reset mail to someone else arrived. The app
+ * sends its mail before it answers, so anything the earlier request sent is in the mailbox by then:
+ * no fixed wait, and no race with a slow send.
+ */
+async function mailTo(email: string): Promise<unknown[]> {
+  const { actor: witness } = await createTestUser({ role: "engineer", label: "reset-witness" });
+  expect((await requestReset(witness.email)).status).toBe(200);
+  await waitForMessage({ to: witness.email, subjectIncludes: RESET_SUBJECT });
+  return (await listMessages()).filter((message) => message.to.includes(email));
+}
+
 async function resetTokenFor(email: string): Promise<string> {
-  const mail = await waitForMessage({ to: email, subjectIncludes: "Reset your Gusset password" });
+  const mail = await waitForMessage({ to: email, subjectIncludes: RESET_SUBJECT });
   const link = new URL(firstLink(mail));
   expect(`${link.origin}${link.pathname}`).toBe(`${BASE}/reset-password`);
   const token = link.searchParams.get("token");
@@ -57,27 +90,56 @@ describe("password reset", () => {
     const { actor, password } = await createTestUser({ role: "lead" });
     await requestReset(actor.email);
     const token = await resetTokenFor(actor.email);
-    const before = await countRows();
+    const before = await snapshotRows();
     await expect(auth.api.resetPassword({ body: { token, newPassword: "short" } })).rejects.toMatchObject({
       body: { code: "PASSWORD_TOO_SHORT" },
     });
-    const after = await countRows();
-    expect({ ...after, audit_events: before.audit_events }).toEqual(before); // only the failed-reset event
+    // The password, the sessions and the token itself are as they were; only the refusal is audited.
+    await expectRowsUnchanged(before, {
+      except: [
+        {
+          table: "audit_events",
+          change: "added",
+          why: "a refused reset is audited (lib/auth/server.ts)",
+          where: (row) => row.action === "auth.password-reset.failed" && (row.details as { reason?: string }).reason === "PASSWORD_TOO_SHORT",
+        },
+      ],
+    });
     expect((await auth.api.signInEmail({ body: { email: actor.email, password } })).user.id).toBe(actor.id);
   });
 
   it("answers an unknown address the same way and sends nothing", async () => {
+    const { actor: known } = await createTestUser({ role: "engineer" });
+    const knownAnswer = await requestReset(known.email);
     const email = uniqueEmail("nobody");
-    const asked = await requestReset(email);
+    const ip = uniqueIp();
+    const before = await snapshotRows();
+    const asked = await requestReset(email, ip);
+    expect(asked).toEqual(knownAnswer);
     expect(asked.status).toBe(200);
-    await new Promise((resolve) => setTimeout(resolve, 300));
-    expect((await listMessages()).some((m) => m.to.includes(email))).toBe(false);
+    await expectRowsUnchanged(before, { except: [resetRequestAudited(email, false), resetRequestCounted(ip)] });
+    expect(await mailTo(email)).toEqual([]);
   });
 
   it("sends no reset link to a deactivated account", async () => {
     const { actor } = await createTestUser({ role: "engineer", deactivated: true });
-    expect((await requestReset(actor.email)).status).toBe(200);
-    await new Promise((resolve) => setTimeout(resolve, 300));
-    expect((await listMessages()).some((m) => m.to.includes(actor.email))).toBe(false);
+    const ip = uniqueIp();
+    const before = await snapshotRows();
+    expect((await requestReset(actor.email, ip)).status).toBe(200);
+    await expectRowsUnchanged(before, {
+      except: [
+        resetRequestAudited(actor.email, true),
+        resetRequestCounted(ip),
+        {
+          table: "verification",
+          change: "added",
+          // better-auth stores the token before it calls sendResetPassword, which then declines to
+          // send it (lib/auth/server.ts): the token exists but nobody ever receives it.
+          why: "better-auth stores the reset token before our sender declines to mail it",
+          where: (row) => String(row.identifier).startsWith("reset-password:") && row.value === actor.id,
+        },
+      ],
+    });
+    expect(await mailTo(actor.email)).toEqual([]);
   });
 });

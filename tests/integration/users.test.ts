@@ -8,11 +8,22 @@ import { ACCOUNT_DEACTIVATED_MESSAGE, auth, handleAuthRequest } from "@/lib/auth
 import { getActorFromHeaders } from "@/lib/auth/session";
 import { runInTransaction } from "@/lib/data/transaction";
 import { deactivateUser, listUsers, reactivateUser, setUserRole } from "@/lib/data/users";
-import { auditEventsFor, createTestUser, sessionCount, signInHeaders } from "./helpers/people";
+import { expectNoChangeFrom, type ExpectedChange } from "../support/snapshot";
+import { auditEventsFor, createTestUser, sessionCount, signInHeaders, uniqueIp } from "./helpers/people";
 
 const BASE = (process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000").replace(/\/+$/, "");
 
 class Rollback extends Error {}
+
+/** The one write a refused sign-in of a deactivated account makes: its audit event. */
+function deactivatedSignInAudited(email: string): ExpectedChange {
+  return {
+    table: "audit_events",
+    change: "added",
+    why: "a refused sign-in is audited (lib/auth/server.ts)",
+    where: (row) => row.action === "auth.sign-in.failed" && row.actor_email === email && (row.details as { reason?: string }).reason === "ACCOUNT_DEACTIVATED",
+  };
+}
 
 /** Runs `work` in a transaction that is always rolled back, so a test can shape the whole user table. */
 async function withRollback(work: (tx: Parameters<Parameters<typeof runInTransaction>[0]>[0]) => Promise<void>) {
@@ -37,21 +48,36 @@ describe("deactivation", () => {
     expect(await getActorFromHeaders(headers)).toBeNull();
     expect(await auth.api.getSession({ headers })).toBeNull();
 
-    await expect(auth.api.signInEmail({ body: { email: actor.email, password } })).rejects.toMatchObject({
-      body: { code: "ACCOUNT_DEACTIVATED", message: ACCOUNT_DEACTIVATED_MESSAGE },
-    });
+    await expectNoChangeFrom(
+      () =>
+        expect(auth.api.signInEmail({ body: { email: actor.email, password } })).rejects.toMatchObject({
+          body: { code: "ACCOUNT_DEACTIVATED", message: ACCOUNT_DEACTIVATED_MESSAGE },
+        }),
+      { except: [deactivatedSignInAudited(actor.email)] },
+    );
     expect(await sessionCount(actor.id)).toBe(0);
     const failed = await auditEventsFor({ action: "auth.sign-in.failed", actorEmail: actor.email });
     expect(failed.map((e) => e.details.reason)).toEqual(["ACCOUNT_DEACTIVATED"]);
     expect(await auditEventsFor({ action: "users.deactivate", subject: `user:${actor.id}` })).toHaveLength(1);
 
-    // Through the HTTP endpoint the browser uses, too.
-    const response = await handleAuthRequest(
-      new Request(`${BASE}/api/auth/sign-in/email`, {
-        method: "POST",
-        headers: { "content-type": "application/json", origin: BASE, "x-forwarded-for": "203.0.113.77" },
-        body: JSON.stringify({ email: actor.email, password }),
-      }),
+    // Through the HTTP endpoint the browser uses, too; the attempt also counts against both limits.
+    const ip = uniqueIp();
+    const response = await expectNoChangeFrom(
+      () =>
+        handleAuthRequest(
+          new Request(`${BASE}/api/auth/sign-in/email`, {
+            method: "POST",
+            headers: { "content-type": "application/json", origin: BASE, "x-forwarded-for": ip },
+            body: JSON.stringify({ email: actor.email, password }),
+          }),
+        ),
+      {
+        except: [
+          deactivatedSignInAudited(actor.email),
+          { table: "rate_limit", change: "added or changed", why: "per-account-and-address sign-in limit", where: (row) => row.key === `gusset:sign-in|${ip}|${actor.email}` },
+          { table: "rate_limit", change: "added or changed", why: "better-auth's per-address limit", where: (row) => row.key === `${ip}|/sign-in/email` },
+        ],
+      },
     );
     expect(response.status).toBe(403);
     expect((await response.json()).message).toBe(ACCOUNT_DEACTIVATED_MESSAGE);
@@ -72,16 +98,22 @@ describe("deactivation", () => {
     const { actor, password } = await createTestUser({ role: "auditor", deactivated: true });
     await expect(reactivateUser({ actor: admin, userId: actor.id })).resolves.toMatchObject({ status: "active" });
     expect((await auth.api.signInEmail({ body: { email: actor.email, password } })).user.id).toBe(actor.id);
-    await expect(reactivateUser({ actor: admin, userId: actor.id })).rejects.toMatchObject({ code: "conflict" });
+    await expectNoChangeFrom(() =>
+      expect(reactivateUser({ actor: admin, userId: actor.id })).rejects.toMatchObject({ code: "conflict", message: `${actor.name} is already active.` }),
+    );
   });
 
   it("only an admin may deactivate", async () => {
-    const { actor: target } = await createTestUser({ role: "engineer" });
-    for (const role of ["lead", "engineer", "auditor"] as const) {
-      const { actor } = await createTestUser({ role });
-      await expect(deactivateUser({ actor, userId: target.id })).rejects.toMatchObject({ code: "forbidden" });
+    const { actor: target, password } = await createTestUser({ role: "engineer" });
+    await signInHeaders(target.email, password);
+    for (const role of ["lead", "engineer", "auditor", null] as const) {
+      const actor = role ? (await createTestUser({ role })).actor : null;
+      const code = role ? "forbidden" : "unauthenticated";
+      await expectNoChangeFrom(() => expect(deactivateUser({ actor, userId: target.id })).rejects.toMatchObject({ code }));
+      await expectNoChangeFrom(() => expect(reactivateUser({ actor, userId: target.id })).rejects.toMatchObject({ code }));
     }
-    expect(await sessionCount(target.id)).toBe(0);
+    // The target's open session survived every refusal.
+    expect(await sessionCount(target.id)).toBe(1);
   });
 });
 
@@ -98,14 +130,21 @@ describe("roles", () => {
     const { actor: target } = await createTestUser({ role: "engineer" });
     for (const role of ["lead", "engineer", "auditor"] as const) {
       const { actor } = await createTestUser({ role });
-      await expect(setUserRole({ actor, userId: target.id, role: "admin" })).rejects.toMatchObject({ code: "forbidden" });
+      await expectNoChangeFrom(() => expect(setUserRole({ actor, userId: target.id, role: "admin" })).rejects.toMatchObject({ code: "forbidden" }));
     }
-    await expect(setUserRole({ actor: null, userId: target.id, role: "admin" })).rejects.toMatchObject({ code: "unauthenticated" });
+    await expectNoChangeFrom(() =>
+      expect(setUserRole({ actor: null, userId: target.id, role: "admin" })).rejects.toMatchObject({ code: "unauthenticated" }),
+    );
   });
 
   it("answers an unknown person with not-found", async () => {
     const { actor: admin } = await createTestUser({ role: "admin" });
-    await expect(setUserRole({ actor: admin, userId: "no-such-user", role: "lead" })).rejects.toMatchObject({ code: "not-found" });
+    await expectNoChangeFrom(() =>
+      expect(setUserRole({ actor: admin, userId: "no-such-user", role: "lead" })).rejects.toMatchObject({
+        code: "not-found",
+        message: "That person no longer exists.",
+      }),
+    );
   });
 
   it("lists people as small records without secrets", async () => {

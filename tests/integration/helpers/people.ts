@@ -9,6 +9,8 @@ import * as schema from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
 import type { Role } from "@/lib/auth/roles";
 import { auth } from "@/lib/auth/server";
+import { inviteUser } from "@/lib/data/users";
+import { firstLink, waitForMessage } from "../../support/mailbox";
 
 export const TEST_PASSWORD = "correct-horse-battery-staple";
 
@@ -64,21 +66,14 @@ export async function signInHeaders(email: string, password: string): Promise<He
   return new Headers({ cookie });
 }
 
-/** Row counts of the tables a change could touch, to prove that a refused change wrote nothing. */
-export async function countRows(): Promise<Record<string, number>> {
-  const tables = {
-    user: schema.user,
-    account: schema.account,
-    session: schema.session,
-    invitations: schema.invitations,
-    audit_events: schema.auditEvents,
-  };
-  const result: Record<string, number> = {};
-  for (const [name, table] of Object.entries(tables)) {
-    const [{ n }] = await db.select({ n: count() }).from(table);
-    result[name] = n;
-  }
-  return result;
+/** An open invitation sent by a new admin, and the token its e-mail carries (only its hash is stored). */
+export async function inviteWithToken(role: Role = "engineer") {
+  const { actor: admin } = await createTestUser({ role: "admin" });
+  const email = uniqueEmail("invitee");
+  const invitation = await inviteUser({ actor: admin, email, name: "Dana Example", role });
+  const mail = await waitForMessage({ to: email, subjectIncludes: "invited" });
+  const link = firstLink(mail);
+  return { admin, email, invitation, link, token: link.split("/invite/")[1], mail };
 }
 
 export async function auditEventsFor({ action, subject, actorEmail }: { action: string; subject?: string; actorEmail?: string }) {

@@ -1,0 +1,104 @@
+// For each server action, a valid input made fresh for one call and the proof that a call the matrix
+// allows did its work: the answer and the rows it changed. Both access matrices use them (in-process
+// and over HTTP); each keeps its own hand-written table of who may call what.
+import { expect } from "vitest";
+import { eq } from "drizzle-orm";
+import { db } from "@/db";
+import * as schema from "@/db/schema";
+import { auditEventsFor, createTestUser, inviteWithToken, sessionCount, signInHeaders, uniqueEmail } from "./people";
+
+/** What calling a server action came to: its ActionState, or the redirect it answered with. */
+export type ActionAnswer =
+  | { state: { ok: true; data: unknown } | { ok: false; error: { code: string; message: string; fieldErrors?: Record<string, string[]> } } | null }
+  | { redirect: string };
+
+export type ActionFixture = { input: Record<string, unknown>; succeeded: (answer: ActionAnswer) => Promise<void> };
+
+async function userRow(id: string) {
+  const [row] = await db.select().from(schema.user).where(eq(schema.user.id, id));
+  return row;
+}
+
+async function invitationRow(id: string) {
+  const [row] = await db.select().from(schema.invitations).where(eq(schema.invitations.id, id));
+  return row;
+}
+
+/** Keyed "<file>#<export>" exactly as the build's server-reference manifest names the action. */
+export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
+  "app/(app)/admin/users/actions.ts#inviteUserAction": async () => {
+    const email = uniqueEmail("matrix");
+    return {
+      input: { email, name: "Matrix Person", role: "engineer" },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({
+          state: {
+            ok: true,
+            data: { id: expect.any(String), email, name: "Matrix Person", role: "engineer", expiresAt: expect.any(String), createdAt: expect.any(String) },
+          },
+        });
+        const [row] = await db.select().from(schema.invitations).where(eq(schema.invitations.email, email));
+        expect(row).toMatchObject({ name: "Matrix Person", role: "engineer", acceptedAt: null, revokedAt: null });
+        expect(await auditEventsFor({ action: "users.invite", subject: `invitation:${row.id}` })).toHaveLength(1);
+      },
+    };
+  },
+  "app/(app)/admin/users/actions.ts#setUserRoleAction": async () => {
+    const { actor: target } = await createTestUser({ role: "engineer" });
+    return {
+      input: { userId: target.id, role: "lead" },
+      succeeded: async (answer) => {
+        expect(answer).toMatchObject({ state: { ok: true, data: { id: target.id, email: target.email, role: "lead", status: "active" } } });
+        expect((await userRow(target.id)).role).toBe("lead");
+        const [event] = await auditEventsFor({ action: "users.set-role", subject: `user:${target.id}` });
+        expect(event.details).toEqual({ email: target.email, from: "engineer", to: "lead" });
+      },
+    };
+  },
+  "app/(app)/admin/users/actions.ts#deactivateUserAction": async () => {
+    const { actor: target, password } = await createTestUser({ role: "engineer" });
+    await signInHeaders(target.email, password);
+    return {
+      input: { userId: target.id },
+      succeeded: async (answer) => {
+        expect(answer).toMatchObject({ state: { ok: true, data: { id: target.id, status: "deactivated" } } });
+        expect((await userRow(target.id)).deactivatedAt).toBeInstanceOf(Date);
+        expect(await sessionCount(target.id)).toBe(0); // the open session ended with it
+      },
+    };
+  },
+  "app/(app)/admin/users/actions.ts#reactivateUserAction": async () => {
+    const { actor: target } = await createTestUser({ role: "engineer", deactivated: true });
+    return {
+      input: { userId: target.id },
+      succeeded: async (answer) => {
+        expect(answer).toMatchObject({ state: { ok: true, data: { id: target.id, status: "active", deactivatedAt: null } } });
+        expect((await userRow(target.id)).deactivatedAt).toBeNull();
+      },
+    };
+  },
+  "app/(app)/admin/users/actions.ts#revokeInvitationAction": async () => {
+    const { invitation } = await inviteWithToken("auditor");
+    return {
+      input: { invitationId: invitation.id },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({ state: { ok: true, data: { id: invitation.id, email: invitation.email } } });
+        expect((await invitationRow(invitation.id)).revokedAt).toBeInstanceOf(Date);
+      },
+    };
+  },
+  // A real link: the account is made, the person signed in and sent home.
+  "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": async () => {
+    const { invitation, token } = await inviteWithToken("lead");
+    return {
+      input: { token, password: "long-enough-pass", confirmPassword: "long-enough-pass" },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({ redirect: "/home" });
+        const [created] = await db.select().from(schema.user).where(eq(schema.user.email, invitation.email));
+        expect(created).toMatchObject({ name: invitation.name, role: "lead", deactivatedAt: null });
+        expect((await invitationRow(invitation.id)).acceptedAt).toBeInstanceOf(Date);
+        expect(await sessionCount(created.id)).toBe(1);
+      },
+    };
+  },
+};

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { getActor } from "@/lib/auth/session";
-import { ROLE_LABELS } from "@/lib/auth/roles";
+import { ROLE_LABELS } from "@/lib/domain/roles";
 import { StatusPage } from "@/components/status-page";
 
 export const metadata: Metadata = { title: "Not available to your role" };

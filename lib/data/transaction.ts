@@ -1,12 +1,11 @@
 import "server-only";
-// One transaction per guarded request. The guard opens it; data functions pick it up through
-// currentDb() and their own runInTransaction() calls nest as savepoints, so the change and its audit
-// event commit together or not at all. Work that must see the committed rows (signing in a user who
-// was just created, through better-auth's own connection) is queued with runAfterCommit().
+// One transaction per use case. The runner (lib/use-cases/run.ts) opens it and hands it to the work;
+// queries below pick it up through currentDb() too, and nested runInTransaction() calls become
+// savepoints, so a change, its audit event and its queued jobs commit together or not at all.
 import { AsyncLocalStorage } from "node:async_hooks";
 import { db } from "@/db";
 
-type Transaction = Parameters<Parameters<typeof db.transaction>[0]>[0];
+export type Transaction = Parameters<Parameters<typeof db.transaction>[0]>[0];
 export type Executor = typeof db | Transaction;
 type AfterCommitTask = () => Promise<unknown>;
 type Scope = { tx: Transaction; afterCommit: AfterCommitTask[] };

@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import { requirePageActor } from "@/lib/auth/session";
-import { ROLE_LABELS, ROLE_SUMMARIES, type Role } from "@/lib/auth/roles";
-import { getHomeSummary, type HomeSummary } from "@/lib/data/home";
-import { isMailboxEnabled } from "@/lib/data/mailbox";
+import { ROLE_LABELS, ROLE_SUMMARIES, type Role } from "@/lib/domain/roles";
+import { runUseCase } from "@/lib/use-cases/run";
+import { readHome, type HomeSummary } from "@/lib/use-cases/reads";
 import { HomeCard } from "./_components/home-card";
 import { RecentAuditEvents, RecentProjects } from "./_components/recent-lists";
 
@@ -10,7 +10,8 @@ export const metadata: Metadata = { title: "Home" };
 
 export default async function HomePage() {
   const actor = await requirePageActor(undefined, { next: "/home" });
-  const [summary, mailbox] = await Promise.all([getHomeSummary({ actor }), isMailboxEnabled()]);
+  const summary = await runUseCase(readHome, { actor, input: {} });
+  const mailbox = summary.mailboxEnabled;
   const firstName = actor.name.split(" ")[0];
 
   return (

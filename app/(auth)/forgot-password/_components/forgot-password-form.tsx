@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { authClient, describeAuthError } from "@/lib/auth/client";
-import { requestPasswordResetSchema, type RequestPasswordResetInput } from "@/lib/data/auth-schemas";
+import { requestPasswordResetSchema, type RequestPasswordResetInput } from "@/lib/domain/schemas/auth";
 import { Button } from "@/components/ui/button";
 import { EmailField } from "@/components/ui/field";
 import { FormError, Notice } from "@/components/ui/notice";

@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
-import { ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/auth/roles";
-import { getInvitationByToken, INVITATION_MESSAGES } from "@/lib/data/invitations";
+import { ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/domain/roles";
+import { INVITATION_MESSAGES } from "@/lib/domain/schemas/invitations";
+import { runUseCase } from "@/lib/use-cases/run";
+import { lookupInvitation } from "@/lib/use-cases/invitations";
 import { Notice } from "@/components/ui/notice";
 import { TextLink } from "@/components/ui/text-link";
 import { AcceptInvitationForm } from "./_components/accept-invitation-form";
@@ -9,7 +11,7 @@ export const metadata: Metadata = { title: "Accept your invitation" };
 
 export default async function InvitationPage({ params }: PageProps<"/invite/[token]">) {
   const { token } = await params;
-  const invitation = await getInvitationByToken({ token });
+  const invitation = await runUseCase(lookupInvitation, { actor: null, input: { token } });
 
   if (!invitation || invitation.status !== "valid") {
     const status = invitation?.status ?? "unknown";

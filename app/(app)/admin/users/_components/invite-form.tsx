@@ -3,8 +3,8 @@
 import { startTransition, useActionState, useEffect } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { ROLES, ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/auth/roles";
-import { inviteUserSchema, type InviteUserInput } from "@/lib/data/user-schemas";
+import { ROLES, ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/domain/roles";
+import { inviteUserSchema, type InviteUserInput } from "@/lib/domain/schemas/users";
 import { Button } from "@/components/ui/button";
 import { EmailField, SelectField, TextField } from "@/components/ui/field";
 import { FormError, Notice } from "@/components/ui/notice";

@@ -1,8 +1,8 @@
 "use client";
 
 import { startTransition, useActionState } from "react";
-import { ROLE_LABELS } from "@/lib/auth/roles";
-import type { InvitationDto } from "@/lib/data/users";
+import { ROLE_LABELS } from "@/lib/domain/roles";
+import type { InvitationDto } from "@/lib/data/invitations";
 import { Button } from "@/components/ui/button";
 import { formatDate } from "@/components/format-date";
 import { revokeInvitationAction } from "../actions";

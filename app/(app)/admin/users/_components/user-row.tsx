@@ -1,8 +1,8 @@
 "use client";
 
 import { startTransition, useActionState, useEffect, useState } from "react";
-import { ROLES, ROLE_LABELS, type Role } from "@/lib/auth/roles";
-import type { ActionState } from "@/lib/auth/guard";
+import { ROLES, ROLE_LABELS, type Role } from "@/lib/domain/roles";
+import type { ActionState } from "@/lib/domain/action-state";
 import type { UserDto } from "@/lib/data/users";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";

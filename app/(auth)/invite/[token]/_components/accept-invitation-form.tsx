@@ -3,7 +3,7 @@
 import { startTransition, useActionState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { acceptInvitationSchema, type AcceptInvitationInput } from "@/lib/data/invitation-schemas";
+import { acceptInvitationSchema, type AcceptInvitationInput } from "@/lib/domain/schemas/invitations";
 import { Button } from "@/components/ui/button";
 import { FormError } from "@/components/ui/notice";
 import { NewPasswordFields } from "@/components/new-password-fields";

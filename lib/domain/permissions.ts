@@ -60,3 +60,6 @@ export function can(role: Role | null | undefined, action: Action): boolean {
   if (!role) return false;
   return ROLE_PERMISSIONS[role].includes(action);
 }
+
+/** What a use case requires: an action from the table, "signed-in" for any active role, or "public" for anyone. */
+export type Permission = Action | "signed-in" | "public";

@@ -1,20 +1,72 @@
-// ESLint, run directly (`npm run lint`; Next 16 has no `next lint`). Besides the recommended sets, two
-// import rules hold the architecture in place (DEVELOPERS.md, "Layout"):
-//   1. only the data-access layer (lib/data/**), the auth library's adapter (lib/auth/server.ts), db/,
-//      scripts and tests may import the database handle;
-//   2. lib/engine/** is pure TypeScript: nothing from React, Next, the database, auth or Node I/O.
+// ESLint, run directly (`npm run lint`; Next 16 has no `next lint`): the recommended sets, React's hooks
+// rules, Next's own rules, Prettier's formatting (as a lint error, so CI keeps lines readable), and the
+// layer table of DEVELOPERS.md ("Layout"): each folder may import only the folders below it. The table is
+// LAYERS here; tests/unit/lint-rules.test.ts checks it on snippets and lints the whole tree.
 import { defineConfig } from "eslint/config";
 import js from "@eslint/js";
 import tseslint from "typescript-eslint";
+import reactHooks from "eslint-plugin-react-hooks";
+import nextPlugin from "@next/eslint-plugin-next";
+import prettierRecommended from "eslint-plugin-prettier/recommended";
 
-const DB_HANDLE_MESSAGE =
-  "Only lib/data/** (and lib/auth/server.ts) may use the database handle: call a data-access function instead.";
+/** Our own top-level modules, as imported through the `@/` alias. */
+const MODULES = [
+  "app",
+  "components",
+  "lib/use-cases",
+  "lib/auth",
+  "lib/jobs",
+  "lib/data",
+  "lib/mail",
+  "lib/storage",
+  "lib/engine",
+  "lib/server-env",
+  "lib/domain",
+  "db",
+  "scripts",
+  "tests",
+];
 
-/** `@/db`, `@/db/index` and relative paths to db/ or db/index; `@/db/schema` (types, tables) stays open. */
-const dbHandlePattern = {
-  regex: "^(@/db(/index)?|(\\.{1,2}/)+(\\.\\./)*db(/index)?)(\\.ts)?$",
-  message: DB_HANDLE_MESSAGE,
+/**
+ * Who may import whom (besides itself and npm packages). `db` means the schema and helpers that take an
+ * executor; the database handle itself (`@/db`, `@/db/index`) is only for lib/data, lib/jobs and the
+ * auth adapter. `type` entries may be imported for types only (DTOs shown by pages).
+ */
+export const LAYERS = {
+  "lib/domain": { may: [] },
+  "lib/server-env": { may: [] },
+  "lib/engine": { may: [] },
+  db: { may: ["lib/domain", "lib/server-env"] },
+  "lib/mail": { may: ["lib/domain", "lib/server-env"] },
+  "lib/storage": { may: ["lib/domain", "lib/server-env"] },
+  "lib/data": { may: ["db", "lib/domain", "lib/server-env"], handle: true },
+  "lib/jobs": { may: ["db", "lib/data", "lib/mail", "lib/domain", "lib/server-env"], handle: true },
+  "lib/auth": { may: ["db", "lib/data", "lib/jobs", "lib/mail", "lib/domain", "lib/server-env"] },
+  "lib/use-cases": {
+    may: ["db", "lib/auth", "lib/data", "lib/jobs", "lib/mail", "lib/storage", "lib/engine", "lib/domain", "lib/server-env"],
+  },
+  components: { may: ["components", "lib/domain", "lib/engine"], types: ["lib/data", "lib/use-cases"] },
+  app: { may: ["app", "components", "lib/use-cases", "lib/auth", "lib/domain", "lib/engine"], types: ["lib/data"] },
 };
+
+const LAYER_MESSAGE = "crosses the layer table (DEVELOPERS.md, Layout): call the layer meant for it instead.";
+const HANDLE_MESSAGE = "Only lib/data, lib/jobs and the auth adapter (lib/auth/server.ts) use the database handle.";
+
+/** `@/db` and `@/db/index` (the handle), by alias or relative path. */
+const dbHandlePattern = { regex: "^(@/db(/index)?|(\\.{1,2}/)+(\\.\\./)*db(/index)?)(\\.ts)?$", message: HANDLE_MESSAGE };
+
+function aliasPattern(module, options = {}) {
+  return { group: [`@/${module}`, `@/${module}/*`], message: `@/${module} ${LAYER_MESSAGE}`, ...options };
+}
+
+/** The no-restricted-imports patterns for a folder: every module it may not use, and relative climbs out of it. */
+function restrictionsFor(folder, { may, types = [], handle = false }) {
+  const own = [folder];
+  const patterns = MODULES.filter((m) => !may.includes(m) && !own.includes(m) && !types.includes(m)).map((m) => aliasPattern(m));
+  for (const m of types) patterns.push(aliasPattern(m, { allowTypeImports: true }));
+  if (!handle && folder !== "db") patterns.push(dbHandlePattern);
+  return patterns;
+}
 
 const ENGINE_MESSAGE = "lib/engine is pure TypeScript: no React, Next, database, auth or Node I/O (DEVELOPERS.md, Layout).";
 const engineForbiddenPaths = [
@@ -46,30 +98,56 @@ const engineForbiddenPaths = [
 ].map((name) => ({ name, message: ENGINE_MESSAGE }));
 const engineForbiddenPatterns = [
   {
-    group: [
-      "react/*",
-      "react-dom/*",
-      "next/*",
-      "@/db",
-      "@/db/*",
-      "drizzle-orm/*",
-      "better-auth/*",
-      "@better-auth/*",
-      "@/lib/data/*",
-      "@/lib/auth/*",
-      "@/lib/mail/*",
-      "@/lib/storage/*",
-      "@/app/*",
-      "@/components/*",
-      "**/db",
-      "**/db/*",
-    ],
+    group: ["react/*", "react-dom/*", "next/*", "drizzle-orm/*", "better-auth/*", "@better-auth/*", "**/db", "**/db/*"],
     message: ENGINE_MESSAGE,
   },
 ];
 
+/**
+ * Config blocks per layer; a file matches one (flat config: the last block that sets a rule wins, so each
+ * block carries the whole list). Under lib/ and db/, a relative import may not climb out of its folder:
+ * cross-layer imports use the alias, so the table sees them.
+ */
+function layerBlocks() {
+  const blocks = [];
+  const rule = (patterns, folder) =>
+    folder === "lib/engine" ? { paths: engineForbiddenPaths, patterns: [...patterns, ...engineForbiddenPatterns] } : { patterns };
+  const block = (files, patterns, folder) => ({
+    files,
+    rules: { "no-restricted-imports": "off", "@typescript-eslint/no-restricted-imports": ["error", rule(patterns, folder)] },
+  });
+  for (const [folder, layer] of Object.entries(LAYERS)) {
+    const patterns = restrictionsFor(folder, layer);
+    if (folder === "lib/server-env") {
+      blocks.push(block(["lib/server-env.ts"], patterns, folder));
+    } else if (folder === "app" || folder === "components") {
+      blocks.push(block([`${folder}/**/*.{ts,tsx,js,mjs}`], patterns, folder));
+    } else {
+      const climb = (depth) => ({ regex: `^(\\.\\./){${depth},}`, message: `a relative import out of ${folder}/: use @/…` });
+      blocks.push(block([`${folder}/*.{ts,tsx,js,mjs}`], [...patterns, climb(1)], folder));
+      blocks.push(block([`${folder}/*/**/*.{ts,tsx,js,mjs}`], [...patterns, climb(2)], folder));
+    }
+  }
+  // The auth library's adapter is the one file outside lib/data and lib/jobs that holds the handle.
+  blocks.push(
+    block(["lib/auth/server.ts"], restrictionsFor("lib/auth", { ...LAYERS["lib/auth"], handle: true }).concat(), "lib/auth"),
+  );
+  return blocks;
+}
+
 export default defineConfig(
-  { ignores: [".next/**", "node_modules/**", "drizzle/**", ".gusset/**", "next-env.d.ts", "test-results/**"] },
+  {
+    ignores: [
+      ".next/**",
+      "node_modules/**",
+      "drizzle/**",
+      ".gusset/**",
+      "next-env.d.ts",
+      "test-results/**",
+      ".stryker-tmp/**",
+      "reports/**",
+    ],
+  },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
@@ -99,16 +177,15 @@ export default defineConfig(
     },
   },
   {
-    files: ["**/*.{ts,tsx,js,mjs,cjs}"],
-    ignores: ["lib/data/**", "lib/auth/server.ts", "db/**", "scripts/**", "tests/**", "lib/engine/**"],
-    rules: { "no-restricted-imports": ["error", { patterns: [dbHandlePattern] }] },
-  },
-  {
-    // Replaces the rule above for the engine (flat config: the last matching setting wins), so it
-    // repeats the database handle ban through `@/db` and `**/db`.
-    files: ["lib/engine/**/*.{ts,tsx,js,mjs}"],
+    files: ["app/**/*.{ts,tsx}", "components/**/*.{ts,tsx}"],
+    plugins: { "react-hooks": reactHooks, "@next/next": nextPlugin },
     rules: {
-      "no-restricted-imports": ["error", { paths: engineForbiddenPaths, patterns: engineForbiddenPatterns }],
+      ...reactHooks.configs.recommended.rules,
+      ...nextPlugin.configs.recommended.rules,
+      ...nextPlugin.configs["core-web-vitals"].rules,
     },
+    settings: { next: { rootDir: "." } },
   },
+  ...layerBlocks(),
+  prettierRecommended,
 );

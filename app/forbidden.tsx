@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { getActor } from "@/lib/auth/session";
-import { ROLE_LABELS } from "@/lib/auth/roles";
+import { ROLE_LABELS } from "@/lib/domain/roles";
 import { StatusPage } from "@/components/status-page";
 
 export const metadata: Metadata = { title: "Not available to your role" };
@@ -22,8 +22,8 @@ export default async function Forbidden() {
         Nothing was changed.
       </p>
       <p>
-        If your work needs it, ask your firm&apos;s Gusset admin to review your role. Roles decide what each person may
-        see and change, so that every record stays defensible.
+        If your work needs it, ask your firm&apos;s Gusset admin to review your role. Roles decide what each person may see and
+        change, so that every record stays defensible.
       </p>
     </StatusPage>
   );

@@ -1,7 +1,7 @@
-import type { ActionState } from "@/lib/auth/guard";
+import type { ActionState } from "@/lib/domain/action-state";
 
 // Where a server action's error goes on the page: beside a field when the server named one that the
-// form shows, otherwise above the form. Type-only import: nothing from the guard reaches the browser.
+// form shows, otherwise above the form.
 export function actionErrors<T>(state: ActionState<T>, fields: readonly string[]) {
   if (!state || state.ok) return { field: {} as Record<string, string | undefined>, form: null };
   const field: Record<string, string | undefined> = {};

@@ -1,7 +1,7 @@
 "use client";
 
 import type { UseFormRegister } from "react-hook-form";
-import { PASSWORD_MIN_LENGTH } from "@/lib/data/auth-schemas";
+import { PASSWORD_MIN_LENGTH } from "@/lib/domain/password-policy";
 import { TextField } from "@/components/ui/field";
 
 type PasswordPair = { password: string; confirmPassword: string };

@@ -1,6 +1,6 @@
 // The invented demo firm. Demo passwords only: printed by `npm start` and in the README.
 // The .example domain is reserved and can never deliver real mail.
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/domain/roles";
 
 export const DEMO_FIRM_NAME = "Marrowby Fenn Structural";
 

@@ -1,10 +1,8 @@
 // The demo firm: one user per role and two projects. Seeds only an empty database (no users), so it
-// never touches a firm's real data. Passwords are hashed with better-auth's own hasher (scrypt), the
-// one its sign-in verifies.
-import { generateId } from "better-auth";
-import { hashPassword } from "better-auth/crypto";
+// never touches a firm's real data. People are created the way an accepted invitation creates them.
 import { count } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
+import { createCredentialUser } from "./credentials";
 import { DEMO_FIRM_NAME, DEMO_PROJECTS, DEMO_USERS } from "./demo-users";
 import * as schema from "./schema";
 
@@ -18,33 +16,12 @@ export async function seedDemoFirm(database: NodePgDatabase<typeof schema>): Pro
     if (n > 0) return { seeded: false };
 
     await tx.insert(schema.firm).values({ name: DEMO_FIRM_NAME });
-    const now = new Date();
     const ids: Record<string, string> = {};
     for (const demo of DEMO_USERS) {
-      const id = generateId();
+      const { id } = await createCredentialUser(tx, { ...demo, emailVerified: true });
       ids[demo.role] = id;
-      await tx.insert(schema.user).values({
-        id,
-        name: demo.name,
-        email: demo.email.toLowerCase(),
-        emailVerified: true,
-        role: demo.role,
-        createdAt: now,
-        updatedAt: now,
-      });
-      await tx.insert(schema.account).values({
-        id: generateId(),
-        accountId: id,
-        providerId: "credential",
-        userId: id,
-        password: await hashPassword(demo.password),
-        createdAt: now,
-        updatedAt: now,
-      });
     }
-    await tx
-      .insert(schema.projects)
-      .values(DEMO_PROJECTS.map((p) => ({ ...p, createdById: ids.lead ?? ids.engineer ?? null })));
+    await tx.insert(schema.projects).values(DEMO_PROJECTS.map((p) => ({ ...p, createdById: ids.lead ?? ids.engineer ?? null })));
     await tx.insert(schema.auditEvents).values({
       action: "system.seed",
       details: { firm: DEMO_FIRM_NAME, users: DEMO_USERS.length, projects: DEMO_PROJECTS.length },

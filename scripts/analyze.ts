@@ -29,7 +29,13 @@ function main(argv: string[]): number {
   try {
     input = JSON.parse(readFileSync(file, "utf8"));
   } catch (e) {
-    console.log(JSON.stringify({ ok: false, errors: [{ kind: "unreadable-input", message: `${file}: ${(e as Error).message}` }] }, null, indent));
+    console.log(
+      JSON.stringify(
+        { ok: false, errors: [{ kind: "unreadable-input", message: `${file}: ${(e as Error).message}` }] },
+        null,
+        indent,
+      ),
+    );
     return 2;
   }
   const out = analyze(input);

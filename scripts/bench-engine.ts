@@ -25,7 +25,12 @@ export function regularFrame(storeys: number, bays: number): ModelInput {
   const nodes: ModelInput["nodes"] = [];
   for (let s = 0; s <= storeys; s++) {
     for (let b = 0; b <= bays; b++) {
-      nodes.push({ id: id(s, b), x: b * BAY, y: s * STOREY, ...(s === 0 ? { support: { ux: "fixed", uy: "fixed", rz: "fixed" } } : {}) });
+      nodes.push({
+        id: id(s, b),
+        x: b * BAY,
+        y: s * STOREY,
+        ...(s === 0 ? { support: { ux: "fixed", uy: "fixed", rz: "fixed" } } : {}),
+      });
     }
   }
   const members: NonNullable<ModelInput["members"]> = [];
@@ -39,7 +44,15 @@ export function regularFrame(storeys: number, bays: number): ModelInput {
     }
     lateral.push({ kind: "nodal", node: id(s, 0), fx: 10e3 });
   }
-  return { nodes, members, loadCases: [{ id: "G", loads: gravity }, { id: "W", loads: lateral }], combinations: [{ id: "ULS", factors: { G: 1.35, W: 1.5 } }] };
+  return {
+    nodes,
+    members,
+    loadCases: [
+      { id: "G", loads: gravity },
+      { id: "W", loads: lateral },
+    ],
+    combinations: [{ id: "ULS", factors: { G: 1.35, W: 1.5 } }],
+  };
 }
 
 const mb = (bytes: number) => `${(bytes / 2 ** 20).toFixed(0)} MB`;
@@ -75,11 +88,23 @@ function once(model: ModelInput, storeys: number, bays: number) {
   const mem = process.memoryUsage();
   peakRss = Math.max(peakRss, mem.rss);
   if (!out.ok) throw new Error(JSON.stringify(out.errors.slice(0, 3)));
-  return { storeys, bays, stats: out.result.stats, timings: out.timings, total, cpuMs: (cpu.user + cpu.system) / 1000, rss: mem.rss, heap: mem.heapUsed, residual: out.result.loadCases.G.relativeResidual };
+  return {
+    storeys,
+    bays,
+    stats: out.result.stats,
+    timings: out.timings,
+    total,
+    cpuMs: (cpu.user + cpu.system) / 1000,
+    rss: mem.rss,
+    heap: mem.heapUsed,
+    residual: out.result.loadCases.G.relativeResidual,
+  };
 }
 
 function header() {
-  console.log("size      members     DOF   nnz(L)  valid  assem  order symbol factor  solve recover  total  excl.valid  cpu   heap   residual");
+  console.log(
+    "size      members     DOF   nnz(L)  valid  assem  order symbol factor  solve recover  total  excl.valid  cpu   heap   residual",
+  );
 }
 
 function line(r: ReturnType<typeof run>) {
@@ -120,10 +145,12 @@ function denseComparison(storeys: number, bays: number) {
   const sparseMs = performance.now() - t1;
   let diff = 0;
   let scale = 0;
-  denseSolutions.forEach((x, c) => x.forEach((v, i) => {
-    diff = Math.max(diff, Math.abs(v - sparseSolutions[c][i]));
-    scale = Math.max(scale, Math.abs(v));
-  }));
+  denseSolutions.forEach((x, c) =>
+    x.forEach((v, i) => {
+      diff = Math.max(diff, Math.abs(v - sparseSolutions[c][i]));
+      scale = Math.max(scale, Math.abs(v));
+    }),
+  );
   console.log(
     `\nDense check at ${storeys}×${bays} (${n} equations, 2 load cases): mathjs lusolve ${denseMs.toFixed(0)} ms, ` +
       `sparse factor + solves ${sparseMs.toFixed(1)} ms: ${(denseMs / sparseMs).toFixed(0)}× faster; max difference ${(diff / scale).toExponential(1)} relative`,
@@ -132,12 +159,16 @@ function denseComparison(storeys: number, bays: number) {
 
 function main() {
   run(30, 30, 2); // warm-up: lets the JIT compile the hot loops before anything is timed
-  console.log(`Frame engine benchmark (node ${process.version}, ${cpus().length} CPUs, load average ${loadavg()[0].toFixed(1)}); best of 5, times in ms\n`);
+  console.log(
+    `Frame engine benchmark (node ${process.version}, ${cpus().length} CPUs, load average ${loadavg()[0].toFixed(1)}); best of 5, times in ms\n`,
+  );
   header();
   const sizes = [10, 50, 100].map((n) => run(n, n));
   for (const r of sizes) line(r);
   // The first run at a new size also grows the engine's reused buffers and may recompile hot loops.
-  console.log(`First of the 5 runs (buffers grown for the new size): ${sizes.map((r) => `${r.storeys}×${r.bays} ${r.firstMs.toFixed(0)} ms`).join(", ")}`);
+  console.log(
+    `First of the 5 runs (buffers grown for the new size): ${sizes.map((r) => `${r.storeys}×${r.bays} ${r.firstMs.toFixed(0)} ms`).join(", ")}`,
+  );
   console.log("\nStoreys sweep at 20 bays (time should grow about linearly with storeys)");
   header();
   const sweep = [25, 50, 100, 200].map((st) => run(st, 20));
@@ -147,7 +178,9 @@ function main() {
   console.log(`µs per equation, wall: ${perWall.join(", ")}; CPU: ${perCpu.join(", ")}`);
   denseComparison(10, 10);
   const mem = process.memoryUsage();
-  console.log(`\nPeak rss ${mb(peakRss)}; at the end rss ${mb(mem.rss)}, heap used ${mb(mem.heapUsed)}; load average now ${loadavg()[0].toFixed(1)}`);
+  console.log(
+    `\nPeak rss ${mb(peakRss)}; at the end rss ${mb(mem.rss)}, heap used ${mb(mem.heapUsed)}; load average now ${loadavg()[0].toFixed(1)}`,
+  );
 }
 
 // Runs when started as a script, not when bench-sparse.ts imports regularFrame (BENCH_NO_MAIN still skips it).

@@ -21,7 +21,9 @@ const repeats = 5;
 
 const fmt = (v: number): string => v.toFixed(1).padStart(8);
 console.log(
-  ["size", "method", "n", "nnz(A)", "nnz(L)", "order", "symbolic", "numeric", "solve", "fact.cpu", "resid"].map((s) => s.padStart(9)).join(""),
+  ["size", "method", "n", "nnz(A)", "nnz(L)", "order", "symbolic", "numeric", "solve", "fact.cpu", "resid"]
+    .map((s) => s.padStart(9))
+    .join(""),
 );
 for (const [storeys, bays] of sizes) {
   const frame = frameMatrix(storeys, bays);

@@ -68,11 +68,14 @@ function main(argv: string[]): number {
     return 0;
   }
   if (check) {
-    console.error(`${IDENTITY_FILE} is stale (the engine's source hashes to ${hash}): run npm run engine:identity and commit the file`);
+    console.error(
+      `${IDENTITY_FILE} is stale (the engine's source hashes to ${hash}): run npm run engine:identity and commit the file`,
+    );
     return 1;
   }
   console.log(`wrote ${IDENTITY_FILE}: sha256 ${hash} (commit it with the engine change)`);
   return 0;
 }
 
-if (process.argv[1] && import.meta.url === pathToFileURL(path.resolve(process.argv[1])).href) process.exitCode = main(process.argv.slice(2));
+if (process.argv[1] && import.meta.url === pathToFileURL(path.resolve(process.argv[1])).href)
+  process.exitCode = main(process.argv.slice(2));

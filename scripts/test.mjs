@@ -69,7 +69,8 @@ function countsLine(reportFile) {
   const report = JSON.parse(fs.readFileSync(reportFile, "utf8"));
   fs.rmSync(reportFile, { force: true });
   const failedFiles = (report.testResults ?? []).filter((f) => f.status === "failed" && f.assertionResults?.length === 0);
-  for (const file of failedFiles) say(`${path.relative(repoRoot, file.name)} failed before running its tests: ${file.message ?? ""}`);
+  for (const file of failedFiles)
+    say(`${path.relative(repoRoot, file.name)} failed before running its tests: ${file.message ?? ""}`);
   const skipped = (report.numPendingTests ?? 0) + (report.numTodoTests ?? 0);
   const failed = report.numFailedTests + failedFiles.length; // a file that cannot load counts as one failure
   return `vitest: ${report.numPassedTests} passed, ${failed} failed, ${skipped} skipped`;

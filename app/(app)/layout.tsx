@@ -1,9 +1,9 @@
 import Link from "next/link";
 import { getActor } from "@/lib/auth/session";
-import { can } from "@/lib/auth/permissions";
-import { ROLE_LABELS } from "@/lib/auth/roles";
-import { getFirmName } from "@/lib/data/firm";
-import { isMailboxEnabled } from "@/lib/data/mailbox";
+import { can } from "@/lib/domain/permissions";
+import { ROLE_LABELS } from "@/lib/domain/roles";
+import { runUseCase } from "@/lib/use-cases/run";
+import { readShell } from "@/lib/use-cases/reads";
 import { GussetMark } from "@/components/gusset-mark";
 import { NAV_ITEMS } from "./_components/nav-items";
 import { SideNav } from "./_components/side-nav";
@@ -16,7 +16,7 @@ import { UserMenu } from "./_components/user-menu";
 export default async function AppLayout({ children }: { children: React.ReactNode }) {
   const actor = await getActor();
   if (!actor) return children;
-  const [firmName, mailboxEnabled] = await Promise.all([getFirmName(), isMailboxEnabled()]);
+  const { firmName, mailboxEnabled } = await runUseCase(readShell, { actor, input: {} });
 
   const items = NAV_ITEMS.filter((item) => item.permission === null || can(actor.role, item.permission))
     .filter((item) => item.href !== "/admin/mailbox" || mailboxEnabled)

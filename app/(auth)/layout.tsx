@@ -52,7 +52,15 @@ function AuthPanel() {
         <g stroke="#b9dcd9" strokeOpacity="0.6" fill="none">
           <path d="M96 410 H280 M96 402 V418 M280 402 V418" />
         </g>
-        <text x="188" y="432" fill="#b9dcd9" fillOpacity="0.7" fontSize="11" textAnchor="middle" fontFamily="ui-monospace, monospace">
+        <text
+          x="188"
+          y="432"
+          fill="#b9dcd9"
+          fillOpacity="0.7"
+          fontSize="11"
+          textAnchor="middle"
+          fontFamily="ui-monospace, monospace"
+        >
           one standard, every job
         </text>
       </svg>

@@ -12,10 +12,7 @@ export function EmptyState({
   testId?: string;
 }) {
   return (
-    <section
-      data-testid={testId}
-      className="rounded-plate border border-dashed border-ink-300 bg-paper-raised/60 px-6 py-8"
-    >
+    <section data-testid={testId} className="rounded-plate border border-dashed border-ink-300 bg-paper-raised/60 px-6 py-8">
       <div className="flex items-start gap-4">
         <svg viewBox="0 0 24 24" aria-hidden className="mt-0.5 h-6 w-6 shrink-0 text-ink-300">
           {/* a blank sheet with a ruled margin: nothing recorded yet */}

@@ -28,7 +28,12 @@ function FieldShell({
       <label htmlFor={id} className="mb-1 block text-sm font-medium text-ink-700">
         {label}
       </label>
-      {render({ id, "aria-invalid": error ? true : undefined, "aria-describedby": describedBy, className: controlClasses(Boolean(error)) })}
+      {render({
+        id,
+        "aria-invalid": error ? true : undefined,
+        "aria-describedby": describedBy,
+        className: controlClasses(Boolean(error)),
+      })}
       {hint && !error ? (
         <p id={`${id}-hint`} className="mt-1 text-xs text-ink-500">
           {hint}
@@ -43,18 +48,19 @@ function FieldShell({
   );
 }
 
-export const TextField = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLInputElement> & FieldShellProps>(
-  function TextField({ label, error, hint, errorTestId, id, className, ...rest }, ref) {
-    const autoId = useId();
-    return (
-      <FieldShell
-        id={id ?? autoId}
-        {...{ label, error, hint, errorTestId, className }}
-        render={(aria) => <input {...rest} {...aria} ref={ref} />}
-      />
-    );
-  },
-);
+export const TextField = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLInputElement> & FieldShellProps>(function TextField(
+  { label, error, hint, errorTestId, id, className, ...rest },
+  ref,
+) {
+  const autoId = useId();
+  return (
+    <FieldShell
+      id={id ?? autoId}
+      {...{ label, error, hint, errorTestId, className }}
+      render={(aria) => <input {...rest} {...aria} ref={ref} />}
+    />
+  );
+});
 
 export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HTMLSelectElement> & FieldShellProps>(
   function SelectField({ label, error, hint, errorTestId, id, className, children, ...rest }, ref) {
@@ -74,19 +80,20 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HT
 );
 
 /** The e-mail input of the sign-in, password and invitation forms. */
-export const EmailField = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLInputElement> & { error?: string; label?: string; errorTestId?: string }>(
-  function EmailField({ label = "E-mail", ...rest }, ref) {
-    return (
-      <TextField
-        label={label}
-        type="email"
-        autoComplete="username"
-        inputMode="email"
-        data-testid="email"
-        errorTestId="email-error"
-        {...rest}
-        ref={ref}
-      />
-    );
-  },
-);
+export const EmailField = forwardRef<
+  HTMLInputElement,
+  InputHTMLAttributes<HTMLInputElement> & { error?: string; label?: string; errorTestId?: string }
+>(function EmailField({ label = "E-mail", ...rest }, ref) {
+  return (
+    <TextField
+      label={label}
+      type="email"
+      autoComplete="username"
+      inputMode="email"
+      data-testid="email"
+      errorTestId="email-error"
+      {...rest}
+      ref={ref}
+    />
+  );
+});

@@ -1,12 +1,4 @@
-export function PageHeader({
-  title,
-  lead,
-  actions,
-}: {
-  title: string;
-  lead?: React.ReactNode;
-  actions?: React.ReactNode;
-}) {
+export function PageHeader({ title, lead, actions }: { title: string; lead?: React.ReactNode; actions?: React.ReactNode }) {
   return (
     <header className="mb-8 flex flex-wrap items-end justify-between gap-4 border-b border-ink-200 pb-5">
       <div className="max-w-2xl">

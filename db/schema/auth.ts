@@ -13,7 +13,9 @@ export const user = pgTable(
     emailVerified: boolean("email_verified").notNull().default(false),
     image: text("image"),
     /** One of ROLES in lib/auth/roles.ts; checked in SQL by the migration's constraint. */
-    role: text("role", { enum: ["admin", "lead", "engineer", "auditor"] }).notNull().default("engineer"),
+    role: text("role", { enum: ["admin", "lead", "engineer", "auditor"] })
+      .notNull()
+      .default("engineer"),
     /** Set when an admin deactivates the account; a deactivated user cannot sign in. */
     deactivatedAt: timestamp("deactivated_at", { withTimezone: true }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),

@@ -1,10 +1,10 @@
 import "server-only";
 // The better-auth instance: e-mail + password only, sessions and rate-limit counters in PostgreSQL.
 // Nobody signs up: people join by invitation (lib/data/invitations.ts). The admin plugin is left out on
-// purpose: its endpoints would change roles and bans without our guard and audit trail.
+// purpose: its endpoints would change roles and bans without our use cases and audit trail.
 //
 // Its HTTP endpoints are mounted at /api/auth/* (app/api/auth/[...all]/route.ts). That is the one route
-// that does not go through lib/auth/guard.ts: it is the auth library's own endpoint set, protected by
+// that is not one of our use cases (lib/use-cases): it is the auth library's own endpoint set, protected by
 // better-auth itself (sign-up disabled, rate limits, origin check) plus the hooks below.
 import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
@@ -15,37 +15,36 @@ import { db } from "@/db";
 import { account, rateLimit, session, user, verification } from "@/db/schema";
 import { recordAuditEvent } from "@/lib/data/audit";
 import { consumeRateLimit } from "@/lib/data/rate-limit";
-import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "@/lib/data/auth-schemas";
-import { sendMail } from "@/lib/mail/send-mail";
+import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "@/lib/domain/password-policy";
 import { renderPasswordResetMail } from "@/lib/mail/templates";
+import { enqueueJob } from "@/lib/jobs/enqueue";
+import { serverEnv } from "@/lib/server-env";
 
 export const ACCOUNT_DEACTIVATED_CODE = "ACCOUNT_DEACTIVATED";
-export const ACCOUNT_DEACTIVATED_MESSAGE =
-  "This account has been deactivated. Ask your admin to reactivate it.";
+export const ACCOUNT_DEACTIVATED_MESSAGE = "This account has been deactivated. Ask your admin to reactivate it.";
 
 /**
  * Sign-in attempts per minute for one account from one client address (successful ones count too).
  * Checked in handleAuthRequest: better-auth keys its limits on the address alone, and a whole office
  * behind one NAT address would lock itself out at 9 a.m. GUSSET_SIGN_IN_RATE_LIMIT_MAX may change it.
  */
-export const SIGN_IN_RATE_LIMIT = { window: 60, max: Number(process.env.GUSSET_SIGN_IN_RATE_LIMIT_MAX) || 5 };
+export const SIGN_IN_RATE_LIMIT = { window: 60, max: serverEnv().GUSSET_SIGN_IN_RATE_LIMIT_MAX };
 /** All sign-in attempts from one client address per minute, whatever the account (better-auth's rule). */
 export const SIGN_IN_ADDRESS_RATE_LIMIT = { window: 60, max: 30 };
 export const PASSWORD_RESET_RATE_LIMIT = { window: 60, max: 3 };
 
-function readList(value: string | undefined): string[] {
-  return (value ?? "").split(",").map((item) => item.trim()).filter(Boolean);
-}
-
 function getBaseUrl(): string {
-  return process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000";
+  return serverEnv().BETTER_AUTH_URL;
 }
 
 /** 127.0.0.1 and localhost are the same machine to a person; accept both as origins for the demo. */
 function getTrustedOrigins(): string[] {
   const base = new URL(getBaseUrl());
   const origins = [base.origin];
-  for (const [from, to] of [["127.0.0.1", "localhost"], ["localhost", "127.0.0.1"]] as const) {
+  for (const [from, to] of [
+    ["127.0.0.1", "localhost"],
+    ["localhost", "127.0.0.1"],
+  ] as const) {
     if (base.hostname === from) origins.push(`${base.protocol}//${to}${base.port ? `:${base.port}` : ""}`);
   }
   return origins;
@@ -72,26 +71,24 @@ function readEmail(body: unknown): string | null {
 }
 
 /** An event about the account a request names by e-mail; `knownUser` says whether there is one. */
-async function auditForEmail(
-  action: string,
-  email: string | null,
-  details: Record<string, unknown>,
-  ipAddress: string | null,
-): Promise<void> {
+type EmailEvent =
+  | { action: "auth.sign-in.failed"; details: { reason: string } }
+  | { action: "auth.password-reset.requested"; details: { reason?: string } };
+
+async function auditForEmail(event: EmailEvent, email: string | null, ipAddress: string | null): Promise<void> {
   const known = email ? await findUserByEmail(email) : null;
-  await recordAuditEvent({
-    action,
-    actorId: known?.id ?? null,
-    actorEmail: email,
-    subject: known ? `user:${known.id}` : null,
-    details: { ...details, knownUser: Boolean(known) },
-    ipAddress,
-  });
+  const common = { actorId: known?.id ?? null, actorEmail: email, subject: known ? `user:${known.id}` : null, ipAddress };
+  const knownUser = Boolean(known);
+  await recordAuditEvent(
+    event.action === "auth.sign-in.failed"
+      ? { ...common, action: event.action, details: { ...event.details, knownUser } }
+      : { ...common, action: event.action, details: { ...event.details, knownUser } },
+  );
 }
 
 /** `reason` is better-auth's error code (INVALID_EMAIL_OR_PASSWORD, ACCOUNT_DEACTIVATED, …) or RATE_LIMITED. */
 async function auditFailedSignIn(email: string | null, reason: string, ipAddress: string | null): Promise<void> {
-  await auditForEmail("auth.sign-in.failed", email, { reason }, ipAddress);
+  await auditForEmail({ action: "auth.sign-in.failed", details: { reason } }, email, ipAddress);
 }
 
 /** Audit trail for sign-in attempts and password resets, read from what the endpoint returned. */
@@ -108,14 +105,15 @@ async function auditAuthEndpoint(ctx: HookContext): Promise<void> {
         actorId: signedIn?.id,
         actorEmail: signedIn?.email ?? email,
         subject: signedIn ? `user:${signedIn.id}` : null,
+        details: {},
         ipAddress,
       });
       return;
     }
     await auditFailedSignIn(email, (returned as APIError).body?.code ?? "UNKNOWN", ipAddress);
   } else if (ctx.path === "/request-password-reset") {
-    const details = failed ? { reason: (returned as APIError).body?.code } : {};
-    await auditForEmail("auth.password-reset.requested", readEmail(ctx.body), details, ipAddress);
+    const details = failed ? { reason: (returned as APIError).body?.code ?? "UNKNOWN" } : {};
+    await auditForEmail({ action: "auth.password-reset.requested", details }, readEmail(ctx.body), ipAddress);
   } else if (ctx.path === "/reset-password" && failed) {
     await recordAuditEvent({
       action: "auth.password-reset.failed",
@@ -128,7 +126,7 @@ async function auditAuthEndpoint(ctx: HookContext): Promise<void> {
 export const auth = betterAuth({
   appName: "Gusset",
   baseURL: getBaseUrl(),
-  secret: process.env.BETTER_AUTH_SECRET,
+  secret: serverEnv().BETTER_AUTH_SECRET,
   trustedOrigins: getTrustedOrigins(),
   // better-auth skips the origin check when NODE_ENV is "test"; Gusset checks it everywhere, so the
   // tests exercise what production does.
@@ -136,10 +134,10 @@ export const auth = betterAuth({
     disableOriginCheck: false,
     // Behind a load balancer, name its addresses (GUSSET_TRUSTED_PROXIES="10.0.0.0/8,…") so the rate
     // limit keys on the client's address rather than one shared bucket.
-    ipAddress: { trustedProxies: readList(process.env.GUSSET_TRUSTED_PROXIES) },
+    ipAddress: { trustedProxies: serverEnv().GUSSET_TRUSTED_PROXIES },
   },
   // Endpoints Gusset does not use are switched off: no self sign-up, and profile, e-mail and account
-  // changes go through our own guarded actions (audited) or do not exist yet.
+  // changes go through our own use cases (audited) or do not exist yet.
   disabledPaths: [
     "/sign-up/email",
     "/sign-in/social",
@@ -153,7 +151,7 @@ export const auth = betterAuth({
     "/verify-email",
   ],
   // Failed sign-ins are in the audit trail already; keep test output readable.
-  logger: { level: process.env.NODE_ENV === "test" ? "error" : "warn" },
+  logger: { level: serverEnv().NODE_ENV === "test" ? "error" : "warn" },
   database: drizzleAdapter(db, {
     provider: "pg",
     schema: { user, session, account, verification, rateLimit },
@@ -171,7 +169,8 @@ export const auth = betterAuth({
       if (!known || known.deactivatedAt) return; // a deactivated account gets no reset link
       // Our own page (app/(auth)/reset-password) takes the token, not better-auth's redirect endpoint.
       const url = `${getBaseUrl()}/reset-password?token=${encodeURIComponent(token)}`;
-      await sendMail(renderPasswordResetMail({ to: recipient.email, name: recipient.name, url }));
+      // Queued, not sent here: the worker sends it (with retries) outside this request.
+      await enqueueJob("mail.send", renderPasswordResetMail({ to: recipient.email, name: recipient.name, url }));
     },
     async onPasswordReset({ user: changed }) {
       await recordAuditEvent({
@@ -179,6 +178,7 @@ export const auth = betterAuth({
         actorId: changed.id,
         actorEmail: changed.email,
         subject: `user:${changed.id}`,
+        details: {},
       });
     },
   },
@@ -207,10 +207,7 @@ export const auth = betterAuth({
       create: {
         // Runs after the password was verified, so the message reveals nothing to a stranger.
         async before(newSession) {
-          const [row] = await db
-            .select({ deactivatedAt: user.deactivatedAt })
-            .from(user)
-            .where(eq(user.id, newSession.userId));
+          const [row] = await db.select({ deactivatedAt: user.deactivatedAt }).from(user).where(eq(user.id, newSession.userId));
           if (!row || row.deactivatedAt) {
             throw APIError.from("FORBIDDEN", { code: ACCOUNT_DEACTIVATED_CODE, message: ACCOUNT_DEACTIVATED_MESSAGE });
           }

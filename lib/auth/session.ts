@@ -4,12 +4,12 @@ import "server-only";
 import { headers } from "next/headers";
 import { cache } from "react";
 import { forbidden, redirect } from "next/navigation";
-import type { Actor } from "./actor";
-import { can, type Action } from "./permissions";
-import { isRole } from "./roles";
+import type { Actor } from "@/lib/domain/actor";
+import { can, type Action } from "@/lib/domain/permissions";
+import { isRole } from "@/lib/domain/roles";
 import { auth } from "./server";
 
-export type { Actor } from "./actor";
+export type { Actor } from "@/lib/domain/actor";
 
 /** The signed-in person for these request headers, or null (no session, expired, or deactivated). */
 export async function getActorFromHeaders(requestHeaders: Headers): Promise<Actor | null> {

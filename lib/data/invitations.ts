@@ -1,128 +1,110 @@
 import "server-only";
-// The invitation link: look it up, accept it (set a password, become a user, sign in), and the
-// admin's list of open invitations. Only the SHA-256 of a token is stored; the link carries the token.
-import { desc, eq, sql } from "drizzle-orm";
-import { generateId } from "better-auth";
-import { account, invitations, user } from "@/db/schema";
-import { assertCanOrThrow, type Actor } from "@/lib/auth/actor";
-import type { Role } from "@/lib/auth/roles";
-import { auth } from "@/lib/auth/server";
-import { AppError } from "@/lib/errors";
-import { recordAuditEvent } from "./audit";
-import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "./auth-schemas";
-import { currentDb, runAfterCommit, runInTransaction } from "./transaction";
-import { hashInvitationToken, pendingInvitationCondition, toInvitationDto, type InvitationDto } from "./users";
+// Invitations: rows, their status, the token's hash and link, and the admin's list of open ones. Only
+// the SHA-256 of a token is stored; the link carries the token. The use cases that create, accept and
+// revoke them are in lib/use-cases/invitations.ts.
+import { createHash, randomBytes } from "node:crypto";
+import { and, desc, eq, gt, isNull, sql } from "drizzle-orm";
+import { invitations } from "@/db/schema";
+import type { Role } from "@/lib/domain/roles";
+import type { InvitationStatus } from "@/lib/domain/schemas/invitations";
+import { appBaseUrl } from "@/lib/server-env";
+import { currentDb } from "./transaction";
 
-export type InvitationStatus = "valid" | "expired" | "used" | "revoked";
+export const INVITATION_LIFETIME_DAYS = 7;
+
+export type InvitationDto = {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  expiresAt: string;
+  createdAt: string;
+};
 
 export type InvitationLookup = { email: string; name: string; role: Role; status: InvitationStatus; expiresAt: string };
 
-export const INVITATION_MESSAGES: Record<Exclude<InvitationStatus, "valid"> | "unknown", string> = {
-  unknown: "This invitation link is not valid. Check that you copied all of it, or ask your admin for a new one.",
-  expired: "This invitation has expired. Ask your admin to send a new one.",
-  used: "This invitation has already been used. Sign in with your e-mail and password, or reset your password.",
-  revoked: "This invitation was withdrawn. Ask your admin for a new one if you still need access.",
-};
+export type InvitationRow = typeof invitations.$inferSelect;
 
-function statusOf(row: { acceptedAt: Date | null; revokedAt: Date | null; expiresAt: Date }, now = new Date()): InvitationStatus {
+export function toInvitationDto(row: InvitationRow): InvitationDto {
+  return {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    expiresAt: row.expiresAt.toISOString(),
+    createdAt: row.createdAt.toISOString(),
+  };
+}
+
+export function invitationStatus(
+  row: Pick<InvitationRow, "acceptedAt" | "revokedAt" | "expiresAt">,
+  now = new Date(),
+): InvitationStatus {
   if (row.acceptedAt) return "used";
   if (row.revokedAt) return "revoked";
   if (row.expiresAt <= now) return "expired";
   return "valid";
 }
 
-/** Public: anyone holding the link may see who it invites. Unknown tokens give null. */
-export async function getInvitationByToken({ token }: { token: string }): Promise<InvitationLookup | null> {
-  const [row] = await currentDb().select().from(invitations).where(eq(invitations.tokenHash, hashInvitationToken(token)));
-  if (!row) return null;
-  return { email: row.email, name: row.name, role: row.role, status: statusOf(row), expiresAt: row.expiresAt.toISOString() };
+/** Invitations still open at `now`: not accepted, not withdrawn, not expired. */
+export function pendingInvitationCondition(now = new Date()) {
+  return and(isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, now));
 }
 
-/**
- * Creates the user and their password login from a valid invitation and marks it used, all in one
- * transaction; an unknown, expired, used or withdrawn link changes nothing. With `signIn`, the new user
- * is signed in once the rows are committed (better-auth reads them over its own connection), and under
- * a Next request nextCookies() sets the session cookie.
- */
-export async function acceptInvitation({
-  token,
-  password,
-  signIn,
-}: {
-  token: string;
-  password: string;
-  signIn?: { headers: Headers };
-}): Promise<{ userId: string; email: string }> {
-  if (password.length < PASSWORD_MIN_LENGTH || password.length > PASSWORD_MAX_LENGTH) {
-    throw new AppError("invalid-input", `Use between ${PASSWORD_MIN_LENGTH} and ${PASSWORD_MAX_LENGTH} characters.`, {
-      fieldErrors: { password: [`Use at least ${PASSWORD_MIN_LENGTH} characters.`] },
-    });
-  }
-  const accepted = await runInTransaction(async (tx) => {
-    const [invitation] = await tx
-      .select()
-      .from(invitations)
-      .where(eq(invitations.tokenHash, hashInvitationToken(token)))
-      .for("update");
-    if (!invitation) throw new AppError("not-found", INVITATION_MESSAGES.unknown);
-    const status = statusOf(invitation);
-    if (status !== "valid") throw new AppError("conflict", INVITATION_MESSAGES[status]);
-    const [existing] = await tx.select({ id: user.id }).from(user).where(eq(user.email, invitation.email));
-    if (existing) throw new AppError("conflict", INVITATION_MESSAGES.used);
+export function hashInvitationToken(token: string): string {
+  return createHash("sha256").update(token).digest("hex");
+}
 
-    // better-auth's own hasher, so its sign-in can verify the password.
-    const passwordHash = await (await auth.$context).password.hash(password);
-    const userId = generateId();
-    const now = new Date();
-    await tx.insert(user).values({
-      id: userId,
-      name: invitation.name,
-      email: invitation.email,
-      emailVerified: true, // the link arrived at this address
-      role: invitation.role,
-      createdAt: now,
-      updatedAt: now,
-    });
-    await tx.insert(account).values({
-      id: generateId(),
-      accountId: userId,
-      providerId: "credential",
-      userId,
-      password: passwordHash,
-      createdAt: now,
-      updatedAt: now,
-    });
-    await tx.update(invitations).set({ acceptedAt: now }).where(eq(invitations.id, invitation.id));
-    await recordAuditEvent({
-      actorId: userId,
-      actorEmail: invitation.email,
-      action: "invitations.accept",
-      subject: `invitation:${invitation.id}`,
-      details: { role: invitation.role, invitedById: invitation.invitedById },
-    });
-    return { userId, email: invitation.email };
-  });
-  if (signIn) {
-    await runAfterCommit(async () => {
-      await auth.api.signInEmail({ body: { email: accepted.email, password }, headers: signIn.headers });
-    });
-  }
-  return accepted;
+export function newInvitationToken(): string {
+  return randomBytes(32).toString("base64url");
+}
+
+export function getInvitationUrl(token: string): string {
+  return `${appBaseUrl()}/invite/${token}`;
+}
+
+/** Anyone holding the link may see who it invites. Unknown tokens give null. */
+export async function findInvitationByToken(token: string): Promise<InvitationLookup | null> {
+  const [row] = await currentDb()
+    .select()
+    .from(invitations)
+    .where(eq(invitations.tokenHash, hashInvitationToken(token)));
+  if (!row) return null;
+  return {
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    status: invitationStatus(row),
+    expiresAt: row.expiresAt.toISOString(),
+  };
+}
+
+/** The row for a token, locked for the rest of the transaction. */
+export async function lockInvitationByToken(token: string): Promise<InvitationRow | null> {
+  const [row] = await currentDb()
+    .select()
+    .from(invitations)
+    .where(eq(invitations.tokenHash, hashInvitationToken(token)))
+    .for("update");
+  return row ?? null;
+}
+
+export async function lockInvitationById(invitationId: string): Promise<InvitationRow | null> {
+  const [row] = await currentDb().select().from(invitations).where(eq(invitations.id, invitationId)).for("update");
+  return row ?? null;
 }
 
 /** Open invitations (not used, withdrawn or expired), newest first. */
-export async function listPendingInvitations({ actor }: { actor: Actor | null }): Promise<InvitationDto[]> {
-  assertCanOrThrow(actor, "users.read");
+export async function listPendingInvitations(): Promise<InvitationDto[]> {
   const rows = await currentDb()
     .select()
     .from(invitations)
     .where(pendingInvitationCondition())
     .orderBy(desc(invitations.createdAt));
-  return rows.map((row) => toInvitationDto(row));
+  return rows.map(toInvitationDto);
 }
 
-export async function countPendingInvitations({ actor }: { actor: Actor | null }): Promise<number> {
-  assertCanOrThrow(actor, "users.read");
+export async function countPendingInvitations(): Promise<number> {
   const [row] = await currentDb()
     .select({ n: sql<number>`count(*)`.mapWith(Number) })
     .from(invitations)
@@ -130,27 +112,21 @@ export async function countPendingInvitations({ actor }: { actor: Actor | null }
   return row.n;
 }
 
-export async function revokeInvitation({
-  actor,
-  invitationId,
-}: {
-  actor: Actor | null;
-  invitationId: string;
-}): Promise<{ id: string; email: string }> {
-  assertCanOrThrow(actor, "users.invite");
-  return runInTransaction(async (tx) => {
-    const [row] = await tx.select().from(invitations).where(eq(invitations.id, invitationId)).for("update");
-    if (!row) throw new AppError("not-found", "That invitation no longer exists.");
-    const status = statusOf(row);
-    if (status !== "valid") throw new AppError("conflict", `That invitation is already ${status}.`);
-    await tx.update(invitations).set({ revokedAt: new Date() }).where(eq(invitations.id, invitationId));
-    await recordAuditEvent({
-      actorId: actor.id,
-      actorEmail: actor.email,
-      action: "invitations.revoke",
-      subject: `invitation:${invitationId}`,
-      details: { email: row.email, role: row.role },
-    });
-    return { id: row.id, email: row.email };
-  });
+/** Withdraws the open invitations to an address (a newer one replaces them); returns their ids. */
+export async function revokeOpenInvitationsTo(email: string, now: Date): Promise<string[]> {
+  const replaced = await currentDb()
+    .update(invitations)
+    .set({ revokedAt: now })
+    .where(and(eq(invitations.email, email), pendingInvitationCondition(now)))
+    .returning({ id: invitations.id });
+  return replaced.map((r) => r.id);
+}
+
+export async function insertInvitation(values: typeof invitations.$inferInsert): Promise<InvitationRow> {
+  const [created] = await currentDb().insert(invitations).values(values).returning();
+  return created;
+}
+
+export async function markInvitation(invitationId: string, set: { acceptedAt?: Date; revokedAt?: Date }): Promise<void> {
+  await currentDb().update(invitations).set(set).where(eq(invitations.id, invitationId));
 }

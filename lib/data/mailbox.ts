@@ -2,29 +2,43 @@ import "server-only";
 // The demo mailbox: e-mails caught by the fake SMTP server of `npm start`, shown to admins so that
 // someone trying Gusset can follow an invitation link. Absent when real mail is configured.
 import { z } from "zod";
-import { assertCanOrThrow, type Actor } from "@/lib/auth/actor";
-import { AppError } from "@/lib/errors";
+import { AppError } from "@/lib/domain/errors";
+import { serverEnv } from "@/lib/server-env";
 
 const capturedMailSchema = z.object({
   id: z.union([z.string(), z.number()]).transform(String),
-  from: z.string().nullish().transform((v) => v ?? ""),
+  from: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? ""),
   to: z.array(z.string()).catch([]),
-  subject: z.string().nullish().transform((v) => v ?? ""),
-  text: z.string().nullish().transform((v) => v ?? ""),
-  html: z.string().nullish().transform((v) => v ?? ""),
-  date: z.string().nullish().transform((v) => v ?? ""),
+  subject: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? ""),
+  text: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? ""),
+  html: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? ""),
+  date: z
+    .string()
+    .nullish()
+    .transform((v) => v ?? ""),
 });
 export type CapturedMailDto = z.infer<typeof capturedMailSchema>;
 
 /** True while the fake SMTP server is in use (FAKE_MAIL_API_URL is set by the start script). */
-export async function isMailboxEnabled(): Promise<boolean> {
-  return Boolean(process.env.FAKE_MAIL_API_URL);
+export function isMailboxEnabled(): boolean {
+  return serverEnv().FAKE_MAIL_API_URL !== undefined;
 }
 
-/** Newest first; null when the fake SMTP server is not in use. */
-export async function listCapturedMail({ actor }: { actor: Actor | null }): Promise<CapturedMailDto[] | null> {
-  assertCanOrThrow(actor, "mailbox.read");
-  const base = process.env.FAKE_MAIL_API_URL;
+/** Newest first; null when the fake SMTP server is not in use. Callers check mailbox.read. */
+export async function listCapturedMail(): Promise<CapturedMailDto[] | null> {
+  const base = serverEnv().FAKE_MAIL_API_URL;
   if (!base) return null;
   let body: unknown;
   try {

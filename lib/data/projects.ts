@@ -1,9 +1,8 @@
 import "server-only";
-// Projects (jobs). Reading needs projects.read: engineers, leads and auditors; admins manage people,
-// not engineering work.
+// Projects (jobs): rows for the lists. Reading needs projects.read (lib/use-cases/projects.ts):
+// engineers, leads and auditors; admins manage people, not engineering work.
 import { desc, eq, sql } from "drizzle-orm";
 import { projects, user } from "@/db/schema";
-import { assertCanOrThrow, type Actor } from "@/lib/auth/actor";
 import { currentDb } from "./transaction";
 
 export type ProjectDto = {
@@ -15,8 +14,7 @@ export type ProjectDto = {
   createdAt: string;
 };
 
-export async function listProjects({ actor, limit }: { actor: Actor | null; limit?: number }): Promise<ProjectDto[]> {
-  assertCanOrThrow(actor, "projects.read");
+export async function listProjects({ limit }: { limit?: number } = {}): Promise<ProjectDto[]> {
   const query = currentDb()
     .select({
       id: projects.id,
@@ -33,8 +31,9 @@ export async function listProjects({ actor, limit }: { actor: Actor | null; limi
   return rows.map((row) => ({ ...row, createdAt: row.createdAt.toISOString() }));
 }
 
-export async function countProjects({ actor }: { actor: Actor | null }): Promise<number> {
-  assertCanOrThrow(actor, "projects.read");
-  const [row] = await currentDb().select({ n: sql<number>`count(*)`.mapWith(Number) }).from(projects);
+export async function countProjects(): Promise<number> {
+  const [row] = await currentDb()
+    .select({ n: sql<number>`count(*)`.mapWith(Number) })
+    .from(projects);
   return row.n;
 }

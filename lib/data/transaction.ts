@@ -1,41 +1,23 @@
 import "server-only";
-// One transaction per guarded request. The guard opens it; data functions pick it up through
-// currentDb() and their own runInTransaction() calls nest as savepoints, so the change and its audit
-// event commit together or not at all. Work that must see the committed rows (signing in a user who
-// was just created, through better-auth's own connection) is queued with runAfterCommit().
+// One transaction per use case. The runner (lib/use-cases/run.ts) opens it and hands it to the work;
+// queries below pick it up through currentDb() too, and nested runInTransaction() calls become
+// savepoints, so a change, its audit event and its queued jobs commit together or not at all.
 import { AsyncLocalStorage } from "node:async_hooks";
 import { db } from "@/db";
 
-type Transaction = Parameters<Parameters<typeof db.transaction>[0]>[0];
+export type Transaction = Parameters<Parameters<typeof db.transaction>[0]>[0];
 export type Executor = typeof db | Transaction;
-type AfterCommitTask = () => Promise<unknown>;
-type Scope = { tx: Transaction; afterCommit: AfterCommitTask[] };
 
-const scopes = new AsyncLocalStorage<Scope>();
+const scopes = new AsyncLocalStorage<Transaction>();
 
-/** The open transaction of this request, or the pool when there is none. */
+/** The open transaction of this use case, or the pool when there is none. */
 export function currentDb(): Executor {
-  return scopes.getStore()?.tx ?? db;
+  return scopes.getStore() ?? db;
 }
 
 export async function runInTransaction<T>(work: (tx: Transaction) => Promise<T>): Promise<T> {
   const outer = scopes.getStore();
-  const afterCommit: AfterCommitTask[] = [];
-  const run = (tx: Transaction) => scopes.run({ tx, afterCommit }, () => work(tx));
-  if (outer) {
-    // A savepoint: its after-commit tasks join the outer list only if the savepoint succeeded.
-    const result = await outer.tx.transaction(run);
-    outer.afterCommit.push(...afterCommit);
-    return result;
-  }
-  const result = await db.transaction(run);
-  for (const task of afterCommit) await task();
-  return result;
-}
-
-/** Runs the task once the outermost transaction has committed (at once when there is none). */
-export async function runAfterCommit(task: AfterCommitTask): Promise<void> {
-  const scope = scopes.getStore();
-  if (scope) scope.afterCommit.push(task);
-  else await task();
+  const run = (tx: Transaction) => scopes.run(tx, () => work(tx));
+  // Inside an open transaction this is a savepoint: it rolls back alone, or commits with the outer one.
+  return outer ? outer.transaction(run) : db.transaction(run);
 }

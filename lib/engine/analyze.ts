@@ -56,7 +56,10 @@ function stiffnessOf(valid: ValidModel): Stiffness | EngineError {
   const K = dofs.nFree > 0 ? assembleStiffness(members, dofs) : null;
   // Finite inputs can still overflow (E = 1e300): stop here with a message rather than let NaN spread.
   if (K && !allFinite(K.values)) {
-    return { kind: "numerical", message: "The stiffness matrix overflows; check the magnitudes of E, A, I and spring stiffnesses (SI units: Pa, m², m⁴)" };
+    return {
+      kind: "numerical",
+      message: "The stiffness matrix overflows; check the magnitudes of E, A, I and spring stiffnesses (SI units: Pa, m², m⁴)",
+    };
   }
   return { ctx, dofs, K };
 }
@@ -79,7 +82,10 @@ function caseSystems({ ctx, dofs }: Stiffness): CaseSystem[] | EngineError {
     const applied = appliedNodalLoads(members, loads, fef);
     const rhs = caseRhs(members, dofs, applied, D2);
     if (!allFinite(rhs) || !allFinite(fef)) {
-      return { kind: "numerical", message: `Load case ${id}: the loads overflow; check their magnitudes (SI units: N, N/m, N·m)` };
+      return {
+        kind: "numerical",
+        message: `Load case ${id}: the loads overflow; check their magnitudes (SI units: N, N/m, N·m)`,
+      };
     }
     out.push({ id, D2, vectors: { applied, fef, rhs } });
   }
@@ -94,13 +100,18 @@ interface SolvedCase {
 }
 
 /** Solutions and solver residuals of every load case: the factor is shared, and all cases are solved in one pass over it. */
-function solveCases(systems: ReadonlyArray<CaseSystem>, K: SymmetricCsc | null, factor: CholeskyFactor | null): SolvedCase[] | EngineError {
+function solveCases(
+  systems: ReadonlyArray<CaseSystem>,
+  K: SymmetricCsc | null,
+  factor: CholeskyFactor | null,
+): SolvedCase[] | EngineError {
   const us = factor ? factor.solveMany(systems.map((p) => p.vectors.rhs)) : systems.map(() => new Float64Array(0));
   const solved: SolvedCase[] = [];
   for (let c = 0; c < systems.length; c++) {
     const { id, D2, vectors } = systems[c];
     const u = us[c];
-    if (!allFinite(u)) return { kind: "numerical", message: `Load case ${id}: the solution is not finite; check for extreme stiffness ratios` };
+    if (!allFinite(u))
+      return { kind: "numerical", message: `Load case ${id}: the solution is not finite; check for extreme stiffness ratios` };
     const residual = K ? relativeResidual(K, u, vectors.rhs) : 0;
     solved.push({ u, D2, residual, vectors });
   }
@@ -157,7 +168,12 @@ export function analyze(input: unknown): AnalysisOutcome {
   const cases = solved.map((s, c) => recoverCase(ctx, c, dofs, s));
   const warnings: EngineWarning[] = cases
     .filter((r) => r.relativeResidual > RESIDUAL_WARNING)
-    .map((r) => ({ kind: "ill-conditioned", loadCase: r.id, relativeResidual: r.relativeResidual, message: `Load case ${r.id}: relative residual ${r.relativeResidual.toExponential(2)}; the structure may be nearly a mechanism` }));
+    .map((r) => ({
+      kind: "ill-conditioned",
+      loadCase: r.id,
+      relativeResidual: r.relativeResidual,
+      message: `Load case ${r.id}: relative residual ${r.relativeResidual.toExponential(2)}; the structure may be nearly a mechanism`,
+    }));
   const vectors = solved.map((s) => s.vectors);
   const combos = model.combinations.map((combo) => combineCases(model, combo, cases, vectors, K, dofs));
   const byId = new Map([...cases, ...combos].map((r) => [r.id, r]));
@@ -165,7 +181,10 @@ export function analyze(input: unknown): AnalysisOutcome {
   for (const env of model.envelopes) envelopes[env.id] = envelopeResults(env, byId);
   for (const r of byId.values()) {
     if (!allFinite(r.displacements) || !allFinite(r.reactions) || !allFinite(r.endForces)) {
-      return { ok: false, errors: [{ kind: "numerical", message: `Result ${r.id} is not finite; check for extreme stiffness ratios` }] };
+      return {
+        ok: false,
+        errors: [{ kind: "numerical", message: `Result ${r.id} is not finite; check for extreme stiffness ratios` }],
+      };
     }
   }
   const tDone = performance.now();
@@ -211,7 +230,9 @@ export interface LinearSystem {
  * The first stages of `analyze` alone (validate, prepare, assemble, right-hand sides), for benchmarks and
  * solver checks that want the equations without solving them. The same errors as `analyze` up to that point.
  */
-export function linearSystem(input: unknown): { readonly ok: true; readonly system: LinearSystem } | { readonly ok: false; readonly errors: ReadonlyArray<EngineError> } {
+export function linearSystem(
+  input: unknown,
+): { readonly ok: true; readonly system: LinearSystem } | { readonly ok: false; readonly errors: ReadonlyArray<EngineError> } {
   const valid = validateModel(input);
   if (!valid.ok) return { ok: false, errors: valid.errors };
   const stiffness = stiffnessOf(valid);

@@ -5,7 +5,14 @@
  * combination are found on the combined diagram, not by adding the cases' extremes.
  */
 import type { Combination, Envelope, Model } from "./model";
-import { equilibriumResidual, linearCombination, type CaseResult, type CaseVectors, type LoadSource, type ReadonlyVector } from "./results";
+import {
+  equilibriumResidual,
+  linearCombination,
+  type CaseResult,
+  type CaseVectors,
+  type LoadSource,
+  type ReadonlyVector,
+} from "./results";
 import { relativeResidual } from "./solve";
 import type { DofMap } from "./dofs";
 import type { SymmetricCsc } from "./sparse";
@@ -19,17 +26,41 @@ export function combineCases(
   dofs: DofMap,
 ): CaseResult {
   const caseIndex = new Map(model.loadCases.map((c, i) => [c.id, i]));
-  const sources: LoadSource[] = Object.entries(combo.factors).map(([id, factor]) => ({ caseIndex: caseIndex.get(id)!, caseId: id, factor }));
+  const sources: LoadSource[] = Object.entries(combo.factors).map(([id, factor]) => ({
+    caseIndex: caseIndex.get(id)!,
+    caseId: id,
+    factor,
+  }));
   const factors = sources.map((s) => s.factor);
   const pick = <T>(f: (i: number) => T) => sources.map((s) => f(s.caseIndex));
   const first = cases[0];
-  const displacements = linearCombination(pick((i) => cases[i].displacements), factors, first?.displacements.length ?? 0);
-  const reactions = linearCombination(pick((i) => cases[i].reactions), factors, first?.reactions.length ?? 0);
-  const endForces = linearCombination(pick((i) => cases[i].endForces), factors, first?.endForces.length ?? 0);
-  const applied = linearCombination(pick((i) => vectors[i].applied), factors, displacements.length);
+  const displacements = linearCombination(
+    pick((i) => cases[i].displacements),
+    factors,
+    first?.displacements.length ?? 0,
+  );
+  const reactions = linearCombination(
+    pick((i) => cases[i].reactions),
+    factors,
+    first?.reactions.length ?? 0,
+  );
+  const endForces = linearCombination(
+    pick((i) => cases[i].endForces),
+    factors,
+    first?.endForces.length ?? 0,
+  );
+  const applied = linearCombination(
+    pick((i) => vectors[i].applied),
+    factors,
+    displacements.length,
+  );
   let residual = 0;
   if (K && dofs.nFree > 0) {
-    const rhs = linearCombination(pick((i) => vectors[i].rhs), factors, dofs.nFree);
+    const rhs = linearCombination(
+      pick((i) => vectors[i].rhs),
+      factors,
+      dofs.nFree,
+    );
     const u = new Float64Array(dofs.nFree);
     for (let e = 0; e < dofs.nFree; e++) u[e] = displacements[dofs.freeToGlobal[e]];
     residual = relativeResidual(K, u, rhs);

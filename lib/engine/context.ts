@@ -38,6 +38,9 @@ export function attachContext(result: AnalysisResult, context: AnalysisContext):
 
 export function contextOf(result: AnalysisResult): AnalysisContext {
   const c = contexts.get(result);
-  if (!c) throw new Error("contextOf: not a result returned by analyze() or restoreResult() (a stored result needs restoreResult(model, json) first)");
+  if (!c)
+    throw new Error(
+      "contextOf: not a result returned by analyze() or restoreResult() (a stored result needs restoreResult(model, json) first)",
+    );
   return c;
 }

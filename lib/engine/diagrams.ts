@@ -21,9 +21,27 @@ import { resultFor } from "./access";
 import { fullLocalStiffness, memberDofs, type PreparedMember } from "./members";
 import { recoverReleased, toLocal } from "./elements";
 import { fixedEndForces, type SpanLoads } from "./loads";
-import { combine, evaluate, extrema, fromGlobalPolynomial, integrate, zeroPiecewise, type Extreme, type Piecewise } from "./piecewise";
+import {
+  combine,
+  evaluate,
+  extrema,
+  fromGlobalPolynomial,
+  integrate,
+  zeroPiecewise,
+  type Extreme,
+  type Piecewise,
+} from "./piecewise";
 
-export const DIAGRAM_QUANTITIES = ["N", "V", "M", "deflection", "relativeDeflection", "axialDisplacement", "stressTop", "stressBottom"] as const;
+export const DIAGRAM_QUANTITIES = [
+  "N",
+  "V",
+  "M",
+  "deflection",
+  "relativeDeflection",
+  "axialDisplacement",
+  "stressTop",
+  "stressBottom",
+] as const;
 export type DiagramQuantity = (typeof DIAGRAM_QUANTITIES)[number];
 /** Always present; the others need I (relative deflection) and cTop / cBottom (stresses). */
 type AlwaysPresent = "N" | "V" | "M" | "deflection" | "axialDisplacement";
@@ -127,32 +145,73 @@ function buildDiagram(ctx: AnalysisContext, result: AnalysisResult, memberId: st
 
   // End displacements in local axes, with the rotations of released ends recovered by condensation.
   const g = memberDofs(p);
-  const d = toLocal(Array.from(g, (gi) => r.displacements[gi]), p.frame.c, p.frame.s);
+  const d = toLocal(
+    Array.from(g, (gi) => r.displacements[gi]),
+    p.frame.c,
+    p.frame.s,
+  );
   const fefFull = fixedEndForces(loads, L);
   if (p.hasBending) recoverReleased(fullLocalStiffness(p), fefFull, p.released, d);
 
   // Axial: linear shape functions plus the particular solution EA u_p' = N_p, u_p(0) = 0 (N_p from the fixed-end forces).
   const Np = statics(fefFull[0], 0, 0, pieces, breaks).N;
   const up = integrate(combine([[Np, 1 / (p.E * p.A)]], breaks), 0);
-  const u = combine([[fromGlobalPolynomial([d[0], (d[3] - d[0]) / L], breaks), 1], [up, 1]], breaks);
+  const u = combine(
+    [
+      [fromGlobalPolynomial([d[0], (d[3] - d[0]) / L], breaks), 1],
+      [up, 1],
+    ],
+    breaks,
+  );
   const chord = fromGlobalPolynomial([d[1], (d[4] - d[1]) / L], breaks);
   let v = chord;
   if (p.hasBending) {
     const EI = p.E * p.I;
     // Hermite cubics: v = N1 v_i + N2 θ_i + N3 v_j + N4 θ_j, written out as one polynomial in x.
-    const hermite = [d[1], d[2], (3 * (d[4] - d[1])) / L ** 2 - (2 * d[2] + d[5]) / L, (2 * (d[1] - d[4])) / L ** 3 + (d[2] + d[5]) / L ** 2];
+    const hermite = [
+      d[1],
+      d[2],
+      (3 * (d[4] - d[1])) / L ** 2 - (2 * d[2] + d[5]) / L,
+      (2 * (d[1] - d[4])) / L ** 3 + (d[2] + d[5]) / L ** 2,
+    ];
     // Particular solution: EI v_p'' = M_p with v_p = v_p' = 0 at x = 0; the fixed-end forces make them vanish at L too.
     const Mp = statics(0, fefFull[1], fefFull[2], pieces, breaks).M;
     const vp = integrate(integrate(combine([[Mp, 1 / EI]], breaks), 0), 0);
-    v = combine([[fromGlobalPolynomial(hermite, breaks), 1], [vp, 1]], breaks);
+    v = combine(
+      [
+        [fromGlobalPolynomial(hermite, breaks), 1],
+        [vp, 1],
+      ],
+      breaks,
+    );
   }
   const pieceByQuantity: Partial<Record<DiagramQuantity, Piecewise>> = { N, V, M, axialDisplacement: u };
   if (p.hasBending) {
     pieceByQuantity.deflection = v;
-    pieceByQuantity.relativeDeflection = combine([[v, 1], [chord, -1]], breaks);
+    pieceByQuantity.relativeDeflection = combine(
+      [
+        [v, 1],
+        [chord, -1],
+      ],
+      breaks,
+    );
     const member = ctx.model.members[m];
-    if (member.cTop !== undefined) pieceByQuantity.stressTop = combine([[N, 1 / p.A], [M, -member.cTop / p.I]], breaks);
-    if (member.cBottom !== undefined) pieceByQuantity.stressBottom = combine([[N, 1 / p.A], [M, member.cBottom / p.I]], breaks);
+    if (member.cTop !== undefined)
+      pieceByQuantity.stressTop = combine(
+        [
+          [N, 1 / p.A],
+          [M, -member.cTop / p.I],
+        ],
+        breaks,
+      );
+    if (member.cBottom !== undefined)
+      pieceByQuantity.stressBottom = combine(
+        [
+          [N, 1 / p.A],
+          [M, member.cBottom / p.I],
+        ],
+        breaks,
+      );
   } else pieceByQuantity.deflection = chord;
   return { L, breaks, pieceByQuantity };
 }
@@ -162,7 +221,12 @@ export interface DiagramOptions {
   readonly points?: number;
 }
 
-export function memberDiagram(result: AnalysisResult, memberId: string, caseOrCombo: string, options: DiagramOptions = {}): MemberDiagram {
+export function memberDiagram(
+  result: AnalysisResult,
+  memberId: string,
+  caseOrCombo: string,
+  options: DiagramOptions = {},
+): MemberDiagram {
   const { L, breaks, pieceByQuantity } = buildDiagram(contextOf(result), result, memberId, caseOrCombo);
   const quantities = DIAGRAM_QUANTITIES.filter((q) => pieceByQuantity[q] !== undefined);
   const valueAt = (x: number, side: "left" | "right" = "right"): DiagramValues => {
@@ -194,14 +258,26 @@ export interface MemberEnvelope {
   readonly max: Readonly<Partial<Record<DiagramQuantity, ReadonlyArray<number>>>>;
   readonly min: Readonly<Partial<Record<DiagramQuantity, ReadonlyArray<number>>>>;
   /** Exact extremes over all the results, with the result that produces each. */
-  readonly extremes: Readonly<Partial<Record<DiagramQuantity, { readonly max: Extreme & { readonly from: string }; readonly min: Extreme & { readonly from: string } }>>>;
+  readonly extremes: Readonly<
+    Partial<
+      Record<
+        DiagramQuantity,
+        { readonly max: Extreme & { readonly from: string }; readonly min: Extreme & { readonly from: string } }
+      >
+    >
+  >;
 }
 
 /**
  * Max and min of every diagram quantity along a member over several results, given by their ids or by the id
  * of an envelope defined in the model.
  */
-export function memberEnvelope(result: AnalysisResult, memberId: string, of: string | ReadonlyArray<string>, options: DiagramOptions = {}): MemberEnvelope {
+export function memberEnvelope(
+  result: AnalysisResult,
+  memberId: string,
+  of: string | ReadonlyArray<string>,
+  options: DiagramOptions = {},
+): MemberEnvelope {
   const ids = typeof of === "string" ? (result.envelopes[of]?.of ?? [of]) : of;
   const ctx = contextOf(result);
   const built = ids.map((id) => buildDiagram(ctx, result, memberId, id));
@@ -219,7 +295,8 @@ export function memberEnvelope(result: AnalysisResult, memberId: string, of: str
     built.forEach((b, r) => {
       const e = extrema(b.pieceByQuantity[q]!);
       const cur = extremes[q];
-      if (!cur || e.max.value > cur.max.value) extremes[q] = { max: { ...e.max, from: ids[r] }, min: cur?.min ?? { ...e.min, from: ids[r] } };
+      if (!cur || e.max.value > cur.max.value)
+        extremes[q] = { max: { ...e.max, from: ids[r] }, min: cur?.min ?? { ...e.min, from: ids[r] } };
       if (e.min.value < extremes[q]!.min.value) extremes[q] = { ...extremes[q]!, min: { ...e.min, from: ids[r] } };
     });
   }

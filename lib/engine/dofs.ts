@@ -91,7 +91,15 @@ export function buildDofMap(model: Model, rotationallyStiff: ReadonlyArray<boole
     });
     if (freeHere !== 0) blockSize = blockSize === 0 || blockSize === freeHere ? freeHere : 1;
   });
-  return { nNodes, nFree: freeToGlobal.length, equation, freeToGlobal: Int32Array.from(freeToGlobal), kind, spring, blockSize: blockSize || 1 };
+  return {
+    nNodes,
+    nFree: freeToGlobal.length,
+    equation,
+    freeToGlobal: Int32Array.from(freeToGlobal),
+    kind,
+    spring,
+    blockSize: blockSize || 1,
+  };
 }
 
 /** Prescribed displacement of a DOF in a load case (0 when fixed or not prescribed in that case). */

@@ -31,7 +31,13 @@ export function memberFrame(xi: number, yi: number, xj: number, yj: number): Mem
   return { length, c: dx / length, s: dy / length };
 }
 
-export function frameLocalStiffness(E: number, A: number, I: number, L: number, k: Float64Array = new Float64Array(36)): Float64Array {
+export function frameLocalStiffness(
+  E: number,
+  A: number,
+  I: number,
+  L: number,
+  k: Float64Array = new Float64Array(36),
+): Float64Array {
   const a = (E * A) / L;
   const b = (E * I) / (L * L * L);
   const b12 = 12 * b;
@@ -75,7 +81,11 @@ function invertReleasedBlock(k: Float64Array, r: ReadonlyArray<number>): number[
  * Static condensation of the released DOFs r:  k* = k_cc − k_cr k_rr⁻¹ k_rc,  fef* = fef_c − k_cr k_rr⁻¹ fef_r.
  * The result keeps the 6×6 layout with zero rows and columns at r, so the released end carries no moment.
  */
-export function condense(k: Float64Array, fef: Float64Array | null, r: ReadonlyArray<number>): { k: Float64Array; fef: Float64Array | null } {
+export function condense(
+  k: Float64Array,
+  fef: Float64Array | null,
+  r: ReadonlyArray<number>,
+): { k: Float64Array; fef: Float64Array | null } {
   if (r.length === 0) return { k, fef };
   const inv = invertReleasedBlock(k, r);
   const kc = new Float64Array(36);

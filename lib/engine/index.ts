@@ -11,7 +11,16 @@ export type { EngineError, EngineWarning, ErrorKind } from "./diagnostics";
 export { DOF_NAMES, DOFS_PER_NODE, type DofName } from "./dofs";
 export * from "./model";
 export * from "./access";
-export { memberDiagram, memberEnvelope, DIAGRAM_QUANTITIES, type DiagramQuantity, type DiagramValues, type MemberDiagram, type MemberEnvelope, type DiagramOptions } from "./diagrams";
+export {
+  memberDiagram,
+  memberEnvelope,
+  DIAGRAM_QUANTITIES,
+  type DiagramQuantity,
+  type DiagramValues,
+  type MemberDiagram,
+  type MemberEnvelope,
+  type DiagramOptions,
+} from "./diagrams";
 export type { Extreme } from "./piecewise";
 export { resultToJson, resultToCanonicalJson, canonicalJson, type Json, type SerializeOptions } from "./serialize";
 export { restoreResult, type RestoreOutcome } from "./restore";

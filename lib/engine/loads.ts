@@ -151,7 +151,10 @@ export interface IdIndex {
 
 /** Resolves the loads of one case. The model must have passed validation (references and positions). */
 export function resolveCaseLoads(model: Model, caseIndex: number, frames: ReadonlyArray<MemberFrame>, index: IdIndex): CaseLoads {
-  const out: CaseLoads = { nodal: new Float64Array(DOFS_PER_NODE * model.nodes.length), span: new SpanTable(model.members.length) };
+  const out: CaseLoads = {
+    nodal: new Float64Array(DOFS_PER_NODE * model.nodes.length),
+    span: new SpanTable(model.members.length),
+  };
   for (const load of model.loadCases[caseIndex].loads) addLoad(load, model, frames, index, out);
   return out;
 }
@@ -189,8 +192,8 @@ export function fixedEndForces(loads: SpanLoads, L: number): Float64Array {
   let momentAboutI = 0;
   for (const d of loads.distributed) {
     if (d.axis === 1) {
-      lm1 += integrateLinear(d, (s) => ((L - s) ** 2) / 2);
-      lm2 += integrateLinear(d, (s) => ((L - s) ** 3) / 6);
+      lm1 += integrateLinear(d, (s) => (L - s) ** 2 / 2);
+      lm2 += integrateLinear(d, (s) => (L - s) ** 3 / 6);
       totalY += integrateLinear(d, () => 1);
       momentAboutI += integrateLinear(d, (s) => s);
     } else {

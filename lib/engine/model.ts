@@ -162,9 +162,7 @@ export type DistributedLoad = z.infer<typeof DistributedLoadSchema>;
 export type PointLoad = z.infer<typeof PointLoadSchema>;
 export type CoupleLoad = z.infer<typeof CoupleLoadSchema>;
 
-export const LoadCaseSchema = z
-  .object({ id, name: z.string().optional(), loads: z.array(LoadSchema).default([]) })
-  .strict();
+export const LoadCaseSchema = z.object({ id, name: z.string().optional(), loads: z.array(LoadSchema).default([]) }).strict();
 export type LoadCase = z.infer<typeof LoadCaseSchema>;
 
 /** A named factor table: result = Σ factor · (load case result). */
@@ -174,9 +172,7 @@ export const CombinationSchema = z
 export type Combination = z.infer<typeof CombinationSchema>;
 
 /** Max and min of every result over a set of load cases and/or combinations (by id). */
-export const EnvelopeSchema = z
-  .object({ id, name: z.string().optional(), of: z.array(id).min(1) })
-  .strict();
+export const EnvelopeSchema = z.object({ id, name: z.string().optional(), of: z.array(id).min(1) }).strict();
 export type Envelope = z.infer<typeof EnvelopeSchema>;
 
 /** Linear today; the discriminant leaves room for second-order (P-Delta) analysis. */

@@ -144,7 +144,10 @@ function rootsIn(c: ReadonlyArray<number>, h: number): number[] {
 
 /** Stationary points of a segment polynomial inside (0, h). */
 function derivativeRoots(c: Float64Array, h: number): number[] {
-  return rootsIn(Array.from({ length: NC - 1 }, (_, p) => (p + 1) * c[p + 1]), h);
+  return rootsIn(
+    Array.from({ length: NC - 1 }, (_, p) => (p + 1) * c[p + 1]),
+    h,
+  );
 }
 
 export interface Extreme {

@@ -20,7 +20,8 @@ import type { EnvelopeResult, VectorEnvelope } from "./combinations";
 import type { EngineError, EngineWarning } from "./diagnostics";
 import type { Model } from "./model";
 
-export type RestoreOutcome = { readonly ok: true; readonly result: AnalysisResult } | { readonly ok: false; readonly errors: ReadonlyArray<EngineError> };
+export type RestoreOutcome =
+  { readonly ok: true; readonly result: AnalysisResult } | { readonly ok: false; readonly errors: ReadonlyArray<EngineError> };
 
 type JsonObject = Record<string, unknown>;
 
@@ -89,7 +90,15 @@ function readEndForces(reader: StoredReader, value: unknown, memberIds: Readonly
   return out;
 }
 
-function readCase(reader: StoredReader, model: Model, value: unknown, id: string, kind: CaseResult["kind"], sources: LoadSource[], path: string): CaseResult {
+function readCase(
+  reader: StoredReader,
+  model: Model,
+  value: unknown,
+  id: string,
+  kind: CaseResult["kind"],
+  sources: LoadSource[],
+  path: string,
+): CaseResult {
   const nodeIds = model.nodes.map((n) => n.id);
   const o = reader.object(value, path) ?? {};
   if (o.kind !== kind) reader.fail(`${path}.kind`, `expected "${kind}"`);
@@ -97,8 +106,14 @@ function readCase(reader: StoredReader, model: Model, value: unknown, id: string
     // The factors stored must be the model's: the combination is rebuilt from the model's table.
     const factors = reader.object(o.factors, `${path}.factors`);
     if (factors) {
-      reader.keys(factors, sources.map((s) => s.caseId), `${path}.factors`);
-      for (const s of sources) if (s.caseId in factors && factors[s.caseId] !== s.factor) reader.fail(`${path}.factors.${s.caseId}`, `stored ${String(factors[s.caseId])}, the model says ${s.factor}`);
+      reader.keys(
+        factors,
+        sources.map((s) => s.caseId),
+        `${path}.factors`,
+      );
+      for (const s of sources)
+        if (s.caseId in factors && factors[s.caseId] !== s.factor)
+          reader.fail(`${path}.factors.${s.caseId}`, `stored ${String(factors[s.caseId])}, the model says ${s.factor}`);
     }
   }
   const eq = reader.object(o.equilibrium, `${path}.equilibrium`) ?? {};
@@ -115,13 +130,25 @@ function readCase(reader: StoredReader, model: Model, value: unknown, id: string
     displacements: reader.vector(o.displacements, nodeIds, DOF_NAMES, `${path}.displacements`),
     // Only nodes with a reaction are written; the others' reactions are zero.
     reactions: reader.vector(o.reactions, nodeIds, FORCE_NAMES, `${path}.reactions`, true),
-    endForces: readEndForces(reader, o.endForces, model.members.map((m) => m.id), `${path}.endForces`),
+    endForces: readEndForces(
+      reader,
+      o.endForces,
+      model.members.map((m) => m.id),
+      `${path}.endForces`,
+    ),
     equilibrium,
     relativeResidual: reader.number(o.relativeResidual, `${path}.relativeResidual`),
   };
 }
 
-function readVectorEnvelope(reader: StoredReader, value: unknown, ids: ReadonlyArray<string>, names: ReadonlyArray<string>, of: ReadonlyArray<string>, path: string): VectorEnvelope {
+function readVectorEnvelope(
+  reader: StoredReader,
+  value: unknown,
+  ids: ReadonlyArray<string>,
+  names: ReadonlyArray<string>,
+  of: ReadonlyArray<string>,
+  path: string,
+): VectorEnvelope {
   const n = names.length * ids.length;
   const env = { max: new Float64Array(n), min: new Float64Array(n), maxFrom: new Uint16Array(n), minFrom: new Uint16Array(n) };
   const o = reader.object(value, path);
@@ -137,7 +164,10 @@ function readVectorEnvelope(reader: StoredReader, value: unknown, ids: ReadonlyA
       const k = names.length * i + d;
       env.max[k] = reader.number(e.max, `${where}.max`);
       env.min[k] = reader.number(e.min, `${where}.min`);
-      for (const [key, target] of [["maxFrom", env.maxFrom], ["minFrom", env.minFrom]] as const) {
+      for (const [key, target] of [
+        ["maxFrom", env.maxFrom],
+        ["minFrom", env.minFrom],
+      ] as const) {
         const from = of.indexOf(reader.string(e[key], `${where}.${key}`));
         if (from < 0) reader.fail(`${where}.${key}`, "not one of the enveloped results");
         else target[k] = from;
@@ -190,15 +220,30 @@ export function restoreResult(modelInput: unknown, stored: unknown): RestoreOutc
   const memberIds = model.members.map((m) => m.id);
 
   const analysis = reader.object(root.analysis, "analysis");
-  if (analysis && analysis.kind !== model.analysis.kind) reader.fail("analysis.kind", `expected "${model.analysis.kind}", the model's analysis`);
+  if (analysis && analysis.kind !== model.analysis.kind)
+    reader.fail("analysis.kind", `expected "${model.analysis.kind}", the model's analysis`);
   const caseIndex = new Map(model.loadCases.map((c, i) => [c.id, i]));
 
   const storedCases = reader.object(root.loadCases, "loadCases") ?? {};
   reader.keys(storedCases, [...caseIndex.keys()], "loadCases");
-  const cases = model.loadCases.map((c, i) => readCase(reader, model, storedCases[c.id], c.id, "load-case", [{ caseIndex: i, caseId: c.id, factor: 1 }], `loadCases.${c.id}`));
+  const cases = model.loadCases.map((c, i) =>
+    readCase(
+      reader,
+      model,
+      storedCases[c.id],
+      c.id,
+      "load-case",
+      [{ caseIndex: i, caseId: c.id, factor: 1 }],
+      `loadCases.${c.id}`,
+    ),
+  );
 
   const storedCombos = reader.object(root.combinations, "combinations") ?? {};
-  reader.keys(storedCombos, model.combinations.map((c) => c.id), "combinations");
+  reader.keys(
+    storedCombos,
+    model.combinations.map((c) => c.id),
+    "combinations",
+  );
   const combos = model.combinations.map((combo) => {
     // The order analyze used (combinations.ts): the model's factor table as Object.entries lists it.
     const sources = Object.entries(combo.factors).map(([id, factor]) => ({ caseIndex: caseIndex.get(id)!, caseId: id, factor }));
@@ -206,12 +251,17 @@ export function restoreResult(modelInput: unknown, stored: unknown): RestoreOutc
   });
 
   const storedEnvelopes = reader.object(root.envelopes, "envelopes") ?? {};
-  reader.keys(storedEnvelopes, model.envelopes.map((e) => e.id), "envelopes");
+  reader.keys(
+    storedEnvelopes,
+    model.envelopes.map((e) => e.id),
+    "envelopes",
+  );
   const envelopes: Record<string, EnvelopeResult> = {};
   for (const env of model.envelopes) {
     const path = `envelopes.${env.id}`;
     const o = reader.object(storedEnvelopes[env.id], path) ?? {};
-    if (!Array.isArray(o.of) || o.of.length !== env.of.length || o.of.some((id, i) => id !== env.of[i])) reader.fail(`${path}.of`, `expected ${JSON.stringify(env.of)}, the model's envelope`);
+    if (!Array.isArray(o.of) || o.of.length !== env.of.length || o.of.some((id, i) => id !== env.of[i]))
+      reader.fail(`${path}.of`, `expected ${JSON.stringify(env.of)}, the model's envelope`);
     envelopes[env.id] = {
       id: env.id,
       of: env.of,

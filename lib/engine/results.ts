@@ -132,7 +132,11 @@ export function equilibriumResidual(model: Model, applied: ArrayLike<number>, re
 }
 
 /** Σ factor · vector. */
-export function linearCombination(vectors: ReadonlyArray<ArrayLike<number>>, factors: ReadonlyArray<number>, length: number): Float64Array {
+export function linearCombination(
+  vectors: ReadonlyArray<ArrayLike<number>>,
+  factors: ReadonlyArray<number>,
+  length: number,
+): Float64Array {
   const out = new Float64Array(length);
   vectors.forEach((v, c) => {
     const f = factors[c];

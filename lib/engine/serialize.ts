@@ -47,7 +47,9 @@ function caseToJson(result: AnalysisResult, r: CaseResult, supported: ReadonlyAr
   const members: Record<string, Json> = {};
   for (const id of result.memberIds) {
     const d = memberDiagram(result, id, r.id, { points: options.points || 2 });
-    members[id] = options.points ? ({ extremes: d.extremes, samples: d.samples } as unknown as Json) : (d.extremes as unknown as Json);
+    members[id] = options.points
+      ? ({ extremes: d.extremes, samples: d.samples } as unknown as Json)
+      : (d.extremes as unknown as Json);
   }
   return {
     kind: r.kind,
@@ -61,7 +63,13 @@ function caseToJson(result: AnalysisResult, r: CaseResult, supported: ReadonlyAr
   };
 }
 
-function envelopeToJson(result: AnalysisResult, e: VectorEnvelope, of: ReadonlyArray<string>, kind: "node" | "member", names: ReadonlyArray<string>): Json {
+function envelopeToJson(
+  result: AnalysisResult,
+  e: VectorEnvelope,
+  of: ReadonlyArray<string>,
+  kind: "node" | "member",
+  names: ReadonlyArray<string>,
+): Json {
   const ids = kind === "node" ? result.nodeIds : result.memberIds;
   const width = kind === "node" ? DOFS_PER_NODE : 6;
   const out: Record<string, Json> = {};
@@ -87,7 +95,9 @@ export function resultToJson(result: AnalysisResult, options: SerializeOptions =
       displacements: envelopeToJson(result, env.displacements, env.of, "node", DOF_NAMES),
       reactions: envelopeToJson(result, env.reactions, env.of, "node", FORCE_NAMES),
       endForces: envelopeToJson(result, env.endForces, env.of, "member", END_FORCE_NAMES),
-      diagramExtremes: Object.fromEntries(result.memberIds.map((m) => [m, memberEnvelope(result, m, id, { points: 2 }).extremes as unknown as Json])),
+      diagramExtremes: Object.fromEntries(
+        result.memberIds.map((m) => [m, memberEnvelope(result, m, id, { points: 2 }).extremes as unknown as Json]),
+      ),
     };
   }
   return {
@@ -97,7 +107,9 @@ export function resultToJson(result: AnalysisResult, options: SerializeOptions =
     stats: { ...result.stats },
     warnings: result.warnings.map((w) => ({ ...w })),
     loadCases: Object.fromEntries(Object.values(result.loadCases).map((r) => [r.id, caseToJson(result, r, supported, options)])),
-    combinations: Object.fromEntries(Object.values(result.combinations).map((r) => [r.id, caseToJson(result, r, supported, options)])),
+    combinations: Object.fromEntries(
+      Object.values(result.combinations).map((r) => [r.id, caseToJson(result, r, supported, options)]),
+    ),
     envelopes,
   };
 }

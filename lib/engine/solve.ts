@@ -5,9 +5,17 @@
 import type { Model } from "./model";
 import { DOF_NAMES, dofLocation, type DofMap } from "./dofs";
 import { unstableError, type EngineError } from "./diagnostics";
-import { FactorWorkspace, factorizeSymmetric, multiplySymmetric, type CholeskyFactor, type FactorStats, type SymmetricCsc } from "./sparse";
+import {
+  FactorWorkspace,
+  factorizeSymmetric,
+  multiplySymmetric,
+  type CholeskyFactor,
+  type FactorStats,
+  type SymmetricCsc,
+} from "./sparse";
 
-export type FactorOutcome = { ok: true; factor: CholeskyFactor; stats: FactorStats } | { ok: false; error: EngineError; stats: FactorStats };
+export type FactorOutcome =
+  { ok: true; factor: CholeskyFactor; stats: FactorStats } | { ok: false; error: EngineError; stats: FactorStats };
 
 /**
  * Storage for L shared by every analysis: the factor never leaves `analyze`, which is synchronous, so the

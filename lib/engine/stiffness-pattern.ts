@@ -99,7 +99,14 @@ export function stiffnessPattern(ends: Int32Array, dofs: DofMap): StiffnessPatte
  * Position in the pattern of K[row, col] (row ≥ col) where row is an equation of node `rowNode`, col of node
  * `colNode` (colNode ≤ rowNode), and `member` links them when the nodes differ.
  */
-export function patternPosition(pat: StiffnessPattern, member: number, rowNode: number, row: number, colNode: number, col: number): number {
+export function patternPosition(
+  pat: StiffnessPattern,
+  member: number,
+  rowNode: number,
+  row: number,
+  colNode: number,
+  col: number,
+): number {
   if (rowNode === colNode) return pat.colPtr[col] + row - col;
   const ownBelow = pat.firstEq[colNode] + pat.freeCount[colNode] - col;
   return pat.colPtr[col] + ownBelow + pat.memberOffset[member] + row - pat.firstEq[rowNode];

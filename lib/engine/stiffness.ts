@@ -42,7 +42,10 @@ export function assembleStiffness(members: ReadonlyArray<PreparedMember>, dofs: 
         if (eq[b] < 0) continue;
         const v = K[a * 6 + b];
         if (v === 0) continue;
-        const q = eq[a] >= eq[b] ? patternPosition(pat, m, nodeOf[a], eq[a], nodeOf[b], eq[b]) : patternPosition(pat, m, nodeOf[b], eq[b], nodeOf[a], eq[a]);
+        const q =
+          eq[a] >= eq[b]
+            ? patternPosition(pat, m, nodeOf[a], eq[a], nodeOf[b], eq[b])
+            : patternPosition(pat, m, nodeOf[b], eq[b], nodeOf[a], eq[a]);
         values[q] += v;
         touched[q] = 1;
       }

@@ -49,21 +49,34 @@ function checkDuplicates(model: Model, nodeIndex: IdLookup, memberIndex: IdLooku
     if (distinct === items.length) continue; // the index maps already prove the ids distinct
     const seen = new Set<string>();
     for (const item of items) {
-      if (seen.has(item.id)) out.push({ kind: "duplicate-id", entity, id: item.id, message: `Two ${entity}s share the id "${item.id}"` });
+      if (seen.has(item.id))
+        out.push({ kind: "duplicate-id", entity, id: item.id, message: `Two ${entity}s share the id "${item.id}"` });
       seen.add(item.id);
     }
   }
   // Results are looked up by id across cases and combinations, so those must not collide either.
   const caseIds = new Set(model.loadCases.map((c) => c.id));
   for (const c of model.combinations) {
-    if (caseIds.has(c.id)) out.push({ kind: "duplicate-id", entity: "combination", id: c.id, message: `Combination "${c.id}" has the same id as a load case` });
+    if (caseIds.has(c.id))
+      out.push({
+        kind: "duplicate-id",
+        entity: "combination",
+        id: c.id,
+        message: `Combination "${c.id}" has the same id as a load case`,
+      });
   }
 }
 
 function positive(value: number | undefined, where: string, property: string, out: EngineError[]): void {
   if (value !== undefined && !(value > 0)) {
     const path = `${where}.${property}`;
-    out.push({ kind: "non-positive-property", path, property, value, message: `${path} is ${value}; ${property} must be greater than zero` });
+    out.push({
+      kind: "non-positive-property",
+      path,
+      property,
+      value,
+      message: `${path} is ${value}; ${property} must be greater than zero`,
+    });
   }
 }
 
@@ -76,19 +89,38 @@ function checkMembers(model: Model, nodeIndex: IdLookup, memberEnds: Int32Array,
     const a = nodeIndex.get(m.start);
     const b = nodeIndex.get(m.end);
     if (a === undefined || b === undefined) {
-      for (const [end, n] of [["start", m.start], ["end", m.end]] as const) {
-        if (!nodeIndex.has(n)) out.push({ kind: "unknown-node", path: `members[${i}].${end}`, node: n, message: `Member ${m.id} refers to node "${n}", which does not exist` });
+      for (const [end, n] of [
+        ["start", m.start],
+        ["end", m.end],
+      ] as const) {
+        if (!nodeIndex.has(n))
+          out.push({
+            kind: "unknown-node",
+            path: `members[${i}].${end}`,
+            node: n,
+            message: `Member ${m.id} refers to node "${n}", which does not exist`,
+          });
       }
     } else {
       memberEnds[2 * i] = a;
       memberEnds[2 * i + 1] = b;
       const length = Math.hypot(model.nodes[b].x - model.nodes[a].x, model.nodes[b].y - model.nodes[a].y);
       if (!(length > ZERO_LENGTH_TOLERANCE * extent)) {
-        out.push({ kind: "zero-length-member", member: m.id, message: `Member ${m.id} has zero length: nodes ${m.start} and ${m.end} coincide` });
+        out.push({
+          kind: "zero-length-member",
+          member: m.id,
+          message: `Member ${m.id} has zero length: nodes ${m.start} and ${m.end} coincide`,
+        });
       } else lengths[i] = length;
     }
     // Paths are built only when something is wrong: large models should not pay for strings.
-    if (!(m.E > 0 && m.A > 0) || m.I !== undefined || m.cTop !== undefined || m.cBottom !== undefined || m.density !== undefined) {
+    if (
+      !(m.E > 0 && m.A > 0) ||
+      m.I !== undefined ||
+      m.cTop !== undefined ||
+      m.cBottom !== undefined ||
+      m.density !== undefined
+    ) {
       const where = `members[${i}]`;
       positive(m.E, where, "E", out);
       positive(m.A, where, "A", out);
@@ -98,7 +130,12 @@ function checkMembers(model: Model, nodeIndex: IdLookup, memberEnds: Int32Array,
       positive(m.density, where, "density", out);
     }
     if (m.kind === "frame" && m.I === undefined) {
-      out.push({ kind: "missing-property", member: m.id, property: "I", message: `Frame member ${m.id} needs I (second moment of area)` });
+      out.push({
+        kind: "missing-property",
+        member: m.id,
+        property: "I",
+        message: `Frame member ${m.id} needs I (second moment of area)`,
+      });
     }
   });
   return lengths;
@@ -109,14 +146,37 @@ function outside(x: number | undefined, L: number): boolean {
   return x !== undefined && (x < -1e-9 * L || x > L * (1 + 1e-9));
 }
 
-function checkMemberLoad(load: Exclude<Load, { kind: "nodal" | "self-weight" }>, L: number, where: string, out: EngineError[]): void {
-  const positions: [string, number | undefined][] = load.kind === "distributed" ? [["from", load.from], ["to", load.to]] : [["position", load.position]];
+function checkMemberLoad(
+  load: Exclude<Load, { kind: "nodal" | "self-weight" }>,
+  L: number,
+  where: string,
+  out: EngineError[],
+): void {
+  const positions: [string, number | undefined][] =
+    load.kind === "distributed"
+      ? [
+          ["from", load.from],
+          ["to", load.to],
+        ]
+      : [["position", load.position]];
   for (const [name, x] of positions) {
-    if (outside(x, L)) out.push({ kind: "load-outside-member", path: `${where}.${name}`, member: load.member, message: `${where}.${name} = ${x} m lies outside member ${load.member} (length ${L} m)` });
+    if (outside(x, L))
+      out.push({
+        kind: "load-outside-member",
+        path: `${where}.${name}`,
+        member: load.member,
+        message: `${where}.${name} = ${x} m lies outside member ${load.member} (length ${L} m)`,
+      });
   }
   if (load.kind !== "distributed") return;
-  if ((load.from ?? 0) >= (load.to ?? L)) out.push({ kind: "invalid-load", path: where, message: `${where}: "from" must be less than "to"` });
-  if (load.projected && load.direction.startsWith("local")) out.push({ kind: "invalid-load", path: `${where}.projected`, message: `${where}: projected intensities need a global direction` });
+  if ((load.from ?? 0) >= (load.to ?? L))
+    out.push({ kind: "invalid-load", path: where, message: `${where}: "from" must be less than "to"` });
+  if (load.projected && load.direction.startsWith("local"))
+    out.push({
+      kind: "invalid-load",
+      path: `${where}.projected`,
+      message: `${where}: projected intensities need a global direction`,
+    });
 }
 
 function checkLoads(model: Model, nodeIndex: IdLookup, memberIndex: IdLookup, lengths: Float64Array, out: EngineError[]): void {
@@ -126,12 +186,23 @@ function checkLoads(model: Model, nodeIndex: IdLookup, memberIndex: IdLookup, le
       const load = loads[l];
       if (load.kind === "self-weight") continue;
       if (load.kind === "nodal") {
-        if (!nodeIndex.has(load.node)) out.push({ kind: "unknown-node", path: `loadCases[${c}].loads[${l}].node`, node: load.node, message: `A load in case ${lc.id} acts on node "${load.node}", which does not exist` });
+        if (!nodeIndex.has(load.node))
+          out.push({
+            kind: "unknown-node",
+            path: `loadCases[${c}].loads[${l}].node`,
+            node: load.node,
+            message: `A load in case ${lc.id} acts on node "${load.node}", which does not exist`,
+          });
         continue;
       }
       const m = memberIndex.get(load.member);
       if (m === undefined) {
-        out.push({ kind: "unknown-member", path: `loadCases[${c}].loads[${l}].member`, member: load.member, message: `A load in case ${lc.id} acts on member "${load.member}", which does not exist` });
+        out.push({
+          kind: "unknown-member",
+          path: `loadCases[${c}].loads[${l}].member`,
+          member: load.member,
+          message: `A load in case ${lc.id} acts on member "${load.member}", which does not exist`,
+        });
         continue;
       }
       const L = lengths[m];
@@ -156,19 +227,36 @@ function checkResultReferences(model: Model, out: EngineError[]): void {
       const path = `nodes[${i}].support.${dir}`;
       if (r.kind === "spring") positive(r.stiffness, path, "stiffness", out);
       else if (r.loadCase !== undefined && !caseIds.has(r.loadCase)) {
-        out.push({ kind: "unknown-load-case", path: `${path}.loadCase`, loadCase: r.loadCase, message: `Node ${n.id} settles in load case "${r.loadCase}", which does not exist` });
+        out.push({
+          kind: "unknown-load-case",
+          path: `${path}.loadCase`,
+          loadCase: r.loadCase,
+          message: `Node ${n.id} settles in load case "${r.loadCase}", which does not exist`,
+        });
       }
     }
   });
   model.combinations.forEach((combo, i) => {
     for (const caseId of Object.keys(combo.factors)) {
-      if (!caseIds.has(caseId)) out.push({ kind: "unknown-load-case", path: `combinations[${i}].factors.${caseId}`, loadCase: caseId, message: `Combination ${combo.id} uses load case "${caseId}", which does not exist` });
+      if (!caseIds.has(caseId))
+        out.push({
+          kind: "unknown-load-case",
+          path: `combinations[${i}].factors.${caseId}`,
+          loadCase: caseId,
+          message: `Combination ${combo.id} uses load case "${caseId}", which does not exist`,
+        });
     }
   });
   const resultIds = new Set([...caseIds, ...model.combinations.map((c) => c.id)]);
   model.envelopes.forEach((env, i) => {
     env.of.forEach((rid, j) => {
-      if (!resultIds.has(rid)) out.push({ kind: "unknown-result", path: `envelopes[${i}].of[${j}]`, id: rid, message: `Envelope ${env.id} includes "${rid}", which is neither a load case nor a combination` });
+      if (!resultIds.has(rid))
+        out.push({
+          kind: "unknown-result",
+          path: `envelopes[${i}].of[${j}]`,
+          id: rid,
+          message: `Envelope ${env.id} includes "${rid}", which is neither a load case nor a combination`,
+        });
     });
   });
 }

@@ -1,15 +1,15 @@
 import "server-only";
 // Outgoing e-mail through SMTP (the fake SMTP server of `npm start` / `npm test`, or the firm's relay).
-// Settings are read when a message is sent, not at import, so a test can point SMTP_* elsewhere.
+// Only the worker sends (lib/jobs/worker.ts); the app queues mail in the transaction that caused it.
 import nodemailer, { type Transporter } from "nodemailer";
+import { serverEnv } from "@/lib/server-env";
 
 export type OutgoingMail = { to: string; subject: string; text: string; html: string };
 
 let cached: { key: string; transporter: Transporter } | null = null;
 
 function getTransporter(): Transporter {
-  const host = process.env.SMTP_HOST ?? "127.0.0.1";
-  const port = Number(process.env.SMTP_PORT ?? 2525);
+  const { SMTP_HOST: host, SMTP_PORT: port } = serverEnv();
   const key = `${host}:${port}`;
   if (cached?.key !== key) {
     // The loopback fake speaks plain SMTP; a real relay would be configured with TLS here.
@@ -19,7 +19,7 @@ function getTransporter(): Transporter {
 }
 
 export function getMailFrom(): string {
-  return process.env.MAIL_FROM ?? "Gusset <no-reply@gusset.example>";
+  return serverEnv().MAIL_FROM;
 }
 
 export async function sendMail(mail: OutgoingMail): Promise<{ messageId: string }> {

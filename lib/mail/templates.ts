@@ -1,5 +1,5 @@
 // The e-mails Gusset sends. Plain wording, the link on its own line, no tracking, nothing to install.
-import { ROLE_LABELS, type Role } from "@/lib/auth/roles";
+import { ROLE_LABELS, type Role } from "@/lib/domain/roles";
 import type { OutgoingMail } from "./send-mail";
 
 function escapeHtml(value: string): string {

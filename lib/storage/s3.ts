@@ -4,28 +4,23 @@ import "server-only";
 // and no error.
 import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
+import { requireSetting, serverEnv } from "@/lib/server-env";
 
 type StorageConfig = { client: S3Client; bucket: string };
 
 let cached: { key: string; config: StorageConfig } | null = null;
 
-function requireEnv(name: string): string {
-  const value = process.env[name];
-  if (!value) throw new Error(`${name} is not set (npm start and npm test set it).`);
-  return value;
-}
-
-/** Read from the environment when first used, so a script or test may set S3_* before. */
+/** Made when first used. */
 export function getStorage(): StorageConfig {
-  const endpoint = requireEnv("S3_ENDPOINT");
-  const bucket = requireEnv("S3_BUCKET");
+  const endpoint = requireSetting("S3_ENDPOINT");
+  const bucket = requireSetting("S3_BUCKET");
   const key = `${endpoint}|${bucket}`;
   if (cached?.key !== key) {
     const client = new S3Client({
       endpoint,
-      region: process.env.S3_REGION ?? "us-east-1",
+      region: serverEnv().S3_REGION,
       forcePathStyle: true,
-      credentials: { accessKeyId: requireEnv("S3_ACCESS_KEY_ID"), secretAccessKey: requireEnv("S3_SECRET_ACCESS_KEY") },
+      credentials: { accessKeyId: requireSetting("S3_ACCESS_KEY_ID"), secretAccessKey: requireSetting("S3_SECRET_ACCESS_KEY") },
       requestChecksumCalculation: "WHEN_REQUIRED",
       responseChecksumValidation: "WHEN_REQUIRED",
     });

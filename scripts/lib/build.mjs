@@ -6,8 +6,16 @@ import { SetupError, pidAlive, runAsync, say } from "./processes.mjs";
 
 const SOURCE_DIRS = ["app", "components", "lib", "db", "content", "public"];
 const SOURCE_FILES = [
-  "next.config.ts", "package.json", "package-lock.json", "tsconfig.json", "postcss.config.mjs",
-  "tailwind.config.ts", "proxy.ts", "middleware.ts", "instrumentation.ts", "mdx-components.tsx",
+  "next.config.ts",
+  "package.json",
+  "package-lock.json",
+  "tsconfig.json",
+  "postcss.config.mjs",
+  "tailwind.config.ts",
+  "proxy.ts",
+  "middleware.ts",
+  "instrumentation.ts",
+  "mdx-components.tsx",
 ];
 
 function newestMtime(entry) {
@@ -67,7 +75,11 @@ async function withBuildLock(lockFile, work) {
  */
 async function syncEngineIdentity(env) {
   const check = Boolean((env ?? process.env).CI);
-  await runAsync(path.join(repoRoot, "node_modules", ".bin", "tsx"), ["scripts/engine-identity.ts", ...(check ? ["--check"] : [])], { cwd: repoRoot, env });
+  await runAsync(
+    path.join(repoRoot, "node_modules", ".bin", "tsx"),
+    ["scripts/engine-identity.ts", ...(check ? ["--check"] : [])],
+    { cwd: repoRoot, env },
+  );
 }
 
 /** Builds when stale. Returns true when it built. */

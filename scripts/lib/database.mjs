@@ -23,7 +23,10 @@ export async function seed(env) {
 export async function demoSignIns(env) {
   if (!fs.existsSync(path.join(repoRoot, "db", "demo-users.ts"))) return null;
   const result = await runAsync(tsx, ["--conditions=react-server", "scripts/lib/demo-users.ts"], {
-    cwd: repoRoot, env, quiet: true, allowFailure: true,
+    cwd: repoRoot,
+    env,
+    quiet: true,
+    allowFailure: true,
   });
   try {
     if (result.status !== 0) throw new Error(result.stderr.trim());

@@ -16,7 +16,10 @@ function psql(port, database, sql, { allowFailure = false } = {}) {
 }
 
 function isReady(port) {
-  return run(`${PG_BIN}/pg_isready`, ["-h", "127.0.0.1", "-p", String(port), "-t", "2"], { quiet: true, allowFailure: true }).status === 0;
+  return (
+    run(`${PG_BIN}/pg_isready`, ["-h", "127.0.0.1", "-p", String(port), "-t", "2"], { quiet: true, allowFailure: true })
+      .status === 0
+  );
 }
 
 function realpathOrSelf(p) {
@@ -53,7 +56,14 @@ function initCluster(layout) {
   if (fs.existsSync(path.join(layout.pgData, "PG_VERSION"))) return false;
   say(`creating the PostgreSQL cluster in ${layout.pgData}`);
   const [cmd, args] = asClusterOwner(`${PG_BIN}/initdb`, [
-    "-D", layout.pgData, "-U", "postgres", "--auth=trust", "-E", "UTF8", "--locale=C.UTF-8",
+    "-D",
+    layout.pgData,
+    "-U",
+    "postgres",
+    "--auth=trust",
+    "-E",
+    "UTF8",
+    "--locale=C.UTF-8",
   ]);
   run(cmd, args, { quiet: true });
   return true;
@@ -80,7 +90,16 @@ export async function ensurePostgres({ layout, port, fast = false }) {
   const options = [`-c listen_addresses=127.0.0.1`, `-c port=${port}`, `-c unix_socket_directories=''`];
   if (fast) options.push("-c fsync=off", "-c synchronous_commit=off", "-c full_page_writes=off");
   const [cmd, args] = asClusterOwner(`${PG_BIN}/pg_ctl`, [
-    "-D", layout.pgData, "-l", layout.pgLog, "-w", "-t", "60", "-o", options.join(" "), "start",
+    "-D",
+    layout.pgData,
+    "-l",
+    layout.pgLog,
+    "-w",
+    "-t",
+    "60",
+    "-o",
+    options.join(" "),
+    "start",
   ]);
   const result = run(cmd, args, { quiet: true, allowFailure: true });
   if (result.status !== 0) {
@@ -96,7 +115,16 @@ export async function ensurePostgres({ layout, port, fast = false }) {
         fs.rmSync(path.join(layout.pgData, "postmaster.pid"), { force: true }); // died already: pg_ctl would wait on it
         return;
       }
-      const [stopCmd, stopArgs] = asClusterOwner(`${PG_BIN}/pg_ctl`, ["-D", layout.pgData, "-m", "fast", "-w", "-t", "30", "stop"]);
+      const [stopCmd, stopArgs] = asClusterOwner(`${PG_BIN}/pg_ctl`, [
+        "-D",
+        layout.pgData,
+        "-m",
+        "fast",
+        "-w",
+        "-t",
+        "30",
+        "stop",
+      ]);
       run(stopCmd, stopArgs, { quiet: true });
     },
   };

@@ -114,7 +114,8 @@ export async function waitFor(what, check, { timeoutMs = 60_000, intervalMs = 15
   const deadline = Date.now() + timeoutMs;
   const log = () => (logFile ? tailOf(logFile) : "");
   while (Date.now() < deadline) {
-    if (child && child.exitCode !== null) throw new SetupError(`${what} exited (code ${child.exitCode}) before it was ready${log()}`);
+    if (child && child.exitCode !== null)
+      throw new SetupError(`${what} exited (code ${child.exitCode}) before it was ready${log()}`);
     if (await check()) return;
     await new Promise((resolve) => setTimeout(resolve, intervalMs));
   }

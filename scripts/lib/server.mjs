@@ -3,7 +3,16 @@ import fs from "node:fs";
 import path from "node:path";
 import { repoRoot } from "./env.mjs";
 import {
-  SetupError, commandLineOf, cwdOf, httpGet, pidAlive, portAnswers, say, spawnService, stopChild, waitFor,
+  SetupError,
+  commandLineOf,
+  cwdOf,
+  httpGet,
+  pidAlive,
+  portAnswers,
+  say,
+  spawnService,
+  stopChild,
+  waitFor,
 } from "./processes.mjs";
 
 function pidFileFor(layout, port) {

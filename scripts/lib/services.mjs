@@ -1,11 +1,13 @@
-// The services both commands need before the app: PostgreSQL with a migrated, seeded database, and the
-// fake SMTP and S3. The database chain and the fakes start side by side.
+// The services both commands need before the app: PostgreSQL with a migrated, seeded database, the
+// fake SMTP and S3, and the background worker. The database chain and the fakes start side by side;
+// the worker once both are up (it needs the queue schema and sends to the fake SMTP).
 import { migrate, seed } from "./database.mjs";
 import { ensureFakeS3, ensureFakeSmtp } from "./fakes.mjs";
 import { portsFor } from "./env.mjs";
 import { allOrFirstError, say } from "./processes.mjs";
 import { createDatabaseIfMissing, ensurePostgres, recreateDatabase } from "./postgres.mjs";
 import { runningServerPid } from "./server.mjs";
+import { startWorkerProcess } from "./worker.mjs";
 
 // One cluster serves both commands: `npm test` run while `npm start` serves (or the other way round)
 // reuses the cluster the first one started, which must then not stop it under the other's feet.
@@ -41,4 +43,5 @@ export async function prepareServices({ setup, env, registry, timer, fresh }) {
       ]),
     );
   await allOrFirstError([databaseChain(), fakes()]);
+  await timer.phase("worker", () => startWorkerProcess({ env, layout, profile, registry }));
 }

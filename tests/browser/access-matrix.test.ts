@@ -12,8 +12,8 @@ import fs from "node:fs";
 import path from "node:path";
 import { isDeepStrictEqual } from "node:util";
 import { beforeAll, describe, expect, it } from "vitest";
-import type { Role } from "@/lib/auth/roles";
-import { DEFAULT_MESSAGES } from "@/lib/errors";
+import type { Role } from "@/lib/domain/roles";
+import { DEFAULT_MESSAGES } from "@/lib/domain/errors";
 import { ACTION_FIXTURES, type ActionAnswer } from "../integration/helpers/action-fixtures";
 import { appUrl, testEnv } from "../support/env";
 import { DEMO_BY_ROLE, demoSession, isFakeMailInUse, journeyTimeout, whoAmI, type SessionCookie } from "../support/pages";
@@ -29,7 +29,7 @@ const ROLES: Role[] = ["admin", "lead", "engineer", "auditor"];
 type PageOutcome = "ok" | "sign-in" | "home" | "forbidden" | "not-found";
 /** ok: the route's answer · unauthenticated: 401 · forbidden: 403 · not-found: 404 (the last three change nothing). */
 type ApiOutcome = "ok" | "unauthenticated" | "forbidden" | "not-found";
-/** ok: the action did its work · unauthenticated / forbidden: the guard refused and nothing changed. */
+/** ok: the action did its work · unauthenticated / forbidden: the use-case runner refused and nothing changed. */
 type ActionOutcome = "ok" | "unauthenticated" | "forbidden";
 
 const REFUSED_PAGE: readonly PageOutcome[] = ["sign-in", "forbidden", "not-found"];
@@ -38,10 +38,12 @@ const mailboxInUse = await isFakeMailInUse();
 
 /** Signed-in pages: anonymous → sign in; the named roles → the page; the others → 403. */
 function signedInPage(...allowed: Role[]): Record<Who, PageOutcome> {
-  return Object.fromEntries(EVERYONE.map((who) => [who, who === "anonymous" ? "sign-in" : allowed.includes(who) ? "ok" : "forbidden"])) as Record<Who, PageOutcome>;
+  return Object.fromEntries(
+    EVERYONE.map((who) => [who, who === "anonymous" ? "sign-in" : allowed.includes(who) ? "ok" : "forbidden"]),
+  ) as Record<Who, PageOutcome>;
 }
-const same = <T,>(outcome: T) => Object.fromEntries(EVERYONE.map((who) => [who, outcome])) as Record<Who, T>;
-const anonymousElse = <T,>(anonymous: T, signedIn: T) =>
+const same = <T>(outcome: T) => Object.fromEntries(EVERYONE.map((who) => [who, outcome])) as Record<Who, T>;
+const anonymousElse = <T>(anonymous: T, signedIn: T) =>
   Object.fromEntries(EVERYONE.map((who) => [who, who === "anonymous" ? anonymous : signedIn])) as Record<Who, T>;
 
 /** Keyed by the build's app-paths-manifest entry; `path` is a concrete URL for it, `title` the page's own. */
@@ -49,8 +51,16 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
   "/page": { path: "/", expect: anonymousElse<PageOutcome>("sign-in", "home") },
   "/(auth)/sign-in/page": { path: "/sign-in", title: "Sign in", expect: anonymousElse<PageOutcome>("ok", "home") },
   "/(auth)/forgot-password/page": { path: "/forgot-password", title: "Forgot password", expect: same<PageOutcome>("ok") },
-  "/(auth)/reset-password/page": { path: "/reset-password?token=not-a-real-token", title: "Choose a new password", expect: same<PageOutcome>("ok") },
-  "/(auth)/invite/[token]/page": { path: "/invite/not-a-real-token", title: "Accept your invitation", expect: same<PageOutcome>("ok") },
+  "/(auth)/reset-password/page": {
+    path: "/reset-password?token=not-a-real-token",
+    title: "Choose a new password",
+    expect: same<PageOutcome>("ok"),
+  },
+  "/(auth)/invite/[token]/page": {
+    path: "/invite/not-a-real-token",
+    title: "Accept your invitation",
+    expect: same<PageOutcome>("ok"),
+  },
   "/(app)/home/page": { path: "/home", title: "Home", expect: signedInPage("admin", "lead", "engineer", "auditor") },
   "/(app)/library/page": { path: "/library", title: "Library", expect: signedInPage("lead", "engineer", "auditor") },
   "/(app)/projects/page": { path: "/projects", title: "Projects", expect: signedInPage("lead", "engineer", "auditor") },
@@ -130,7 +140,11 @@ const API_ROUTES: Record<string, ApiRow> = {
     expect: same<ApiOutcome>("ok"),
     ok: (answer) => expect([answer.status, jsonOf(answer)]).toEqual([200, { ok: true }]),
   },
-  "HEAD /api/health/route": { path: "/api/health", expect: same<ApiOutcome>("ok"), ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]) },
+  "HEAD /api/health/route": {
+    path: "/api/health",
+    expect: same<ApiOutcome>("ok"),
+    ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]),
+  },
   "OPTIONS /api/health/route": OPTIONS_ROW("/api/health", ALLOW_GET),
   "GET /api/me/route": {
     path: "/api/me",
@@ -177,13 +191,19 @@ const API_ROUTES: Record<string, ApiRow> = {
       expect(answer.text).toMatch(/^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
     },
   },
-  "HEAD /icon.svg/route": { path: "/icon.svg", expect: same<ApiOutcome>("ok"), ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]) },
+  "HEAD /icon.svg/route": {
+    path: "/icon.svg",
+    expect: same<ApiOutcome>("ok"),
+    ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]),
+  },
 };
 
 // ---- server actions ------------------------------------------------------------------------------
 
 function adminOnlyAction(): Record<Who, ActionOutcome> {
-  return Object.fromEntries(EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "admin" ? "ok" : "forbidden"])) as Record<Who, ActionOutcome>;
+  return Object.fromEntries(
+    EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "admin" ? "ok" : "forbidden"]),
+  ) as Record<Who, ActionOutcome>;
 }
 
 /**
@@ -218,7 +238,10 @@ const builtActions = [...Object.entries(manifestActions.node), ...Object.entries
 
 /** "app/(app)/admin/users/page" → "/admin/users"; dynamic segments get a harmless value. */
 function pageUrlOfWorker(worker: string): string {
-  const segments = worker.replace(/^app\//, "").replace(/\/page$/, "").split("/");
+  const segments = worker
+    .replace(/^app\//, "")
+    .replace(/\/page$/, "")
+    .split("/");
   const url = segments.filter((s) => !/^\(.*\)$/.test(s)).map((s) => (/^\[.*\]$/.test(s) ? "not-a-real-value" : s));
   return `/${url.join("/")}`;
 }
@@ -268,7 +291,12 @@ async function pageOutcome(who: Who, url: string, title: string | undefined): Pr
 async function askRoute(who: Who, method: string, row: ApiRow): Promise<Answer> {
   const headers: Record<string, string> = { ...headersFor(who), Origin: testEnv.baseUrl };
   if (row.body) headers["Content-Type"] = "application/json";
-  const response = await fetch(appUrl(row.path), { method, headers, body: row.body ? JSON.stringify(row.body) : undefined, redirect: "manual" });
+  const response = await fetch(appUrl(row.path), {
+    method,
+    headers,
+    body: row.body ? JSON.stringify(row.body) : undefined,
+    redirect: "manual",
+  });
   return { status: response.status, headers: response.headers, text: await response.text() };
 }
 
@@ -278,7 +306,9 @@ function apiOutcome(method: string, answer: Answer): ApiOutcome | string {
   const code = answer.status === 401 ? "unauthenticated" : "forbidden";
   if (method === "HEAD") return code; // no body to read
   const body = JSON.parse(answer.text) as unknown;
-  return JSON.stringify(body) === JSON.stringify({ error: { code, message: DEFAULT_MESSAGES[code] } }) ? code : `${answer.status} ${answer.text}`;
+  return JSON.stringify(body) === JSON.stringify({ error: { code, message: DEFAULT_MESSAGES[code] } })
+    ? code
+    : `${answer.status} ${answer.text}`;
 }
 
 /**
@@ -299,7 +329,12 @@ async function callAction(who: Who, action: (typeof builtActions)[number], input
   const redirect = response.headers.get("x-action-redirect");
   const text = await response.text();
   if (redirect) return { redirect: redirect.split(";")[0] };
-  const rows = new Map(text.split("\n").filter(Boolean).map((line) => [line.slice(0, line.indexOf(":")), line.slice(line.indexOf(":") + 1)]));
+  const rows = new Map(
+    text
+      .split("\n")
+      .filter(Boolean)
+      .map((line) => [line.slice(0, line.indexOf(":")), line.slice(line.indexOf(":") + 1)]),
+  );
   const root = JSON.parse(rows.get("0") ?? "null") as { a?: string } | null;
   const resultRow = root?.a?.startsWith("$@") ? rows.get(root.a.slice(2)) : undefined;
   if (!resultRow) return `status ${response.status}, no action result in: ${text.slice(0, 200)}`;
@@ -311,8 +346,14 @@ async function callAction(who: Who, action: (typeof builtActions)[number], input
 describe("every route, method and action in the build has a row", () => {
   it("pages and route handlers", () => {
     const covered = new Set([...Object.keys(PAGES), ...Object.keys(API_ROUTES).map((key) => key.split(" ")[1]), ...NOT_ROUTES]);
-    expect(routeEntries.filter((entry) => !covered.has(entry)), "routes without an expected answer").toEqual([]);
-    expect([...covered].filter((entry) => !routeEntries.includes(entry)), "rows for routes that no longer exist").toEqual([]);
+    expect(
+      routeEntries.filter((entry) => !covered.has(entry)),
+      "routes without an expected answer",
+    ).toEqual([]);
+    expect(
+      [...covered].filter((entry) => !routeEntries.includes(entry)),
+      "rows for routes that no longer exist",
+    ).toEqual([]);
   });
 
   it("every method each route handler answers", async () => {
@@ -328,8 +369,14 @@ describe("every route, method and action in the build has a row", () => {
 
   it("server actions", () => {
     const keys = builtActions.map((action) => action.key);
-    expect(keys.filter((key) => !(key in ACTIONS)), "server actions without an expected answer").toEqual([]);
-    expect(Object.keys(ACTIONS).filter((key) => !keys.includes(key)), "rows for actions that no longer exist").toEqual([]);
+    expect(
+      keys.filter((key) => !(key in ACTIONS)),
+      "server actions without an expected answer",
+    ).toEqual([]);
+    expect(
+      Object.keys(ACTIONS).filter((key) => !keys.includes(key)),
+      "rows for actions that no longer exist",
+    ).toEqual([]);
     expect(Object.keys(ACTION_FIXTURES).sort(), "an input for every row").toEqual(Object.keys(ACTIONS).sort());
   });
 });
@@ -355,7 +402,15 @@ describe("pages", () => {
 describe("signing in brings people back", () => {
   const signedInPages = Object.values(PAGES).filter(({ expect: e }) => e.anonymous === "sign-in" && e.admin !== "home");
   it("applies to every signed-in page", () => {
-    expect(signedInPages.map((page) => page.path)).toEqual(["/home", "/library", "/projects", "/runs", "/audit", "/admin/users", "/admin/mailbox"]);
+    expect(signedInPages.map((page) => page.path)).toEqual([
+      "/home",
+      "/library",
+      "/projects",
+      "/runs",
+      "/audit",
+      "/admin/users",
+      "/admin/mailbox",
+    ]);
   });
   for (const { path: url } of signedInPages) {
     it(`anonymous ${url} → /sign-in?next=${url}`, async () => {

@@ -5,7 +5,15 @@ import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, expect, it } from "vitest";
 import { launchBrowser } from "../support/browser";
 import { appUrl } from "../support/env";
-import { AppShell, PeoplePage, SignInPage, invitePersonAndAccept, journeyTimeout, openPeopleAsAdmin, uniqueEmail } from "../support/pages";
+import {
+  AppShell,
+  PeoplePage,
+  SignInPage,
+  invitePersonAndAccept,
+  journeyTimeout,
+  openPeopleAsAdmin,
+  uniqueEmail,
+} from "../support/pages";
 
 let browser: Browser;
 
@@ -17,49 +25,63 @@ afterAll(async () => {
   await browser?.close();
 });
 
-it("an admin's deactivation ends the person's open session at their next navigation", async () => {
-  const person = { name: "Ines Halloran-Beck", email: uniqueEmail("leaver"), role: "engineer" as const, password: "leaving-the-firm-soon" };
-  const { password } = person;
+it(
+  "an admin's deactivation ends the person's open session at their next navigation",
+  async () => {
+    const person = {
+      name: "Ines Halloran-Beck",
+      email: uniqueEmail("leaver"),
+      role: "engineer" as const,
+      password: "leaving-the-firm-soon",
+    };
+    const { password } = person;
 
-  // The person joins by invitation and is signed in, working on the projects page.
-  const { context: adminContext, people } = await openPeopleAsAdmin(browser);
-  const { context: personContext, page } = await invitePersonAndAccept(browser, people, person);
-  await page.goto(appUrl("/projects"));
-  await page.getByTestId("projects-table").waitFor();
+    // The person joins by invitation and is signed in, working on the projects page.
+    const { context: adminContext, people } = await openPeopleAsAdmin(browser);
+    const { context: personContext, page } = await invitePersonAndAccept(browser, people, person);
+    await page.goto(appUrl("/projects"));
+    await page.getByTestId("projects-table").waitFor();
 
-  // The admin deactivates them.
-  await people.goto();
-  await people.deactivate(person.email);
+    // The admin deactivates them.
+    await people.goto();
+    await people.deactivate(person.email);
 
-  // Their next navigation — client-side, through the menu — lands on sign-in.
-  await page.getByTestId("nav-home").click();
-  await page.waitForURL((url) => url.pathname === "/sign-in", { timeout: 15_000 });
-  // A full page load does too, and /api/me no longer knows them.
-  await page.goto(appUrl("/projects"));
-  expect(new URL(page.url()).pathname).toBe("/sign-in");
-  const me = await page.request.get(appUrl("/api/me"));
-  expect(me.status()).toBe(401);
+    // Their next navigation — client-side, through the menu — lands on sign-in.
+    await page.getByTestId("nav-home").click();
+    await page.waitForURL((url) => url.pathname === "/sign-in", { timeout: 15_000 });
+    // A full page load does too, and /api/me no longer knows them.
+    await page.goto(appUrl("/projects"));
+    expect(new URL(page.url()).pathname).toBe("/sign-in");
+    const me = await page.request.get(appUrl("/api/me"));
+    expect(me.status()).toBe(401);
 
-  // Signing in again is refused, saying why.
-  const signIn = new SignInPage(page);
-  expect(await signIn.attempt(person.email, password)).toBe("error");
-  expect(await signIn.formError().textContent()).toMatch(/deactivated/i);
+    // Signing in again is refused, saying why.
+    const signIn = new SignInPage(page);
+    expect(await signIn.attempt(person.email, password)).toBe("error");
+    expect(await signIn.formError().textContent()).toMatch(/deactivated/i);
 
-  // Reactivated, they can sign in again.
-  await people.reactivate(person.email);
-  await signIn.goto();
-  await signIn.signIn(person.email, password);
-  await new AppShell(page).home().waitFor();
+    // Reactivated, they can sign in again.
+    await people.reactivate(person.email);
+    await signIn.goto();
+    await signIn.signIn(person.email, password);
+    await new AppShell(page).home().waitFor();
 
-  await personContext.close();
-  await adminContext.close();
-}, journeyTimeout(3));
+    await personContext.close();
+    await adminContext.close();
+  },
+  journeyTimeout(3),
+);
 
 it("a refusal from the server shows on that person's row, in its words", async () => {
   // Two admin tabs: one deactivates the person, the other (not yet refreshed) then tries the same.
   // The server refuses the second (the last-admin rule gives the same kind of refusal; it is tested
   // against the data layer, where the number of admins is under the test's control).
-  const person = { name: "Ottilie Brandvold", email: uniqueEmail("twice"), role: "auditor" as const, password: "deactivated-twice-over" };
+  const person = {
+    name: "Ottilie Brandvold",
+    email: uniqueEmail("twice"),
+    role: "auditor" as const,
+    password: "deactivated-twice-over",
+  };
   const { context: adminContext, people } = await openPeopleAsAdmin(browser);
   const { context: personContext } = await invitePersonAndAccept(browser, people, person);
   await personContext.close();

@@ -37,18 +37,26 @@ async function expectStillSignedOut() {
   expect(cookies.some((cookie) => cookie.name.includes("session_token"))).toBe(false);
 }
 
-it("wrong password: says the e-mail and password do not match", async () => {
-  const admin = DEMO_BY_ROLE.admin;
-  expect(await signIn.attempt(admin.email, `${admin.password}-wrong`)).toBe("error");
-  expect(await signIn.formError().textContent()).toMatch(/do not match/i);
-  await expectStillSignedOut();
-}, journeyTimeout(1));
+it(
+  "wrong password: says the e-mail and password do not match",
+  async () => {
+    const admin = DEMO_BY_ROLE.admin;
+    expect(await signIn.attempt(admin.email, `${admin.password}-wrong`)).toBe("error");
+    expect(await signIn.formError().textContent()).toMatch(/do not match/i);
+    await expectStillSignedOut();
+  },
+  journeyTimeout(1),
+);
 
-it("unknown e-mail: the same words as a wrong password, so nobody can probe who has an account", async () => {
-  expect(await signIn.attempt(uniqueEmail("nobody"), "correct-horse-battery")).toBe("error");
-  expect(await signIn.formError().textContent()).toMatch(/do not match/i);
-  await expectStillSignedOut();
-}, journeyTimeout(1));
+it(
+  "unknown e-mail: the same words as a wrong password, so nobody can probe who has an account",
+  async () => {
+    expect(await signIn.attempt(uniqueEmail("nobody"), "correct-horse-battery")).toBe("error");
+    expect(await signIn.formError().textContent()).toMatch(/do not match/i);
+    await expectStillSignedOut();
+  },
+  journeyTimeout(1),
+);
 
 it("malformed e-mail: caught beside the field before anything is sent", async () => {
   await signIn.fillAndSubmit("not-an-email", "long-enough-password");

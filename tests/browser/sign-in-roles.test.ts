@@ -3,7 +3,7 @@
 // ROLE_PERMISSIONS) so that a change to the permissions table shows up here as a deliberate edit.
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { ROLE_LABELS, type Role } from "@/lib/auth/roles";
+import { ROLE_LABELS, type Role } from "@/lib/domain/roles";
 import { launchBrowser } from "../support/browser";
 import { testEnv } from "../support/env";
 import { AppShell, DEMO_BY_ROLE, SignInPage, isFakeMailInUse, journeyTimeout } from "../support/pages";
@@ -38,30 +38,34 @@ afterAll(async () => {
 
 describe("signing in as each role", () => {
   for (const role of ["admin", "lead", "engineer", "auditor"] as const) {
-    it(`${role}: home, navigation, name and role, sign-out`, async () => {
-      const context = await browser.newContext();
-      const page = await context.newPage();
-      const { email, password, name } = DEMO_BY_ROLE[role];
+    it(
+      `${role}: home, navigation, name and role, sign-out`,
+      async () => {
+        const context = await browser.newContext();
+        const page = await context.newPage();
+        const { email, password, name } = DEMO_BY_ROLE[role];
 
-      const signIn = new SignInPage(page);
-      await signIn.goto();
-      await signIn.signIn(email, password);
-      expect(new URL(page.url()).pathname).toBe("/home");
+        const signIn = new SignInPage(page);
+        await signIn.goto();
+        await signIn.signIn(email, password);
+        expect(new URL(page.url()).pathname).toBe("/home");
 
-      const shell = new AppShell(page);
-      await shell.home().waitFor();
-      expect(await shell.home().getAttribute("data-role")).toBe(role);
-      expect(await page.getByTestId(HOME_PANEL[role]).isVisible()).toBe(true);
-      expect(await shell.navLabels()).toEqual(EXPECTED_NAV[role]);
-      expect((await shell.userName().textContent())?.trim()).toBe(name);
-      expect((await shell.userRole().textContent())?.trim()).toBe(ROLE_LABELS[role]);
+        const shell = new AppShell(page);
+        await shell.home().waitFor();
+        expect(await shell.home().getAttribute("data-role")).toBe(role);
+        expect(await page.getByTestId(HOME_PANEL[role]).isVisible()).toBe(true);
+        expect(await shell.navLabels()).toEqual(EXPECTED_NAV[role]);
+        expect((await shell.userName().textContent())?.trim()).toBe(name);
+        expect((await shell.userRole().textContent())?.trim()).toBe(ROLE_LABELS[role]);
 
-      await shell.signOut();
-      expect(new URL(page.url()).pathname).toBe("/sign-in");
-      // Signed out means signed out: the home page sends us back to sign in.
-      await page.goto(new URL("/home", testEnv.baseUrl).toString());
-      expect(new URL(page.url()).pathname).toBe("/sign-in");
-      await context.close();
-    }, journeyTimeout(1));
+        await shell.signOut();
+        expect(new URL(page.url()).pathname).toBe("/sign-in");
+        // Signed out means signed out: the home page sends us back to sign in.
+        await page.goto(new URL("/home", testEnv.baseUrl).toString());
+        expect(new URL(page.url()).pathname).toBe("/sign-in");
+        await context.close();
+      },
+      journeyTimeout(1),
+    );
   }
 });

@@ -11,7 +11,13 @@ const L = 6;
 const w = 12e3;
 const P = 50e3;
 const udl = (member = "m1") => ({ kind: "distributed" as const, member, direction: "global-y" as const, wStart: -w });
-const point = (position: number, member = "m1") => ({ kind: "point" as const, member, direction: "global-y" as const, position, value: -P });
+const point = (position: number, member = "m1") => ({
+  kind: "point" as const,
+  member,
+  direction: "global-y" as const,
+  position,
+  value: -P,
+});
 
 describe("simply supported beam", () => {
   it("uniform load", () => {
@@ -53,7 +59,9 @@ describe("simply supported beam", () => {
   it("triangular load, zero at the left", () => {
     const peak = 20e3;
     const W = (peak * L) / 2;
-    const r = analyzeOrThrow(lineBeam([L], ["pin", "roller"], [{ kind: "distributed", member: "m1", direction: "global-y", wStart: 0, wEnd: -peak }]));
+    const r = analyzeOrThrow(
+      lineBeam([L], ["pin", "roller"], [{ kind: "distributed", member: "m1", direction: "global-y", wStart: 0, wEnd: -peak }]),
+    );
     const d = memberDiagram(r, "m1", "L");
     // AWC Design Aid No. 6 (2005), Fig. 5: R = W/3, 2W/3; M_max = 2WL/(9√3) at L/√3
     expectClose(nodeReaction(r, "n0", "L").fy, W / 3);
@@ -77,10 +85,17 @@ describe("simply supported beam", () => {
   it("partial load gives the same deflection as a model with nodes at the load ends", () => {
     const loaded = analyzeOrThrow(lineBeam([L], ["pin", "roller"], [{ ...udl(), from: 1, to: 4, wEnd: -2 * w }]));
     const split = analyzeOrThrow(
-      lineBeam([1, 3, 2], ["pin", "free", "free", "roller"], [{ kind: "distributed", member: "m2", direction: "global-y", wStart: -w, wEnd: -2 * w }]),
+      lineBeam(
+        [1, 3, 2],
+        ["pin", "free", "free", "roller"],
+        [{ kind: "distributed", member: "m2", direction: "global-y", wStart: -w, wEnd: -2 * w }],
+      ),
     );
     const d = memberDiagram(loaded, "m1", "L");
-    for (const [node, x] of [["n1", 1], ["n2", 4]] as const) {
+    for (const [node, x] of [
+      ["n1", 1],
+      ["n2", 4],
+    ] as const) {
       expectClose(d.valueAt(x).deflection, nodeDisplacement(split, node, "L").uy, 1e-9);
       expectClose(d.valueAt(x).M, memberDiagram(split, node === "n1" ? "m2" : "m3", "L").valueAt(0).M, 1e-9);
     }
@@ -127,7 +142,9 @@ describe("fixed–fixed beam", () => {
 
   it("triangular load", () => {
     const peak = 20e3;
-    const r = analyzeOrThrow(lineBeam([L], ["fixed", "fixed"], [{ kind: "distributed", member: "m1", direction: "global-y", wStart: 0, wEnd: -peak }]));
+    const r = analyzeOrThrow(
+      lineBeam([L], ["fixed", "fixed"], [{ kind: "distributed", member: "m1", direction: "global-y", wStart: 0, wEnd: -peak }]),
+    );
     const f = memberEndForces(r, "m1", "L");
     // Roark 7th ed. Table 8.1 (from memory): end moments wL²/30 (zero end) and wL²/20 (peak end)
     expectClose(f.start.mz, (peak * L * L) / 30);

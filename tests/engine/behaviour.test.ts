@@ -1,6 +1,14 @@
 /** Releases, settlement, springs, load directions, combinations and envelopes. */
 import { describe, it, expect } from "vitest";
-import { memberDiagram, memberEndForces, memberEnvelope, nodeDisplacement, nodeReaction, resultFor, type ModelInput } from "@/lib/engine";
+import {
+  memberDiagram,
+  memberEndForces,
+  memberEnvelope,
+  nodeDisplacement,
+  nodeReaction,
+  resultFor,
+  type ModelInput,
+} from "@/lib/engine";
 import { analyzeOrThrow, expectClose, expectNear, lineBeam, E, I } from "./helpers";
 import { randomFrame } from "./random-frames";
 
@@ -45,7 +53,8 @@ describe("releases", () => {
     const theta = (8e3 * 6 ** 3) / (24 * EI);
     expectClose(nodeDisplacement(r, "B", "W").rz, 0, 1e-9, theta);
     expectClose(nodeDisplacement(r, "C", "W").rz, 0, 1e-9, theta);
-    for (const x of [0.5, 1, 3, 5.5]) expectClose(w.valueAt(x).relativeDeflection, (-8e3 * x * (6 ** 3 - 2 * 6 * x * x + x ** 3)) / (24 * EI));
+    for (const x of [0.5, 1, 3, 5.5])
+      expectClose(w.valueAt(x).relativeDeflection, (-8e3 * x * (6 ** 3 - 2 * 6 * x * x + x ** 3)) / (24 * EI));
     // Near the released start the curve leaves its chord at the end rotation: v_rel(x)/x → −wL³/(24EI).
     expectClose(w.valueAt(1e-4).relativeDeflection! / 1e-4, -theta, 1e-6);
   });
@@ -70,7 +79,10 @@ describe("supports", () => {
     const delta = 0.01;
     const model = lineBeam([L], ["fixed", "fixed"], []);
     model.nodes[1].support = { ux: "fixed", uy: { kind: "prescribed", value: -delta, loadCase: "S" }, rz: "fixed" };
-    model.loadCases = [{ id: "S", loads: [] }, { id: "G", loads: [{ kind: "nodal", node: "n0", fy: -1 }] }];
+    model.loadCases = [
+      { id: "S", loads: [] },
+      { id: "G", loads: [{ kind: "nodal", node: "n0", fy: -1 }] },
+    ];
     const r = analyzeOrThrow(model);
     // Slope-deflection (common practice): M = 6EIΔ/L², V = 12EIΔ/L³. The end that stays up hogs, the settled end sags.
     const d = memberDiagram(r, "m1", "S");
@@ -113,7 +125,10 @@ describe("load directions", () => {
     const projected = analyzeOrThrow(rafter({ wStart: -2e3, projected: true }));
     const alongLength = analyzeOrThrow(rafter({ wStart: -1.6e3 }));
     expectClose(nodeReaction(projected, "A", "S").fy, 4e3);
-    expectClose(memberDiagram(projected, "R", "S").extremes.M!.max.value, memberDiagram(alongLength, "R", "S").extremes.M!.max.value);
+    expectClose(
+      memberDiagram(projected, "R", "S").extremes.M!.max.value,
+      memberDiagram(alongLength, "R", "S").extremes.M!.max.value,
+    );
     // Simply supported on the plan span: M_max = w·l²/8 with l = 4 m (statics, common practice).
     expectClose(memberDiagram(projected, "R", "S").extremes.M!.max.value, (2e3 * 16) / 8);
   });
@@ -121,7 +136,9 @@ describe("load directions", () => {
   it("axial distributed load on a bar fixed at one end: N = p(L − x), u = p(Lx − x²/2)/EA", () => {
     const L = 5;
     const p = 4e3;
-    const r = analyzeOrThrow(lineBeam([L], ["fixed", "free"], [{ kind: "distributed", member: "m1", direction: "local-x", wStart: p }]));
+    const r = analyzeOrThrow(
+      lineBeam([L], ["fixed", "free"], [{ kind: "distributed", member: "m1", direction: "local-x", wStart: p }]),
+    );
     const d = memberDiagram(r, "m1", "L");
     // Statics and EA u' = N (common practice).
     expectClose(d.valueAt(1).N, p * (L - 1));
@@ -148,10 +165,14 @@ describe("stresses", () => {
   it("extreme-fibre stresses are N/A ∓ M·c/I, tension positive", () => {
     const L = 6;
     const w = 10e3;
-    const model = lineBeam([L], ["pin", "roller"], [
-      { kind: "distributed", member: "m1", direction: "global-y", wStart: -w },
-      { kind: "point", member: "m1", direction: "local-x", position: L, value: 200e3 },
-    ]);
+    const model = lineBeam(
+      [L],
+      ["pin", "roller"],
+      [
+        { kind: "distributed", member: "m1", direction: "global-y", wStart: -w },
+        { kind: "point", member: "m1", direction: "local-x", position: L, value: 200e3 },
+      ],
+    );
     model.members![0] = { ...model.members![0], cTop: 0.1, cBottom: 0.2 };
     const r = analyzeOrThrow(model);
     const d = memberDiagram(r, "m1", "L");
@@ -197,7 +218,8 @@ describe("combinations and envelopes", () => {
         const a = dd.valueAt(x);
         const b = dq.valueAt(x);
         const c = du.valueAt(x);
-        for (const q of ["N", "V", "M", "deflection"] as const) expectNear(c[q], 1.35 * a[q]! + 1.5 * b[q]!, 1e-9 * (Math.abs(c[q]!) + 1));
+        for (const q of ["N", "V", "M", "deflection"] as const)
+          expectNear(c[q], 1.35 * a[q]! + 1.5 * b[q]!, 1e-9 * (Math.abs(c[q]!) + 1));
       }
     }
   });

@@ -10,7 +10,10 @@ const root = path.resolve(import.meta.dirname, "../..");
 const example = (name: string) => path.join(root, "content/engine-examples", name);
 
 function runCli(...args: string[]) {
-  const r = spawnSync(process.execPath, ["--import", "tsx", path.join(root, "scripts/analyze.ts"), ...args], { cwd: root, encoding: "utf8" });
+  const r = spawnSync(process.execPath, ["--import", "tsx", path.join(root, "scripts/analyze.ts"), ...args], {
+    cwd: root,
+    encoding: "utf8",
+  });
   return { status: r.status, json: r.stdout ? JSON.parse(r.stdout) : null };
 }
 
@@ -18,7 +21,9 @@ describe("JSON model format", () => {
   it("is exported as JSON Schema", () => {
     const schema = modelJsonSchema() as { type: string; properties: Record<string, unknown>; required: string[] };
     expect(schema.type).toBe("object");
-    expect(Object.keys(schema.properties)).toEqual(expect.arrayContaining(["nodes", "members", "loadCases", "combinations", "envelopes", "analysis", "dimension"]));
+    expect(Object.keys(schema.properties)).toEqual(
+      expect.arrayContaining(["nodes", "members", "loadCases", "combinations", "envelopes", "analysis", "dimension"]),
+    );
     expect(schema.required).toContain("nodes");
   });
 

@@ -64,7 +64,9 @@ describe("loads along the axis of a bar fixed at both ends", () => {
   it.each([3, 7.5])("point load P at a = %s m: end reactions −P·b/L and −P·a/L; N = P·b/L, then −P·a/L", (a) => {
     const P = 100e3;
     const b = L - a;
-    const r = analyzeOrThrow(lineBeam([L], ["fixed", "fixed"], [{ kind: "point", member: "m1", direction: "local-x", position: a, value: P }]));
+    const r = analyzeOrThrow(
+      lineBeam([L], ["fixed", "fixed"], [{ kind: "point", member: "m1", direction: "local-x", position: a, value: P }]),
+    );
     // S. Timoshenko, Strength of Materials, Part I, 3rd ed. (1955), statically indeterminate problems in tension and
     // compression, bar with built-in ends loaded at an intermediate section: R₁ = Pb/l, R₂ = Pa/l (from memory).
     // Compatibility (closed form): the two parts are springs EA/a and EA/b in parallel, so u(a) = P·a·b/(EA·L).
@@ -83,33 +85,39 @@ describe("loads along the axis of a bar fixed at both ends", () => {
     { from: 1.5, to: 9, wStart: -3e3, wEnd: 12e3 },
     { from: 0, to: 4, wStart: 5e3, wEnd: 0 },
     { from: 6.5, to: 10, wStart: 2e3, wEnd: 9e3 },
-  ])("distributed over [$from, $to] m, $wStart → $wEnd N/m: reactions and axial force by the lever rule", ({ from, to, wStart, wEnd }) => {
-    const r = analyzeOrThrow(lineBeam([L], ["fixed", "fixed"], [{ kind: "distributed", member: "m1", direction: "local-x", wStart, wEnd, from, to }]));
-    // As for the point load above (Timoshenko, from memory), each element p·ds divides as (L − s)/L and s/L; summed, a
-    // linear load divides like its resultant: R₁ = −W(L − x̄)/L, R₂ = −W·x̄/L. Resultants: the uniform part wStart·len
-    // at mid-length, the triangular part (wEnd − wStart)·len/2 at two thirds of len from `from` (statics, common practice).
-    const len = to - from;
-    const parts = [
-      { W: wStart * len, x: from + len / 2 },
-      { W: ((wEnd - wStart) * len) / 2, x: from + (2 * len) / 3 },
-    ];
-    const W = parts[0].W + parts[1].W;
-    const R1 = -parts.reduce((s, p) => s + (p.W * (L - p.x)) / L, 0);
-    const R2 = -parts.reduce((s, p) => s + (p.W * p.x) / L, 0);
-    const scale = Math.abs(parts[0].W) + Math.abs(parts[1].W);
-    expectClose(nodeReaction(r, "n0", "L").fx, R1, 1e-9, scale);
-    expectClose(nodeReaction(r, "n1", "L").fx, R2, 1e-9, scale);
-    // N(x) = −R₁ − ∫₀ˣ p (tension positive): constant before the load, quadratic under it, constant after it.
-    const loadUpTo = (x: number) => {
-      const t = Math.min(Math.max(x - from, 0), len);
-      return wStart * t + ((wEnd - wStart) * t * t) / (2 * len);
-    };
-    const d = memberDiagram(r, "m1", "L");
-    for (const x of [from / 2, from + len / 3, from + (3 * len) / 4, (to + L) / 2]) expectClose(d.valueAt(x).N, -R1 - loadUpTo(x), 1e-9, scale);
-    expectClose(d.valueAt(L).N, -R1 - W, 1e-9, scale);
-    // EA·u′ = N with u(0) = 0: at `from` the bar has stretched by N(0)·from/EA.
-    expectClose(d.valueAt(from).axialDisplacement, (-R1 * from) / EA, 1e-9, (scale * L) / EA);
-  });
+  ])(
+    "distributed over [$from, $to] m, $wStart → $wEnd N/m: reactions and axial force by the lever rule",
+    ({ from, to, wStart, wEnd }) => {
+      const r = analyzeOrThrow(
+        lineBeam([L], ["fixed", "fixed"], [{ kind: "distributed", member: "m1", direction: "local-x", wStart, wEnd, from, to }]),
+      );
+      // As for the point load above (Timoshenko, from memory), each element p·ds divides as (L − s)/L and s/L; summed, a
+      // linear load divides like its resultant: R₁ = −W(L − x̄)/L, R₂ = −W·x̄/L. Resultants: the uniform part wStart·len
+      // at mid-length, the triangular part (wEnd − wStart)·len/2 at two thirds of len from `from` (statics, common practice).
+      const len = to - from;
+      const parts = [
+        { W: wStart * len, x: from + len / 2 },
+        { W: ((wEnd - wStart) * len) / 2, x: from + (2 * len) / 3 },
+      ];
+      const W = parts[0].W + parts[1].W;
+      const R1 = -parts.reduce((s, p) => s + (p.W * (L - p.x)) / L, 0);
+      const R2 = -parts.reduce((s, p) => s + (p.W * p.x) / L, 0);
+      const scale = Math.abs(parts[0].W) + Math.abs(parts[1].W);
+      expectClose(nodeReaction(r, "n0", "L").fx, R1, 1e-9, scale);
+      expectClose(nodeReaction(r, "n1", "L").fx, R2, 1e-9, scale);
+      // N(x) = −R₁ − ∫₀ˣ p (tension positive): constant before the load, quadratic under it, constant after it.
+      const loadUpTo = (x: number) => {
+        const t = Math.min(Math.max(x - from, 0), len);
+        return wStart * t + ((wEnd - wStart) * t * t) / (2 * len);
+      };
+      const d = memberDiagram(r, "m1", "L");
+      for (const x of [from / 2, from + len / 3, from + (3 * len) / 4, (to + L) / 2])
+        expectClose(d.valueAt(x).N, -R1 - loadUpTo(x), 1e-9, scale);
+      expectClose(d.valueAt(L).N, -R1 - W, 1e-9, scale);
+      // EA·u′ = N with u(0) = 0: at `from` the bar has stretched by N(0)·from/EA.
+      expectClose(d.valueAt(from).axialDisplacement, (-R1 * from) / EA, 1e-9, (scale * L) / EA);
+    },
+  );
 });
 
 /** A force system on the member: global components and the point (global coordinates) where it acts. */
@@ -146,18 +154,47 @@ describe("loads along global axes on an inclined member, drawn in each of four d
     const rise = Math.abs(s);
     const weight = RHO * A * 9.80665; // N/m; standard gravity 9.80665 m/s² (3rd CGPM, 1901, from memory)
     const cases: { id: string; loads: LoadInput[]; forces: Force[] }[] = [
-      { id: "Y", loads: [{ kind: "distributed", member: "R", direction: "global-y", wStart: -2e3 }], forces: [resultant(0, 1, -2e3, -2e3)] },
-      { id: "Yp", loads: [{ kind: "distributed", member: "R", direction: "global-y", wStart: -2e3, projected: true }], forces: [resultant(0, 1, -2e3 * run, -2e3 * run)] },
-      { id: "X", loads: [{ kind: "distributed", member: "R", direction: "global-x", wStart: 1.5e3 }], forces: [resultant(1, 0, 1.5e3, 1.5e3)] },
-      { id: "Xp", loads: [{ kind: "distributed", member: "R", direction: "global-x", wStart: 1.5e3, projected: true }], forces: [resultant(1, 0, 1.5e3 * rise, 1.5e3 * rise)] },
+      {
+        id: "Y",
+        loads: [{ kind: "distributed", member: "R", direction: "global-y", wStart: -2e3 }],
+        forces: [resultant(0, 1, -2e3, -2e3)],
+      },
+      {
+        id: "Yp",
+        loads: [{ kind: "distributed", member: "R", direction: "global-y", wStart: -2e3, projected: true }],
+        forces: [resultant(0, 1, -2e3 * run, -2e3 * run)],
+      },
+      {
+        id: "X",
+        loads: [{ kind: "distributed", member: "R", direction: "global-x", wStart: 1.5e3 }],
+        forces: [resultant(1, 0, 1.5e3, 1.5e3)],
+      },
+      {
+        id: "Xp",
+        loads: [{ kind: "distributed", member: "R", direction: "global-x", wStart: 1.5e3, projected: true }],
+        forces: [resultant(1, 0, 1.5e3 * rise, 1.5e3 * rise)],
+      },
       {
         id: "XpT",
-        loads: [{ kind: "distributed", member: "R", direction: "global-x", wStart: 1e3, wEnd: 3e3, from: 1, to: 4.5, projected: true }],
+        loads: [
+          { kind: "distributed", member: "R", direction: "global-x", wStart: 1e3, wEnd: 3e3, from: 1, to: 4.5, projected: true },
+        ],
         forces: [resultant(1, 0, 1e3 * rise, 3e3 * rise, 1, 4.5)],
       },
       {
         id: "YpT",
-        loads: [{ kind: "distributed", member: "R", direction: "global-y", wStart: -4e3, wEnd: -1e3, from: 0.5, to: 3, projected: true }],
+        loads: [
+          {
+            kind: "distributed",
+            member: "R",
+            direction: "global-y",
+            wStart: -4e3,
+            wEnd: -1e3,
+            from: 0.5,
+            to: 3,
+            projected: true,
+          },
+        ],
         forces: [resultant(0, 1, -4e3 * run, -1e3 * run, 0.5, 3)],
       },
       {
@@ -187,28 +224,31 @@ describe("loads along global axes on an inclined member, drawn in each of four d
     const pin = pinAtStart ? { id: "S", x: start[0], y: start[1] } : { id: "T", x: end[0], y: end[1] };
     const roller = pinAtStart ? { id: "T", x: end[0] } : { id: "S", x: start[0] };
 
-    it.each(cases)("case $id: reactions from statics, and the load's local components from the N and V diagrams", ({ id, forces }) => {
-      const Fx = forces.reduce((t, f) => t + f.fx, 0);
-      const Fy = forces.reduce((t, f) => t + f.fy, 0);
-      const momentAboutPin = forces.reduce((t, f) => t + (f.x - pin.x) * f.fy - (f.y - pin.y) * f.fx, 0);
-      const scale = forces.reduce((t, f) => t + Math.abs(f.fx) + Math.abs(f.fy), 0);
-      // Statics (common practice): moments about the pin give the roller; then ΣFy and ΣFx give the pin.
-      const rollerY = -momentAboutPin / (roller.x - pin.x);
-      expectClose(nodeReaction(r, roller.id, id).fy, rollerY, 1e-9, scale);
-      expectClose(nodeReaction(r, pin.id, id).fy, -Fy - rollerY, 1e-9, scale);
-      expectClose(nodeReaction(r, pin.id, id).fx, -Fx, 1e-9, scale);
-      expectClose(nodeReaction(r, roller.id, id).fx, 0, 1e-9, scale);
-      // Along the member N′ = −p and V′ = q (lib/engine/README.md), so the jumps of N and V from end to end are the
-      // load's components along local x = (c, s) and local y = (−s, c), summed.
-      const d = memberDiagram(r, "R", id);
-      const alongX = Fx * c + Fy * s;
-      const alongY = -Fx * s + Fy * c;
-      expectClose(d.valueAt(L, "left").N - d.valueAt(0).N, -alongX, 1e-9, scale);
-      expectClose(d.valueAt(L, "left").V - d.valueAt(0).V, alongY, 1e-9, scale);
-      // Pinned ends: no end moments.
-      expectClose(d.valueAt(0).M, 0, 1e-9, scale * L);
-      expectClose(d.valueAt(L).M, 0, 1e-9, scale * L);
-    });
+    it.each(cases)(
+      "case $id: reactions from statics, and the load's local components from the N and V diagrams",
+      ({ id, forces }) => {
+        const Fx = forces.reduce((t, f) => t + f.fx, 0);
+        const Fy = forces.reduce((t, f) => t + f.fy, 0);
+        const momentAboutPin = forces.reduce((t, f) => t + (f.x - pin.x) * f.fy - (f.y - pin.y) * f.fx, 0);
+        const scale = forces.reduce((t, f) => t + Math.abs(f.fx) + Math.abs(f.fy), 0);
+        // Statics (common practice): moments about the pin give the roller; then ΣFy and ΣFx give the pin.
+        const rollerY = -momentAboutPin / (roller.x - pin.x);
+        expectClose(nodeReaction(r, roller.id, id).fy, rollerY, 1e-9, scale);
+        expectClose(nodeReaction(r, pin.id, id).fy, -Fy - rollerY, 1e-9, scale);
+        expectClose(nodeReaction(r, pin.id, id).fx, -Fx, 1e-9, scale);
+        expectClose(nodeReaction(r, roller.id, id).fx, 0, 1e-9, scale);
+        // Along the member N′ = −p and V′ = q (lib/engine/README.md), so the jumps of N and V from end to end are the
+        // load's components along local x = (c, s) and local y = (−s, c), summed.
+        const d = memberDiagram(r, "R", id);
+        const alongX = Fx * c + Fy * s;
+        const alongY = -Fx * s + Fy * c;
+        expectClose(d.valueAt(L, "left").N - d.valueAt(0).N, -alongX, 1e-9, scale);
+        expectClose(d.valueAt(L, "left").V - d.valueAt(0).V, alongY, 1e-9, scale);
+        // Pinned ends: no end moments.
+        expectClose(d.valueAt(0).M, 0, 1e-9, scale * L);
+        expectClose(d.valueAt(L).M, 0, 1e-9, scale * L);
+      },
+    );
 
     it("self-weight totals ρ·A·g·L, shared by the two supports as statics says", () => {
       // g = 9.80665 m/s², standard gravity (3rd CGPM, 1901, from memory); the centroid is at mid-run, so each

@@ -14,7 +14,13 @@ describe("a member released at both ends between supports that restrain rotation
   const w = 8e3;
   const P = 60e3;
   const udl: LoadInput = { kind: "distributed", member: "m1", direction: "global-y", wStart: -w };
-  const point = (a: number, member = "m1"): LoadInput => ({ kind: "point", member, direction: "global-y", position: a, value: -P });
+  const point = (a: number, member = "m1"): LoadInput => ({
+    kind: "point",
+    member,
+    direction: "global-y",
+    position: a,
+    value: -P,
+  });
   /** Both nodes fully fixed: the reactions are the member's fixed-end forces after condensing both end rotations. */
   const hingedBetweenFixedNodes = (loads: LoadInput[]): ModelInput => {
     const model = lineBeam([L], ["fixed", "fixed"], loads);
@@ -52,7 +58,9 @@ describe("a member released at both ends between supports that restrain rotation
   it("triangular load, zero at the start: reactions W/3 and 2W/3, M_max = 2WL/(9√3) at L/√3, no end moments", () => {
     const peak = 20e3;
     const W = (peak * L) / 2;
-    const r = analyzeOrThrow(hingedBetweenFixedNodes([{ kind: "distributed", member: "m1", direction: "global-y", wStart: 0, wEnd: -peak }]));
+    const r = analyzeOrThrow(
+      hingedBetweenFixedNodes([{ kind: "distributed", member: "m1", direction: "global-y", wStart: 0, wEnd: -peak }]),
+    );
     // AWC Design Aid No. 6 (2005), Figure 5: R₁ = W/3, R₂ = 2W/3, M_max = 2Wl/(9√3) at x = l/√3.
     expectClose(nodeReaction(r, "n0", "L").fy, W / 3);
     expectClose(nodeReaction(r, "n1", "L").fy, (2 * W) / 3);
@@ -86,7 +94,12 @@ describe("a member released at both ends between supports that restrain rotation
     // AWC Design Aid No. 6 (2005), Figures 8 and 1 as above. Linear theory: the columns' unequal shortening moves the beam
     // ends across its axis, which strains nothing, so no column bends and no horizontal force or base moment arises.
     const b = L - a;
-    for (const [id, base, expected] of [["P", "A", (P * b) / L], ["P", "D", (P * a) / L], ["W", "A", (w * L) / 2], ["W", "D", (w * L) / 2]] as const) {
+    for (const [id, base, expected] of [
+      ["P", "A", (P * b) / L],
+      ["P", "D", (P * a) / L],
+      ["W", "A", (w * L) / 2],
+      ["W", "D", (w * L) / 2],
+    ] as const) {
       const R = nodeReaction(r, base, id);
       expectClose(R.fy, expected);
       expectClose(R.fx, 0, 1e-9, expected);
@@ -97,7 +110,10 @@ describe("a member released at both ends between supports that restrain rotation
     expectClose(memberDiagram(r, "BC", "W").valueAt(L / 2).M, (w * L * L) / 8);
     // The beam's own curve, measured from its chord, is the simply supported one (Figure 1: Δx above).
     const x = 1.7;
-    expectClose(memberDiagram(r, "BC", "W").valueAt(x).relativeDeflection, (-w * x * (L ** 3 - 2 * L * x * x + x ** 3)) / (24 * EI));
+    expectClose(
+      memberDiagram(r, "BC", "W").valueAt(x).relativeDeflection,
+      (-w * x * (L ** 3 - 2 * L * x * x + x ** 3)) / (24 * EI),
+    );
   });
 
   it("released at one end only (propped cantilever), point load at a from the released end", () => {

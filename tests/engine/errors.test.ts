@@ -21,7 +21,9 @@ describe("unstable structures", () => {
       members: [{ id: "AB", start: "A", end: "B", kind: "truss", E, A: 1e-3 }],
       loadCases: [{ id: "L", loads: [{ kind: "nodal", node: "B", fx: 1e3 }] }],
     });
-    expect(errors).toEqual([{ kind: "unstable", node: "B", direction: "uy", message: "Node B is free to move in y (mechanism or missing support)" }]);
+    expect(errors).toEqual([
+      { kind: "unstable", node: "B", direction: "uy", message: "Node B is free to move in y (mechanism or missing support)" },
+    ]);
   });
 
   it("a beam on rollers only is free to move in x", () => {
@@ -45,7 +47,8 @@ describe("unstable structures", () => {
 });
 
 describe("invalid models", () => {
-  const good = (): ModelInput => lineBeam([5], ["pin", "roller"], [{ kind: "distributed", member: "m1", direction: "global-y", wStart: -1e3 }]);
+  const good = (): ModelInput =>
+    lineBeam([5], ["pin", "roller"], [{ kind: "distributed", member: "m1", direction: "global-y", wStart: -1e3 }]);
 
   it("zero-length member", () => {
     const model = good();
@@ -75,7 +78,9 @@ describe("invalid models", () => {
       },
     ];
     const errors = errorsOf(model);
-    expect(errors).toContainEqual(expect.objectContaining({ kind: "unknown-member", member: "nope", path: "loadCases[0].loads[0].member" }));
+    expect(errors).toContainEqual(
+      expect.objectContaining({ kind: "unknown-member", member: "nope", path: "loadCases[0].loads[0].member" }),
+    );
     expect(errors).toContainEqual(expect.objectContaining({ kind: "unknown-node", node: "ghost" }));
     expect(errors).toContainEqual(expect.objectContaining({ kind: "load-outside-member", member: "m1" }));
   });
@@ -114,7 +119,13 @@ describe("invalid models", () => {
   });
 
   it("every error has a message", () => {
-    const errors = errorsOf({ nodes: [{ id: "a", x: 0, y: 0 }, { id: "a", x: 0, y: 0 }], members: [{ id: "m", start: "a", end: "b", E: -1, A: 1 }] });
+    const errors = errorsOf({
+      nodes: [
+        { id: "a", x: 0, y: 0 },
+        { id: "a", x: 0, y: 0 },
+      ],
+      members: [{ id: "m", start: "a", end: "b", E: -1, A: 1 }],
+    });
     // A duplicate node id, an unknown end node, a negative E and a missing I at least.
     expect(errors.length).toBeGreaterThanOrEqual(4);
     for (const e of errors) expect(e.message.length).toBeGreaterThan(10);

@@ -169,12 +169,18 @@ function makeLoad(kind: Kind, g: Geometry, u: number[]): { load: LoadInput; loca
   };
   const point = (direction: Direction): { load: LoadInput; local: LocalLoad[] } => {
     const [ex, ey] = unitLocal(direction, c, s);
-    return { load: { kind: "point", member: "m", direction, position, value: w1 }, local: [{ kind: "force", a: position, p: ex * w1, q: ey * w1 }] };
+    return {
+      load: { kind: "point", member: "m", direction, position, value: w1 },
+      local: [{ kind: "force", a: position, p: ex * w1, q: ey * w1 }],
+    };
   };
   switch (kind) {
     case "uniform, global y, full length": {
       const [ex, ey] = unitLocal("global-y", c, s);
-      return { load: { kind: "distributed", member: "m", direction: "global-y", wStart: w1 }, local: [{ kind: "distributed", a: 0, b: L, pa: ex * w1, pb: ex * w1, qa: ey * w1, qb: ey * w1 }] };
+      return {
+        load: { kind: "distributed", member: "m", direction: "global-y", wStart: w1 },
+        local: [{ kind: "distributed", a: 0, b: L, pa: ex * w1, pb: ex * w1, qa: ey * w1, qb: ey * w1 }],
+      };
     }
     case "trapezoidal, local y, partial":
       return distributed("local-y", false);
@@ -200,7 +206,10 @@ function makeLoad(kind: Kind, g: Geometry, u: number[]): { load: LoadInput; loca
       const factor = 0.5 + u[2];
       const w = -RHO * A * G * factor;
       const [ex, ey] = unitLocal("global-y", c, s);
-      return { load: { kind: "self-weight", factor }, local: [{ kind: "distributed", a: 0, b: L, pa: ex * w, pb: ex * w, qa: ey * w, qb: ey * w }] };
+      return {
+        load: { kind: "self-weight", factor },
+        local: [{ kind: "distributed", a: 0, b: L, pa: ex * w, pb: ex * w, qa: ey * w, qb: ey * w }],
+      };
     }
   }
 }
@@ -228,7 +237,14 @@ const arbitraryCase: fc.Arbitrary<MemberCase> = fc
       return r < 1 / 16 ? 0 : r < 1 / 8 ? 1 : rand();
     };
     const angle = rand() < 1 / 8 ? (Math.PI / 2) * Math.floor(rand() * 4) : 2 * Math.PI * rand();
-    return { angle, L: 1.5 + 7.5 * rand(), x0: 20 * rand() - 10, y0: 20 * rand() - 10, released, u: [position(), position(), rand(), rand()] };
+    return {
+      angle,
+      L: 1.5 + 7.5 * rand(),
+      x0: 20 * rand() - 10,
+      y0: 20 * rand() - 10,
+      released,
+      u: [position(), position(), rand(), rand()],
+    };
   });
 
 /** Analyses one member with both nodes fully fixed under `kinds` and compares with the hand computation. */
@@ -237,10 +253,19 @@ function checkMember(kinds: ReadonlyArray<Kind>, { angle, L, x0, y0, released, u
   const xEnd = x0 + L * c;
   const yEnd = y0 + L * s;
   // The member as built has the length of its rounded end coordinates.
-  const geometry = { L: Math.hypot(xEnd - x0, yEnd - y0), c: (xEnd - x0) / Math.hypot(xEnd - x0, yEnd - y0), s: (yEnd - y0) / Math.hypot(xEnd - x0, yEnd - y0) };
+  const geometry = {
+    L: Math.hypot(xEnd - x0, yEnd - y0),
+    c: (xEnd - x0) / Math.hypot(xEnd - x0, yEnd - y0),
+    s: (yEnd - y0) / Math.hypot(xEnd - x0, yEnd - y0),
+  };
   const made = kinds.map((k, i) => makeLoad(k, geometry, i === 0 ? u : u.map((v, j) => (v + 0.37 * (i + j)) % 1)));
   const fixed = { ux: "fixed", uy: "fixed", rz: "fixed" } as const;
-  const releases = { none: undefined, start: { startMoment: true }, end: { endMoment: true }, both: { startMoment: true, endMoment: true } }[released];
+  const releases = {
+    none: undefined,
+    start: { startMoment: true },
+    end: { endMoment: true },
+    both: { startMoment: true, endMoment: true },
+  }[released];
   const model: ModelInput = {
     nodes: [
       { id: "S", x: x0, y: y0, support: fixed },
@@ -251,13 +276,26 @@ function checkMember(kinds: ReadonlyArray<Kind>, { angle, L, x0, y0, released, u
   };
   const local = made.flatMap((m) => m.local);
   const expected = condenseByHand(fixedEndForcesByQuadrature(local, geometry.L), released, local, geometry.L);
-  const F = local.reduce((t, l) => t + (l.kind === "distributed" ? (Math.abs(l.pa) + Math.abs(l.pb) + Math.abs(l.qa) + Math.abs(l.qb)) * geometry.L : l.kind === "force" ? Math.abs(l.p) + Math.abs(l.q) : Math.abs(l.C) / geometry.L), 0) + 1;
+  const F =
+    local.reduce(
+      (t, l) =>
+        t +
+        (l.kind === "distributed"
+          ? (Math.abs(l.pa) + Math.abs(l.pb) + Math.abs(l.qa) + Math.abs(l.qb)) * geometry.L
+          : l.kind === "force"
+            ? Math.abs(l.p) + Math.abs(l.q)
+            : Math.abs(l.C) / geometry.L),
+      0,
+    ) + 1;
   const r = analyzeOrThrow(model);
   const f = memberEndForces(r, "m", "L");
   const actual = [f.start.fx, f.start.fy, f.start.mz, f.end.fx, f.end.fy, f.end.mz];
   expected.forEach((v, d) => expectClose(actual[d], v, 1e-9, d % 3 === 2 ? F * geometry.L : F));
   // Reactions of the fixed nodes are the same forces in global axes: X = c·x − s·y, Y = s·x + c·y.
-  for (const [node, o] of [["S", 0], ["T", 3]] as const) {
+  for (const [node, o] of [
+    ["S", 0],
+    ["T", 3],
+  ] as const) {
     const R = nodeReaction(r, node, "L");
     expectClose(R.fx, geometry.c * expected[o] - geometry.s * expected[o + 1], 1e-9, F);
     expectClose(R.fy, geometry.s * expected[o] + geometry.c * expected[o + 1], 1e-9, F);

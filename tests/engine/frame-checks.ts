@@ -11,12 +11,14 @@ type Members = NonNullable<ModelInput["members"]>;
 
 function geometry(model: ModelInput) {
   const byId = new Map(model.nodes.map((n) => [n.id, n]));
-  const members = new Map((model.members ?? []).map((m) => {
-    const a = byId.get(m.start)!;
-    const b = byId.get(m.end)!;
-    const L = Math.hypot(b.x - a.x, b.y - a.y);
-    return [m.id, { member: m, a, b, L, c: (b.x - a.x) / L, s: (b.y - a.y) / L }];
-  }));
+  const members = new Map(
+    (model.members ?? []).map((m) => {
+      const a = byId.get(m.start)!;
+      const b = byId.get(m.end)!;
+      const L = Math.hypot(b.x - a.x, b.y - a.y);
+      return [m.id, { member: m, a, b, L, c: (b.x - a.x) / L, s: (b.y - a.y) / L }];
+    }),
+  );
   return { byId, members };
 }
 
@@ -39,12 +41,25 @@ export function splitEveryMember(model: ModelInput, seed: number): { model: Mode
     splitAt.set(m.id, t * L);
     nodes.push({ id: `${m.id}-mid`, x: a.x + t * (b.x - a.x), y: a.y + t * (b.y - a.y) });
     const truss = m.kind === "truss";
-    if (truss && m.I === undefined) throw new Error(`splitEveryMember: truss member ${m.id} needs I to be split into frame halves`);
+    if (truss && m.I === undefined)
+      throw new Error(`splitEveryMember: truss member ${m.id} needs I to be split into frame halves`);
     const { releases, ...rest } = m;
     const startReleased = truss || releases?.startMoment === true;
     const endReleased = truss || releases?.endMoment === true;
-    members.push({ ...rest, kind: "frame", id: `${m.id}a`, end: `${m.id}-mid`, ...(startReleased ? { releases: { startMoment: true } } : {}) });
-    members.push({ ...rest, kind: "frame", id: `${m.id}b`, start: `${m.id}-mid`, ...(endReleased ? { releases: { endMoment: true } } : {}) });
+    members.push({
+      ...rest,
+      kind: "frame",
+      id: `${m.id}a`,
+      end: `${m.id}-mid`,
+      ...(startReleased ? { releases: { startMoment: true } } : {}),
+    });
+    members.push({
+      ...rest,
+      kind: "frame",
+      id: `${m.id}b`,
+      start: `${m.id}-mid`,
+      ...(endReleased ? { releases: { endMoment: true } } : {}),
+    });
   }
   const loadCases = (model.loadCases ?? []).map((lc) => ({
     ...lc,
@@ -52,7 +67,9 @@ export function splitEveryMember(model: ModelInput, seed: number): { model: Mode
       if (l.kind === "nodal" || l.kind === "self-weight") return [l];
       const cut = splitAt.get(l.member)!;
       if (l.kind === "point" || l.kind === "couple") {
-        return l.position <= cut ? [{ ...l, member: `${l.member}a` }] : [{ ...l, member: `${l.member}b`, position: l.position - cut }];
+        return l.position <= cut
+          ? [{ ...l, member: `${l.member}a` }]
+          : [{ ...l, member: `${l.member}b`, position: l.position - cut }];
       }
       const L = geo.get(l.member)!.L;
       const from = l.from ?? 0;
@@ -60,8 +77,17 @@ export function splitEveryMember(model: ModelInput, seed: number): { model: Mode
       const wEnd = l.wEnd ?? l.wStart;
       const at = (x: number) => l.wStart + ((wEnd - l.wStart) * (x - from)) / (to - from);
       const out: LoadInput[] = [];
-      if (from < cut - 1e-9 * L) out.push({ ...l, member: `${l.member}a`, from, to: Math.min(to, cut), wStart: l.wStart, wEnd: at(Math.min(to, cut)) });
-      if (to > cut + 1e-9 * L) out.push({ ...l, member: `${l.member}b`, from: Math.max(from, cut) - cut, to: to - cut, wStart: at(Math.max(from, cut)), wEnd });
+      if (from < cut - 1e-9 * L)
+        out.push({ ...l, member: `${l.member}a`, from, to: Math.min(to, cut), wStart: l.wStart, wEnd: at(Math.min(to, cut)) });
+      if (to > cut + 1e-9 * L)
+        out.push({
+          ...l,
+          member: `${l.member}b`,
+          from: Math.max(from, cut) - cut,
+          to: to - cut,
+          wStart: at(Math.max(from, cut)),
+          wEnd,
+        });
       return out;
     }),
   }));
@@ -80,7 +106,10 @@ function globalDirection(direction: "local-x" | "local-y" | "global-x" | "global
  * run |c| (global y) or the rise |s| (global x); self-weight is ρ·A·g (g = 9.80665 m/s², 3rd CGPM 1901, from
  * memory) downwards at mid-length. `scale` is the sum of magnitudes, for relative tolerances.
  */
-export function loadResultant(model: ModelInput, caseId: string): { fx: number; fy: number; mz: number; scaleF: number; scaleM: number } {
+export function loadResultant(
+  model: ModelInput,
+  caseId: string,
+): { fx: number; fy: number; mz: number; scaleF: number; scaleM: number } {
   const { byId, members } = geometry(model);
   let [fx, fy, mz, scaleF, scaleM] = [0, 0, 0, 0, 0];
   const force = (X: number, Y: number, x: number, y: number) => {
@@ -146,7 +175,10 @@ export function expectNodeAndMemberEquilibrium(model: ModelInput, r: AnalysisRes
   expect(members.size).toBeGreaterThan(0);
   for (const { member: m, L, c, s } of members.values()) {
     const f = memberEndForces(r, m.id, caseId);
-    for (const [node, end] of [[m.start, f.start], [m.end, f.end]] as const) {
+    for (const [node, end] of [
+      [m.start, f.start],
+      [m.end, f.end],
+    ] as const) {
       const o = 3 * nodeIndex.get(node)!;
       const F = [c * end.fx - s * end.fy, s * end.fx + c * end.fy, end.mz];
       F.forEach((v, d) => {

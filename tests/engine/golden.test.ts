@@ -17,7 +17,8 @@ import { analyze, ENGINE_VERSION, resultToCanonicalJson } from "@/lib/engine";
 const root = path.resolve(import.meta.dirname, "../..");
 const examplesDir = path.join(root, "content/engine-examples");
 const goldenDir = path.join(import.meta.dirname, "golden");
-const REGENERATE = "bump ENGINE_VERSION in lib/engine/version.ts if you have not, then run npm run engine:golden and review the diff";
+const REGENERATE =
+  "bump ENGINE_VERSION in lib/engine/version.ts if you have not, then run npm run engine:golden and review the diff";
 /** Sampled diagrams are part of the golden results, so a change along members is caught too. */
 const POINTS = 5;
 const RELATIVE = 1e-12;
@@ -42,12 +43,23 @@ function currentOutcome(example: string): Pick<Golden, "result" | "errors"> {
 }
 
 /** Keys that hold ids (nodes, members, cases, …) as their children: wildcarded when grouping quantities. */
-const ID_CONTAINERS = new Set(["loadCases", "combinations", "envelopes", "displacements", "reactions", "endForces", "diagramExtremes", "diagrams", "factors"]);
+const ID_CONTAINERS = new Set([
+  "loadCases",
+  "combinations",
+  "envelopes",
+  "displacements",
+  "reactions",
+  "endForces",
+  "diagramExtremes",
+  "diagrams",
+  "factors",
+]);
 
 function walkNumbers(value: Json, at: string[], visit: (path: string[], v: number) => void): void {
   if (typeof value === "number") visit(at, value);
   else if (Array.isArray(value)) value.forEach((v, i) => walkNumbers(v, [...at, String(i)], visit));
-  else if (value !== null && typeof value === "object") for (const [k, v] of Object.entries(value)) walkNumbers(v, [...at, k], visit);
+  else if (value !== null && typeof value === "object")
+    for (const [k, v] of Object.entries(value)) walkNumbers(v, [...at, k], visit);
 }
 
 function groupOf(at: string[]): string {
@@ -97,7 +109,8 @@ function ambiguousPosition(golden: Json, keys: string[], tolerance: (value: numb
   if (e >= 0 && keys[e - 2] === "envelopes" && typeof extreme.from === "string") {
     const from = extreme.from;
     const base = keys.slice(0, e - 2);
-    for (const kind of ["loadCases", "combinations"]) samples ??= lookup(golden, [...base, kind, from, "diagrams", keys[e + 1], "samples"]);
+    for (const kind of ["loadCases", "combinations"])
+      samples ??= lookup(golden, [...base, kind, from, "diagrams", keys[e + 1], "samples"]);
   }
   const xs = lookup(samples ?? null, ["x"]);
   const values = lookup(samples ?? null, [quantity]);
@@ -123,19 +136,29 @@ function differences(golden: Json, current: Json): string[] {
     } else if (Array.isArray(g) && Array.isArray(c)) {
       if (g.length !== c.length) out.push(`${where}: ${g.length} entries in the golden results, now ${c.length}`);
       else g.forEach((v, i) => visit(v, c[i], [...at, String(i)]));
-    } else if (g !== null && c !== null && typeof g === "object" && typeof c === "object" && !Array.isArray(g) && !Array.isArray(c)) {
+    } else if (
+      g !== null &&
+      c !== null &&
+      typeof g === "object" &&
+      typeof c === "object" &&
+      !Array.isArray(g) &&
+      !Array.isArray(c)
+    ) {
       for (const k of new Set([...Object.keys(g), ...Object.keys(c)])) {
         if (!(k in c)) out.push(`${[...at, k].join(".")}: in the golden results, now missing`);
         else if (!(k in g)) out.push(`${[...at, k].join(".")}: new, not in the golden results`);
         else visit(g[k], c[k], [...at, k]);
       }
-    } else if (JSON.stringify(g) !== JSON.stringify(c)) out.push(`${where}: ${JSON.stringify(g)} in the golden results, now ${JSON.stringify(c)}`);
+    } else if (JSON.stringify(g) !== JSON.stringify(c))
+      out.push(`${where}: ${JSON.stringify(g)} in the golden results, now ${JSON.stringify(c)}`);
   };
   visit(golden, current, []);
   return out;
 }
 
-const examples = readdirSync(examplesDir).filter((f) => f.endsWith(".json")).sort();
+const examples = readdirSync(examplesDir)
+  .filter((f) => f.endsWith(".json"))
+  .sort();
 
 describe("golden results of the starting examples", () => {
   it("covers every example", () => {
@@ -147,26 +170,47 @@ describe("golden results of the starting examples", () => {
     it(`${example}: the same numbers as tests/engine/golden/${example} while ENGINE_VERSION is unchanged`, () => {
       const current = currentOutcome(example);
       if (process.env.GUSSET_WRITE_GOLDEN) {
-        const golden: Golden = { engineVersion: ENGINE_VERSION, example: `content/engine-examples/${example}`, points: POINTS, ...current };
+        const golden: Golden = {
+          engineVersion: ENGINE_VERSION,
+          example: `content/engine-examples/${example}`,
+          points: POINTS,
+          ...current,
+        };
         writeFileSync(goldenFile, `${JSON.stringify(golden, null, 1)}\n`);
         return;
       }
-      if (!existsSync(goldenFile)) throw new Error(`no golden results for ${example}: run npm run engine:golden and commit tests/engine/golden/${example}`);
+      if (!existsSync(goldenFile))
+        throw new Error(`no golden results for ${example}: run npm run engine:golden and commit tests/engine/golden/${example}`);
       const golden = JSON.parse(readFileSync(goldenFile, "utf8")) as Golden;
       if (golden.engineVersion !== ENGINE_VERSION) {
-        throw new Error(`ENGINE_VERSION is ${ENGINE_VERSION} but tests/engine/golden/${example} was made by ${golden.engineVersion}: run npm run engine:golden and review the diff`);
+        throw new Error(
+          `ENGINE_VERSION is ${ENGINE_VERSION} but tests/engine/golden/${example} was made by ${golden.engineVersion}: run npm run engine:golden and review the diff`,
+        );
       }
-      const diffs = differences({ result: golden.result ?? null, errors: golden.errors ?? null }, { result: current.result ?? null, errors: current.errors ?? null });
+      const diffs = differences(
+        { result: golden.result ?? null, errors: golden.errors ?? null },
+        { result: current.result ?? null, errors: current.errors ?? null },
+      );
       if (diffs.length > 0) {
         const shown = diffs.slice(0, 12).join("\n  ");
-        throw new Error(`${example}: the results changed while ENGINE_VERSION is still ${ENGINE_VERSION} (${diffs.length} differences):\n  ${shown}\nIf the change is intended, ${REGENERATE}.`);
+        throw new Error(
+          `${example}: the results changed while ENGINE_VERSION is still ${ENGINE_VERSION} (${diffs.length} differences):\n  ${shown}\nIf the change is intended, ${REGENERATE}.`,
+        );
       }
     });
   }
 });
 
 describe("the golden comparison", () => {
-  const golden: Json = { loadCases: { G: { displacements: { A: { ux: 1e-3, uy: 0 }, B: { ux: 2e-3, uy: -5e-4 } }, equilibrium: { fx: 1e-11, relative: 1e-16 }, endForces: { m: { start: { fx: 1e5 } } } } } };
+  const golden: Json = {
+    loadCases: {
+      G: {
+        displacements: { A: { ux: 1e-3, uy: 0 }, B: { ux: 2e-3, uy: -5e-4 } },
+        equilibrium: { fx: 1e-11, relative: 1e-16 },
+        endForces: { m: { start: { fx: 1e5 } } },
+      },
+    },
+  };
   /** The differences after setting (or, with undefined, deleting) one entry of a copy. */
   const change = (keys: string[], value: Json | undefined): string[] => {
     const copy = JSON.parse(JSON.stringify(golden)) as JsonObject;
@@ -192,16 +236,31 @@ describe("the golden comparison", () => {
 
   it("does not compare the position of an extreme that another sampled point ties with", () => {
     const beam = (xMax: number, xMin: number) => ({
-      loadCases: { G: { diagrams: { b: { extremes: { M: { max: { value: 10, x: xMax }, min: { value: -20, x: xMin } } }, samples: { x: [0, 2, 4], M: [-20, 10, -20] } } } } },
+      loadCases: {
+        G: {
+          diagrams: {
+            b: {
+              extremes: { M: { max: { value: 10, x: xMax }, min: { value: -20, x: xMin } } },
+              samples: { x: [0, 2, 4], M: [-20, 10, -20] },
+            },
+          },
+        },
+      },
     });
     // Both ends reach the minimum: either may be reported. The maximum is unique.
     expect(differences(beam(2, 0), beam(2, 4))).toEqual([]);
-    expect(differences(beam(2, 0), beam(2.5, 0))).toEqual(["loadCases.G.diagrams.b.extremes.M.max.x: 2 in the golden results, now 2.5"]);
+    expect(differences(beam(2, 0), beam(2.5, 0))).toEqual([
+      "loadCases.G.diagrams.b.extremes.M.max.x: 2 in the golden results, now 2.5",
+    ]);
   });
 
   it("rejects changed structure and text", () => {
-    expect(change(["loadCases", "G", "displacements", "B"], undefined)).toEqual(["loadCases.G.displacements.B: in the golden results, now missing"]);
-    expect(change(["loadCases", "G", "displacements", "B", "rz"], 0)).toEqual(["loadCases.G.displacements.B.rz: new, not in the golden results"]);
+    expect(change(["loadCases", "G", "displacements", "B"], undefined)).toEqual([
+      "loadCases.G.displacements.B: in the golden results, now missing",
+    ]);
+    expect(change(["loadCases", "G", "displacements", "B", "rz"], 0)).toEqual([
+      "loadCases.G.displacements.B.rz: new, not in the golden results",
+    ]);
     expect(change([...A, "ux"], "1e-3")).toHaveLength(1);
   });
 });

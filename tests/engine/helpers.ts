@@ -39,7 +39,8 @@ export function analyzeOrThrow(model: unknown): AnalysisResult {
  * the expected value and tolerance finite, so a check can never pass vacuously (|x − ∞| ≤ ∞ is true).
  */
 function finiteOrThrow(actual: number | undefined, expected: number, tolerance: number): number {
-  if (typeof actual !== "number" || !Number.isFinite(actual)) throw new Error(`expected a finite number near ${expected}, got ${actual}`);
+  if (typeof actual !== "number" || !Number.isFinite(actual))
+    throw new Error(`expected a finite number near ${expected}, got ${actual}`);
   if (!Number.isFinite(expected) || !Number.isFinite(tolerance) || tolerance < 0) {
     throw new Error(`the expected value ${expected} ± ${tolerance} is not a usable reference`);
   }

@@ -5,7 +5,9 @@ import { seededRandom } from "./helpers";
 function randomIds(seed: number, count: number): { id: string }[] {
   const rand = seededRandom(seed);
   // A small alphabet and short ids give plenty of duplicates.
-  return Array.from({ length: count }, () => ({ id: Array.from({ length: 1 + Math.floor(rand() * 3) }, () => "abcN_1é"[Math.floor(rand() * 7)]).join("") }));
+  return Array.from({ length: count }, () => ({
+    id: Array.from({ length: 1 + Math.floor(rand() * 3) }, () => "abcN_1é"[Math.floor(rand() * 7)]).join(""),
+  }));
 }
 
 function expectLikeMap(index: IdIndex, items: { id: string }[]): void {

@@ -17,7 +17,9 @@ describe("engine identity", () => {
   it.skipIf(Boolean(process.env.GUSSET_MUTATION))("the committed source hash is that of lib/engine as it is now", () => {
     const actual = engineSourceHash();
     if (ENGINE_IDENTITY.sourceHash !== actual) {
-      throw new Error(`${IDENTITY_FILE} is stale: lib/engine hashes to ${actual}, the file says ${ENGINE_IDENTITY.sourceHash}. Run npm run engine:identity and commit the file.`);
+      throw new Error(
+        `${IDENTITY_FILE} is stale: lib/engine hashes to ${actual}, the file says ${ENGINE_IDENTITY.sourceHash}. Run npm run engine:identity and commit the file.`,
+      );
     }
   });
 
@@ -30,11 +32,20 @@ describe("engine identity", () => {
   });
 
   it("is recorded with every result", () => {
-    const out = analyze({ nodes: [{ id: "a", x: 0, y: 0, support: { ux: "fixed", uy: "fixed", rz: "fixed" } }, { id: "b", x: 2, y: 0 }], members: [{ id: "m", start: "a", end: "b", E: 2e11, A: 1e-3, I: 1e-5 }] });
+    const out = analyze({
+      nodes: [
+        { id: "a", x: 0, y: 0, support: { ux: "fixed", uy: "fixed", rz: "fixed" } },
+        { id: "b", x: 2, y: 0 },
+      ],
+      members: [{ id: "m", start: "a", end: "b", E: 2e11, A: 1e-3, I: 1e-5 }],
+    });
     if (!out.ok) throw new Error("analysis failed");
     expect(out.result.engineVersion).toBe(ENGINE_IDENTITY.version);
     expect(out.result.engineSourceHash).toBe(ENGINE_IDENTITY.sourceHash);
-    expect(resultToJson(out.result)).toMatchObject({ engineVersion: ENGINE_IDENTITY.version, engineSourceHash: ENGINE_IDENTITY.sourceHash });
+    expect(resultToJson(out.result)).toMatchObject({
+      engineVersion: ENGINE_IDENTITY.version,
+      engineSourceHash: ENGINE_IDENTITY.sourceHash,
+    });
   });
 
   it("hashes every source file of the engine, but not its notes or the generated file", () => {
@@ -70,4 +81,3 @@ describe("engine identity", () => {
     }
   });
 });
-

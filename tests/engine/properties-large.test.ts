@@ -69,10 +69,19 @@ describe("larger random frames: releases at both ends, truss diagonals, springs 
         const base = randomRichFrame(seed, LARGE);
         const [a, b] = [pickLoadPoint(base, rand), pickLoadPoint(base, rand)];
         // Settlements are bound to case "L", which stays (empty); in "a" and "b" those supports act as fixed.
-        const r = analyzeOrThrow({ ...base, loadCases: [{ id: "L", loads: [] }, { id: "a", loads: [unitLoad(a)] }, { id: "b", loads: [unitLoad(b)] }] });
+        const r = analyzeOrThrow({
+          ...base,
+          loadCases: [
+            { id: "L", loads: [] },
+            { id: "a", loads: [unitLoad(a)] },
+            { id: "b", loads: [unitLoad(b)] },
+          ],
+        });
         const dba = nodeDisplacement(r, b.node, "a")[COMPONENT[b.dir]];
         const dab = nodeDisplacement(r, a.node, "b")[COMPONENT[a.dir]];
-        const own = Math.abs(nodeDisplacement(r, a.node, "a")[COMPONENT[a.dir]]) + Math.abs(nodeDisplacement(r, b.node, "b")[COMPONENT[b.dir]]);
+        const own =
+          Math.abs(nodeDisplacement(r, a.node, "a")[COMPONENT[a.dir]]) +
+          Math.abs(nodeDisplacement(r, b.node, "b")[COMPONENT[b.dir]]);
         expect(own).toBeGreaterThan(0);
         expectClose(dba, dab, 1e-8, 1e-6 * own);
       }),
@@ -92,9 +101,19 @@ describe("larger random frames: releases at both ends, truss diagonals, springs 
         expect(bases.length).toBeGreaterThan(0);
         const s = bases[Math.floor(rand() * bases.length)];
         const delta = -(0.002 + 0.02 * rand());
-        const nodes = base.nodes.map((n) => (n === s ? { ...n, support: { ux: "fixed", uy: { kind: "prescribed", value: delta, loadCase: "S" }, rz: "fixed" } } : n)) as ModelInput["nodes"];
+        const nodes = base.nodes.map((n) =>
+          n === s ? { ...n, support: { ux: "fixed", uy: { kind: "prescribed", value: delta, loadCase: "S" }, rz: "fixed" } } : n,
+        ) as ModelInput["nodes"];
         const a = pickLoadPoint(base, rand);
-        const r = analyzeOrThrow({ ...base, nodes, loadCases: [{ id: "L", loads: [] }, { id: "S", loads: [] }, { id: "a", loads: [unitLoad(a)] }] });
+        const r = analyzeOrThrow({
+          ...base,
+          nodes,
+          loadCases: [
+            { id: "L", loads: [] },
+            { id: "S", loads: [] },
+            { id: "a", loads: [unitLoad(a)] },
+          ],
+        });
         expectClose(nodeDisplacement(r, s.id, "S").uy, delta);
         const uS = nodeDisplacement(r, a.node, "S")[COMPONENT[a.dir]];
         const Rs = nodeReaction(r, s.id, "a").fy;

@@ -27,26 +27,30 @@ function stiffnessOf(model: ModelInput) {
 describe("element stiffness", () => {
   it("is symmetric and has the three rigid-body motions as null space, for any angle and releases", () => {
     fc.assert(
-      fc.property(fc.double({ min: 0, max: 2 * Math.PI, noNaN: true }), fc.constantFrom([], [2], [5], [2, 5]), (angle, released) => {
-        const L = 3.7;
-        const c = Math.cos(angle);
-        const s = Math.sin(angle);
-        const K = toGlobalStiffness(condense(frameLocalStiffness(210e9, 0.01, 2e-4, L), null, [...released]).k, c, s);
-        const scale = Math.max(...Array.from(K, Math.abs));
-        for (let i = 0; i < 6; i++) for (let j = 0; j < i; j++) expectClose(K[i * 6 + j], K[j * 6 + i], 1e-12, scale);
-        // Translations in X, Y and a rotation about node i (ux = −θ·y, uy = θ·x, rz = θ).
-        const motions = [
-          [1, 0, 0, 1, 0, 0],
-          [0, 1, 0, 0, 1, 0],
-          [0, 0, 1, -s * L, c * L, 1],
-        ];
-        for (const r of motions) {
-          for (let i = 0; i < 6; i++) {
-            const f = r.reduce((sum, rj, j) => sum + K[i * 6 + j] * rj, 0);
-            expect(Math.abs(f)).toBeLessThan(1e-9 * scale * L);
+      fc.property(
+        fc.double({ min: 0, max: 2 * Math.PI, noNaN: true }),
+        fc.constantFrom([], [2], [5], [2, 5]),
+        (angle, released) => {
+          const L = 3.7;
+          const c = Math.cos(angle);
+          const s = Math.sin(angle);
+          const K = toGlobalStiffness(condense(frameLocalStiffness(210e9, 0.01, 2e-4, L), null, [...released]).k, c, s);
+          const scale = Math.max(...Array.from(K, Math.abs));
+          for (let i = 0; i < 6; i++) for (let j = 0; j < i; j++) expectClose(K[i * 6 + j], K[j * 6 + i], 1e-12, scale);
+          // Translations in X, Y and a rotation about node i (ux = −θ·y, uy = θ·x, rz = θ).
+          const motions = [
+            [1, 0, 0, 1, 0, 0],
+            [0, 1, 0, 0, 1, 0],
+            [0, 0, 1, -s * L, c * L, 1],
+          ];
+          for (const r of motions) {
+            for (let i = 0; i < 6; i++) {
+              const f = r.reduce((sum, rj, j) => sum + K[i * 6 + j] * rj, 0);
+              expect(Math.abs(f)).toBeLessThan(1e-9 * scale * L);
+            }
           }
-        }
-      }),
+        },
+      ),
       runs(50),
     );
   });
@@ -58,7 +62,11 @@ describe("random frames", () => {
       fc.property(seeds, (seed) => {
         const { model, dofs, K } = stiffnessOf(randomFrame(seed, { unsupported: true, releases: true }));
         const absK = { ...K, values: K.values.map(Math.abs) };
-        for (const [a, b, theta] of [[1e-3, 0, 0], [0, 1e-3, 0], [0, 0, 1e-4]]) {
+        for (const [a, b, theta] of [
+          [1e-3, 0, 0],
+          [0, 1e-3, 0],
+          [0, 0, 1e-4],
+        ]) {
           const r = new Float64Array(dofs.nFree);
           for (let e = 0; e < dofs.nFree; e++) {
             const g = dofs.freeToGlobal[e];
@@ -81,11 +89,20 @@ describe("random frames", () => {
         const base = randomFrame(seed, { releases: true });
         const free = base.nodes.filter((n) => !n.support);
         expect(free.length).toBeGreaterThan(0);
-        const pick = () => ({ node: free[Math.floor(rand() * free.length)].id, dir: (["fx", "fy", "mz"] as const)[Math.floor(rand() * 3)] });
+        const pick = () => ({
+          node: free[Math.floor(rand() * free.length)].id,
+          dir: (["fx", "fy", "mz"] as const)[Math.floor(rand() * 3)],
+        });
         const a = pick();
         const b = pick();
         const unit = (p: typeof a): LoadInput => ({ kind: "nodal", node: p.node, [p.dir]: 1 });
-        const r = analyzeOrThrow({ ...base, loadCases: [{ id: "a", loads: [unit(a)] }, { id: "b", loads: [unit(b)] }] });
+        const r = analyzeOrThrow({
+          ...base,
+          loadCases: [
+            { id: "a", loads: [unit(a)] },
+            { id: "b", loads: [unit(b)] },
+          ],
+        });
         const comp = { fx: "ux", fy: "uy", mz: "rz" } as const;
         const dba = nodeDisplacement(r, b.node, "a")[comp[b.dir]];
         const dab = nodeDisplacement(r, a.node, "b")[comp[a.dir]];
@@ -118,7 +135,12 @@ describe("random frames", () => {
         const [r1, r2] = [a.loadCases.L, b.loadCases.L];
         // The original nodes come first in both models, so their entries line up.
         const n = 3 * model.nodes.length;
-        const largest = (v: ArrayLike<number>, rotations: boolean) => Math.max(...Array.from(v).filter((_, i) => i < n && (i % 3 === 2) === rotations).map(Math.abs));
+        const largest = (v: ArrayLike<number>, rotations: boolean) =>
+          Math.max(
+            ...Array.from(v)
+              .filter((_, i) => i < n && (i % 3 === 2) === rotations)
+              .map(Math.abs),
+          );
         const [uScale, rzScale] = [largest(r1.displacements, false), largest(r1.displacements, true)];
         const [fScale, mScale] = [largest(r1.reactions, false), largest(r1.reactions, true)];
         expect(uScale).toBeGreaterThan(0);
@@ -134,8 +156,12 @@ describe("random frames", () => {
           const f1 = memberEndForces(a, m.id, "L");
           const first = memberEndForces(b, `${m.id}a`, "L").start;
           const second = memberEndForces(b, `${m.id}b`, "L").end;
-          const scale = Math.abs(f1.start.fx) + Math.abs(f1.start.fy) + Math.abs(f1.end.fy) + Math.abs(f1.start.mz) + Math.abs(f1.end.mz) + 1;
-          for (const [x, y] of [[first, f1.start], [second, f1.end]] as const) {
+          const scale =
+            Math.abs(f1.start.fx) + Math.abs(f1.start.fy) + Math.abs(f1.end.fy) + Math.abs(f1.start.mz) + Math.abs(f1.end.mz) + 1;
+          for (const [x, y] of [
+            [first, f1.start],
+            [second, f1.end],
+          ] as const) {
             expectClose(x.fx, y.fx, 1e-8, scale);
             expectClose(x.fy, y.fy, 1e-8, scale);
             expectClose(x.mz, y.mz, 1e-8, scale);

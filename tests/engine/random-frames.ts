@@ -34,7 +34,13 @@ export function randomFrame(seed: number, options: RandomFrameOptions = {}): Mod
     for (let b = 0; b <= bays; b++) members.push({ id: `C${s}_${b}`, start: id(s - 1, b), end: id(s, b), ...section() });
     for (let b = 0; b < bays; b++) {
       const release = options.releases && rand() < 0.4 ? (rand() < 0.5 ? { startMoment: true } : { endMoment: true }) : undefined;
-      members.push({ id: `B${s}_${b}`, start: id(s, b), end: id(s, b + 1), ...section(), ...(release ? { releases: release } : {}) });
+      members.push({
+        id: `B${s}_${b}`,
+        start: id(s, b),
+        end: id(s, b + 1),
+        ...section(),
+        ...(release ? { releases: release } : {}),
+      });
     }
   }
   const loads: LoadInput[] = [];
@@ -44,7 +50,15 @@ export function randomFrame(seed: number, options: RandomFrameOptions = {}): Mod
       const member = `B${s}_${b}`;
       loads.push({ kind: "distributed", member, direction: "global-y", wStart: between(-30e3, -5e3) });
       loads.push({ kind: "point", member, direction: "local-y", position: between(0.5, 4), value: between(-40e3, 10e3) });
-      loads.push({ kind: "distributed", member, direction: "local-x", wStart: between(-2e3, 2e3), wEnd: between(-2e3, 2e3), from: 1, to: 3.5 });
+      loads.push({
+        kind: "distributed",
+        member,
+        direction: "local-x",
+        wStart: between(-2e3, 2e3),
+        wEnd: between(-2e3, 2e3),
+        from: 1,
+        to: 3.5,
+      });
       loads.push({ kind: "couple", member, position: between(0.5, 4), value: between(-8e3, 8e3) });
     }
     loads.push({ kind: "distributed", member: `C${s}_0`, direction: "global-x", wStart: between(1e3, 6e3), projected: true });

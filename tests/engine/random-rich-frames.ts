@@ -36,7 +36,12 @@ export function randomRichFrame(seed: number, { maxStoreys, maxBays }: RichFrame
 
   const members: Members = [];
   const lengths = new Map<string, number>();
-  const section = () => ({ E: 200e9 * between(0.5, 1.5), A: between(2e-3, 2e-2), I: between(2e-5, 8e-4), density: between(2400, 7850) });
+  const section = () => ({
+    E: 200e9 * between(0.5, 1.5),
+    A: between(2e-3, 2e-2),
+    I: between(2e-5, 8e-4),
+    density: between(2400, 7850),
+  });
   const add = (memberId: string, a: string, b: string, extra: Partial<Members[number]> = {}) => {
     const [start, end] = chance(0.3) ? [b, a] : [a, b];
     const p = where.get(start)!;
@@ -63,7 +68,13 @@ export function randomRichFrame(seed: number, { maxStoreys, maxBays }: RichFrame
     return { from, to: from + between(0.1, 0.4) * L };
   };
   for (let s = 1; s <= storeys; s++) {
-    loads.push({ kind: "nodal", node: id(s, Math.floor(rand() * (bays + 1))), fx: between(-20e3, 20e3), fy: between(-30e3, 0), mz: between(-5e3, 5e3) });
+    loads.push({
+      kind: "nodal",
+      node: id(s, Math.floor(rand() * (bays + 1))),
+      fx: between(-20e3, 20e3),
+      fy: between(-30e3, 0),
+      mz: between(-5e3, 5e3),
+    });
   }
   // A load straight onto a support: it goes to the reaction without straining anything.
   loads.push({ kind: "nodal", node: id(0, Math.floor(rand() * (bays + 1))), fx: between(-5e3, 5e3), fy: between(-10e3, 10e3) });
@@ -71,23 +82,72 @@ export function randomRichFrame(seed: number, { maxStoreys, maxBays }: RichFrame
     const member = m.id;
     if (member.startsWith("B")) {
       if (chance(0.6)) loads.push({ kind: "distributed", member, direction: "global-y", wStart: between(-30e3, -5e3) });
-      if (chance(0.5)) loads.push({ kind: "distributed", member, direction: "local-y", wStart: between(-20e3, 5e3), wEnd: between(-20e3, 5e3), ...range(member) });
-      if (chance(0.5)) loads.push({ kind: "distributed", member, direction: "local-x", wStart: between(-4e3, 4e3), wEnd: between(-4e3, 4e3), ...range(member) });
-      if (chance(0.5)) loads.push({ kind: "distributed", member, direction: "global-y", wStart: between(-8e3, 0), wEnd: between(-8e3, 0), projected: true, ...range(member) });
-      if (chance(0.5)) loads.push({ kind: "point", member, direction: "local-y", position: position(member), value: between(-40e3, 10e3) });
-      if (chance(0.4)) loads.push({ kind: "point", member, direction: "global-y", position: position(member), value: between(-40e3, 0) });
-      if (chance(0.4)) loads.push({ kind: "point", member, direction: "global-x", position: position(member), value: between(-10e3, 10e3) });
-      if (chance(0.4)) loads.push({ kind: "point", member, direction: "local-x", position: position(member), value: between(-20e3, 20e3) });
+      if (chance(0.5))
+        loads.push({
+          kind: "distributed",
+          member,
+          direction: "local-y",
+          wStart: between(-20e3, 5e3),
+          wEnd: between(-20e3, 5e3),
+          ...range(member),
+        });
+      if (chance(0.5))
+        loads.push({
+          kind: "distributed",
+          member,
+          direction: "local-x",
+          wStart: between(-4e3, 4e3),
+          wEnd: between(-4e3, 4e3),
+          ...range(member),
+        });
+      if (chance(0.5))
+        loads.push({
+          kind: "distributed",
+          member,
+          direction: "global-y",
+          wStart: between(-8e3, 0),
+          wEnd: between(-8e3, 0),
+          projected: true,
+          ...range(member),
+        });
+      if (chance(0.5))
+        loads.push({ kind: "point", member, direction: "local-y", position: position(member), value: between(-40e3, 10e3) });
+      if (chance(0.4))
+        loads.push({ kind: "point", member, direction: "global-y", position: position(member), value: between(-40e3, 0) });
+      if (chance(0.4))
+        loads.push({ kind: "point", member, direction: "global-x", position: position(member), value: between(-10e3, 10e3) });
+      if (chance(0.4))
+        loads.push({ kind: "point", member, direction: "local-x", position: position(member), value: between(-20e3, 20e3) });
       if (chance(0.5)) loads.push({ kind: "couple", member, position: position(member), value: between(-8e3, 8e3) });
     } else if (member.startsWith("C")) {
-      if (chance(0.5)) loads.push({ kind: "distributed", member, direction: "global-x", wStart: between(1e3, 6e3), projected: true });
-      if (chance(0.3)) loads.push({ kind: "distributed", member, direction: "global-x", wStart: between(-3e3, 3e3), wEnd: between(-3e3, 3e3), ...range(member) });
-      if (chance(0.3)) loads.push({ kind: "point", member, direction: "global-x", position: position(member), value: between(-10e3, 10e3) });
+      if (chance(0.5))
+        loads.push({ kind: "distributed", member, direction: "global-x", wStart: between(1e3, 6e3), projected: true });
+      if (chance(0.3))
+        loads.push({
+          kind: "distributed",
+          member,
+          direction: "global-x",
+          wStart: between(-3e3, 3e3),
+          wEnd: between(-3e3, 3e3),
+          ...range(member),
+        });
+      if (chance(0.3))
+        loads.push({ kind: "point", member, direction: "global-x", position: position(member), value: between(-10e3, 10e3) });
       if (chance(0.2)) loads.push({ kind: "couple", member, position: position(member), value: between(-5e3, 5e3) });
     } else {
-      if (chance(0.5)) loads.push({ kind: "distributed", member, direction: "global-y", wStart: between(-3e3, 0), projected: true });
-      if (chance(0.3)) loads.push({ kind: "distributed", member, direction: "global-x", wStart: between(-2e3, 2e3), wEnd: between(-2e3, 2e3), ...range(member) });
-      if (chance(0.3)) loads.push({ kind: "point", member, direction: "local-y", position: position(member), value: between(-5e3, 5e3) });
+      if (chance(0.5))
+        loads.push({ kind: "distributed", member, direction: "global-y", wStart: between(-3e3, 0), projected: true });
+      if (chance(0.3))
+        loads.push({
+          kind: "distributed",
+          member,
+          direction: "global-x",
+          wStart: between(-2e3, 2e3),
+          wEnd: between(-2e3, 2e3),
+          ...range(member),
+        });
+      if (chance(0.3))
+        loads.push({ kind: "point", member, direction: "local-y", position: position(member), value: between(-5e3, 5e3) });
     }
   }
   return { nodes, members, loadCases: [{ id: "L", loads }] };
@@ -99,6 +159,11 @@ function baseSupport(b: number, rand: () => number): Support {
   const between = (lo: number, hi: number) => lo + (hi - lo) * rand();
   if (r < 0.3) return { ux: "fixed", uy: "fixed", rz: "fixed" };
   if (r < 0.5) return { ux: "fixed", uy: "fixed" };
-  if (r < 0.75) return { ux: "fixed", uy: { kind: "spring", stiffness: between(5e7, 5e8) }, rz: { kind: "spring", stiffness: between(1e6, 1e8) } };
+  if (r < 0.75)
+    return {
+      ux: "fixed",
+      uy: { kind: "spring", stiffness: between(5e7, 5e8) },
+      rz: { kind: "spring", stiffness: between(1e6, 1e8) },
+    };
   return { ux: "fixed", uy: { kind: "prescribed", value: between(-0.02, -0.002), loadCase: "L" }, rz: "fixed" };
 }

@@ -28,7 +28,16 @@ describe("timings beside the result", () => {
   it("analyze returns stage timings beside the result and none inside it", () => {
     const out = analyze(portal);
     if (!out.ok) throw new Error("analysis failed");
-    expect(Object.keys(out.timings).sort()).toEqual(["assemblyMs", "factorMs", "orderingMs", "recoveryMs", "solveMs", "symbolicMs", "totalMs", "validationMs"]);
+    expect(Object.keys(out.timings).sort()).toEqual([
+      "assemblyMs",
+      "factorMs",
+      "orderingMs",
+      "recoveryMs",
+      "solveMs",
+      "symbolicMs",
+      "totalMs",
+      "validationMs",
+    ]);
     for (const ms of Object.values(out.timings)) expect(ms).toBeGreaterThanOrEqual(0);
     expect(out.timings.totalMs).toBeGreaterThanOrEqual(out.timings.validationMs);
     // The result keeps only what the model and the code determine.
@@ -77,6 +86,8 @@ describe("byte-identical canonical results", () => {
     expect(JSON.parse(text)).toEqual(resultToJson(out.result));
     expect(text).not.toMatch(/\s/);
     expect(text.indexOf('"analysis"')).toBeLessThan(text.indexOf('"combinations"'));
-    expect(canonicalJson({ b: [1, { d: -0, c: "x" }], a: null, t: Float64Array.of(0.1, 2) })).toBe('{"a":null,"b":[1,{"c":"x","d":0}],"t":[0.1,2]}');
+    expect(canonicalJson({ b: [1, { d: -0, c: "x" }], a: null, t: Float64Array.of(0.1, 2) })).toBe(
+      '{"a":null,"b":[1,{"c":"x","d":0}],"t":[0.1,2]}',
+    );
   });
 });

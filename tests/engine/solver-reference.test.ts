@@ -22,7 +22,12 @@ function prattTruss(panels: number): ModelInput {
     bar(`d${i}`, i < panels / 2 ? `T${i}` : `B${i}`, i < panels / 2 ? `B${i + 1}` : `T${i + 1}`);
   }
   for (let i = 0; i <= panels; i++) bar(`v${i}`, `B${i}`, `T${i}`);
-  const loads = Array.from({ length: panels - 1 }, (_, i) => ({ kind: "nodal" as const, node: `B${i + 1}`, fy: -20e3, fx: 1e3 * i }));
+  const loads = Array.from({ length: panels - 1 }, (_, i) => ({
+    kind: "nodal" as const,
+    node: `B${i + 1}`,
+    fy: -20e3,
+    fx: 1e3 * i,
+  }));
   return { nodes, members, loadCases: [{ id: "L", loads }] };
 }
 
@@ -56,4 +61,3 @@ describe("sparse solve", () => {
     );
   });
 });
-

@@ -16,6 +16,9 @@ describe("SpanTable", () => {
     expect(table.get(99)).toBeUndefined();
     expect(table.size).toBe(2);
     expect([...table.keys()]).toEqual([4, 1]);
-    expect([...table]).toEqual([[4, a], [1, b]]);
+    expect([...table]).toEqual([
+      [4, a],
+      [1, b],
+    ]);
   });
 });

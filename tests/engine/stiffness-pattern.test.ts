@@ -27,7 +27,8 @@ function tripletStiffness(model: ModelInput): { direct: SymmetricCsc; reference:
       }
     }
   }
-  for (let e = 0; e < dofs.nFree; e++) if (dofs.spring[dofs.freeToGlobal[e]] !== 0) builder.add(e, e, dofs.spring[dofs.freeToGlobal[e]]);
+  for (let e = 0; e < dofs.nFree; e++)
+    if (dofs.spring[dofs.freeToGlobal[e]] !== 0) builder.add(e, e, dofs.spring[dofs.freeToGlobal[e]]);
   return { direct: assembleStiffness(members, dofs), reference: builder.toCsc() };
 }
 
@@ -42,7 +43,9 @@ function expectSameMatrix(direct: SymmetricCsc, reference: SymmetricCsc): void {
 describe("direct CSC assembly of K", () => {
   it("gives the pattern and values of triplet assembly on random frames", () => {
     for (let seed = 1; seed <= 60; seed++) {
-      const { direct, reference } = tripletStiffness(randomFrame(seed, { releases: seed % 2 === 0, unsupported: seed % 7 === 0 }));
+      const { direct, reference } = tripletStiffness(
+        randomFrame(seed, { releases: seed % 2 === 0, unsupported: seed % 7 === 0 }),
+      );
       expectSameMatrix(direct, reference);
     }
   });

@@ -21,7 +21,8 @@ import {
 import { randomRichFrame } from "./random-rich-frames";
 
 const root = path.resolve(import.meta.dirname, "../..");
-const example = (name: string) => JSON.parse(readFileSync(path.join(root, "content/engine-examples", name), "utf8")) as ModelInput;
+const example = (name: string) =>
+  JSON.parse(readFileSync(path.join(root, "content/engine-examples", name), "utf8")) as ModelInput;
 const portal = example("portal-frame.json");
 
 function analyzeOrThrow(model: unknown): AnalysisResult {
@@ -57,10 +58,15 @@ function expectSameDiagrams(restored: AnalysisResult, original: AnalysisResult):
       expectSame(after.extremes, before.extremes);
       expectSame(after.samples, before.samples);
       for (const f of [0, 0.13, 0.5, 0.77, 1]) {
-        for (const side of ["left", "right"] as const) expectSame(after.valueAt(f * after.length, side), before.valueAt(f * before.length, side));
+        for (const side of ["left", "right"] as const)
+          expectSame(after.valueAt(f * after.length, side), before.valueAt(f * before.length, side));
       }
     }
-    for (const envelopeId of Object.keys(original.envelopes)) expectSame(memberEnvelope(restored, memberId, envelopeId, { points: 15 }), memberEnvelope(original, memberId, envelopeId, { points: 15 }));
+    for (const envelopeId of Object.keys(original.envelopes))
+      expectSame(
+        memberEnvelope(restored, memberId, envelopeId, { points: 15 }),
+        memberEnvelope(original, memberId, envelopeId, { points: 15 }),
+      );
     expectSame(memberEnvelope(restored, memberId, ids, { points: 9 }), memberEnvelope(original, memberId, ids, { points: 9 }));
   }
 }
@@ -123,10 +129,14 @@ describe("diagrams from the stored model and result alone", () => {
     };
     const missing = stored();
     delete missing.loadCases.G.displacements.C;
-    expect(errorsOf(portal, missing)).toContainEqual(expect.objectContaining({ kind: "invalid-stored-result", path: "loadCases.G.displacements.C" }));
+    expect(errorsOf(portal, missing)).toContainEqual(
+      expect.objectContaining({ kind: "invalid-stored-result", path: "loadCases.G.displacements.C" }),
+    );
     const factors = stored();
     factors.combinations["ULS-1"].factors.Q = 1.6;
-    expect(errorsOf(portal, factors)).toContainEqual(expect.objectContaining({ kind: "invalid-stored-result", path: "combinations.ULS-1.factors.Q" }));
+    expect(errorsOf(portal, factors)).toContainEqual(
+      expect.objectContaining({ kind: "invalid-stored-result", path: "combinations.ULS-1.factors.Q" }),
+    );
     const damaged = stored();
     damaged.loadCases.W.endForces.beam.end.mz = "12";
     expect(errorsOf(portal, damaged)).toContainEqual(expect.objectContaining({ path: "loadCases.W.endForces.beam.end.mz" }));

@@ -1,18 +1,19 @@
 // Who gets what: every server action the build exposes (its server-reference manifest) and every HTTP
 // method every route file exports, against an anonymous visitor and each role, as a table written
-// from the product's rules for each role, not from lib/auth/permissions.ts, so a wrong permission in
-// code fails here. An action or a route method without a row fails the "covers every…" tests.
+// from the product's rules for each role, not from lib/domain/permissions.ts nor from the permissions
+// the use cases (lib/use-cases/) declare, so a wrong permission in code fails here. An action or a route method without a row fails the "covers every…" tests.
 //
 // Each cell is called with a valid input made fresh for it. An allowed cell must do its work (the
-// answer and the rows it changes are checked); a refused cell must answer with the guard's code and
-// leave every row of every table as it was (the guard writes nothing when it refuses).
+// answer and the rows it changes are checked); a refused cell must answer with the runner's code and
+// leave every row of every table, and the job queue, as it was (lib/use-cases/run.ts writes nothing
+// when it refuses).
 import fs from "node:fs";
 import path from "node:path";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import type { Actor } from "@/lib/auth/actor";
-import type { ActionState } from "@/lib/auth/guard";
-import type { Role } from "@/lib/auth/roles";
-import { DEFAULT_MESSAGES } from "@/lib/errors";
+import type { Actor } from "@/lib/domain/actor";
+import type { ActionState } from "@/lib/domain/action-state";
+import type { Role } from "@/lib/domain/roles";
+import { DEFAULT_MESSAGES } from "@/lib/domain/errors";
 import { expectRowsUnchanged, snapshotRows } from "../support/snapshot";
 import { ACTION_FIXTURES, type ActionAnswer } from "./helpers/action-fixtures";
 import { createTestUser, sessionCount, signInHeaders } from "./helpers/people";
@@ -31,7 +32,7 @@ afterEach(() => {
 type Who = "anonymous" | Role;
 const EVERYONE: Who[] = ["anonymous", "admin", "lead", "engineer", "auditor"];
 
-/** allowed: the use case did its work · unauthenticated / forbidden: the guard refused, nothing changed. */
+/** allowed: the use case did its work · unauthenticated / forbidden: the runner refused, nothing changed. */
 type Expected = "allowed" | "unauthenticated" | "forbidden";
 
 const ADMIN_ONLY: Record<Who, Expected> = {
@@ -48,7 +49,13 @@ const SIGNED_IN: Record<Who, Expected> = {
   engineer: "allowed",
   auditor: "allowed",
 };
-const PUBLIC: Record<Who, Expected> = { anonymous: "allowed", admin: "allowed", lead: "allowed", engineer: "allowed", auditor: "allowed" };
+const PUBLIC: Record<Who, Expected> = {
+  anonymous: "allowed",
+  admin: "allowed",
+  lead: "allowed",
+  engineer: "allowed",
+  auditor: "allowed",
+};
 
 // ---- the people who call -------------------------------------------------------------------------
 
@@ -90,10 +97,12 @@ const manifestFile = path.join(repoRoot, ".next", "server", "server-reference-ma
 
 /** Every server action in the build (`npm test` builds before it runs vitest), as "<file>#<export>". */
 function readBuiltActions(): { key: string; filename: string; exportedName: string }[] {
-  if (!fs.existsSync(manifestFile)) throw new Error(`${manifestFile} is missing: run the tests through \`npm test\`, which builds the app`);
+  if (!fs.existsSync(manifestFile))
+    throw new Error(`${manifestFile} is missing: run the tests through \`npm test\`, which builds the app`);
   const manifest = JSON.parse(fs.readFileSync(manifestFile, "utf8")) as Record<"node" | "edge", Record<string, ManifestEntry>>;
   return [...Object.values(manifest.node), ...Object.values(manifest.edge)].map((entry) => {
-    if (!entry.filename || !entry.exportedName) throw new Error(`a manifest entry without a file or export name: ${JSON.stringify(entry)}`);
+    if (!entry.filename || !entry.exportedName)
+      throw new Error(`a manifest entry without a file or export name: ${JSON.stringify(entry)}`);
     return { key: `${entry.filename}#${entry.exportedName}`, filename: entry.filename, exportedName: entry.exportedName };
   });
 }
@@ -120,8 +129,14 @@ async function callAction(action: AnyAction, input: unknown): Promise<ActionAnsw
 describe("server actions", () => {
   it("covers every server action in the build's manifest, and nothing else", () => {
     const built = readBuiltActions().map((action) => action.key);
-    expect(built.filter((key) => !(key in ACTIONS)), "server actions without a row").toEqual([]);
-    expect(Object.keys(ACTIONS).filter((key) => !built.includes(key)), "rows for actions that are not in the build").toEqual([]);
+    expect(
+      built.filter((key) => !(key in ACTIONS)),
+      "server actions without a row",
+    ).toEqual([]);
+    expect(
+      Object.keys(ACTIONS).filter((key) => !built.includes(key)),
+      "rows for actions that are not in the build",
+    ).toEqual([]);
     expect(Object.keys(ACTION_FIXTURES).sort(), "an input for every row").toEqual(Object.keys(ACTIONS).sort());
   });
 
@@ -231,7 +246,8 @@ async function exportedMethods(): Promise<string[]> {
   const found: string[] = [];
   for (const [file, load] of Object.entries(routeModules)) {
     for (const [name, value] of Object.entries(await load())) {
-      if ((HTTP_METHODS as readonly string[]).includes(name) && typeof value === "function") found.push(`${file.slice(1)}#${name}`);
+      if ((HTTP_METHODS as readonly string[]).includes(name) && typeof value === "function")
+        found.push(`${file.slice(1)}#${name}`);
     }
   }
   return found.sort();
@@ -246,15 +262,24 @@ async function loadHandler(row: RouteRow): Promise<RouteHandler> {
 function makeRequest(row: RouteRow, headers: Headers): Request {
   const withOrigin = new Headers(headers);
   withOrigin.set("origin", new URL(process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000").origin);
-  return new Request(`${process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000"}${row.path}`, { method: row.method, headers: withOrigin });
+  return new Request(`${process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000"}${row.path}`, {
+    method: row.method,
+    headers: withOrigin,
+  });
 }
 
 describe("route handlers", () => {
   it("covers every HTTP method every route file exports", async () => {
     const exported = await exportedMethods();
     const covered = [...new Set(ROUTES.map((row) => `${row.route}#${row.method}`))].sort();
-    expect(exported.filter((key) => !covered.includes(key)), "exported methods without a row").toEqual([]);
-    expect(covered.filter((key) => !exported.includes(key)), "rows for methods no route exports").toEqual([]);
+    expect(
+      exported.filter((key) => !covered.includes(key)),
+      "exported methods without a row",
+    ).toEqual([]);
+    expect(
+      covered.filter((key) => !exported.includes(key)),
+      "rows for methods no route exports",
+    ).toEqual([]);
   });
 
   for (const row of ROUTES) {

@@ -74,7 +74,13 @@ describe("fake S3", () => {
     const Key = `infra-checks/${crypto.randomUUID()}.bin`;
     keys.push(Key);
     await s3.send(
-      new PutObjectCommand({ Bucket: testEnv.s3.bucket, Key, Body: makeBody(), ContentLength: body.length, ContentType: "application/octet-stream" }),
+      new PutObjectCommand({
+        Bucket: testEnv.s3.bucket,
+        Key,
+        Body: makeBody(),
+        ContentLength: body.length,
+        ContentType: "application/octet-stream",
+      }),
     );
     const got = await s3.send(new GetObjectCommand({ Bucket: testEnv.s3.bucket, Key }));
     return Buffer.from(await got.Body!.transformToByteArray());

@@ -30,10 +30,22 @@ describe("migrations on an empty database", () => {
 
   it("create every table the app uses", async () => {
     const tables = await withClient(freshUrl, async (client) => {
-      const result = await client.query("select table_name from information_schema.tables where table_schema = 'public' order by 1");
+      const result = await client.query(
+        "select table_name from information_schema.tables where table_schema = 'public' order by 1",
+      );
       return result.rows.map((row) => row.table_name as string);
     });
-    expect(tables).toEqual(["account", "audit_events", "firm", "invitations", "projects", "rate_limit", "session", "user", "verification"]);
+    expect(tables).toEqual([
+      "account",
+      "audit_events",
+      "firm",
+      "invitations",
+      "projects",
+      "rate_limit",
+      "session",
+      "user",
+      "verification",
+    ]);
   });
 
   it("make audit_events append-only: INSERT works, UPDATE, DELETE and TRUNCATE raise", async () => {
@@ -66,7 +78,9 @@ describe("the test database", () => {
     await withClient(serverUrl, async (client) => {
       const { rows } = await client.query("insert into audit_events (action) values ('test.append-only') returning id");
       const id = rows[0].id as string;
-      await expect(client.query("update audit_events set details = '{\"x\":1}' where id = $1", [id])).rejects.toThrow(/append-only/);
+      await expect(client.query("update audit_events set details = '{\"x\":1}' where id = $1", [id])).rejects.toThrow(
+        /append-only/,
+      );
       await expect(client.query("delete from audit_events where id = $1", [id])).rejects.toThrow(/append-only/);
     });
   });

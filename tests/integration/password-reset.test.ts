@@ -27,7 +27,9 @@ function resetRequestAudited(email: string, knownUser: boolean): ExpectedChange 
     change: "added",
     why: "every reset request is audited, known address or not",
     where: (row) =>
-      row.action === "auth.password-reset.requested" && row.actor_email === email && (row.details as { knownUser?: boolean }).knownUser === knownUser,
+      row.action === "auth.password-reset.requested" &&
+      row.actor_email === email &&
+      (row.details as { knownUser?: boolean }).knownUser === knownUser,
   };
 }
 function resetRequestCounted(ip: string): ExpectedChange {
@@ -41,8 +43,9 @@ function resetRequestCounted(ip: string): ExpectedChange {
 
 /**
  * The messages that reached `email` by the time a later reset mail to someone else arrived. The app
- * sends its mail before it answers, so anything the earlier request sent is in the mailbox by then:
- * no fixed wait, and no race with a slow send.
+ * queues its mail before it answers and the worker takes the queue's jobs oldest first, so anything
+ * the earlier request queued is in the mailbox by then: no fixed wait, and no race with a slow send.
+ * (The snapshots around the requests also prove that no job was queued at all.)
  */
 async function mailTo(email: string): Promise<unknown[]> {
   const { actor: witness } = await createTestUser({ role: "engineer", label: "reset-witness" });
@@ -101,7 +104,8 @@ describe("password reset", () => {
           table: "audit_events",
           change: "added",
           why: "a refused reset is audited (lib/auth/server.ts)",
-          where: (row) => row.action === "auth.password-reset.failed" && (row.details as { reason?: string }).reason === "PASSWORD_TOO_SHORT",
+          where: (row) =>
+            row.action === "auth.password-reset.failed" && (row.details as { reason?: string }).reason === "PASSWORD_TOO_SHORT",
         },
       ],
     });

@@ -1,14 +1,23 @@
-// What each role may read: the home summary, projects, the audit trail and the demo mailbox. Each
-// function checks the permission itself and returns small records.
+// What each role may read: the shell, the home summary, projects, the audit trail and the demo mailbox.
+// Each read is a use case (lib/use-cases/reads.ts) whose permission the runner checks; a refused read
+// changes nothing. The queries under them (lib/data/) are checked directly for their content.
 import { describe, expect, it } from "vitest";
-import { pool } from "@/db";
+import { db, pool } from "@/db";
+import * as schema from "@/db/schema";
 import { DEMO_FIRM_NAME, DEMO_PROJECTS, DEMO_USERS } from "@/db/demo-users";
+import type { Actor } from "@/lib/domain/actor";
+import { forgetServerEnv } from "@/lib/server-env";
 import { listAuditEvents, recordAuditEvent } from "@/lib/data/audit";
 import { getFirmName } from "@/lib/data/firm";
-import { getHomeSummary } from "@/lib/data/home";
 import { isMailboxEnabled, listCapturedMail } from "@/lib/data/mailbox";
 import { listProjects } from "@/lib/data/projects";
 import { sendMail } from "@/lib/mail/send-mail";
+import { readAuditTrail, readDemoMailbox, readHome, readProjects, readShell } from "@/lib/use-cases/reads";
+import { runUseCase } from "@/lib/use-cases/run";
+import type { UseCase } from "@/lib/use-cases/use-case";
+import type { Permission } from "@/lib/domain/permissions";
+import type { z } from "zod";
+import { expectNoChangeFrom } from "../support/snapshot";
 import { createTestUser, uniqueEmail } from "./helpers/people";
 import { waitForMessage } from "../support/mailbox";
 
@@ -17,6 +26,29 @@ async function countInDatabase(query: string): Promise<number> {
   const { rows } = await pool.query<{ n: string }>(query);
   return Number(rows[0].n);
 }
+
+/** The read is refused with `code` and changes nothing. */
+async function expectReadRefused<P extends Permission, S extends z.ZodType, T>(
+  useCase: UseCase<P, S, T>,
+  actor: Actor | null,
+  code: "unauthenticated" | "forbidden",
+  input: unknown = {},
+) {
+  await expectNoChangeFrom(() => expect(runUseCase(useCase, { actor, input })).rejects.toMatchObject({ code }));
+}
+
+const fakeMailInUse = Boolean(process.env.FAKE_MAIL_API_URL);
+
+describe("shell", () => {
+  it("gives every signed-in role the firm's name and whether the demo mailbox is on, and nobody else", async () => {
+    for (const role of ["admin", "lead", "engineer", "auditor"] as const) {
+      const { actor } = await createTestUser({ role });
+      const shell = await expectNoChangeFrom(() => runUseCase(readShell, { actor, input: {} }));
+      expect(shell, role).toEqual({ firmName: DEMO_FIRM_NAME, mailboxEnabled: fakeMailInUse });
+    }
+    await expectReadRefused(readShell, null, "unauthenticated");
+  });
+});
 
 describe("home summary", () => {
   it("holds exactly the parts each role may read, with the numbers in the database", async () => {
@@ -29,14 +61,22 @@ describe("home summary", () => {
     for (const role of ["admin", "lead", "engineer", "auditor"] as const) {
       const { actor } = await createTestUser({ role });
       const marker = uniqueEmail("home");
-      await recordAuditEvent({ action: "test.home", actorEmail: marker });
-      const summary = await getHomeSummary({ actor });
+      await recordAuditEvent({ action: "auth.sign-in", actorEmail: marker, details: {} });
+      const summary = await runUseCase(readHome, { actor, input: {} });
       const parts: readonly string[] = expected[role];
-      expect(Object.keys(summary).sort(), role).toEqual(parts);
+      expect(Object.keys(summary).sort(), role).toEqual([...parts, "mailboxEnabled"].sort());
+      expect(summary.mailboxEnabled, role).toBe(fakeMailInUse);
       if (parts.includes("projects")) {
         // No test makes projects: the demo jobs are all there are, seeded together, newest job number first.
         expect(summary.projects?.count, role).toBe(DEMO_PROJECTS.length);
-        expect(summary.projects?.recent.map((p) => p.jobNumber), role).toEqual(DEMO_PROJECTS.map((p) => p.jobNumber).sort().reverse());
+        expect(
+          summary.projects?.recent.map((p) => p.jobNumber),
+          role,
+        ).toEqual(
+          DEMO_PROJECTS.map((p) => p.jobNumber)
+            .sort()
+            .reverse(),
+        );
       }
       if (parts.includes("people")) {
         expect(summary.people, role).toEqual({
@@ -50,29 +90,33 @@ describe("home summary", () => {
       }
       if (parts.includes("audit")) {
         // The five newest events, the one just written first.
-        expect(summary.audit?.recent, role).toEqual((await listAuditEvents({ actor, limit: 5 })).events);
-        expect(summary.audit?.recent[0], role).toMatchObject({ action: "test.home", actorEmail: marker });
+        expect(summary.audit?.recent, role).toEqual((await listAuditEvents({ limit: 5 })).events);
+        expect(summary.audit?.recent[0], role).toMatchObject({ action: "auth.sign-in", actorEmail: marker, label: "Signed in" });
       }
     }
-    await expect(getHomeSummary({ actor: null })).rejects.toMatchObject({ code: "unauthenticated" });
+    await expectReadRefused(readHome, null, "unauthenticated");
   });
 });
 
 describe("projects", () => {
   it("are read by engineers, leads and auditors, and include the demo jobs", async () => {
+    // The demo jobs were made by the demo standards lead.
+    const lead = DEMO_USERS.find((u) => u.role === "lead")!;
+    const projects = await listProjects();
+    expect(projects.map((p) => p.jobNumber)).toEqual(["MF-2304", "MF-2291"]);
+    expect(projects.map(({ id: _id, createdAt: _createdAt, ...rest }) => rest)).toEqual(
+      [...DEMO_PROJECTS].reverse().map((p) => ({ ...p, createdByName: lead.name })),
+    );
+    expect(Object.keys(projects[0]).sort()).toEqual(["client", "createdAt", "createdByName", "id", "jobNumber", "name"]);
+    expect((await listProjects({ limit: 1 })).map((p) => p.jobNumber)).toEqual(["MF-2304"]);
+
     for (const role of ["lead", "engineer", "auditor"] as const) {
       const { actor } = await createTestUser({ role });
-      const projects = await listProjects({ actor });
-      expect(projects.map((p) => p.jobNumber)).toEqual(["MF-2304", "MF-2291"]);
-      // The demo jobs were made by the demo standards lead.
-      const lead = DEMO_USERS.find((u) => u.role === "lead")!;
-      expect(projects.map(({ id: _id, createdAt: _createdAt, ...rest }) => rest)).toEqual(
-        [...DEMO_PROJECTS].reverse().map((p) => ({ ...p, createdByName: lead.name })),
-      );
-      expect(Object.keys(projects[0]).sort()).toEqual(["client", "createdAt", "createdByName", "id", "jobNumber", "name"]);
+      expect(await runUseCase(readProjects, { actor, input: {} }), role).toEqual(projects);
     }
     const { actor: admin } = await createTestUser({ role: "admin" });
-    await expect(listProjects({ actor: admin })).rejects.toMatchObject({ code: "forbidden" });
+    await expectReadRefused(readProjects, admin, "forbidden");
+    await expectReadRefused(readProjects, null, "unauthenticated");
   });
 });
 
@@ -80,52 +124,99 @@ describe("audit trail", () => {
   it("pages newest first for auditors and admins, and is closed to others", async () => {
     const { actor: auditor } = await createTestUser({ role: "auditor" });
     const marker = uniqueEmail("page");
-    for (let i = 0; i < 3; i++) await recordAuditEvent({ action: "test.page", actorEmail: marker, details: { i } });
-    const first = await listAuditEvents({ actor: auditor, limit: 2 });
+    // Written raw, with an action no version of Gusset knows: the trail shows its key as its label.
+    for (let i = 0; i < 3; i++)
+      await db.insert(schema.auditEvents).values({ action: "test.page", actorEmail: marker, details: { i } });
+    const first = await runUseCase(readAuditTrail, { actor: auditor, input: { limit: 2 } });
     expect(first.events).toHaveLength(2);
     expect(first.events[0].id).toBeGreaterThan(first.events[1].id);
     expect(first.nextBefore).toBe(first.events[1].id);
-    const second = await listAuditEvents({ actor: auditor, limit: 2, before: first.nextBefore! });
+    const second = await runUseCase(readAuditTrail, { actor: auditor, input: { limit: 2, before: first.nextBefore! } });
     expect(second.events).toHaveLength(2);
     expect(second.events[0].id).toBeLessThan(first.events[1].id);
     expect(first.events.map((e) => e.details)).toEqual([{ i: 2 }, { i: 1 }]);
-    expect(first.events[0]).toMatchObject({ action: "test.page", actorEmail: marker, actorId: null, actorName: null, label: "test.page", subject: null });
+    expect(first.events[0]).toMatchObject({
+      action: "test.page",
+      actorEmail: marker,
+      actorId: null,
+      actorName: null,
+      label: "test.page",
+      subject: null,
+    });
     expect(second.events[0]).toMatchObject({ action: "test.page", actorEmail: marker, details: { i: 0 } });
+    // The use case serves exactly what the query gives.
+    expect(await listAuditEvents({ limit: 2 })).toEqual(first);
+    expect(await listAuditEvents({ limit: 2, before: first.nextBefore! })).toEqual(second);
 
     // An admin reads the same trail, page for page.
     const { actor: admin } = await createTestUser({ role: "admin" });
-    expect(await listAuditEvents({ actor: admin, limit: 2 })).toEqual(first);
-    expect(await listAuditEvents({ actor: admin, limit: 2, before: first.nextBefore! })).toEqual(second);
+    expect(await runUseCase(readAuditTrail, { actor: admin, input: { limit: 2 } })).toEqual(first);
+    expect(await runUseCase(readAuditTrail, { actor: admin, input: { limit: 2, before: first.nextBefore! } })).toEqual(second);
     for (const role of ["lead", "engineer"] as const) {
       const { actor } = await createTestUser({ role });
-      await expect(listAuditEvents({ actor })).rejects.toMatchObject({ code: "forbidden" });
+      await expectReadRefused(readAuditTrail, actor, "forbidden");
     }
+    await expectReadRefused(readAuditTrail, null, "unauthenticated");
+    // A page size out of range is bad input, not a silently clamped page.
+    await expectNoChangeFrom(() =>
+      expect(runUseCase(readAuditTrail, { actor: auditor, input: { limit: 500 } })).rejects.toMatchObject({
+        code: "invalid-input",
+        fieldErrors: { limit: [expect.any(String)] },
+      }),
+    );
+  });
+
+  it("filters by actor in the query", async () => {
+    const { actor } = await createTestUser({ role: "engineer" });
+    await recordAuditEvent({ action: "auth.sign-in", actorId: actor.id, actorEmail: actor.email, details: {} });
+    const { events } = await listAuditEvents({ actorId: actor.id });
+    expect(events.map((e) => [e.action, e.actorId, e.actorName])).toEqual([["auth.sign-in", actor.id, actor.name]]);
   });
 });
 
 describe("demo mailbox", () => {
   it("lists captured e-mails for admins only, while the fake SMTP is in use", async () => {
-    expect(await isMailboxEnabled()).toBe(Boolean(process.env.FAKE_MAIL_API_URL));
+    expect(isMailboxEnabled()).toBe(fakeMailInUse);
     const to = uniqueEmail("mailbox");
     await sendMail({ to, subject: "Mailbox check", text: "Plain words.", html: "<p>Plain words.</p>" });
     await waitForMessage({ to });
+    expect((await listCapturedMail())?.find((m) => m.to.includes(to))).toMatchObject({
+      subject: "Mailbox check",
+      text: expect.stringContaining("Plain words."),
+    });
     const { actor: admin } = await createTestUser({ role: "admin" });
-    const mail = await listCapturedMail({ actor: admin });
-    expect(mail?.find((m) => m.to.includes(to))).toMatchObject({ subject: "Mailbox check", text: expect.stringContaining("Plain words.") });
-    const { actor: auditor } = await createTestUser({ role: "auditor" });
-    await expect(listCapturedMail({ actor: auditor })).rejects.toMatchObject({ code: "forbidden" });
+    const mail = await runUseCase(readDemoMailbox, { actor: admin, input: {} });
+    expect(mail?.find((m) => m.to.includes(to))).toMatchObject({
+      subject: "Mailbox check",
+      text: expect.stringContaining("Plain words."),
+    });
+    for (const role of ["lead", "engineer", "auditor"] as const) {
+      const { actor } = await createTestUser({ role });
+      await expectReadRefused(readDemoMailbox, actor, "forbidden");
+    }
+    await expectReadRefused(readDemoMailbox, null, "unauthenticated");
   });
 
   it("is absent when no fake SMTP is configured", async () => {
     const { actor: admin } = await createTestUser({ role: "admin" });
     const saved = process.env.FAKE_MAIL_API_URL;
+    // Settings are parsed once (lib/server-env.ts): forget them on the way in and on the way out.
     delete process.env.FAKE_MAIL_API_URL;
+    forgetServerEnv();
     try {
-      expect(await isMailboxEnabled()).toBe(false);
-      expect(await listCapturedMail({ actor: admin })).toBeNull();
+      expect(isMailboxEnabled()).toBe(false);
+      expect(await listCapturedMail()).toBeNull();
+      expect(await runUseCase(readDemoMailbox, { actor: admin, input: {} })).toBeNull();
+      expect(await runUseCase(readShell, { actor: admin, input: {} })).toEqual({
+        firmName: DEMO_FIRM_NAME,
+        mailboxEnabled: false,
+      });
+      expect((await runUseCase(readHome, { actor: admin, input: {} })).mailboxEnabled).toBe(false);
     } finally {
       if (saved !== undefined) process.env.FAKE_MAIL_API_URL = saved;
+      forgetServerEnv();
     }
+    expect(isMailboxEnabled()).toBe(fakeMailInUse);
   });
 });
 

@@ -29,7 +29,8 @@ function failedSignInAudited(email: string, reason: string): ExpectedChange {
     table: "audit_events",
     change: "added",
     why: `the refused sign-in of ${email} (${reason}) is audited`,
-    where: (row) => row.action === "auth.sign-in.failed" && row.actor_email === email && (row.details as { reason?: string }).reason === reason,
+    where: (row) =>
+      row.action === "auth.sign-in.failed" && row.actor_email === email && (row.details as { reason?: string }).reason === reason,
   };
 }
 
@@ -77,10 +78,19 @@ describe("sign-in", () => {
     expect(result.body.code).toBe("INVALID_EMAIL_OR_PASSWORD");
     expect(describeAuthError({ status: 401, code: result.body.code })).toMatch(/do not match an account/);
     await expectRowsUnchanged(before, {
-      except: [failedSignInAudited(actor.email, "INVALID_EMAIL_OR_PASSWORD"), attemptCounted(ip, actor.email), addressCounted(ip, "/sign-in/email")],
+      except: [
+        failedSignInAudited(actor.email, "INVALID_EMAIL_OR_PASSWORD"),
+        attemptCounted(ip, actor.email),
+        addressCounted(ip, "/sign-in/email"),
+      ],
     });
     const [event] = await auditEventsFor({ action: "auth.sign-in.failed", actorEmail: actor.email });
-    expect(event).toMatchObject({ actorId: actor.id, subject: `user:${actor.id}`, ipAddress: ip, details: { reason: "INVALID_EMAIL_OR_PASSWORD", knownUser: true } });
+    expect(event).toMatchObject({
+      actorId: actor.id,
+      subject: `user:${actor.id}`,
+      ipAddress: ip,
+      details: { reason: "INVALID_EMAIL_OR_PASSWORD", knownUser: true },
+    });
   });
 
   it("answers an unknown e-mail with the same words as a wrong password", async () => {
@@ -91,10 +101,18 @@ describe("sign-in", () => {
     expect(result.status).toBe(401);
     expect(result.body.code).toBe("INVALID_EMAIL_OR_PASSWORD");
     await expectRowsUnchanged(before, {
-      except: [failedSignInAudited(email, "INVALID_EMAIL_OR_PASSWORD"), attemptCounted(ip, email), addressCounted(ip, "/sign-in/email")],
+      except: [
+        failedSignInAudited(email, "INVALID_EMAIL_OR_PASSWORD"),
+        attemptCounted(ip, email),
+        addressCounted(ip, "/sign-in/email"),
+      ],
     });
     const [event] = await auditEventsFor({ action: "auth.sign-in.failed", actorEmail: email });
-    expect(event).toMatchObject({ actorId: null, subject: null, details: { reason: "INVALID_EMAIL_OR_PASSWORD", knownUser: false } });
+    expect(event).toMatchObject({
+      actorId: null,
+      subject: null,
+      details: { reason: "INVALID_EMAIL_OR_PASSWORD", knownUser: false },
+    });
   });
 
   it("answers a malformed e-mail clearly", async () => {
@@ -105,14 +123,22 @@ describe("sign-in", () => {
     expect(result.body.code).toBe("INVALID_EMAIL");
     expect(describeAuthError({ status: 400, code: result.body.code })).toBe("Enter an e-mail address like name@firm.example.");
     await expectRowsUnchanged(before, {
-      except: [failedSignInAudited("not-an-address", "INVALID_EMAIL"), attemptCounted(ip, "not-an-address"), addressCounted(ip, "/sign-in/email")],
+      except: [
+        failedSignInAudited("not-an-address", "INVALID_EMAIL"),
+        attemptCounted(ip, "not-an-address"),
+        addressCounted(ip, "/sign-in/email"),
+      ],
     });
   });
 
   it("has no sign-up (people join by invitation only) and no unguarded profile endpoints", async () => {
     const ip = uniqueIp();
     const before = await snapshotRows();
-    const result = await post("/sign-up/email", { email: uniqueEmail("self"), password: "a-long-password", name: "Self Signed" }, { ip });
+    const result = await post(
+      "/sign-up/email",
+      { email: uniqueEmail("self"), password: "a-long-password", name: "Self Signed" },
+      { ip },
+    );
     expect(result.status).toBe(404);
     for (const path of ["/update-user", "/delete-user", "/change-email"]) expect((await post(path, {}, { ip })).status).toBe(404);
     await expectRowsUnchanged(before);
@@ -132,7 +158,11 @@ describe("sign-in", () => {
     // 127.0.0.1 and localhost name the same demo server: both are trusted.
     const local = new URL(BASE);
     const twin = local.hostname === "127.0.0.1" ? "localhost" : local.hostname === "localhost" ? "127.0.0.1" : local.hostname;
-    const ok = await post("/sign-in/email", { email: actor.email, password }, { origin: `${local.protocol}//${twin}:${local.port}`, cookie });
+    const ok = await post(
+      "/sign-in/email",
+      { email: actor.email, password },
+      { origin: `${local.protocol}//${twin}:${local.port}`, cookie },
+    );
     expect(ok.status).toBe(200);
   });
 
@@ -157,7 +187,9 @@ describe("sign-in", () => {
     expect(retryAfter).toBeGreaterThanOrEqual(Math.ceil((windowOpened + SIGN_IN_RATE_LIMIT.window * 1000 - answered) / 1000));
     expect(describeAuthError({ status: 429 })).toMatch(/Too many attempts/);
     // Refused before better-auth sees it: no session, only the audit event and the account's counter.
-    await expectRowsUnchanged(before, { except: [failedSignInAudited(actor.email, "RATE_LIMITED"), attemptCounted(ip, actor.email)] });
+    await expectRowsUnchanged(before, {
+      except: [failedSignInAudited(actor.email, "RATE_LIMITED"), attemptCounted(ip, actor.email)],
+    });
     const events = await auditEventsFor({ action: "auth.sign-in.failed", actorEmail: actor.email });
     expect(events.sort((a, b) => a.id - b.id).map((e) => e.details.reason)).toEqual([
       ...Array<string>(SIGN_IN_RATE_LIMIT.max).fill("INVALID_EMAIL_OR_PASSWORD"),

@@ -3,11 +3,13 @@
 import { and, eq, isNull, ne } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import * as schema from "@/db/schema";
-import type { Actor } from "@/lib/auth/actor";
+import type { Actor } from "@/lib/domain/actor";
 import { ACCOUNT_DEACTIVATED_MESSAGE, auth, handleAuthRequest } from "@/lib/auth/server";
 import { getActorFromHeaders } from "@/lib/auth/session";
 import { runInTransaction } from "@/lib/data/transaction";
-import { deactivateUser, listUsers, reactivateUser, setUserRole } from "@/lib/data/users";
+import { listUsers } from "@/lib/data/users";
+import { deactivateUser, listPeople, reactivateUser, setUserRole } from "@/lib/use-cases/people";
+import { runUseCase } from "@/lib/use-cases/run";
 import { expectNoChangeFrom, type ExpectedChange } from "../support/snapshot";
 import { auditEventsFor, createTestUser, sessionCount, signInHeaders, uniqueIp } from "./helpers/people";
 
@@ -21,7 +23,10 @@ function deactivatedSignInAudited(email: string): ExpectedChange {
     table: "audit_events",
     change: "added",
     why: "a refused sign-in is audited (lib/auth/server.ts)",
-    where: (row) => row.action === "auth.sign-in.failed" && row.actor_email === email && (row.details as { reason?: string }).reason === "ACCOUNT_DEACTIVATED",
+    where: (row) =>
+      row.action === "auth.sign-in.failed" &&
+      row.actor_email === email &&
+      (row.details as { reason?: string }).reason === "ACCOUNT_DEACTIVATED",
   };
 }
 
@@ -42,8 +47,8 @@ describe("deactivation", () => {
     const headers = await signInHeaders(actor.email, password);
     expect(await getActorFromHeaders(headers)).toEqual(actor);
 
-    const result = await deactivateUser({ actor: admin, userId: actor.id });
-    expect(result).toMatchObject({ id: actor.id, status: "deactivated" });
+    const result = await runUseCase(deactivateUser, { actor: admin, input: { userId: actor.id } });
+    expect(result).toMatchObject({ user: { id: actor.id, status: "deactivated" }, sessionsEnded: 1 });
     expect(await sessionCount(actor.id)).toBe(0);
     expect(await getActorFromHeaders(headers)).toBeNull();
     expect(await auth.api.getSession({ headers })).toBeNull();
@@ -58,7 +63,8 @@ describe("deactivation", () => {
     expect(await sessionCount(actor.id)).toBe(0);
     const failed = await auditEventsFor({ action: "auth.sign-in.failed", actorEmail: actor.email });
     expect(failed.map((e) => e.details.reason)).toEqual(["ACCOUNT_DEACTIVATED"]);
-    expect(await auditEventsFor({ action: "users.deactivate", subject: `user:${actor.id}` })).toHaveLength(1);
+    const deactivated = await auditEventsFor({ action: "users.deactivate", subject: `user:${actor.id}` });
+    expect(deactivated.map((e) => [e.actorId, e.details])).toEqual([[admin.id, { email: actor.email, sessionsEnded: 1 }]]);
 
     // Through the HTTP endpoint the browser uses, too; the attempt also counts against both limits.
     const ip = uniqueIp();
@@ -74,8 +80,18 @@ describe("deactivation", () => {
       {
         except: [
           deactivatedSignInAudited(actor.email),
-          { table: "rate_limit", change: "added or changed", why: "per-account-and-address sign-in limit", where: (row) => row.key === `gusset:sign-in|${ip}|${actor.email}` },
-          { table: "rate_limit", change: "added or changed", why: "better-auth's per-address limit", where: (row) => row.key === `${ip}|/sign-in/email` },
+          {
+            table: "rate_limit",
+            change: "added or changed",
+            why: "per-account-and-address sign-in limit",
+            where: (row) => row.key === `gusset:sign-in|${ip}|${actor.email}`,
+          },
+          {
+            table: "rate_limit",
+            change: "added or changed",
+            why: "better-auth's per-address limit",
+            where: (row) => row.key === `${ip}|/sign-in/email`,
+          },
         ],
       },
     );
@@ -96,10 +112,16 @@ describe("deactivation", () => {
   it("reactivation lets the person sign in again", async () => {
     const { actor: admin } = await createTestUser({ role: "admin" });
     const { actor, password } = await createTestUser({ role: "auditor", deactivated: true });
-    await expect(reactivateUser({ actor: admin, userId: actor.id })).resolves.toMatchObject({ status: "active" });
+    await expect(runUseCase(reactivateUser, { actor: admin, input: { userId: actor.id } })).resolves.toMatchObject({
+      id: actor.id,
+      status: "active",
+    });
     expect((await auth.api.signInEmail({ body: { email: actor.email, password } })).user.id).toBe(actor.id);
     await expectNoChangeFrom(() =>
-      expect(reactivateUser({ actor: admin, userId: actor.id })).rejects.toMatchObject({ code: "conflict", message: `${actor.name} is already active.` }),
+      expect(runUseCase(reactivateUser, { actor: admin, input: { userId: actor.id } })).rejects.toMatchObject({
+        code: "conflict",
+        message: `${actor.name} is already active.`,
+      }),
     );
   });
 
@@ -109,8 +131,12 @@ describe("deactivation", () => {
     for (const role of ["lead", "engineer", "auditor", null] as const) {
       const actor = role ? (await createTestUser({ role })).actor : null;
       const code = role ? "forbidden" : "unauthenticated";
-      await expectNoChangeFrom(() => expect(deactivateUser({ actor, userId: target.id })).rejects.toMatchObject({ code }));
-      await expectNoChangeFrom(() => expect(reactivateUser({ actor, userId: target.id })).rejects.toMatchObject({ code }));
+      await expectNoChangeFrom(() =>
+        expect(runUseCase(deactivateUser, { actor, input: { userId: target.id } })).rejects.toMatchObject({ code }),
+      );
+      await expectNoChangeFrom(() =>
+        expect(runUseCase(reactivateUser, { actor, input: { userId: target.id } })).rejects.toMatchObject({ code }),
+      );
     }
     // The target's open session survived every refusal.
     expect(await sessionCount(target.id)).toBe(1);
@@ -121,26 +147,44 @@ describe("roles", () => {
   it("an admin changes a role, and the change is audited with before and after", async () => {
     const { actor: admin } = await createTestUser({ role: "admin" });
     const { actor } = await createTestUser({ role: "engineer" });
-    await expect(setUserRole({ actor: admin, userId: actor.id, role: "lead" })).resolves.toMatchObject({ role: "lead" });
+    await expect(runUseCase(setUserRole, { actor: admin, input: { userId: actor.id, role: "lead" } })).resolves.toMatchObject({
+      user: { id: actor.id, role: "lead" },
+      previousRole: "engineer",
+    });
     const [event] = await auditEventsFor({ action: "users.set-role", subject: `user:${actor.id}` });
     expect(event).toMatchObject({ actorId: admin.id, details: { from: "engineer", to: "lead" } });
+  });
+
+  it("setting the role a person already has changes nothing and writes no event", async () => {
+    const { actor: admin } = await createTestUser({ role: "admin" });
+    const { actor } = await createTestUser({ role: "auditor" });
+    const result = await expectNoChangeFrom(() =>
+      runUseCase(setUserRole, { actor: admin, input: { userId: actor.id, role: "auditor" } }),
+    );
+    expect(result).toMatchObject({ user: { id: actor.id, role: "auditor" }, previousRole: "auditor" });
   });
 
   it("no one else may change a role", async () => {
     const { actor: target } = await createTestUser({ role: "engineer" });
     for (const role of ["lead", "engineer", "auditor"] as const) {
       const { actor } = await createTestUser({ role });
-      await expectNoChangeFrom(() => expect(setUserRole({ actor, userId: target.id, role: "admin" })).rejects.toMatchObject({ code: "forbidden" }));
+      await expectNoChangeFrom(() =>
+        expect(runUseCase(setUserRole, { actor, input: { userId: target.id, role: "admin" } })).rejects.toMatchObject({
+          code: "forbidden",
+        }),
+      );
     }
     await expectNoChangeFrom(() =>
-      expect(setUserRole({ actor: null, userId: target.id, role: "admin" })).rejects.toMatchObject({ code: "unauthenticated" }),
+      expect(runUseCase(setUserRole, { actor: null, input: { userId: target.id, role: "admin" } })).rejects.toMatchObject({
+        code: "unauthenticated",
+      }),
     );
   });
 
   it("answers an unknown person with not-found", async () => {
     const { actor: admin } = await createTestUser({ role: "admin" });
     await expectNoChangeFrom(() =>
-      expect(setUserRole({ actor: admin, userId: "no-such-user", role: "lead" })).rejects.toMatchObject({
+      expect(runUseCase(setUserRole, { actor: admin, input: { userId: "no-such-user", role: "lead" } })).rejects.toMatchObject({
         code: "not-found",
         message: "That person no longer exists.",
       }),
@@ -149,11 +193,19 @@ describe("roles", () => {
 
   it("lists people as small records without secrets", async () => {
     const { actor: auditor } = await createTestUser({ role: "auditor" });
-    const people = await listUsers({ actor: auditor });
+    const { people } = await runUseCase(listPeople, { actor: auditor, input: {} });
+    expect(people).toEqual(await listUsers());
     const me = people.find((p) => p.id === auditor.id);
     expect(me && Object.keys(me).sort()).toEqual(["createdAt", "deactivatedAt", "email", "id", "name", "role", "status"]);
-    const { actor: engineer } = await createTestUser({ role: "engineer" });
-    await expect(listUsers({ actor: engineer })).rejects.toMatchObject({ code: "forbidden" });
+    for (const role of ["lead", "engineer"] as const) {
+      const { actor } = await createTestUser({ role });
+      await expectNoChangeFrom(() =>
+        expect(runUseCase(listPeople, { actor, input: {} })).rejects.toMatchObject({ code: "forbidden" }),
+      );
+    }
+    await expectNoChangeFrom(() =>
+      expect(runUseCase(listPeople, { actor: null, input: {} })).rejects.toMatchObject({ code: "unauthenticated" }),
+    );
   });
 });
 
@@ -168,17 +220,30 @@ describe("the last active admin", () => {
         .set({ deactivatedAt: new Date() })
         .where(and(eq(schema.user.role, "admin"), isNull(schema.user.deactivatedAt), ne(schema.user.id, last.id)));
       const message = /last active admin/;
-      await expect(setUserRole({ actor: last, userId: last.id, role: "engineer" })).rejects.toMatchObject({ code: "conflict", message: expect.stringMatching(message) });
-      await expect(deactivateUser({ actor: last, userId: last.id })).rejects.toMatchObject({ code: "conflict", message: expect.stringMatching(message) });
+      await expect(runUseCase(setUserRole, { actor: last, input: { userId: last.id, role: "engineer" } })).rejects.toMatchObject({
+        code: "conflict",
+        message: expect.stringMatching(message),
+      });
+      await expect(runUseCase(deactivateUser, { actor: last, input: { userId: last.id } })).rejects.toMatchObject({
+        code: "conflict",
+        message: expect.stringMatching(message),
+      });
       const [still] = await tx.select().from(schema.user).where(eq(schema.user.id, last.id));
       expect(still).toMatchObject({ role: "admin", deactivatedAt: null });
 
       // A second active admin lifts the rule.
       await tx.update(schema.user).set({ deactivatedAt: null }).where(eq(schema.user.id, other.id));
       const asOther: Actor = other;
-      await expect(setUserRole({ actor: asOther, userId: last.id, role: "engineer" })).resolves.toMatchObject({ role: "engineer" });
+      await expect(
+        runUseCase(setUserRole, { actor: asOther, input: { userId: last.id, role: "engineer" } }),
+      ).resolves.toMatchObject({
+        user: { id: last.id, role: "engineer" },
+        previousRole: "admin",
+      });
       // Now `other` is the last one.
-      await expect(deactivateUser({ actor: asOther, userId: other.id })).rejects.toMatchObject({ code: "conflict" });
+      await expect(runUseCase(deactivateUser, { actor: asOther, input: { userId: other.id } })).rejects.toMatchObject({
+        code: "conflict",
+      });
     });
   });
 });

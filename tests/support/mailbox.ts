@@ -39,7 +39,9 @@ export async function waitForMessage(query: MessageQuery = {}): Promise<Captured
     const found = (await listMessages()).find((message) => matches(message, query));
     if (found) return found;
     if (Date.now() > deadline) {
-      throw new Error(`no e-mail${query.to ? ` to ${query.to}` : ""}${query.subjectIncludes ? ` with "${query.subjectIncludes}"` : ""} arrived in time`);
+      throw new Error(
+        `no e-mail${query.to ? ` to ${query.to}` : ""}${query.subjectIncludes ? ` with "${query.subjectIncludes}"` : ""} arrived in time`,
+      );
     }
     await new Promise((resolve) => setTimeout(resolve, 100));
   }

@@ -2,8 +2,15 @@
 // database schema, taken before the call and compared after it. Row counts would miss an UPDATE (a
 // role changed, an invitation marked revoked, a session extended) and a DELETE paired with an INSERT;
 // values do not. Every table of the app's schema (public) is taken, found in the catalogue, so a new
-// table is covered without an edit here. The job queue's own schema (pgboss) is left out: its worker
-// changes it in the background, whatever the test does.
+// table is covered without an edit here.
+//
+// Queued jobs count too: a refused call must not queue an e-mail. They live in pg-boss's own schema
+// (pgboss), whose rows the worker changes in the background whatever the test does (state, started_on,
+// completed_on, retry_count, output; maintenance moves finished jobs from pgboss.job to
+// pgboss.archive). So the jobs enter the snapshot as one pseudo-table "pgboss.job" holding, for every
+// job in pgboss.job or pgboss.archive, only what pg-boss writes once at insert and never changes: id,
+// queue name and payload. A job queued by the call shows as an added row; the worker's progress and
+// archiving change nothing there. (Archiving and deletion of old jobs are hours away: JOB_RETENTION.)
 //
 //   const before = await snapshotRows();
 //   …the refused call…
@@ -61,7 +68,20 @@ function listTables(): Promise<TableShape[]> {
 
 const quote = (identifier: string) => `"${identifier.replace(/"/g, '""')}"`;
 
-/** Every row of every table, by value. */
+/** The pseudo-table of queued jobs (see the top of this file): id, queue and payload, keyed by id. */
+export const JOBS_TABLE = "pgboss.job";
+
+async function snapshotJobs(): Promise<Map<string, Row>> {
+  const { rows } = await pool.query<Row>(
+    `select id::text as id, name, data from pgboss.job
+     union all
+     select id::text as id, name, data from pgboss.archive
+     order by id`,
+  );
+  return new Map(rows.map((row) => [JSON.stringify([row.id]), row]));
+}
+
+/** Every row of every table, by value (queued jobs by their unchanging columns only). */
 export async function snapshotRows(): Promise<Snapshot> {
   const snapshot: Snapshot = {};
   for (const table of await listTables()) {
@@ -75,6 +95,7 @@ export async function snapshotRows(): Promise<Snapshot> {
     }
     snapshot[table.name] = byKey;
   }
+  snapshot[JOBS_TABLE] = await snapshotJobs();
   return snapshot;
 }
 
@@ -86,7 +107,8 @@ export function diffSnapshots(before: Snapshot, after: Snapshot): RowChange[] {
     const now = after[table] ?? new Map<string, Row>();
     for (const [key, row] of now) {
       if (!old.has(key)) changes.push({ table, change: "added", before: null, after: row });
-      else if (!isDeepStrictEqual(old.get(key), row)) changes.push({ table, change: "changed", before: old.get(key)!, after: row });
+      else if (!isDeepStrictEqual(old.get(key), row))
+        changes.push({ table, change: "changed", before: old.get(key)!, after: row });
     }
     for (const [key, row] of old) if (!now.has(key)) changes.push({ table, change: "removed", before: row, after: null });
   }
@@ -103,14 +125,19 @@ function matches(expected: ExpectedChange, change: RowChange): boolean {
  * Takes a second snapshot and asserts that no row's values differ from `before`, apart from exactly
  * the writes named in `except` (each of which must have happened `count` times).
  */
-export async function expectRowsUnchanged(before: Snapshot, { except = [] }: { except?: ExpectedChange[] } = {}): Promise<RowChange[]> {
+export async function expectRowsUnchanged(
+  before: Snapshot,
+  { except = [] }: { except?: ExpectedChange[] } = {},
+): Promise<RowChange[]> {
   const changes = diffSnapshots(before, await snapshotRows());
   const unexpected = changes.filter((change) => !except.some((expected) => matches(expected, change)));
   expect(unexpected, "rows changed by a call that should have changed nothing").toEqual([]);
   for (const expected of except) {
     if (expected.count === "any") continue;
     const found = changes.filter((change) => matches(expected, change));
-    expect(found.length, `expected ${expected.count ?? 1} × ${expected.change} in ${expected.table}: ${expected.why}`).toBe(expected.count ?? 1);
+    expect(found.length, `expected ${expected.count ?? 1} × ${expected.change} in ${expected.table}: ${expected.why}`).toBe(
+      expected.count ?? 1,
+    );
   }
   return changes;
 }

@@ -1,6 +1,6 @@
 // Error codes map to the HTTP statuses the API promises, and only AppError messages reach a person.
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { AppError, ERROR_CODES, ERROR_STATUS, toPublicError } from "@/lib/errors";
+import { AppError, ERROR_CODES, ERROR_STATUS, toPublicError } from "@/lib/domain/errors";
 
 afterEach(() => vi.restoreAllMocks());
 
@@ -21,7 +21,11 @@ describe("errors", () => {
 
   it("keeps an AppError's own message and field messages", () => {
     const error = new AppError("invalid-input", "Check the form.", { fieldErrors: { email: ["Enter an e-mail."] } });
-    expect(toPublicError(error)).toEqual({ code: "invalid-input", message: "Check the form.", fieldErrors: { email: ["Enter an e-mail."] } });
+    expect(toPublicError(error)).toEqual({
+      code: "invalid-input",
+      message: "Check the form.",
+      fieldErrors: { email: ["Enter an e-mail."] },
+    });
     expect(toPublicError(new AppError("forbidden"))).toEqual({ code: "forbidden", message: "Your role does not allow this." });
   });
 

@@ -30,7 +30,11 @@ describe("invitation e-mail", () => {
 
 describe("password reset e-mail", () => {
   it("links to the reset page and says what resetting does", () => {
-    const mail = renderPasswordResetMail({ to: "a@firm.example", name: "Sam", url: "http://127.0.0.1:3000/reset-password?token=t1" });
+    const mail = renderPasswordResetMail({
+      to: "a@firm.example",
+      name: "Sam",
+      url: "http://127.0.0.1:3000/reset-password?token=t1",
+    });
     expect(mail.subject).toBe("Reset your Gusset password");
     expect(mail.text).toContain("http://127.0.0.1:3000/reset-password?token=t1");
     expect(mail.text).toMatch(/signs you out everywhere/);

@@ -10,8 +10,8 @@
 //                  preparer, check the revisions assigned to them, approve as a job's responsible engineer
 //   auditor        read everything, trace, reproduce, verify integrity, export evidence; change nothing
 import { describe, expect, it } from "vitest";
-import { ACTIONS, ROLE_PERMISSIONS, can, type Action } from "@/lib/auth/permissions";
-import { ROLES, type Role } from "@/lib/auth/roles";
+import { ACTIONS, ROLE_PERMISSIONS, can, type Action } from "@/lib/domain/permissions";
+import { ROLES, type Role } from "@/lib/domain/roles";
 
 const Y = true;
 const N = false;

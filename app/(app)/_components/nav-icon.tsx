@@ -7,13 +7,23 @@ const PATHS: Record<NavIconName, string> = {
   projects: "M3 6.5h14v9.5H3zM7 6.5V4h6v2.5M3 10.5h14",
   runs: "M3 15.5 7.5 10l3 3 6.5-8M13 5h4v4",
   audit: "M5 2.5h7l3.5 3.5v11.5H5zM8 9.5h5M8 12.5h5M8 15.5h3",
-  people: "M7.5 9a2.75 2.75 0 1 0 0-5.5 2.75 2.75 0 0 0 0 5.5zM2.5 16.5c.5-3 2.5-4.5 5-4.5s4.5 1.5 5 4.5M13.5 4a2.5 2.5 0 0 1 0 5M15 12c1.5.5 2.3 2 2.5 4.5",
+  people:
+    "M7.5 9a2.75 2.75 0 1 0 0-5.5 2.75 2.75 0 0 0 0 5.5zM2.5 16.5c.5-3 2.5-4.5 5-4.5s4.5 1.5 5 4.5M13.5 4a2.5 2.5 0 0 1 0 5M15 12c1.5.5 2.3 2 2.5 4.5",
   mailbox: "M3 5h14v10H3zM3 5.5l7 5.5 7-5.5",
 };
 
 export function NavIcon({ name, className }: { name: NavIconName; className?: string }) {
   return (
-    <svg viewBox="0 0 20 20" aria-hidden className={className} fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinejoin="round" strokeLinecap="round">
+    <svg
+      viewBox="0 0 20 20"
+      aria-hidden
+      className={className}
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="1.5"
+      strokeLinejoin="round"
+      strokeLinecap="round"
+    >
       <path d={PATHS[name]} />
     </svg>
   );

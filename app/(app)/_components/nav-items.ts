@@ -1,7 +1,7 @@
 // The shell's navigation as data. Each entry names the permission that its page checks on the
 // server; the shell shows an entry only to roles that hold it, so nobody is offered a page that
 // would answer 403. Hiding is a courtesy here — the page's own requirePageActor() is the check.
-import type { Action } from "@/lib/auth/permissions";
+import type { Action } from "@/lib/domain/permissions";
 
 export type NavIcon = "home" | "library" | "projects" | "runs" | "audit" | "people" | "mailbox";
 

@@ -1,8 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageActor } from "@/lib/auth/session";
-import { listAuditEvents } from "@/lib/data/audit";
-import { listAuditEventsSchema } from "@/lib/data/audit-schemas";
+import { runUseCase } from "@/lib/use-cases/run";
+import { readAuditTrail } from "@/lib/use-cases/reads";
+import { listAuditEventsSchema } from "@/lib/domain/schemas/audit";
 import { PageHeader } from "@/components/ui/page-header";
 import { TableFrame } from "@/components/ui/table";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -17,7 +18,7 @@ export default async function AuditPage({ searchParams }: PageProps<"/audit">) {
   // A hand-edited address with a bad page marker shows the newest events rather than an error.
   const parsed = listAuditEventsSchema.safeParse({ limit: PAGE_SIZE, ...(await searchParams) });
   const { limit, before } = parsed.success ? parsed.data : { limit: PAGE_SIZE, before: undefined };
-  const { events, nextBefore } = await listAuditEvents({ actor, limit, before });
+  const { events, nextBefore } = await runUseCase(readAuditTrail, { actor, input: { limit, before } });
 
   return (
     <>

@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import { requirePageActor } from "@/lib/auth/session";
-import { ROLE_LABELS, ROLE_SUMMARIES, type Role } from "@/lib/auth/roles";
-import { getHomeSummary, type HomeSummary } from "@/lib/data/home";
-import { isMailboxEnabled } from "@/lib/data/mailbox";
+import { ROLE_LABELS, ROLE_SUMMARIES, type Role } from "@/lib/domain/roles";
+import { runUseCase } from "@/lib/use-cases/run";
+import { readHome, type HomeSummary } from "@/lib/use-cases/reads";
 import { HomeCard } from "./_components/home-card";
 import { RecentAuditEvents, RecentProjects } from "./_components/recent-lists";
 
@@ -10,7 +10,8 @@ export const metadata: Metadata = { title: "Home" };
 
 export default async function HomePage() {
   const actor = await requirePageActor(undefined, { next: "/home" });
-  const [summary, mailbox] = await Promise.all([getHomeSummary({ actor }), isMailboxEnabled()]);
+  const summary = await runUseCase(readHome, { actor, input: {} });
+  const mailbox = summary.mailboxEnabled;
   const firstName = actor.name.split(" ")[0];
 
   return (
@@ -62,7 +63,14 @@ function RoleCards({ role, summary, mailbox }: { role: Role; summary: HomeSummar
       </HomeCard>
     ) : null;
   const projectsCard = projects ? (
-    <HomeCard title="Projects" testId="home-projects" figure={projects.count} figureLabel="jobs" href="/projects" linkLabel="All projects">
+    <HomeCard
+      title="Projects"
+      testId="home-projects"
+      figure={projects.count}
+      figureLabel="jobs"
+      href="/projects"
+      linkLabel="All projects"
+    >
       <RecentProjects projects={projects.recent} />
     </HomeCard>
   ) : null;
@@ -110,8 +118,8 @@ function RoleCards({ role, summary, mailbox }: { role: Role; summary: HomeSummar
         <>
           {auditCard}
           <HomeCard title="Integrity checks" testId="home-integrity" coming>
-            Verifying the hash chain of runs, reproducing a run from its record, and tracing a number to its
-            template version will be available here.
+            Verifying the hash chain of runs, reproducing a run from its record, and tracing a number to its template version will
+            be available here.
           </HomeCard>
           {projectsCard}
           {peopleCard}

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { requirePageActor } from "@/lib/auth/session";
-import { can } from "@/lib/auth/permissions";
+import { can } from "@/lib/domain/permissions";
 import { PageHeader } from "@/components/ui/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 

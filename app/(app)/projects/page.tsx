@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { requirePageActor } from "@/lib/auth/session";
-import { listProjects } from "@/lib/data/projects";
+import { runUseCase } from "@/lib/use-cases/run";
+import { readProjects } from "@/lib/use-cases/reads";
 import { PageHeader } from "@/components/ui/page-header";
 import { TableFrame } from "@/components/ui/table";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -10,7 +11,7 @@ export const metadata: Metadata = { title: "Projects" };
 
 export default async function ProjectsPage() {
   const actor = await requirePageActor("projects.read", { next: "/projects" });
-  const projects = await listProjects({ actor });
+  const projects = await runUseCase(readProjects, { actor, input: {} });
 
   return (
     <>

@@ -21,8 +21,8 @@ export default async function RunsPage() {
           "Runs affected by a withdrawn version, and their re-runs on the corrected one.",
         ]}
       >
-        Running a published version inside a project is coming once the library has its first templates. Each run is
-        stored for good, so that any number on a drawing can be traced back to it.
+        Running a published version inside a project is coming once the library has its first templates. Each run is stored for
+        good, so that any number on a drawing can be traced back to it.
       </EmptyState>
     </>
   );

@@ -40,7 +40,8 @@ class SupernodalFactor implements CholeskyFactor {
       }
     }
     if (nr % 2 === 1) xs.fill(0, nr * n, nr * n + n);
-    for (let r = 0; r < nr; r += 2) solvePairInPlace(this.values, this.structure, xs.subarray(r * n, r * n + n), xs.subarray(r * n + n, r * n + 2 * n));
+    for (let r = 0; r < nr; r += 2)
+      solvePairInPlace(this.values, this.structure, xs.subarray(r * n, r * n + n), xs.subarray(r * n + n, r * n + 2 * n));
     const out: Float64Array[] = [];
     for (let r = 0; r < nr; r++) {
       const o = new Float64Array(n);

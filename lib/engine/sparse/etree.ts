@@ -61,7 +61,7 @@ export function countColumns(c: CscMatrix, parent: Int32Array): Int32Array {
       // Subsequent leaf: subtract the overlap at the least common ancestor of jPrev and j.
       let q = jPrev;
       while (q !== ancestor[q]) q = ancestor[q];
-      for (let s = jPrev; s !== q; ) {
+      for (let s = jPrev; s !== q;) {
         const sParent = ancestor[s];
         ancestor[s] = q;
         s = sParent;

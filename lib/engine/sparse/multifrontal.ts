@@ -6,9 +6,7 @@ import { scratch, type FactorWorkspace } from "./workspace";
 /** Columns factorised together inside a front before the rest of the panel is updated with them. */
 const PANEL_BLOCK = 8;
 
-export type NumericOutcome =
-  | { ok: true; values: Float64Array }
-  | { ok: false; position: number; pivot: number };
+export type NumericOutcome = { ok: true; values: Float64Array } | { ok: false; position: number; pivot: number };
 
 /**
  * Peak size of the stack of update (Schur complement) matrices: supernodes run in postorder, each pops its

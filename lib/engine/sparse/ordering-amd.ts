@@ -101,7 +101,7 @@ export function orderApproximateMinimumDegree(graph: AdjacencyGraph): Int32Array
         }
       }
       let q = 0;
-      for (let p = 0; p < cnz; ) {
+      for (let p = 0; p < cnz;) {
         const j = flip(ci[p++]);
         if (j >= 0) {
           ci[q] = cp[j];
@@ -239,7 +239,7 @@ export function orderApproximateMinimumDegree(graph: AdjacencyGraph): Int32Array
         const eln = elen[i];
         for (let q = cp[i] + 1; q <= cp[i] + ln - 1; q++) w[ci[q]] = mark;
         let jlast = i;
-        for (let j = next[i]; j !== -1; ) {
+        for (let j = next[i]; j !== -1;) {
           let same = len[j] === ln && elen[j] === eln;
           for (let q = cp[j] + 1; same && q <= cp[j] + ln - 1; q++) {
             if (w[ci[q]] !== mark) same = false;

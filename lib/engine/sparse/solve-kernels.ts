@@ -41,10 +41,19 @@ export function solvePairInPlace(lx: Float64Array, sn: SupernodalStructure, x0: 
       const c1 = c0 + m;
       const c2 = c1 + m;
       const c3 = c2 + m;
-      const a0 = x0[first + k], a1 = x0[first + k + 1], a2 = x0[first + k + 2], a3 = x0[first + k + 3];
-      const b0 = x1[first + k], b1 = x1[first + k + 1], b2 = x1[first + k + 2], b3 = x1[first + k + 3];
+      const a0 = x0[first + k],
+        a1 = x0[first + k + 1],
+        a2 = x0[first + k + 2],
+        a3 = x0[first + k + 3];
+      const b0 = x1[first + k],
+        b1 = x1[first + k + 1],
+        b2 = x1[first + k + 2],
+        b3 = x1[first + k + 3];
       for (let i = 0; i < below; i++) {
-        const l0 = lx[c0 + i], l1 = lx[c1 + i], l2 = lx[c2 + i], l3 = lx[c3 + i];
+        const l0 = lx[c0 + i],
+          l1 = lx[c1 + i],
+          l2 = lx[c2 + i],
+          l3 = lx[c3 + i];
         w0[i] += l0 * a0 + l1 * a1 + l2 * a2 + l3 * a3;
         w1[i] += l0 * b0 + l1 * b1 + l2 * b2 + l3 * b3;
       }
@@ -86,16 +95,38 @@ export function solvePairInPlace(lx: Float64Array, sn: SupernodalStructure, x0: 
         const c1 = c0 + m;
         const c2 = c1 + m;
         const c3 = c2 + m;
-        let a0 = 0, a1 = 0, a2 = 0, a3 = 0, b0 = 0, b1 = 0, b2 = 0, b3 = 0;
+        let a0 = 0,
+          a1 = 0,
+          a2 = 0,
+          a3 = 0,
+          b0 = 0,
+          b1 = 0,
+          b2 = 0,
+          b3 = 0;
         for (let i = 0; i < below; i++) {
           const u = w0[i];
           const v = w1[i];
-          const l0 = lx[c0 + i], l1 = lx[c1 + i], l2 = lx[c2 + i], l3 = lx[c3 + i];
-          a0 += l0 * u; a1 += l1 * u; a2 += l2 * u; a3 += l3 * u;
-          b0 += l0 * v; b1 += l1 * v; b2 += l2 * v; b3 += l3 * v;
+          const l0 = lx[c0 + i],
+            l1 = lx[c1 + i],
+            l2 = lx[c2 + i],
+            l3 = lx[c3 + i];
+          a0 += l0 * u;
+          a1 += l1 * u;
+          a2 += l2 * u;
+          a3 += l3 * u;
+          b0 += l0 * v;
+          b1 += l1 * v;
+          b2 += l2 * v;
+          b3 += l3 * v;
         }
-        x0[first + k] -= a0; x0[first + k + 1] -= a1; x0[first + k + 2] -= a2; x0[first + k + 3] -= a3;
-        x1[first + k] -= b0; x1[first + k + 1] -= b1; x1[first + k + 2] -= b2; x1[first + k + 3] -= b3;
+        x0[first + k] -= a0;
+        x0[first + k + 1] -= a1;
+        x0[first + k + 2] -= a2;
+        x0[first + k + 3] -= a3;
+        x1[first + k] -= b0;
+        x1[first + k + 1] -= b1;
+        x1[first + k + 2] -= b2;
+        x1[first + k + 3] -= b3;
       }
       for (; k < cols; k++) {
         const c = base + k * m + cols;

@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { factorizeSymmetric, FactorWorkspace, multiplySymmetric, type FactorResult, type OrderingMethod } from "@/lib/engine/sparse";
+import {
+  factorizeSymmetric,
+  FactorWorkspace,
+  multiplySymmetric,
+  type FactorResult,
+  type OrderingMethod,
+} from "@/lib/engine/sparse";
 import { createRandom, randomSpdMatrix, relativeError } from "./dense-reference";
 import { buildFrameMatrix } from "./frame-matrix";
 
@@ -51,7 +57,11 @@ describe("FactorWorkspace", () => {
   it("a factor in a workspace solves like one with storage of its own, for matrices of growing and shrinking size", () => {
     const workspace = new FactorWorkspace();
     const random = createRandom(11);
-    for (const [storeys, bays] of [[4, 3], [12, 9], [3, 2]]) {
+    for (const [storeys, bays] of [
+      [4, 3],
+      [12, 9],
+      [3, 2],
+    ]) {
       const a = buildFrameMatrix(storeys, bays).matrix;
       const b = Float64Array.from({ length: a.n }, () => random() * 2 - 1);
       const own = expectFactor(factorizeSymmetric(a, { blockSize: 3 })).solve(b);

@@ -9,7 +9,12 @@ import { auditEventsFor, createTestUser, inviteWithToken, sessionCount, signInHe
 
 /** What calling a server action came to: its ActionState, or the redirect it answered with. */
 export type ActionAnswer =
-  | { state: { ok: true; data: unknown } | { ok: false; error: { code: string; message: string; fieldErrors?: Record<string, string[]> } } | null }
+  | {
+      state:
+        | { ok: true; data: unknown }
+        | { ok: false; error: { code: string; message: string; fieldErrors?: Record<string, string[]> } }
+        | null;
+    }
   | { redirect: string };
 
 export type ActionFixture = { input: Record<string, unknown>; succeeded: (answer: ActionAnswer) => Promise<void> };
@@ -34,7 +39,15 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
         expect(answer).toEqual({
           state: {
             ok: true,
-            data: { id: expect.any(String), email, name: "Matrix Person", role: "engineer", expiresAt: expect.any(String), createdAt: expect.any(String) },
+            data: {
+              id: expect.any(String),
+              email,
+              name: "Matrix Person",
+              role: "engineer",
+              expiresAt: expect.any(String),
+              createdAt: expect.any(String),
+              replacedInvitations: [],
+            },
           },
         });
         const [row] = await db.select().from(schema.invitations).where(eq(schema.invitations.email, email));
@@ -48,7 +61,12 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
     return {
       input: { userId: target.id, role: "lead" },
       succeeded: async (answer) => {
-        expect(answer).toMatchObject({ state: { ok: true, data: { id: target.id, email: target.email, role: "lead", status: "active" } } });
+        expect(answer).toMatchObject({
+          state: {
+            ok: true,
+            data: { user: { id: target.id, email: target.email, role: "lead", status: "active" }, previousRole: "engineer" },
+          },
+        });
         expect((await userRow(target.id)).role).toBe("lead");
         const [event] = await auditEventsFor({ action: "users.set-role", subject: `user:${target.id}` });
         expect(event.details).toEqual({ email: target.email, from: "engineer", to: "lead" });
@@ -61,9 +79,14 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
     return {
       input: { userId: target.id },
       succeeded: async (answer) => {
-        expect(answer).toMatchObject({ state: { ok: true, data: { id: target.id, status: "deactivated" } } });
+        // sessionsEnded: the one session opened above.
+        expect(answer).toMatchObject({
+          state: { ok: true, data: { user: { id: target.id, status: "deactivated" }, sessionsEnded: 1 } },
+        });
         expect((await userRow(target.id)).deactivatedAt).toBeInstanceOf(Date);
         expect(await sessionCount(target.id)).toBe(0); // the open session ended with it
+        const [event] = await auditEventsFor({ action: "users.deactivate", subject: `user:${target.id}` });
+        expect(event.details).toEqual({ email: target.email, sessionsEnded: 1 });
       },
     };
   },
@@ -74,6 +97,8 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
       succeeded: async (answer) => {
         expect(answer).toMatchObject({ state: { ok: true, data: { id: target.id, status: "active", deactivatedAt: null } } });
         expect((await userRow(target.id)).deactivatedAt).toBeNull();
+        const [event] = await auditEventsFor({ action: "users.reactivate", subject: `user:${target.id}` });
+        expect(event.details).toEqual({ email: target.email });
       },
     };
   },
@@ -82,8 +107,22 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
     return {
       input: { invitationId: invitation.id },
       succeeded: async (answer) => {
-        expect(answer).toEqual({ state: { ok: true, data: { id: invitation.id, email: invitation.email } } });
+        expect(answer).toEqual({
+          state: {
+            ok: true,
+            data: {
+              id: invitation.id,
+              email: invitation.email,
+              name: invitation.name,
+              role: "auditor",
+              expiresAt: invitation.expiresAt,
+              createdAt: invitation.createdAt,
+            },
+          },
+        });
         expect((await invitationRow(invitation.id)).revokedAt).toBeInstanceOf(Date);
+        const [event] = await auditEventsFor({ action: "invitations.revoke", subject: `invitation:${invitation.id}` });
+        expect(event.details).toEqual({ email: invitation.email, role: "auditor" });
       },
     };
   },

@@ -6,10 +6,11 @@ import { hashPassword } from "better-auth/crypto";
 import { count, eq, sql } from "drizzle-orm";
 import { db } from "@/db";
 import * as schema from "@/db/schema";
-import type { Actor } from "@/lib/auth/actor";
-import type { Role } from "@/lib/auth/roles";
+import type { Actor } from "@/lib/domain/actor";
+import type { Role } from "@/lib/domain/roles";
 import { auth } from "@/lib/auth/server";
-import { inviteUser } from "@/lib/data/users";
+import { inviteUser } from "@/lib/use-cases/people";
+import { runUseCase } from "@/lib/use-cases/run";
 import { firstLink, waitForMessage } from "../../support/mailbox";
 
 export const TEST_PASSWORD = "correct-horse-battery-staple";
@@ -45,7 +46,9 @@ export async function createTestUser({
   const id = generateId();
   const email = uniqueEmail(label);
   const name = `Test ${label} ${id.slice(0, 4)}`;
-  await db.insert(schema.user).values({ id, name, email, role, emailVerified: true, deactivatedAt: deactivated ? new Date() : null });
+  await db
+    .insert(schema.user)
+    .values({ id, name, email, role, emailVerified: true, deactivatedAt: deactivated ? new Date() : null });
   await db.insert(schema.account).values({
     id: generateId(),
     accountId: id,
@@ -70,7 +73,7 @@ export async function signInHeaders(email: string, password: string): Promise<He
 export async function inviteWithToken(role: Role = "engineer") {
   const { actor: admin } = await createTestUser({ role: "admin" });
   const email = uniqueEmail("invitee");
-  const invitation = await inviteUser({ actor: admin, email, name: "Dana Example", role });
+  const invitation = await runUseCase(inviteUser, { actor: admin, input: { email, name: "Dana Example", role } });
   const mail = await waitForMessage({ to: email, subjectIncludes: "invited" });
   const link = firstLink(mail);
   return { admin, email, invitation, link, token: link.split("/invite/")[1], mail };

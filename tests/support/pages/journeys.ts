@@ -1,6 +1,6 @@
 // Steps several journeys share, each made of the page objects so that they go through the UI.
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/domain/roles";
 import { firstLink, waitForMessage } from "../mailbox";
 import { InvitationPage } from "./invitation-page";
 import { PeoplePage } from "./people-page";

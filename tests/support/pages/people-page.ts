@@ -1,6 +1,6 @@
 // The admin's people page: invite, change a role, deactivate and reactivate.
 import type { Page } from "playwright-core";
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/domain/roles";
 import { appUrl } from "../env";
 
 export class PeoplePage {

@@ -7,7 +7,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { DEMO_USERS } from "@/db/demo-users";
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/domain/roles";
 import { appUrl, testEnv } from "../env";
 
 export const DEMO_BY_ROLE = Object.fromEntries(DEMO_USERS.map((user) => [user.role, user])) as Record<

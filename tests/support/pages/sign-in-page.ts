@@ -40,10 +40,16 @@ export class SignInPage {
       // Both waits settle (the loser by timing out later), so neither leaves an unhandled rejection.
       const left = this.page
         .waitForURL((url) => !url.pathname.startsWith("/sign-in"), { timeout: 20_000 })
-        .then(() => "signed-in" as const, () => "no answer" as const);
+        .then(
+          () => "signed-in" as const,
+          () => "no answer" as const,
+        );
       const refused = this.formError()
         .waitFor({ timeout: 20_000 })
-        .then(() => "error" as const, () => "no answer" as const);
+        .then(
+          () => "error" as const,
+          () => "no answer" as const,
+        );
       const outcome = await Promise.race([left, refused]);
       if (outcome === "signed-in") return outcome;
       if (outcome === "no answer") throw new Error(`signing in as ${email}: no answer within 20 s`);

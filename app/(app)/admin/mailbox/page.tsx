@@ -1,7 +1,8 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { requirePageActor } from "@/lib/auth/session";
-import { listCapturedMail } from "@/lib/data/mailbox";
+import { runUseCase } from "@/lib/use-cases/run";
+import { readDemoMailbox } from "@/lib/use-cases/reads";
 import { PageHeader } from "@/components/ui/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { formatDateTime } from "@/components/format-date";
@@ -12,7 +13,7 @@ export const metadata: Metadata = { title: "Demo mailbox" };
 // Present only while `npm start` runs its fake SMTP server; with real mail this page does not exist.
 export default async function MailboxPage() {
   const actor = await requirePageActor("mailbox.read", { next: "/admin/mailbox" });
-  const messages = await listCapturedMail({ actor });
+  const messages = await runUseCase(readDemoMailbox, { actor, input: {} });
   if (messages === null) notFound();
 
   return (

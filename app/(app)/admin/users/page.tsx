@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import { requirePageActor } from "@/lib/auth/session";
-import { can } from "@/lib/auth/permissions";
-import { listUsers } from "@/lib/data/users";
-import { listPendingInvitations } from "@/lib/data/invitations";
+import { can } from "@/lib/domain/permissions";
+import { runUseCase } from "@/lib/use-cases/run";
+import { listPeople } from "@/lib/use-cases/people";
 import { PageHeader } from "@/components/ui/page-header";
 import { TableFrame } from "@/components/ui/table";
 import { InviteForm } from "./_components/invite-form";
@@ -13,7 +13,7 @@ export const metadata: Metadata = { title: "People" };
 
 export default async function PeoplePage() {
   const actor = await requirePageActor("users.read", { next: "/admin/users" });
-  const [people, invitations] = await Promise.all([listUsers({ actor }), listPendingInvitations({ actor })]);
+  const { people, invitations } = await runUseCase(listPeople, { actor, input: {} });
   // Controls are offered to roles that hold the permission; the actions check it again on the server.
   const controls = { setRole: can(actor.role, "users.set-role"), deactivate: can(actor.role, "users.deactivate") };
   const mayInvite = can(actor.role, "users.invite");
@@ -29,7 +29,10 @@ export default async function PeoplePage() {
         }
       />
       {mayInvite ? (
-        <section aria-labelledby="invite-heading" className="mb-8 rounded-plate bg-paper-raised p-5 shadow-sheet ring-1 ring-ink-200">
+        <section
+          aria-labelledby="invite-heading"
+          className="mb-8 rounded-plate bg-paper-raised p-5 shadow-sheet ring-1 ring-ink-200"
+        >
           <h2 id="invite-heading" className="text-base font-semibold text-ink-900">
             Invite someone
           </h2>

@@ -8,7 +8,9 @@ export function RecentProjects({ projects }: { projects: ProjectDto[] }) {
     <ul className="space-y-1.5" data-testid="home-recent-projects">
       {projects.map((project) => (
         <li key={project.id} className="flex gap-3">
-          <span className="font-mono text-xs leading-5 font-medium whitespace-nowrap text-plate-800 tabular">{project.jobNumber}</span>
+          <span className="font-mono text-xs leading-5 font-medium whitespace-nowrap text-plate-800 tabular">
+            {project.jobNumber}
+          </span>
           <span className="text-ink-700">{project.name}</span>
         </li>
       ))}

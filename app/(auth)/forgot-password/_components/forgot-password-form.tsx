@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { authClient, describeAuthError } from "@/lib/auth/client";
-import { requestPasswordResetSchema, type RequestPasswordResetInput } from "@/lib/data/auth-schemas";
+import { requestPasswordResetSchema, type RequestPasswordResetInput } from "@/lib/domain/schemas/auth";
 import { Button } from "@/components/ui/button";
 import { EmailField } from "@/components/ui/field";
 import { FormError, Notice } from "@/components/ui/notice";
@@ -35,8 +35,8 @@ export function ForgotPasswordForm() {
     // find out who works at the firm.
     return (
       <Notice tone="pass" title="Check your e-mail" testId="reset-requested">
-        If <strong>{sentTo}</strong> belongs to a Gusset account, a link to choose a new password is on its way. The
-        link works once and expires in one hour.
+        If <strong>{sentTo}</strong> belongs to a Gusset account, a link to choose a new password is on its way. The link works
+        once and expires in one hour.
       </Notice>
     );
   }
@@ -45,7 +45,13 @@ export function ForgotPasswordForm() {
     <form onSubmit={onSubmit} noValidate className="space-y-5" data-testid="forgot-password-form">
       <FormError message={serverError} />
       <EmailField error={errors.email?.message} {...register("email")} />
-      <Button type="submit" className="w-full" pending={isSubmitting} pendingLabel="Sending…" data-testid="forgot-password-submit">
+      <Button
+        type="submit"
+        className="w-full"
+        pending={isSubmitting}
+        pendingLabel="Sending…"
+        data-testid="forgot-password-submit"
+      >
         Send me a reset link
       </Button>
     </form>

@@ -1,16 +1,16 @@
 "use server";
-// Accepting an invitation is public (the link is the credential): the data function checks the
-// token, creates the account and signs the new person in; then they go to their home page.
+// Accepting an invitation is public (the link is the credential): the use case checks the token and
+// creates the account; once that has committed, the new person is signed in and goes to their home page.
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
-import { guardedAction } from "@/lib/auth/guard";
-import { acceptInvitation } from "@/lib/data/invitations";
-import { acceptInvitationSchema } from "@/lib/data/invitation-schemas";
+import { auth } from "@/lib/auth/server";
+import { serverAction } from "@/lib/use-cases/next";
+import { acceptInvitation } from "@/lib/use-cases/invitations";
 
-export const acceptInvitationAction = guardedAction(
-  { schema: acceptInvitationSchema, permission: "public" },
-  async ({ token, password }) => {
-    await acceptInvitation({ token, password, signIn: { headers: await headers() } });
+export const acceptInvitationAction = serverAction(acceptInvitation, {
+  then: async (accepted, { password }) => {
+    // nextCookies() sets the session cookie on this response.
+    await auth.api.signInEmail({ body: { email: accepted.email, password }, headers: await headers() });
     redirect("/home");
   },
-);
+});

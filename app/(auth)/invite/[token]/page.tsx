@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
-import { ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/auth/roles";
-import { getInvitationByToken, INVITATION_MESSAGES } from "@/lib/data/invitations";
+import { ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/domain/roles";
+import { INVITATION_MESSAGES } from "@/lib/domain/schemas/invitations";
+import { runUseCase } from "@/lib/use-cases/run";
+import { lookupInvitation } from "@/lib/use-cases/invitations";
 import { Notice } from "@/components/ui/notice";
 import { TextLink } from "@/components/ui/text-link";
 import { AcceptInvitationForm } from "./_components/accept-invitation-form";
@@ -9,7 +11,7 @@ export const metadata: Metadata = { title: "Accept your invitation" };
 
 export default async function InvitationPage({ params }: PageProps<"/invite/[token]">) {
   const { token } = await params;
-  const invitation = await getInvitationByToken({ token });
+  const invitation = await runUseCase(lookupInvitation, { actor: null, input: { token } });
 
   if (!invitation || invitation.status !== "valid") {
     const status = invitation?.status ?? "unknown";
@@ -31,7 +33,10 @@ export default async function InvitationPage({ params }: PageProps<"/invite/[tok
   return (
     <>
       <h1 className="text-2xl font-semibold tracking-tight text-ink-950">Welcome to Gusset, {invitation.name.split(" ")[0]}</h1>
-      <dl className="mt-6 mb-8 space-y-3 rounded-plate bg-paper-raised p-4 text-sm shadow-sheet ring-1 ring-ink-200" data-testid="invitation-details">
+      <dl
+        className="mt-6 mb-8 space-y-3 rounded-plate bg-paper-raised p-4 text-sm shadow-sheet ring-1 ring-ink-200"
+        data-testid="invitation-details"
+      >
         <div>
           <dt className="text-xs text-ink-500">Invited</dt>
           <dd className="font-medium text-ink-900" data-testid="invitation-name">

@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { authClient, describeAuthError } from "@/lib/auth/client";
-import { resetPasswordSchema, type ResetPasswordInput } from "@/lib/data/auth-schemas";
+import { resetPasswordSchema, type ResetPasswordInput } from "@/lib/domain/schemas/auth";
 import { Button } from "@/components/ui/button";
 import { FormError } from "@/components/ui/notice";
 import { NewPasswordFields } from "@/components/new-password-fields";

@@ -6,7 +6,8 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
 import { authClient, describeAuthError } from "@/lib/auth/client";
-import { PASSWORD_MIN_LENGTH, signInSchema, type SignInInput } from "@/lib/data/auth-schemas";
+import { PASSWORD_MIN_LENGTH } from "@/lib/domain/password-policy";
+import { signInSchema, type SignInInput } from "@/lib/domain/schemas/auth";
 import { Button } from "@/components/ui/button";
 import { EmailField, TextField } from "@/components/ui/field";
 import { FormError, Notice } from "@/components/ui/notice";
@@ -16,7 +17,9 @@ import { TextLink } from "@/components/ui/text-link";
 // typing slip: say so here rather than spend one of the rate-limited sign-in attempts on it.
 const signInFormSchema = signInSchema.extend({
   password: signInSchema.shape.password.pipe(
-    z.string().min(PASSWORD_MIN_LENGTH, `Gusset passwords have at least ${PASSWORD_MIN_LENGTH} characters. Check what you typed.`),
+    z
+      .string()
+      .min(PASSWORD_MIN_LENGTH, `Gusset passwords have at least ${PASSWORD_MIN_LENGTH} characters. Check what you typed.`),
   ),
 });
 
@@ -44,7 +47,11 @@ export function SignInForm({ next, notice }: { next: string; notice?: string }) 
 
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-5" data-testid="sign-in-form">
-      {notice && !serverError ? <Notice tone="info" testId="form-notice">{notice}</Notice> : null}
+      {notice && !serverError ? (
+        <Notice tone="info" testId="form-notice">
+          {notice}
+        </Notice>
+      ) : null}
       <FormError message={serverError} />
       <EmailField error={errors.email?.message} {...register("email")} />
       <div>

@@ -1,5 +1,5 @@
 // better-auth's own endpoints (sign-in, sign-out, password reset, session). The one route that does
-// not go through lib/auth/guard.ts: better-auth protects it (sign-up disabled, rate limits, origin
+// not run as one of our use cases (lib/use-cases): better-auth protects it (sign-up disabled, rate limits, origin
 // check), and lib/auth/server.ts audits sign-ins, failed sign-ins and resets.
 import { handleAuthRequest } from "@/lib/auth/server";
 

@@ -1,10 +1,10 @@
 "use client";
 
 import { startTransition, useActionState, useEffect } from "react";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { ROLES, ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/auth/roles";
-import { inviteUserSchema, type InviteUserInput } from "@/lib/data/user-schemas";
+import { ROLES, ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/domain/roles";
+import { inviteUserSchema, type InviteUserInput } from "@/lib/domain/schemas/users";
 import { Button } from "@/components/ui/button";
 import { EmailField, SelectField, TextField } from "@/components/ui/field";
 import { FormError, Notice } from "@/components/ui/notice";
@@ -17,7 +17,7 @@ export function InviteForm() {
     register,
     handleSubmit,
     reset,
-    watch,
+    control,
     formState: { errors },
   } = useForm<InviteUserInput>({
     resolver: zodResolver(inviteUserSchema),
@@ -30,7 +30,7 @@ export function InviteForm() {
   }, [state, reset]);
 
   const server = actionErrors(state, ["email", "name", "role"]);
-  const role = watch("role");
+  const role = useWatch({ control, name: "role" });
 
   return (
     <form
@@ -55,7 +55,12 @@ export function InviteForm() {
           error={errors.email?.message ?? server.field.email}
           {...register("email")}
         />
-        <SelectField label="Role" data-testid="invite-role" error={errors.role?.message ?? server.field.role} {...register("role")}>
+        <SelectField
+          label="Role"
+          data-testid="invite-role"
+          error={errors.role?.message ?? server.field.role}
+          {...register("role")}
+        >
           {ROLES.map((value) => (
             <option key={value} value={value}>
               {ROLE_LABELS[value]}
@@ -72,8 +77,7 @@ export function InviteForm() {
       <FormError message={server.form} />
       {state?.ok ? (
         <Notice tone="pass" testId="invite-sent">
-          Invitation sent to <strong>{state.data.email}</strong> as {ROLE_LABELS[state.data.role]}. The link works for
-          seven days.
+          Invitation sent to <strong>{state.data.email}</strong> as {ROLE_LABELS[state.data.role]}. The link works for seven days.
         </Notice>
       ) : null}
     </form>

@@ -1,8 +1,8 @@
 "use client";
 
 import { startTransition, useActionState } from "react";
-import { ROLE_LABELS } from "@/lib/auth/roles";
-import type { InvitationDto } from "@/lib/data/users";
+import { ROLE_LABELS } from "@/lib/domain/roles";
+import type { InvitationDto } from "@/lib/data/invitations";
 import { Button } from "@/components/ui/button";
 import { formatDate } from "@/components/format-date";
 import { revokeInvitationAction } from "../actions";
@@ -16,7 +16,10 @@ export function PendingInvitations({ invitations, canRevoke }: { invitations: In
     );
   }
   return (
-    <ul className="divide-y divide-ink-100 rounded-plate bg-paper-raised shadow-sheet ring-1 ring-ink-200" data-testid="pending-invitations">
+    <ul
+      className="divide-y divide-ink-100 rounded-plate bg-paper-raised shadow-sheet ring-1 ring-ink-200"
+      data-testid="pending-invitations"
+    >
       {invitations.map((invitation) => (
         <PendingInvitation key={invitation.id} invitation={invitation} canRevoke={canRevoke} />
       ))}
@@ -27,7 +30,11 @@ export function PendingInvitations({ invitations, canRevoke }: { invitations: In
 function PendingInvitation({ invitation, canRevoke }: { invitation: InvitationDto; canRevoke: boolean }) {
   const [state, revoke, pending] = useActionState(revokeInvitationAction, null);
   return (
-    <li className="flex flex-wrap items-center justify-between gap-3 px-4 py-3" data-testid="pending-invitation" data-email={invitation.email}>
+    <li
+      className="flex flex-wrap items-center justify-between gap-3 px-4 py-3"
+      data-testid="pending-invitation"
+      data-email={invitation.email}
+    >
       <div className="min-w-0">
         <p className="text-sm font-medium text-ink-900">
           {invitation.name} <span className="font-normal text-ink-500">· {ROLE_LABELS[invitation.role]}</span>

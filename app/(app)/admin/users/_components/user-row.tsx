@@ -1,17 +1,21 @@
 "use client";
 
-import { startTransition, useActionState, useEffect, useState } from "react";
-import { ROLES, ROLE_LABELS, type Role } from "@/lib/auth/roles";
-import type { ActionState } from "@/lib/auth/guard";
+import { startTransition, useActionState, useEffect, useRef, useState } from "react";
+import { ROLES, ROLE_LABELS, type Role } from "@/lib/domain/roles";
+import type { ActionState } from "@/lib/domain/action-state";
 import type { UserDto } from "@/lib/data/users";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { deactivateUserAction, reactivateUserAction, setUserRoleAction } from "../actions";
 
+/** Calls onAnswer once per new answer from the server (onAnswer is a fresh closure on every render). */
 function useLatestAnswer(state: ActionState<unknown>, onAnswer: (errorMessage: string | null) => void) {
+  const callback = useRef(onAnswer);
   useEffect(() => {
-    if (state) onAnswer(state.ok ? null : state.error.message);
-    // Only a new answer from the server counts; onAnswer is a fresh closure on every render.
+    callback.current = onAnswer;
+  });
+  useEffect(() => {
+    if (state) callback.current(state.ok ? null : state.error.message);
   }, [state]);
 }
 
@@ -37,7 +41,13 @@ export function UserRow({ person, controls, isSelf }: { person: UserDto; control
   const active = person.status === "active";
 
   return (
-    <tr data-testid="user-row" data-email={person.email} data-status={person.status} data-role={person.role} className="align-top">
+    <tr
+      data-testid="user-row"
+      data-email={person.email}
+      data-status={person.status}
+      data-role={person.role}
+      className="align-top"
+    >
       <td className="px-4 py-3">
         <span className="font-medium whitespace-nowrap text-ink-900">{person.name}</span>
         {isSelf ? <span className="ml-2 text-xs text-ink-400">(you)</span> : null}

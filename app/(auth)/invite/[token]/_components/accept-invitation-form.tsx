@@ -3,7 +3,7 @@
 import { startTransition, useActionState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { acceptInvitationSchema, type AcceptInvitationInput } from "@/lib/data/invitation-schemas";
+import { acceptInvitationSchema, type AcceptInvitationInput } from "@/lib/domain/schemas/invitations";
 import { Button } from "@/components/ui/button";
 import { FormError } from "@/components/ui/notice";
 import { NewPasswordFields } from "@/components/new-password-fields";
@@ -38,7 +38,13 @@ export function AcceptInvitationForm({ token }: { token: string }) {
           confirmPassword: errors.confirmPassword?.message ?? server.field.confirmPassword,
         }}
       />
-      <Button type="submit" className="w-full" pending={pending} pendingLabel="Setting up your account…" data-testid="accept-invitation-submit">
+      <Button
+        type="submit"
+        className="w-full"
+        pending={pending}
+        pendingLabel="Setting up your account…"
+        data-testid="accept-invitation-submit"
+      >
         Set password and sign in
       </Button>
     </form>

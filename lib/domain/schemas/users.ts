@@ -1,7 +1,7 @@
 // One schema per people-management use case, shared by the admin forms and the server actions.
 import { z } from "zod";
-import { ROLES } from "@/lib/auth/roles";
-import { emailField } from "./auth-schemas";
+import { ROLES } from "../roles";
+import { emailField } from "./auth";
 
 const roleField = z.enum(ROLES, { error: "Choose a role." });
 const userIdField = z.string().trim().min(1, "Choose a person.");

@@ -1,9 +1,7 @@
 // Shared by the sign-in and password forms (react-hook-form's zodResolver) and the server.
 // Not server-only on purpose: the browser validates with the very same rules.
 import { z } from "zod";
-
-export const PASSWORD_MIN_LENGTH = 10;
-export const PASSWORD_MAX_LENGTH = 128;
+import { newPasswordField } from "../password-policy";
 
 export const emailField = z
   .string()
@@ -11,11 +9,6 @@ export const emailField = z
   .toLowerCase()
   .min(1, "Enter your e-mail address.")
   .pipe(z.email("Enter an e-mail address like name@firm.example."));
-
-export const newPasswordField = z
-  .string()
-  .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters.`)
-  .max(PASSWORD_MAX_LENGTH, `Use at most ${PASSWORD_MAX_LENGTH} characters.`);
 
 export const signInSchema = z.object({
   email: emailField,

@@ -1,6 +1,6 @@
 // Permissions are data: a list of actions and, for each role, the actions it may take.
-// Every server action and route handler names one of these actions (lib/auth/guard.ts), and the
-// check happens on the server before any data is touched. Hiding a button is never the check.
+// Every use case names one of these actions (lib/use-cases), and the runner checks it on the server
+// before any data is touched. Hiding a button is never the check.
 import type { Role } from "./roles";
 
 export const ACTIONS = [
@@ -45,13 +45,7 @@ const ENGINEER: readonly Action[] = [
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
   admin: ["users.read", "users.invite", "users.set-role", "users.deactivate", "mailbox.read", "audit.read"],
-  lead: [
-    ...ENGINEER,
-    "templates.write-draft",
-    "templates.review",
-    "templates.publish",
-    "templates.withdraw",
-  ],
+  lead: [...ENGINEER, "templates.write-draft", "templates.review", "templates.publish", "templates.withdraw"],
   engineer: ENGINEER,
   auditor: ["projects.read", "library.read", "runs.read", "audit.read", "audit.trace", "audit.export", "users.read"],
 };
@@ -60,3 +54,6 @@ export function can(role: Role | null | undefined, action: Action): boolean {
   if (!role) return false;
   return ROLE_PERMISSIONS[role].includes(action);
 }
+
+/** What a use case requires: an action from the table, "signed-in" for any active role, or "public" for anyone. */
+export type Permission = Action | "signed-in" | "public";

@@ -1,6 +1,6 @@
 // Who is acting. Every data-access function takes the actor explicitly (never reads the request
 // itself), so the same function serves pages, server actions, route handlers, scripts and tests.
-import { AppError } from "@/lib/errors";
+import { AppError } from "./errors";
 import { can, type Action } from "./permissions";
 import type { Role } from "./roles";
 

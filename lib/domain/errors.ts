@@ -1,6 +1,6 @@
-// Typed error codes and where each may surface. Data functions and handlers throw AppError with one of
-// these codes and a message written for the person using Gusset; the guard (lib/auth/guard.ts) turns it
-// into an ActionState for forms or a JSON body with the matching HTTP status for the API. Anything else
+// Typed error codes and where each may surface. Use cases and data functions throw AppError with one of
+// these codes and a message written for the person using Gusset; lib/use-cases/next.ts turns it into an
+// ActionState for forms or a JSON body with the matching HTTP status for the API. Anything else
 // (a database error, a bug) is logged on the server and shown only as "internal".
 
 export const ERROR_CODES = [

@@ -1,0 +1,62 @@
+// Every kind of audit event, with the details it carries. A new kind needs its details type and its
+// label here; a missing label is a compile error, and recordAuditEvent() accepts only these.
+import type { Role } from "./roles";
+
+type Nothing = Record<string, never>;
+
+export type AuditDetails = {
+  "system.seed": { firm: string; users: number; projects: number };
+  "auth.sign-in": Nothing;
+  /** reason: better-auth's error code (INVALID_EMAIL_OR_PASSWORD, ACCOUNT_DEACTIVATED, …) or RATE_LIMITED. */
+  "auth.sign-in.failed": { reason: string; knownUser: boolean };
+  "auth.password-reset.requested": { reason?: string; knownUser: boolean };
+  "auth.password-reset": Nothing;
+  "auth.password-reset.failed": { reason: string };
+  "users.invite": { email: string; role: Role; replacedInvitations: string[] };
+  "users.set-role": { email: string; from: Role; to: Role };
+  "users.deactivate": { email: string; sessionsEnded: number };
+  "users.reactivate": { email: string };
+  "invitations.accept": { role: Role; invitedById: string | null };
+  "invitations.revoke": { email: string; role: Role };
+};
+
+export type AuditAction = keyof AuditDetails;
+
+export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
+  "system.seed": "Created the demo firm",
+  "auth.sign-in": "Signed in",
+  "auth.sign-in.failed": "Failed sign-in",
+  "auth.password-reset.requested": "Asked for a password reset",
+  "auth.password-reset": "Reset password",
+  "auth.password-reset.failed": "Failed password reset",
+  "users.invite": "Invited a person",
+  "users.set-role": "Changed a role",
+  "users.deactivate": "Deactivated an account",
+  "users.reactivate": "Reactivated an account",
+  "invitations.accept": "Accepted an invitation",
+  "invitations.revoke": "Revoked an invitation",
+};
+
+export const AUDIT_ACTIONS = Object.keys(AUDIT_ACTION_LABELS) as AuditAction[];
+
+export function isAuditAction(value: string): value is AuditAction {
+  return Object.hasOwn(AUDIT_ACTION_LABELS, value);
+}
+
+/** The label for a stored action; an action written by an older version keeps its key as its label. */
+export function auditActionLabel(action: string): string {
+  return isAuditAction(action) ? AUDIT_ACTION_LABELS[action] : action;
+}
+
+type EventOf<A extends AuditAction> = {
+  action: A;
+  /** Omitted where the kind carries nothing. */
+  details: AuditDetails[A];
+  subject?: string | null;
+  actorId?: string | null;
+  actorEmail?: string | null;
+  ipAddress?: string | null;
+};
+
+/** One audit event to write: the action decides the shape of its details. */
+export type AuditEventInput = { [A in AuditAction]: EventOf<A> }[AuditAction];

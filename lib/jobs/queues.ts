@@ -1,0 +1,31 @@
+// The background queues: their names, what a job carries, and how often a failed one is retried.
+// Jobs live in PostgreSQL (pg-boss, schema `pgboss`, created by the migrations, never by the app), so
+// any number of workers on any machines share them, and a job queued inside a transaction exists only
+// if that transaction commits.
+import type { OutgoingMail } from "@/lib/mail/send-mail";
+
+export const JOB_SCHEMA = "pgboss";
+
+export type JobPayloads = {
+  /** One e-mail, rendered when its transaction ran; sent by a worker after commit. */
+  "mail.send": OutgoingMail;
+};
+export type QueueName = keyof JobPayloads;
+
+type QueuePolicy = { retryLimit: number; retryDelay: number; retryBackoff: boolean; expireInSeconds: number };
+
+/**
+ * A mail relay that is down for a while should not lose an invitation: five retries with exponential
+ * back-off from 5 s cover a few minutes.
+ */
+export const QUEUES: Record<QueueName, QueuePolicy> = {
+  "mail.send": { retryLimit: 5, retryDelay: 5, retryBackoff: true, expireInSeconds: 60 },
+};
+
+/**
+ * Finished jobs are archived after an hour and deleted a day later: a rendered invitation or reset
+ * e-mail holds a link that lets someone set a password.
+ */
+export const JOB_RETENTION = { archiveCompletedAfterSeconds: 3600, deleteAfterSeconds: 24 * 3600 };
+
+export const QUEUE_NAMES = Object.keys(QUEUES) as QueueName[];

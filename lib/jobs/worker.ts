@@ -1,0 +1,41 @@
+// The background worker: takes jobs from the PostgreSQL queue and does the slow work (sending e-mail)
+// outside any request and any transaction. Started by `npm start` and `npm test` (scripts/worker.ts);
+// several can run on several machines, pg-boss hands each job to one of them.
+import PgBoss from "pg-boss";
+import { sendMail } from "@/lib/mail/send-mail";
+import { JOB_RETENTION, JOB_SCHEMA, QUEUE_NAMES, type JobPayloads, type QueueName } from "./queues";
+
+type Handlers = { [Q in QueueName]: (data: JobPayloads[Q]) => Promise<unknown> };
+
+const HANDLERS: Handlers = {
+  "mail.send": (mail) => sendMail(mail),
+};
+
+export type RunningWorker = { stop(): Promise<void> };
+
+/** Connects, checks the queue schema exists (the app never creates it) and starts every handler. */
+export async function startWorker({
+  connectionString,
+  pollingIntervalSeconds = 1,
+  log = console,
+}: {
+  connectionString: string;
+  pollingIntervalSeconds?: number;
+  log?: Pick<Console, "info" | "error">;
+}): Promise<RunningWorker> {
+  const boss = new PgBoss({ connectionString, schema: JOB_SCHEMA, migrate: false, schedule: false, max: 4, ...JOB_RETENTION });
+  boss.on("error", (error) => log.error("[gusset-worker] queue error:", error));
+  await boss.start();
+  for (const name of QUEUE_NAMES) {
+    await boss.work<JobPayloads[typeof name]>(name, { pollingIntervalSeconds, batchSize: 1 }, async ([job]) => {
+      try {
+        return await HANDLERS[name](job.data);
+      } catch (error) {
+        log.error(`[gusset-worker] ${name} job ${job.id} failed (it will be retried):`, error);
+        throw error; // pg-boss marks it for retry
+      }
+    });
+  }
+  log.info(`[gusset-worker] working on ${QUEUE_NAMES.join(", ")}`);
+  return { stop: () => boss.stop({ graceful: true, timeout: 10_000 }) };
+}

@@ -1,0 +1,96 @@
+// The server's settings, read from the environment once and checked with zod, so a missing or malformed
+// value stops the server with a message that names it instead of surfacing as a wrong default later.
+// `npm start` and `npm test` write these (scripts/lib/env.mjs); a deployment sets them itself.
+// The only module that reads process.env for the application (scripts read their own).
+import { z } from "zod";
+
+const DEFAULT_APP_URL = "http://127.0.0.1:3000";
+
+/** "a, b ,c" → ["a", "b", "c"]; empty entries dropped. */
+const commaList = z
+  .string()
+  .optional()
+  .transform((value) =>
+    (value ?? "")
+      .split(",")
+      .map((item) => item.trim())
+      .filter(Boolean),
+  );
+
+const positiveInt = (fallback: number) =>
+  z
+    .string()
+    .optional()
+    .transform((value, ctx) => {
+      if (value === undefined || value.trim() === "") return fallback;
+      const parsed = Number(value);
+      if (!Number.isInteger(parsed) || parsed <= 0) {
+        ctx.addIssue({ code: "custom", message: `expected a positive whole number, got "${value}"` });
+        return z.NEVER;
+      }
+      return parsed;
+    });
+
+const URL_MESSAGE = "must be a URL such as http://127.0.0.1:3000";
+
+const optionalUrl = z
+  .url(URL_MESSAGE)
+  .optional()
+  .or(z.literal("").transform(() => undefined));
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  /** PostgreSQL connection string for the app's own login. Required wherever the database is used. */
+  DATABASE_URL: z.string().min(1).optional(),
+  /** The app's public address: links in e-mails, trusted origins. */
+  BETTER_AUTH_URL: z.url(URL_MESSAGE).default(DEFAULT_APP_URL),
+  /** Signs session cookies; at least 32 characters. */
+  BETTER_AUTH_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
+  SMTP_HOST: z.string().min(1).default("127.0.0.1"),
+  SMTP_PORT: positiveInt(2525),
+  MAIL_FROM: z.string().min(3).default("Gusset <no-reply@gusset.example>"),
+  /** Set only while the demo's fake SMTP server is in use: the admin's demo mailbox reads it. */
+  FAKE_MAIL_API_URL: optionalUrl,
+  S3_ENDPOINT: optionalUrl,
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z.string().min(1).optional(),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  /** Sign-in attempts per account and client address per minute. */
+  GUSSET_SIGN_IN_RATE_LIMIT_MAX: positiveInt(5),
+  /** The load balancer's addresses: only from these is X-Forwarded-For believed. */
+  GUSSET_TRUSTED_PROXIES: commaList,
+});
+
+export type ServerEnv = z.infer<typeof envSchema>;
+
+let cached: ServerEnv | null = null;
+
+/** The parsed settings; parsed on first use and kept. Throws once, naming every bad variable. */
+export function serverEnv(): ServerEnv {
+  if (cached) return cached;
+  const parsed = envSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const problems = parsed.error.issues.map((issue) => `  ${issue.path.join(".")}: ${issue.message}`).join("\n");
+    throw new Error(`Gusset's settings are not valid (npm start and npm test write them):\n${problems}`);
+  }
+  cached = parsed.data;
+  return cached;
+}
+
+/** A setting that the code path needs; throws naming it when it is not set. */
+export function requireSetting<K extends keyof ServerEnv>(name: K): NonNullable<ServerEnv[K]> {
+  const value = serverEnv()[name];
+  if (value === undefined || value === null) throw new Error(`${name} is not set (npm start and npm test set it).`);
+  return value as NonNullable<ServerEnv[K]>;
+}
+
+/** The app's base URL without a trailing slash, for links in e-mails. */
+export function appBaseUrl(): string {
+  return serverEnv().BETTER_AUTH_URL.replace(/\/+$/, "");
+}
+
+/** For tests that change process.env on purpose: the next serverEnv() reads it again. */
+export function forgetServerEnv(): void {
+  cached = null;
+}

@@ -1,0 +1,95 @@
+import "server-only";
+// Use cases as Next server actions and route handlers. The adapter reads who is asking (the session
+// cookie), hands the raw input to the runner (lib/use-cases/run.ts), and turns the outcome into what
+// the caller expects: an ActionState for a form, JSON with a status code for the API. Anything that
+// must wait for the commit (redirect, refreshing a page, signing a new user in) goes in `then`.
+import { unstable_rethrow } from "next/navigation";
+import type { z } from "zod";
+import type { ActionState } from "@/lib/domain/action-state";
+import type { Actor } from "@/lib/domain/actor";
+import { AppError, ERROR_STATUS, toPublicError } from "@/lib/domain/errors";
+import type { Permission } from "@/lib/domain/permissions";
+import { getActor, getActorFromHeaders } from "@/lib/auth/session";
+import { executeUseCase, runUseCase } from "./run";
+import type { UseCase } from "./use-case";
+
+/**
+ * For forms with useActionState(action, null). Parses FormData (or a plain object), runs the use case,
+ * then `then(result, input)` after the commit; never throws to the client except Next's own
+ * redirect()/notFound()/forbidden().
+ */
+export function serverAction<P extends Permission, S extends z.ZodType, T>(
+  useCase: UseCase<P, S, T>,
+  options: { then?: (result: T, input: z.infer<S>) => void | Promise<void> } = {},
+): (previous: ActionState<T>, payload: FormData | z.input<S>) => Promise<ActionState<T>> {
+  return async (_previous, payload) => {
+    try {
+      const actor = await getActor();
+      const raw = payload instanceof FormData ? readFormData(payload) : payload;
+      const { input, result } = await executeUseCase(useCase, { actor, input: raw });
+      await options.then?.(result, input);
+      return { ok: true, data: result };
+    } catch (error) {
+      unstable_rethrow(error); // redirect(), notFound() and forbidden() belong to Next
+      return { ok: false, error: toPublicError(error) };
+    }
+  };
+}
+
+/**
+ * For route handlers: reads the input from the JSON or form body (POST/PUT/PATCH) or the search
+ * params (GET/HEAD/DELETE), plus the route's params; answers `{ data }` with 200, or `respond(result)`
+ * for a shape of its own, and `{ error: { code, message, fieldErrors? } }` with 400/401/403/404/409/
+ * 422/429/500.
+ */
+export function routeHandler<P extends Permission, S extends z.ZodType, T>(
+  useCase: UseCase<P, S, T>,
+  options: { respond?: (result: T) => Response } = {},
+): (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response> {
+  return async (request, context) => {
+    try {
+      const actor: Actor | null = await getActorFromHeaders(request.headers);
+      const params = (await context?.params) ?? {};
+      const raw = { ...(await readRequestInput(request)), ...params };
+      const result = await runUseCase(useCase, { actor, input: raw });
+      return options.respond ? options.respond(result) : Response.json({ data: result ?? null });
+    } catch (error) {
+      unstable_rethrow(error);
+      const publicError = toPublicError(error);
+      return Response.json({ error: publicError }, { status: ERROR_STATUS[publicError.code] });
+    }
+  };
+}
+
+/** FormData → plain object; repeated keys become arrays; Next's own $ACTION_ fields are dropped. */
+function readFormData(formData: FormData): Record<string, unknown> {
+  const result: Record<string, unknown> = {};
+  for (const key of new Set(formData.keys())) {
+    if (key.startsWith("$ACTION")) continue;
+    const values = formData.getAll(key);
+    result[key] = values.length === 1 ? values[0] : values;
+  }
+  return result;
+}
+
+async function readRequestInput(request: Request): Promise<Record<string, unknown>> {
+  if (["GET", "HEAD", "DELETE"].includes(request.method)) {
+    return Object.fromEntries(new URL(request.url).searchParams);
+  }
+  const contentType = request.headers.get("content-type") ?? "";
+  if (contentType.includes("application/x-www-form-urlencoded") || contentType.includes("multipart/form-data")) {
+    return readFormData(await request.formData());
+  }
+  const text = await request.text();
+  if (text.trim() === "") return {};
+  let body: unknown;
+  try {
+    body = JSON.parse(text);
+  } catch {
+    throw new AppError("bad-request", "The request body is not valid JSON.");
+  }
+  if (body === null || typeof body !== "object" || Array.isArray(body)) {
+    throw new AppError("bad-request", "The request body must be a JSON object.");
+  }
+  return body as Record<string, unknown>;
+}

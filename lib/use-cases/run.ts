@@ -1,0 +1,63 @@
+import "server-only";
+// The one runner: checks the actor's permission, parses the input with the use case's schema, and runs
+// the work and its audit event in one transaction (jobs queued by the work join it too). A refused or
+// invalid call touches nothing. Slow work (e-mail, PDF, object storage) never happens here: the work
+// queues a job (lib/jobs/enqueue.ts), which a worker picks up once the transaction has committed.
+import type { z } from "zod";
+import type { Actor } from "@/lib/domain/actor";
+import { AppError, DEFAULT_MESSAGES, type FieldErrors } from "@/lib/domain/errors";
+import { can, type Permission } from "@/lib/domain/permissions";
+import { recordAuditEvent } from "@/lib/data/audit";
+import { runInTransaction } from "@/lib/data/transaction";
+import type { ActorFor, UseCase } from "./use-case";
+
+/** Throws "unauthenticated" or "forbidden"; returns the actor typed for the permission. */
+export function authorizeOrThrow<P extends Permission>(actor: Actor | null, permission: P): ActorFor<P> {
+  if (permission === "public") return actor as ActorFor<P>;
+  if (!actor) throw new AppError("unauthenticated");
+  if (permission !== "signed-in" && !can(actor.role, permission)) throw new AppError("forbidden");
+  return actor as ActorFor<P>;
+}
+
+/** Parses with the schema; a failure becomes "invalid-input" with messages per field. */
+export function parseOrThrow<S extends z.ZodType>(schema: S, raw: unknown): z.infer<S> {
+  const parsed = schema.safeParse(raw);
+  if (parsed.success) return parsed.data;
+  const fieldErrors: FieldErrors = {};
+  const formErrors: string[] = [];
+  for (const issue of parsed.error.issues) {
+    if (issue.path.length === 0) formErrors.push(issue.message);
+    else (fieldErrors[issue.path.join(".")] ??= []).push(issue.message);
+  }
+  throw new AppError("invalid-input", formErrors[0] ?? DEFAULT_MESSAGES["invalid-input"], { fieldErrors });
+}
+
+/**
+ * Runs a use case as `actor` with raw (unparsed) input. Resolves once the transaction has committed;
+ * throws AppError for refusals and bad input, and rolls everything back on any error.
+ */
+export async function runUseCase<P extends Permission, S extends z.ZodType, T>(
+  useCase: UseCase<P, S, T>,
+  request: { actor: Actor | null; input: unknown },
+): Promise<T> {
+  return (await executeUseCase(useCase, request)).result;
+}
+
+/** runUseCase, also handing back the parsed input (for adapters that act on it after the commit). */
+export async function executeUseCase<P extends Permission, S extends z.ZodType, T>(
+  useCase: UseCase<P, S, T>,
+  { actor, input: raw }: { actor: Actor | null; input: unknown },
+): Promise<{ input: z.infer<S>; result: T }> {
+  const allowed = authorizeOrThrow(actor, useCase.permission);
+  const input = parseOrThrow(useCase.input, raw);
+  if (useCase.database === false) return { input, result: await useCase.run(input, { actor: allowed }) };
+  const work = useCase.run;
+  const audit = useCase.audit;
+  const result = await runInTransaction(async (tx) => {
+    const value = await work(input, { actor: allowed, tx });
+    const event = audit?.({ input, result: value, actor: allowed });
+    if (event) await recordAuditEvent({ actorId: allowed?.id ?? null, actorEmail: allowed?.email ?? null, ...event });
+    return value;
+  });
+  return { input, result };
+}

@@ -1,0 +1,53 @@
+// A use case is declared once: who may run it, the input it takes (a zod schema shared with the form),
+// the work, and the audit event it writes. lib/use-cases/run.ts runs it for server actions, route
+// handlers, pages and scripts alike; nothing else checks permissions or writes change events.
+import type { z } from "zod";
+import type { Actor } from "@/lib/domain/actor";
+import type { AuditEventInput } from "@/lib/domain/audit-actions";
+import type { Permission } from "@/lib/domain/permissions";
+import type { Transaction } from "@/lib/data/transaction";
+
+/** A use case that requires a permission always sees a signed-in actor; a public one may see none. */
+export type ActorFor<P extends Permission> = P extends "public" ? Actor | null : Actor;
+
+export type UseCaseContext<P extends Permission> = {
+  actor: ActorFor<P>;
+  /** The transaction the work, its audit event and any queued job share. */
+  tx: Transaction;
+};
+
+/** For the few use cases that touch no data at all (liveness): no transaction is opened. */
+export type DatabaseFreeContext<P extends Permission> = { actor: ActorFor<P> };
+
+/** The audit event of a change; actor fields default to the actor who ran it. */
+export type AuditFor<P extends Permission, I, T> = (args: { input: I; result: T; actor: ActorFor<P> }) => AuditEventInput | null;
+
+export type UseCase<P extends Permission, S extends z.ZodType, T> =
+  | {
+      /** For logs and error messages, e.g. "users.invite". */
+      name: string;
+      permission: P;
+      input: S;
+      run: (input: z.infer<S>, context: UseCaseContext<P>) => Promise<T>;
+      /** null for reads: they change nothing, so they write no event. */
+      audit: AuditFor<P, z.infer<S>, T> | null;
+      database?: true;
+    }
+  | {
+      name: string;
+      permission: P;
+      input: S;
+      run: (input: z.infer<S>, context: DatabaseFreeContext<P>) => Promise<T>;
+      audit: null;
+      /** false: the work reads and writes nothing in the database, so no transaction is opened. */
+      database: false;
+    };
+
+/** Declares a use case (an identity function that lets TypeScript infer the types). */
+export function defineUseCase<P extends Permission, S extends z.ZodType, T>(useCase: UseCase<P, S, T>): UseCase<P, S, T> {
+  return useCase;
+}
+
+export type AnyUseCase = UseCase<Permission, z.ZodType, unknown>;
+export type InputOf<U> = U extends UseCase<Permission, infer S, unknown> ? z.input<S> : never;
+export type ResultOf<U> = U extends UseCase<Permission, z.ZodType, infer T> ? T : never;

@@ -37,9 +37,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "invitations.revoke": "Revoked an invitation",
 };
 
-export const AUDIT_ACTIONS = Object.keys(AUDIT_ACTION_LABELS) as AuditAction[];
-
-export function isAuditAction(value: string): value is AuditAction {
+function isAuditAction(value: string): value is AuditAction {
   return Object.hasOwn(AUDIT_ACTION_LABELS, value);
 }
 

@@ -12,7 +12,7 @@ import { runInTransaction } from "@/lib/data/transaction";
 import type { ActorFor, UseCase } from "./use-case";
 
 /** Throws "unauthenticated" or "forbidden"; returns the actor typed for the permission. */
-export function authorizeOrThrow<P extends Permission>(actor: Actor | null, permission: P): ActorFor<P> {
+function authorizeOrThrow<P extends Permission>(actor: Actor | null, permission: P): ActorFor<P> {
   if (permission === "public") return actor as ActorFor<P>;
   if (!actor) throw new AppError("unauthenticated");
   if (permission !== "signed-in" && !can(actor.role, permission)) throw new AppError("forbidden");
@@ -20,7 +20,7 @@ export function authorizeOrThrow<P extends Permission>(actor: Actor | null, perm
 }
 
 /** Parses with the schema; a failure becomes "invalid-input" with messages per field. */
-export function parseOrThrow<S extends z.ZodType>(schema: S, raw: unknown): z.infer<S> {
+function parseOrThrow<S extends z.ZodType>(schema: S, raw: unknown): z.infer<S> {
   const parsed = schema.safeParse(raw);
   if (parsed.success) return parsed.data;
   const fieldErrors: FieldErrors = {};

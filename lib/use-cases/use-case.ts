@@ -47,7 +47,3 @@ export type UseCase<P extends Permission, S extends z.ZodType, T> =
 export function defineUseCase<P extends Permission, S extends z.ZodType, T>(useCase: UseCase<P, S, T>): UseCase<P, S, T> {
   return useCase;
 }
-
-export type AnyUseCase = UseCase<Permission, z.ZodType, unknown>;
-export type InputOf<U> = U extends UseCase<Permission, infer S, unknown> ? z.input<S> : never;
-export type ResultOf<U> = U extends UseCase<Permission, z.ZodType, infer T> ? T : never;

@@ -9,7 +9,7 @@ import {
   resultFor,
   type ModelInput,
 } from "@/lib/engine";
-import { analyzeOrThrow, expectClose, expectNear, lineBeam, E, I } from "./helpers";
+import { analyzeOrThrow, expectAllFinite, expectClose, expectNear, lineBeam, E, I } from "./helpers";
 import { randomFrame } from "./random-frames";
 
 const EI = E * I;
@@ -151,6 +151,17 @@ describe("load directions", () => {
     model.members![0] = { ...model.members![0], density: 7850 };
     const r = analyzeOrThrow(model);
     expectClose(nodeReaction(r, "n0", "L").fy, (7850 * 5e-3 * 9.80665 * 6) / 2);
+  });
+
+  it("self-weight loads only the members that have a density; the others carry none", () => {
+    const model = lineBeam([6, 4], ["pin", "roller", "roller"], [{ kind: "self-weight" }]);
+    model.members![0] = { ...model.members![0], density: 7850 };
+    const r = analyzeOrThrow(model);
+    expectAllFinite(r);
+    // Statics (common practice): only the 6 m span weighs anything, 7850 · 5e-3 · 9.80665 N/m over it.
+    const total = 7850 * 5e-3 * 9.80665 * 6;
+    const sum = ["n0", "n1", "n2"].reduce((s, n) => s + nodeReaction(r, n, "L").fy, 0);
+    expectClose(sum, total);
   });
 
   it("a couple on the span: reactions ±C/L and a moment step of C", () => {

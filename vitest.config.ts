@@ -30,6 +30,9 @@ export default defineConfig({
           name: "integration",
           include: ["tests/integration/**/*.test.ts"],
           environment: "node",
+          // Tests that call handlers in-process stand in for scripts/serve.mjs: they set the client's
+          // address in x-gusset-client-address themselves (lib/auth/client-address.ts).
+          env: { GUSSET_CLIENT_ADDRESS_FROM_SERVER: "1" },
           fileParallelism: false,
           testTimeout: 30_000,
           hookTimeout: 60_000,

@@ -58,8 +58,13 @@ const envSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
   /** Sign-in attempts per account and client address per minute. */
   GUSSET_SIGN_IN_RATE_LIMIT_MAX: positiveInt(5),
-  /** The load balancer's addresses: only from these is X-Forwarded-For believed. */
+  /** The load balancer's addresses: only from these is X-Forwarded-For believed (read by scripts/serve.mjs). */
   GUSSET_TRUSTED_PROXIES: commaList,
+  /**
+   * Set to "1" by scripts/serve.mjs, which writes the client's address into x-gusset-client-address. Under
+   * any other server that header could come from the client, so it is not read and no address is recorded.
+   */
+  GUSSET_CLIENT_ADDRESS_FROM_SERVER: z.literal("1").optional(),
 });
 
 export type ServerEnv = z.infer<typeof envSchema>;

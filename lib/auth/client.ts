@@ -29,11 +29,15 @@ const MESSAGES: Record<string, string> = {
   USER_NOT_FOUND: "This reset link is invalid, used or expired. Ask for a new one.",
   INVALID_ORIGIN: "This page's address does not match Gusset's. Reload and try again.",
   MISSING_OR_NULL_ORIGIN: "This page's address does not match Gusset's. Reload and try again.",
+  // The server's own sentence (lib/auth/server.ts ACCOUNT_LOCKED_MESSAGE) is shown when it sends one.
+  ACCOUNT_LOCKED:
+    "Too many failed sign-ins for this e-mail address. Wait 15 minutes, or set a new password with “Forgot your password?”.",
 };
 
 /** A sentence for the person, whatever better-auth answered. */
 export function describeAuthError(error: AuthClientError): string {
   if (!error) return "";
+  if (error.code === "ACCOUNT_LOCKED") return MESSAGES.ACCOUNT_LOCKED;
   if (error.status === 429) return "Too many attempts. Wait a minute and try again.";
   if (error.status === 403 && !error.code) return "This page's address does not match Gusset's. Reload and try again.";
   if (error.code && MESSAGES[error.code]) return MESSAGES[error.code];

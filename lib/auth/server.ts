@@ -8,17 +8,21 @@ import "server-only";
 // better-auth itself (sign-up disabled, rate limits, origin check) plus the hooks below.
 import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
-import { APIError, createAuthMiddleware, getIP, isAPIError } from "better-auth/api";
+import { APIError, createAuthMiddleware, isAPIError } from "better-auth/api";
 import { nextCookies } from "better-auth/next-js";
+import { after } from "next/server";
+import { z } from "zod";
 import { eq } from "drizzle-orm";
 import { db } from "@/db";
 import { account, rateLimit, session, user, verification } from "@/db/schema";
 import { recordAuditEvent } from "@/lib/data/audit";
-import { consumeRateLimit } from "@/lib/data/rate-limit";
+import { clearRateLimit, consumeRateLimit } from "@/lib/data/rate-limit";
 import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "@/lib/domain/password-policy";
 import { renderPasswordResetMail } from "@/lib/mail/templates";
 import { enqueueJob } from "@/lib/jobs/enqueue";
 import { serverEnv } from "@/lib/server-env";
+import { bodyHasControlCharacters } from "@/lib/domain/schemas/text";
+import { CLIENT_ADDRESS_HEADER, clientAddressFrom } from "./client-address";
 
 export const ACCOUNT_DEACTIVATED_CODE = "ACCOUNT_DEACTIVATED";
 export const ACCOUNT_DEACTIVATED_MESSAGE = "This account has been deactivated. Ask your admin to reactivate it.";
@@ -31,7 +35,19 @@ export const ACCOUNT_DEACTIVATED_MESSAGE = "This account has been deactivated. A
 export const SIGN_IN_RATE_LIMIT = { window: 60, max: serverEnv().GUSSET_SIGN_IN_RATE_LIMIT_MAX };
 /** All sign-in attempts from one client address per minute, whatever the account (better-auth's rule). */
 export const SIGN_IN_ADDRESS_RATE_LIMIT = { window: 60, max: 30 };
+/**
+ * Sign-in attempts for one account in 15 minutes, from any address, counted until one succeeds. An attacker
+ * who rotates addresses still stops here. Unknown e-mails are counted the same way, so the lock-out says
+ * nothing about whether an account exists.
+ */
+export const ACCOUNT_SIGN_IN_LIMIT = { window: 15 * 60, max: 10 };
+export const ACCOUNT_LOCKED_CODE = "ACCOUNT_LOCKED";
+export const ACCOUNT_LOCKED_MESSAGE =
+  "Too many failed sign-ins for this e-mail address. Wait 15 minutes, or set a new password with “Forgot your password?”.";
+/** Reset requests from one client address per minute. */
 export const PASSWORD_RESET_RATE_LIMIT = { window: 60, max: 3 };
+/** Reset e-mails to one address per hour: more requests are answered the same way but send nothing. */
+export const PASSWORD_RESET_EMAIL_LIMIT = { window: 60 * 60, max: 3 };
 
 function getBaseUrl(): string {
   return serverEnv().BETTER_AUTH_URL;
@@ -61,8 +77,8 @@ async function findUserByEmail(email: string) {
 type HookContext = Parameters<Parameters<typeof createAuthMiddleware>[0]>[0];
 
 function getClientIp(ctx: HookContext): string | null {
-  const source = ctx.request ?? ctx.headers;
-  return source ? getIP(source, ctx.context.options) : null;
+  const source = ctx.request?.headers ?? ctx.headers;
+  return source ? clientAddressFrom(source) : null;
 }
 
 function readEmail(body: unknown): string | null {
@@ -132,13 +148,29 @@ export const auth = betterAuth({
   // tests exercise what production does.
   advanced: {
     disableOriginCheck: false,
-    // Behind a load balancer, name its addresses (GUSSET_TRUSTED_PROXIES="10.0.0.0/8,…") so the rate
-    // limit keys on the client's address rather than one shared bucket.
-    ipAddress: { trustedProxies: serverEnv().GUSSET_TRUSTED_PROXIES },
+    // The client's address is the one scripts/serve.mjs resolved from the connection (trusting
+    // X-Forwarded-For only from GUSSET_TRUSTED_PROXIES); under any other server there is none to believe.
+    ipAddress: {
+      ipAddressHeaders: [CLIENT_ADDRESS_HEADER],
+      disableIpTracking: serverEnv().GUSSET_CLIENT_ADDRESS_FROM_SERVER !== "1",
+    },
   },
   // Endpoints Gusset does not use are switched off: no self sign-up, and profile, e-mail and account
   // changes go through our own use cases (audited) or do not exist yet.
   disabledPaths: [
+    // Password changes happen by reset link only, which is audited and ends every session.
+    "/change-password",
+    "/verify-password",
+    "/reset-password/:token",
+    "/list-sessions",
+    "/revoke-session",
+    "/revoke-sessions",
+    "/revoke-other-sessions",
+    "/update-session",
+    "/list-accounts",
+    "/account-info",
+    "/get-access-token",
+    "/refresh-token",
     "/sign-up/email",
     "/sign-in/social",
     "/update-user",
@@ -230,51 +262,162 @@ export const auth = betterAuth({
 
 export type Auth = typeof auth;
 
-/** The e-mail a sign-in request names, from a JSON or form body; the request itself stays unread. */
-async function readRequestEmail(request: Request): Promise<string | null> {
+/** The body of a sign-in or reset request, JSON or form, read from a copy so the request stays unread. */
+async function readRequestBody(request: Request): Promise<Record<string, unknown> | null> {
   const copy = request.clone();
   if ((copy.headers.get("content-type") ?? "").includes("application/x-www-form-urlencoded")) {
     const form = await copy.formData().catch(() => null);
-    return readEmail({ email: form?.get("email") });
+    return form ? Object.fromEntries(form.entries()) : null;
   }
-  return readEmail(await copy.json().catch(() => null));
+  const body: unknown = await copy.json().catch(() => null);
+  return body && typeof body === "object" ? (body as Record<string, unknown>) : null;
 }
 
-async function auditRateLimitedSignIn(email: string | null, ipAddress: string | null): Promise<void> {
-  await auditFailedSignIn(email, "RATE_LIMITED", ipAddress).catch((error) =>
-    console.error("[gusset] could not write the auth audit event:", error),
-  );
+function logAuditFailure(error: unknown): void {
+  console.error("[gusset] could not write the auth audit event:", error);
+}
+
+function refusal(status: number, code: string, message: string, headers?: HeadersInit): Response {
+  return Response.json({ code, message }, { status, headers });
 }
 
 function tooManyRequests(retryAfterSeconds: number): Response {
-  return Response.json(
-    { code: "TOO_MANY_REQUESTS", message: "Too many requests. Please try again later." },
-    { status: 429, headers: { "X-Retry-After": String(retryAfterSeconds) } },
-  );
+  const wait = String(retryAfterSeconds);
+  return refusal(429, "TOO_MANY_REQUESTS", "Too many requests. Please try again later.", {
+    "Retry-After": wait,
+    "X-Retry-After": wait,
+  });
 }
 
+export const FOREIGN_ORIGIN_MESSAGE = "This page's address does not match Gusset's. Reload and try again.";
+
 /**
- * The HTTP entry for /api/auth/*. Sign-in attempts are first counted per account and address (see
- * SIGN_IN_RATE_LIMIT); every refused attempt, ours or better-auth's per-address one (answered before
- * any hook runs), is written to the audit trail here.
+ * Every POST to /api/auth/* must come from one of Gusset's own pages. better-auth checks this for sign-in
+ * but not for every endpoint (a reset request from another site was answered), so it is checked here first.
  */
-export async function handleAuthRequest(request: Request): Promise<Response> {
-  const isSignIn = request.method === "POST" && new URL(request.url).pathname.endsWith("/sign-in/email");
-  if (!isSignIn) return auth.handler(request);
-  const email = await readRequestEmail(request);
-  const ipAddress = getIP(request, auth.options);
+function fromOwnOrigin(request: Request): boolean {
+  const origin = request.headers.get("origin");
+  return origin !== null && getTrustedOrigins().includes(origin);
+}
+
+async function handleSignIn(request: Request, ipAddress: string | null): Promise<Response> {
+  const email = readEmail(await readRequestBody(request));
   if (email) {
-    const decision = await consumeRateLimit({
-      key: `sign-in|${ipAddress ?? "no-trusted-ip"}|${email}`,
+    const perAddress = await consumeRateLimit({
+      key: `sign-in|${ipAddress ?? "no-address"}|${email}`,
       windowSeconds: SIGN_IN_RATE_LIMIT.window,
       max: SIGN_IN_RATE_LIMIT.max,
     });
-    if (!decision.allowed) {
-      await auditRateLimitedSignIn(email, ipAddress);
-      return tooManyRequests(decision.retryAfterSeconds);
+    if (!perAddress.allowed) {
+      await auditFailedSignIn(email, "RATE_LIMITED", ipAddress).catch(logAuditFailure);
+      return tooManyRequests(perAddress.retryAfterSeconds);
+    }
+    const perAccount = await consumeRateLimit({
+      key: `sign-in-account|${email}`,
+      windowSeconds: ACCOUNT_SIGN_IN_LIMIT.window,
+      max: ACCOUNT_SIGN_IN_LIMIT.max,
+    });
+    if (!perAccount.allowed) {
+      await auditFailedSignIn(email, ACCOUNT_LOCKED_CODE, ipAddress).catch(logAuditFailure);
+      return refusal(429, ACCOUNT_LOCKED_CODE, ACCOUNT_LOCKED_MESSAGE, { "Retry-After": String(perAccount.retryAfterSeconds) });
     }
   }
   const response = await auth.handler(request);
-  if (response.status === 429) await auditRateLimitedSignIn(email, ipAddress);
+  if (response.status === 429) await auditFailedSignIn(email, "RATE_LIMITED", ipAddress).catch(logAuditFailure);
+  // A successful sign-in ends the count of failed ones for the account.
+  if (email && response.ok) await clearRateLimit(`sign-in-account|${email}`);
   return response;
+}
+
+const resetRequestSchema = z.object({
+  email: z.string().trim().toLowerCase().max(254).pipe(z.email()),
+  redirectTo: z.string().max(200).optional(),
+});
+
+/** What better-auth answers to every reset request; Gusset answers it itself, before any look-up. */
+export const RESET_REQUESTED_MESSAGE = "If this email exists in our system, check your email for the reset link";
+
+/**
+ * A reset request is answered at once, the same way and after the same work whether or not the address
+ * has an account (checks, two counters); the look-up, the token and the queued e-mail happen after the
+ * answer has gone (Next's after()), so the answer's timing says nothing about the address.
+ */
+async function handlePasswordResetRequest(request: Request, ipAddress: string | null): Promise<Response> {
+  const parsed = resetRequestSchema.safeParse(await readRequestBody(request));
+  if (!parsed.success) return refusal(400, "INVALID_EMAIL", "Enter an e-mail address like name@firm.example.");
+  const { email } = parsed.data;
+  const perAddress = await consumeRateLimit({
+    key: `password-reset|${ipAddress ?? "no-address"}`,
+    windowSeconds: PASSWORD_RESET_RATE_LIMIT.window,
+    max: PASSWORD_RESET_RATE_LIMIT.max,
+  });
+  if (!perAddress.allowed) {
+    await auditForEmail({ action: "auth.password-reset.requested", details: { reason: "RATE_LIMITED" } }, email, ipAddress).catch(
+      logAuditFailure,
+    );
+    return tooManyRequests(perAddress.retryAfterSeconds);
+  }
+  const perEmail = await consumeRateLimit({
+    key: `password-reset-email|${email}`,
+    windowSeconds: PASSWORD_RESET_EMAIL_LIMIT.window,
+    max: PASSWORD_RESET_EMAIL_LIMIT.max,
+  });
+  const forward = new Request(request.url, { method: "POST", headers: request.headers, body: JSON.stringify(parsed.data) });
+  await afterAnswer(async () => {
+    try {
+      if (perEmail.allowed) await auth.handler(forward);
+      else
+        await auditForEmail(
+          { action: "auth.password-reset.requested", details: { reason: "EMAIL_RATE_LIMITED" } },
+          email,
+          ipAddress,
+        );
+    } catch (error) {
+      console.error("[gusset] a password-reset request failed after it was answered:", error);
+    }
+  });
+  return Response.json({ status: true, message: RESET_REQUESTED_MESSAGE });
+}
+
+/**
+ * Runs `work` once the answer has gone (Next's after()). Outside a request (integration tests call the
+ * handler in-process, scripts) there is no answer to wait for, so it runs before returning.
+ */
+async function afterAnswer(work: () => Promise<void>): Promise<void> {
+  try {
+    after(work);
+  } catch (error) {
+    if (!(error instanceof Error && error.message.includes("outside a request scope"))) throw error;
+    await work();
+  }
+}
+
+/**
+ * The HTTP entry for /api/auth/*. Every POST is checked for Gusset's own origin; sign-in attempts are
+ * counted per account and address (SIGN_IN_RATE_LIMIT) and per account alone (ACCOUNT_SIGN_IN_LIMIT);
+ * reset requests are answered before any look-up. Every refusal is written to the audit trail.
+ */
+export async function handleAuthRequest(request: Request): Promise<Response> {
+  if (request.method !== "POST") return auth.handler(request);
+  const path = new URL(request.url).pathname.replace(/^\/api\/auth/, "");
+  const ipAddress = clientAddressFrom(request.headers);
+  if (!fromOwnOrigin(request)) {
+    const email = readEmail(await readRequestBody(request));
+    if (path === "/sign-in/email") await auditFailedSignIn(email, "INVALID_ORIGIN", ipAddress).catch(logAuditFailure);
+    else if (path === "/request-password-reset") {
+      await auditForEmail(
+        { action: "auth.password-reset.requested", details: { reason: "INVALID_ORIGIN" } },
+        email,
+        ipAddress,
+      ).catch(logAuditFailure);
+    }
+    return refusal(403, "INVALID_ORIGIN", FOREIGN_ORIGIN_MESSAGE);
+  }
+  // A NUL byte cannot even be looked up in PostgreSQL text; no field of these forms may hold control characters.
+  if (bodyHasControlCharacters(await readRequestBody(request))) {
+    return refusal(400, "INVALID_CHARACTERS", "Remove the control characters from what you typed and try again.");
+  }
+  if (path === "/sign-in/email") return handleSignIn(request, ipAddress);
+  if (path === "/request-password-reset") return handlePasswordResetRequest(request, ipAddress);
+  return auth.handler(request);
 }

@@ -7,6 +7,8 @@ import { forbidden, redirect } from "next/navigation";
 import type { Actor } from "@/lib/domain/actor";
 import { can, type Action } from "@/lib/domain/permissions";
 import { isRole } from "@/lib/domain/roles";
+import { safePath } from "@/lib/domain/safe-path";
+import { clientAddressFrom } from "./client-address";
 import { auth } from "./server";
 
 export type { Actor } from "@/lib/domain/actor";
@@ -19,6 +21,11 @@ export async function getActorFromHeaders(requestHeaders: Headers): Promise<Acto
   // Sessions are deleted on deactivation; this is the second lock in case one slipped through.
   if (deactivatedAt || !isRole(role)) return null;
   return { id, name, email, role };
+}
+
+/** The client's address for this request (see lib/auth/client-address.ts), or null. */
+export async function getClientAddress(): Promise<string | null> {
+  return clientAddressFrom(await headers());
 }
 
 /** Read once per page render (layout and page share it through React's cache). */
@@ -41,10 +48,4 @@ export async function requirePageActor(action?: Action, options?: { next?: strin
  */
 function currentPath(requestHeaders: Headers): string {
   return requestHeaders.get("x-gusset-path") ?? "/home";
-}
-
-/** Only same-site paths, so ?next= cannot send someone to another site after signing in. */
-export function safePath(candidate: string | null | undefined, fallback = "/home"): string {
-  if (!candidate || !candidate.startsWith("/") || candidate.startsWith("//") || candidate.startsWith("/\\")) return fallback;
-  return candidate;
 }

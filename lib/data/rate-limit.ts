@@ -1,7 +1,7 @@
 import "server-only";
 // A fixed-window counter in the shared rate_limit table (the one better-auth uses), so every app
 // instance sees the same count. Keys are prefixed "gusset:" and never collide with better-auth's.
-import { sql } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { generateId } from "better-auth";
 import { rateLimit } from "@/db/schema";
 import { currentDb } from "./transaction";
@@ -35,4 +35,11 @@ export async function consumeRateLimit({
     .returning({ count: rateLimit.count, lastRequest: rateLimit.lastRequest });
   const retryAfterSeconds = Math.max(1, Math.ceil((Number(row.lastRequest) + windowSeconds * 1000 - now) / 1000));
   return { allowed: row.count <= max, retryAfterSeconds };
+}
+
+/** Forgets the count under `key` (a successful sign-in ends the count of failed ones). */
+export async function clearRateLimit(key: string): Promise<void> {
+  await currentDb()
+    .delete(rateLimit)
+    .where(eq(rateLimit.key, `gusset:${key}`));
 }

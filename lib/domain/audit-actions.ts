@@ -18,6 +18,10 @@ export type AuditDetails = {
   "users.reactivate": { email: string };
   "invitations.accept": { role: Role; invitedById: string | null };
   "invitations.revoke": { email: string; role: Role };
+  /** A signed-in person asked for something their role does not allow; useCase names what. */
+  "access.refused": { useCase: string; permission: string };
+  /** An invitation link was used but not accepted; reason is the error code, message what the person saw. */
+  "invitations.accept.failed": { reason: string; message: string };
 };
 
 export type AuditAction = keyof AuditDetails;
@@ -35,6 +39,8 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "users.reactivate": "Reactivated an account",
   "invitations.accept": "Accepted an invitation",
   "invitations.revoke": "Revoked an invitation",
+  "access.refused": "Was refused an action",
+  "invitations.accept.failed": "Failed to accept an invitation",
 };
 
 function isAuditAction(value: string): value is AuditAction {

@@ -51,6 +51,13 @@ export const acceptInvitation = defineUseCase({
       invitedById: invitation.invitedById,
     };
   },
+  // A link that is unknown, expired, used or withdrawn, or a password the rules refuse: the attempt is
+  // kept, without the token (it is a credential).
+  auditFailure: ({ error }) => ({
+    action: "invitations.accept.failed",
+    subject: null,
+    details: { reason: error.code, message: error.message },
+  }),
   // The new person is the actor: nobody was signed in when the link was used.
   audit: ({ result }) => ({
     action: "invitations.accept",

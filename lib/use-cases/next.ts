@@ -9,7 +9,8 @@ import type { ActionState } from "@/lib/domain/action-state";
 import type { Actor } from "@/lib/domain/actor";
 import { AppError, ERROR_STATUS, toPublicError } from "@/lib/domain/errors";
 import type { Permission } from "@/lib/domain/permissions";
-import { getActor, getActorFromHeaders } from "@/lib/auth/session";
+import { clientAddressFrom } from "@/lib/auth/client-address";
+import { getActor, getActorFromHeaders, getClientAddress } from "@/lib/auth/session";
 import { executeUseCase, runUseCase } from "./run";
 import type { UseCase } from "./use-case";
 
@@ -26,7 +27,7 @@ export function serverAction<P extends Permission, S extends z.ZodType, T>(
     try {
       const actor = await getActor();
       const raw = payload instanceof FormData ? readFormData(payload) : payload;
-      const { input, result } = await executeUseCase(useCase, { actor, input: raw });
+      const { input, result } = await executeUseCase(useCase, { actor, input: raw, ipAddress: await getClientAddress() });
       await options.then?.(result, input);
       return { ok: true, data: result };
     } catch (error) {
@@ -51,7 +52,7 @@ export function routeHandler<P extends Permission, S extends z.ZodType, T>(
       const actor: Actor | null = await getActorFromHeaders(request.headers);
       const params = (await context?.params) ?? {};
       const raw = { ...(await readRequestInput(request)), ...params };
-      const result = await runUseCase(useCase, { actor, input: raw });
+      const result = await runUseCase(useCase, { actor, input: raw, ipAddress: clientAddressFrom(request.headers) });
       return options.respond ? options.respond(result) : Response.json({ data: result ?? null });
     } catch (error) {
       unstable_rethrow(error);

@@ -9,7 +9,16 @@ import { AppError, DEFAULT_MESSAGES, type FieldErrors } from "@/lib/domain/error
 import { can, type Permission } from "@/lib/domain/permissions";
 import { recordAuditEvent } from "@/lib/data/audit";
 import { runInTransaction } from "@/lib/data/transaction";
+import type { AuditEventInput } from "@/lib/domain/audit-actions";
 import type { ActorFor, UseCase } from "./use-case";
+
+/** Who asks, with what, and from which client address (recorded with every audit event the call writes). */
+export type UseCaseRequest = { actor: Actor | null; input: unknown; ipAddress?: string | null };
+
+/** Writes the audit event of a refusal; a failure to write it is logged and does not hide the refusal. */
+async function recordRefusal(event: AuditEventInput): Promise<void> {
+  await recordAuditEvent(event).catch((error: unknown) => console.error("[gusset] could not audit a refused call:", error));
+}
 
 /** Throws "unauthenticated" or "forbidden"; returns the actor typed for the permission. */
 function authorizeOrThrow<P extends Permission>(actor: Actor | null, permission: P): ActorFor<P> {
@@ -38,7 +47,7 @@ function parseOrThrow<S extends z.ZodType>(schema: S, raw: unknown): z.infer<S> 
  */
 export async function runUseCase<P extends Permission, S extends z.ZodType, T>(
   useCase: UseCase<P, S, T>,
-  request: { actor: Actor | null; input: unknown },
+  request: UseCaseRequest,
 ): Promise<T> {
   return (await executeUseCase(useCase, request)).result;
 }
@@ -46,18 +55,40 @@ export async function runUseCase<P extends Permission, S extends z.ZodType, T>(
 /** runUseCase, also handing back the parsed input (for adapters that act on it after the commit). */
 export async function executeUseCase<P extends Permission, S extends z.ZodType, T>(
   useCase: UseCase<P, S, T>,
-  { actor, input: raw }: { actor: Actor | null; input: unknown },
+  { actor, input: raw, ipAddress = null }: UseCaseRequest,
 ): Promise<{ input: z.infer<S>; result: T }> {
-  const allowed = authorizeOrThrow(actor, useCase.permission);
-  const input = parseOrThrow(useCase.input, raw);
-  if (useCase.database === false) return { input, result: await useCase.run(input, { actor: allowed }) };
-  const work = useCase.run;
-  const audit = useCase.audit;
-  const result = await runInTransaction(async (tx) => {
-    const value = await work(input, { actor: allowed, tx });
-    const event = audit?.({ input, result: value, actor: allowed });
-    if (event) await recordAuditEvent({ actorId: allowed?.id ?? null, actorEmail: allowed?.email ?? null, ...event });
-    return value;
-  });
-  return { input, result };
+  let allowed: ActorFor<P>;
+  try {
+    allowed = authorizeOrThrow(actor, useCase.permission);
+  } catch (error) {
+    if (actor && error instanceof AppError && error.code === "forbidden") {
+      await recordRefusal({
+        action: "access.refused",
+        actorId: actor.id,
+        actorEmail: actor.email,
+        subject: null,
+        details: { useCase: useCase.name, permission: useCase.permission },
+        ipAddress,
+      });
+    }
+    throw error;
+  }
+  try {
+    const input = parseOrThrow(useCase.input, raw);
+    if (useCase.database === false) return { input, result: await useCase.run(input, { actor: allowed }) };
+    const work = useCase.run;
+    const audit = useCase.audit;
+    const result = await runInTransaction(async (tx) => {
+      const value = await work(input, { actor: allowed, tx });
+      const event = audit?.({ input, result: value, actor: allowed });
+      if (event)
+        await recordAuditEvent({ actorId: allowed?.id ?? null, actorEmail: allowed?.email ?? null, ipAddress, ...event });
+      return value;
+    });
+    return { input, result };
+  } catch (error) {
+    const event = useCase.auditFailure && error instanceof AppError ? useCase.auditFailure({ error, actor: allowed }) : null;
+    if (event) await recordRefusal({ actorId: allowed?.id ?? null, actorEmail: allowed?.email ?? null, ipAddress, ...event });
+    throw error;
+  }
 }

@@ -6,6 +6,7 @@ import type { Actor } from "@/lib/domain/actor";
 import type { AuditEventInput } from "@/lib/domain/audit-actions";
 import type { Permission } from "@/lib/domain/permissions";
 import type { Transaction } from "@/lib/data/transaction";
+import type { AppError } from "@/lib/domain/errors";
 
 /** A use case that requires a permission always sees a signed-in actor; a public one may see none. */
 export type ActorFor<P extends Permission> = P extends "public" ? Actor | null : Actor;
@@ -19,6 +20,12 @@ export type UseCaseContext<P extends Permission> = {
 /** For the few use cases that touch no data at all (liveness): no transaction is opened. */
 export type DatabaseFreeContext<P extends Permission> = { actor: ActorFor<P> };
 
+/**
+ * The audit event of a refused or failed call (bad input, a link that is no longer valid), written outside
+ * the rolled-back transaction. Refusals for lack of permission are audited by the runner for every use case.
+ */
+export type AuditFailure = (args: { error: AppError; actor: Actor | null }) => AuditEventInput | null;
+
 /** The audit event of a change; actor fields default to the actor who ran it. */
 export type AuditFor<P extends Permission, I, T> = (args: { input: I; result: T; actor: ActorFor<P> }) => AuditEventInput | null;
 
@@ -31,6 +38,7 @@ export type UseCase<P extends Permission, S extends z.ZodType, T> =
       run: (input: z.infer<S>, context: UseCaseContext<P>) => Promise<T>;
       /** null for reads: they change nothing, so they write no event. */
       audit: AuditFor<P, z.infer<S>, T> | null;
+      auditFailure?: AuditFailure;
       database?: true;
     }
   | {
@@ -39,6 +47,7 @@ export type UseCase<P extends Permission, S extends z.ZodType, T> =
       input: S;
       run: (input: z.infer<S>, context: DatabaseFreeContext<P>) => Promise<T>;
       audit: null;
+      auditFailure?: undefined;
       /** false: the work reads and writes nothing in the database, so no transaction is opened. */
       database: false;
     };

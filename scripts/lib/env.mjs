@@ -96,6 +96,9 @@ export function gussetEnv(profile, { secret, fakeMail = true }) {
     GUSSET_BASE_URL: appUrl,
   };
   if (fakeMail) env.FAKE_MAIL_API_URL = `http://127.0.0.1:${ports.mailApi}`;
+  // The test server believes X-Forwarded-For from 127.0.0.2 only, which tests/integration/security.test.ts
+  // connects from to play a load balancer; everything else on loopback is an ordinary client.
+  if (profile === "test") env.GUSSET_TRUSTED_PROXIES = "127.0.0.2";
   return env;
 }
 

@@ -1,4 +1,5 @@
-// The Next production server: `next start` on loopback, with a pid file so a second run knows it is ours.
+// The production server (scripts/serve.mjs: Next behind node:http, see there why) on loopback, with a pid
+// file so a second run knows it is ours.
 import fs from "node:fs";
 import path from "node:path";
 import { repoRoot } from "./env.mjs";
@@ -24,7 +25,7 @@ export function runningServerPid(layout, port) {
   const pidFile = pidFileFor(layout, port);
   if (!fs.existsSync(pidFile)) return null;
   const pid = Number.parseInt(fs.readFileSync(pidFile, "utf8"), 10);
-  if (pidAlive(pid) && commandLineOf(pid).includes("next") && cwdOf(pid) === fs.realpathSync(repoRoot)) return pid;
+  if (pidAlive(pid) && commandLineOf(pid).includes("serve.mjs") && cwdOf(pid) === fs.realpathSync(repoRoot)) return pid;
   fs.rmSync(pidFile, { force: true });
   return null;
 }
@@ -47,8 +48,8 @@ export async function stopServerByPid(pid) {
 export async function startServer({ env, layout, port, profile, registry }) {
   const logFile = path.join(layout.logs, `next-${profile}.log`);
   const child = spawnService(
-    path.join(repoRoot, "node_modules", ".bin", "next"),
-    ["start", "-H", "127.0.0.1", "-p", String(port)],
+    process.execPath,
+    [path.join(repoRoot, "scripts", "serve.mjs"), "--hostname", "127.0.0.1", "--port", String(port)],
     { cwd: repoRoot, env, logFile },
   );
   const pidFile = pidFileFor(layout, port);

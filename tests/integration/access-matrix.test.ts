@@ -14,7 +14,7 @@ import type { Actor } from "@/lib/domain/actor";
 import type { ActionState } from "@/lib/domain/action-state";
 import type { Role } from "@/lib/domain/roles";
 import { DEFAULT_MESSAGES } from "@/lib/domain/errors";
-import { expectRowsUnchanged, snapshotRows } from "../support/snapshot";
+import { expectRowsUnchanged, refusalWrites, snapshotRows } from "../support/snapshot";
 import { ACTION_FIXTURES, type ActionAnswer } from "./helpers/action-fixtures";
 import { createTestUser, sessionCount, signInHeaders } from "./helpers/people";
 
@@ -153,7 +153,7 @@ describe("server actions", () => {
       const before = await snapshotRows();
       const outcome = await callAction(action, input);
       expect(outcome).toEqual({ state: { ok: false, error: { code: expected, message: DEFAULT_MESSAGES[expected] } } });
-      await expectRowsUnchanged(before);
+      await expectRowsUnchanged(before, { except: refusalWrites(expected, actorFor[who]) });
     });
   }
 });
@@ -297,7 +297,7 @@ describe("route handlers", () => {
       const response = await handler(makeRequest(row, headers), { params: Promise.resolve({}) });
       expect(response.status).toBe(expected === "unauthenticated" ? 401 : 403);
       expect(await response.json()).toEqual({ error: { code: expected, message: DEFAULT_MESSAGES[expected] } });
-      await expectRowsUnchanged(before);
+      await expectRowsUnchanged(before, { except: refusalWrites(expected, cell.actor) });
     });
   }
 });

@@ -12,7 +12,7 @@ import { hashInvitationToken, listPendingInvitations } from "@/lib/data/invitati
 import { acceptInvitation, lookupInvitation } from "@/lib/use-cases/invitations";
 import { inviteUser, listPeople, revokeInvitation } from "@/lib/use-cases/people";
 import { runUseCase } from "@/lib/use-cases/run";
-import { expectNoChangeFrom } from "../support/snapshot";
+import { acceptFailureAudited, expectNoChangeFrom, refusalWrites, type ExpectedChange } from "../support/snapshot";
 import { auditEventsFor, createTestUser, inviteWithToken, sessionCount, uniqueEmail } from "./helpers/people";
 
 vi.mock("next/headers", () => ({ headers: async () => new Headers(), cookies: async () => ({ set: () => undefined }) }));
@@ -40,9 +40,17 @@ function submitAcceptForm(input: { token: string; password: string; confirmPassw
   return acceptInvitationAction(null, input);
 }
 
-/** The call is refused with this code and message, and no row of any table changes (refusals write no audit event, queue no job). */
-async function expectRefusal(call: () => Promise<unknown>, code: string, message: string) {
-  await expectNoChangeFrom(() => expect(call()).rejects.toMatchObject({ code, message }));
+/**
+ * The call is refused with this code and message, and no row of any table changes except the refusal's own
+ * audit event where there is one (a failed acceptance; a signed-in person refused for their role); no job.
+ */
+async function expectRefusal(call: () => Promise<unknown>, code: string, message: string, except: ExpectedChange[] = []) {
+  await expectNoChangeFrom(() => expect(call()).rejects.toMatchObject({ code, message }), { except });
+}
+
+/** Accepting is refused with this code and message; only the failed acceptance's audit event is written. */
+async function expectAcceptRefused(token: string, code: string, message: string, password?: string) {
+  await expectRefusal(() => accept(token, password), code, message, [acceptFailureAudited(code)]);
 }
 
 describe("invitations", () => {
@@ -95,7 +103,7 @@ describe("invitations", () => {
   it("refuses a used link with a clear message and changes nothing", async () => {
     const { token } = await inviteAndReadToken();
     await accept(token);
-    await expectRefusal(() => accept(token, "another-password-1"), "conflict", INVITATION_MESSAGES.used);
+    await expectAcceptRefused(token, "conflict", INVITATION_MESSAGES.used, "another-password-1");
   });
 
   it("refuses an expired link with a clear message and changes nothing", async () => {
@@ -105,12 +113,12 @@ describe("invitations", () => {
       .set({ expiresAt: new Date(Date.now() - 1000) })
       .where(eq(schema.invitations.id, invitation.id));
     expect(await lookup(token)).toMatchObject({ status: "expired" });
-    await expectRefusal(() => accept(token), "conflict", INVITATION_MESSAGES.expired);
+    await expectAcceptRefused(token, "conflict", INVITATION_MESSAGES.expired);
   });
 
   it("refuses an unknown link with a clear message and changes nothing", async () => {
     expect(await lookup("no-such-token")).toBeNull();
-    await expectRefusal(() => accept("no-such-token"), "not-found", INVITATION_MESSAGES.unknown);
+    await expectAcceptRefused("no-such-token", "not-found", INVITATION_MESSAGES.unknown);
   });
 
   it("refuses a withdrawn link, and a new invitation withdraws the previous one", async () => {
@@ -120,7 +128,7 @@ describe("invitations", () => {
     expect(await lookup(token)).toMatchObject({ status: "revoked" });
     const [replacing] = await auditEventsFor({ action: "users.invite", subject: `invitation:${again.id}` });
     expect(replacing.details).toEqual({ email, role: "engineer", replacedInvitations: [invitation.id] });
-    await expectRefusal(() => accept(token), "conflict", INVITATION_MESSAGES.revoked);
+    await expectAcceptRefused(token, "conflict", INVITATION_MESSAGES.revoked);
 
     const pending = (await listPendingInvitations()).filter((p) => p.email === email);
     expect(pending.map((p) => p.id)).toEqual([again.id]);
@@ -165,8 +173,14 @@ describe("invitations", () => {
         () => runUseCase(inviteUser, { actor, input: { email: uniqueEmail("x"), name: "X", role: "admin" } }),
         code,
         message,
+        refusalWrites(code, actor, "users.invite"),
       );
-      await expectRefusal(() => runUseCase(revokeInvitation, { actor, input: { invitationId: invitation.id } }), code, message);
+      await expectRefusal(
+        () => runUseCase(revokeInvitation, { actor, input: { invitationId: invitation.id } }),
+        code,
+        message,
+        refusalWrites(code, actor, "invitations.revoke"),
+      );
     }
     expect(await lookup(token)).toMatchObject({ status: "valid" });
 
@@ -187,21 +201,24 @@ describe("invitations", () => {
 
     // The revoked link now refuses, says why, and creates no account.
     expect(await lookup(token)).toMatchObject({ status: "revoked" });
-    await expectRefusal(() => accept(token), "conflict", INVITATION_MESSAGES.revoked);
+    await expectAcceptRefused(token, "conflict", INVITATION_MESSAGES.revoked);
     expect(await db.select().from(schema.user).where(eq(schema.user.email, invitation.email))).toEqual([]);
   });
 
   it("answers a too-short or mismatched password on the public form with field messages and writes nothing", async () => {
     const { token, email } = await inviteAndReadToken();
-    await expectNoChangeFrom(async () => {
-      const short = await submitAcceptForm({ token, password: "short", confirmPassword: "short" });
-      expect(short).toMatchObject({
-        ok: false,
-        error: { code: "invalid-input", fieldErrors: { password: ["Use at least 10 characters."] } },
-      });
-      const mismatch = await submitAcceptForm({ token, password: NEW_PASSWORD, confirmPassword: "something-else" });
-      expect(mismatch).toMatchObject({ ok: false, error: { fieldErrors: { confirmPassword: ["The two passwords differ."] } } });
-    });
+    await expectNoChangeFrom(
+      async () => {
+        const short = await submitAcceptForm({ token, password: "short", confirmPassword: "short" });
+        expect(short).toMatchObject({
+          ok: false,
+          error: { code: "invalid-input", fieldErrors: { password: ["Use at least 10 characters."] } },
+        });
+        const mismatch = await submitAcceptForm({ token, password: NEW_PASSWORD, confirmPassword: "something-else" });
+        expect(mismatch).toMatchObject({ ok: false, error: { fieldErrors: { confirmPassword: ["The two passwords differ."] } } });
+      },
+      { except: [{ ...acceptFailureAudited("invalid-input"), count: 2 }] },
+    );
     expect(await lookup(token)).toMatchObject({ status: "valid" });
 
     // The same form with a good password makes the account and sends the person home.

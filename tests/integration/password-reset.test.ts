@@ -13,7 +13,7 @@ async function requestReset(email: string, ip = uniqueIp()) {
   const response = await handleAuthRequest(
     new Request(`${BASE}/api/auth/request-password-reset`, {
       method: "POST",
-      headers: { "content-type": "application/json", origin: BASE, "x-forwarded-for": ip },
+      headers: { "content-type": "application/json", origin: BASE, "x-gusset-client-address": ip },
       body: JSON.stringify({ email }),
     }),
   );
@@ -32,13 +32,27 @@ function resetRequestAudited(email: string, knownUser: boolean): ExpectedChange 
       (row.details as { knownUser?: boolean }).knownUser === knownUser,
   };
 }
-function resetRequestCounted(ip: string): ExpectedChange {
-  return {
-    table: "rate_limit",
-    change: "added",
-    why: "the request counts against better-auth's per-address limit for reset requests",
-    where: (row) => row.key === `${ip}|/request-password-reset`,
-  };
+function resetRequestCounted(ip: string, email: string): ExpectedChange[] {
+  return [
+    {
+      table: "rate_limit",
+      change: "added",
+      why: "the request counts against better-auth's per-address limit for reset requests",
+      where: (row) => row.key === `${ip}|/request-password-reset`,
+    },
+    {
+      table: "rate_limit",
+      change: "added",
+      why: "the request counts against Gusset's per-address limit, checked before the answer",
+      where: (row) => row.key === `gusset:password-reset|${ip}`,
+    },
+    {
+      table: "rate_limit",
+      change: "added",
+      why: "the request counts against the per-address-mailed limit (reset e-mails to one address an hour)",
+      where: (row) => row.key === `gusset:password-reset-email|${email}`,
+    },
+  ];
 }
 
 /**
@@ -121,7 +135,7 @@ describe("password reset", () => {
     const asked = await requestReset(email, ip);
     expect(asked).toEqual(knownAnswer);
     expect(asked.status).toBe(200);
-    await expectRowsUnchanged(before, { except: [resetRequestAudited(email, false), resetRequestCounted(ip)] });
+    await expectRowsUnchanged(before, { except: [resetRequestAudited(email, false), ...resetRequestCounted(ip, email)] });
     expect(await mailTo(email)).toEqual([]);
   });
 
@@ -133,7 +147,7 @@ describe("password reset", () => {
     await expectRowsUnchanged(before, {
       except: [
         resetRequestAudited(actor.email, true),
-        resetRequestCounted(ip),
+        ...resetRequestCounted(ip, actor.email),
         {
           table: "verification",
           change: "added",

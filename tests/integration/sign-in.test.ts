@@ -13,7 +13,7 @@ async function post(path: string, body: unknown, { ip = uniqueIp(), origin = BAS
   const response = await handleAuthRequest(
     new Request(`${BASE}/api/auth${path}`, {
       method: "POST",
-      headers: { "content-type": "application/json", origin, "x-forwarded-for": ip, ...(cookie ? { cookie } : {}) },
+      headers: { "content-type": "application/json", origin, "x-gusset-client-address": ip, ...(cookie ? { cookie } : {}) },
       body: JSON.stringify(body),
     }),
   );
@@ -41,6 +41,16 @@ function attemptCounted(ip: string, email: string): ExpectedChange {
     change: "added or changed",
     why: "the attempt counts against the per-account-and-address sign-in limit",
     where: (row) => row.key === `gusset:sign-in|${ip}|${email}`,
+  };
+}
+
+/** …and against the per-account limit, from any address, until a sign-in succeeds. */
+function accountCounted(email: string): ExpectedChange {
+  return {
+    table: "rate_limit",
+    change: "added or changed",
+    why: "the attempt counts against the per-account sign-in limit",
+    where: (row) => row.key === `gusset:sign-in-account|${email}`,
   };
 }
 
@@ -81,6 +91,7 @@ describe("sign-in", () => {
       except: [
         failedSignInAudited(actor.email, "INVALID_EMAIL_OR_PASSWORD"),
         attemptCounted(ip, actor.email),
+        accountCounted(actor.email),
         addressCounted(ip, "/sign-in/email"),
       ],
     });
@@ -104,6 +115,7 @@ describe("sign-in", () => {
       except: [
         failedSignInAudited(email, "INVALID_EMAIL_OR_PASSWORD"),
         attemptCounted(ip, email),
+        accountCounted(email),
         addressCounted(ip, "/sign-in/email"),
       ],
     });
@@ -126,6 +138,7 @@ describe("sign-in", () => {
       except: [
         failedSignInAudited("not-an-address", "INVALID_EMAIL"),
         attemptCounted(ip, "not-an-address"),
+        accountCounted("not-an-address"),
         addressCounted(ip, "/sign-in/email"),
       ],
     });
@@ -152,9 +165,8 @@ describe("sign-in", () => {
     const result = await post("/sign-in/email", { email: actor.email, password }, { ip, origin: "https://evil.example", cookie });
     expect(result.status).toBe(403);
     expect(result.body.code).toBe("INVALID_ORIGIN");
-    // Only the two counters move. better-auth refuses the origin before its hooks run, so unlike the
-    // other refusals this one leaves no audit event (auditAuthEndpoint never sees it).
-    await expectRowsUnchanged(before, { except: [attemptCounted(ip, actor.email), addressCounted(ip, "/sign-in/email")] });
+    // Refused before anything is counted, and audited (handleAuthRequest checks the origin first).
+    await expectRowsUnchanged(before, { except: [failedSignInAudited(actor.email, "INVALID_ORIGIN")] });
     // 127.0.0.1 and localhost name the same demo server: both are trusted.
     const local = new URL(BASE);
     const twin = local.hostname === "127.0.0.1" ? "localhost" : local.hostname === "localhost" ? "127.0.0.1" : local.hostname;
@@ -210,7 +222,9 @@ describe("sign-in", () => {
     const before = await snapshotRows();
     expect((await post("/sign-in/email", { email, password: "guess-password" }, { ip })).status).toBe(429);
     // better-auth refuses it on its per-address count, which a refusal leaves as it was; ours counted
-    // the new account's first attempt.
-    await expectRowsUnchanged(before, { except: [failedSignInAudited(email, "RATE_LIMITED"), attemptCounted(ip, email)] });
+    // the new account's first attempt, per address and per account.
+    await expectRowsUnchanged(before, {
+      except: [failedSignInAudited(email, "RATE_LIMITED"), attemptCounted(ip, email), accountCounted(email)],
+    });
   });
 });

@@ -20,7 +20,14 @@ import { inviteUser } from "@/lib/use-cases/people";
 import { runUseCase } from "@/lib/use-cases/run";
 import { defineUseCase } from "@/lib/use-cases/use-case";
 import { waitForMessage } from "../support/mailbox";
-import { JOBS_TABLE, expectNoChangeFrom, expectRowsUnchanged, snapshotRows } from "../support/snapshot";
+import {
+  JOBS_TABLE,
+  expectNoChangeFrom,
+  expectRowsUnchanged,
+  refusalAudited,
+  refusalWrites,
+  snapshotRows,
+} from "../support/snapshot";
 import { auditEventsFor, createTestUser, signInHeaders, uniqueEmail } from "./helpers/people";
 
 // Server actions read the request through next/headers; here the "request" is whatever a test sets.
@@ -134,11 +141,13 @@ describe("runUseCase: who may run it", () => {
     for (const role of REFUSING_ROLES) {
       const { actor } = await createTestUser({ role });
       for (const input of [{ userId: "someone" }, { userId: "" }]) {
-        await expectNoChangeFrom(() =>
-          expect(runUseCase(guarded(work), { actor, input })).rejects.toMatchObject({
-            code: "forbidden",
-            message: DEFAULT_MESSAGES.forbidden,
-          }),
+        await expectNoChangeFrom(
+          () =>
+            expect(runUseCase(guarded(work), { actor, input })).rejects.toMatchObject({
+              code: "forbidden",
+              message: DEFAULT_MESSAGES.forbidden,
+            }),
+          { except: refusalWrites("forbidden", actor) },
         );
       }
     }
@@ -393,11 +402,11 @@ describe("serverAction", () => {
 
   it("refuses a role without the permission with 'forbidden' and writes nothing", async () => {
     for (const role of REFUSING_ROLES) {
-      await actAs(role);
+      const actor = await actAs(role);
       const before = await snapshotRows();
       const state = await invite(null, formData({ email: uniqueEmail("nope"), name: "Ann Example", role: "engineer" }));
       expect(state).toEqual({ ok: false, error: { code: "forbidden", message: "Your role does not allow this." } });
-      await expectRowsUnchanged(before);
+      await expectRowsUnchanged(before, { except: [refusalAudited(actor.id, "users.invite")] });
     }
   });
 
@@ -580,8 +589,12 @@ describe("routeHandler", () => {
   };
 
   async function headersOf(role: Role): Promise<Headers> {
+    return (await signedInAs(role)).headers;
+  }
+
+  async function signedInAs(role: Role): Promise<{ actor: Actor; headers: Headers }> {
     const { actor, password } = await createTestUser({ role });
-    return signInHeaders(actor.email, password);
+    return { actor, headers: await signInHeaders(actor.email, password) };
   }
 
   it("answers 401 JSON to an anonymous caller and writes nothing", async () => {
@@ -594,12 +607,12 @@ describe("routeHandler", () => {
 
   it("answers 403 JSON to a role without the permission and writes nothing", async () => {
     for (const role of ["lead", "engineer"] as const) {
-      const headers = await headersOf(role);
+      const { actor, headers } = await signedInAs(role);
       const before = await snapshotRows();
       const response = await call(headers);
       expect(response.status).toBe(403);
       expect(await response.json()).toEqual({ error: { code: "forbidden", message: "Your role does not allow this." } });
-      await expectRowsUnchanged(before);
+      await expectRowsUnchanged(before, { except: [refusalAudited(actor.id)] });
     }
   });
 

@@ -149,3 +149,34 @@ export async function expectNoChangeFrom<T>(call: () => Promise<T>, options: { e
   await expectRowsUnchanged(before, options);
   return result;
 }
+
+/**
+ * The one write a call refused for the caller's role makes: an "access.refused" audit event naming them
+ * (lib/use-cases/run.ts), and, when `useCase` is given, naming what they asked for.
+ */
+export function refusalAudited(actorId: string, useCase?: string): ExpectedChange {
+  return {
+    table: "audit_events",
+    change: "added",
+    why: "a call refused for the caller's role is audited",
+    where: (row) =>
+      row.action === "access.refused" &&
+      row.actor_id === actorId &&
+      (useCase === undefined || (row.details as { useCase?: string }).useCase === useCase),
+  };
+}
+
+/** What a refused call may write: the refusal's audit event when a signed-in person was refused for their role. */
+export function refusalWrites(code: string, actor: { id: string } | null | undefined, useCase?: string): ExpectedChange[] {
+  return code === "forbidden" && actor ? [refusalAudited(actor.id, useCase)] : [];
+}
+
+/** The one write a failed invitation acceptance makes: its audit event, with the error's code. */
+export function acceptFailureAudited(reason: string): ExpectedChange {
+  return {
+    table: "audit_events",
+    change: "added",
+    why: "a failed invitation acceptance is audited",
+    where: (row) => row.action === "invitations.accept.failed" && (row.details as { reason?: string }).reason === reason,
+  };
+}

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { redirect } from "next/navigation";
-import { getActor, safePath } from "@/lib/auth/session";
+import { getActor } from "@/lib/auth/session";
+import { safePath } from "@/lib/domain/safe-path";
 import { SignInForm } from "./_components/sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
@@ -12,7 +13,8 @@ const NOTICES: Record<string, string> = {
 
 export default async function SignInPage({ searchParams }: PageProps<"/sign-in">) {
   const params = await searchParams;
-  const next = safePath(typeof params.next === "string" && !params.next.startsWith("/sign-in") ? params.next : null);
+  const wanted = safePath(typeof params.next === "string" ? params.next : null);
+  const next = wanted === "/sign-in" || wanted.startsWith("/sign-in?") ? "/home" : wanted;
   // Someone already signed in has nothing to do here.
   if (await getActor()) redirect(next);
   const noticeKey = typeof params.notice === "string" ? params.notice : undefined;

@@ -2,17 +2,32 @@
 // Not server-only on purpose: the browser validates with the very same rules.
 import { z } from "zod";
 import { newPasswordField } from "../password-policy";
+import { plainText } from "./text";
 
-export const emailField = z
-  .string()
+/** The longest e-mail address SMTP can carry (RFC 5321's path limit less the angle brackets). */
+export const EMAIL_MAX_LENGTH = 254;
+
+export const emailField = plainText()
   .trim()
   .toLowerCase()
   .min(1, "Enter your e-mail address.")
+  .max(EMAIL_MAX_LENGTH, `An e-mail address has at most ${EMAIL_MAX_LENGTH} characters. Check what you typed.`)
   .pipe(z.email("Enter an e-mail address like name@firm.example."));
+
+/** The token of an e-mailed link: letters, digits, "-" and "_" only. */
+export function linkTokenField(incompleteLinkMessage: string) {
+  return z
+    .string()
+    .min(1, incompleteLinkMessage)
+    .max(200, incompleteLinkMessage)
+    .regex(/^[A-Za-z0-9_-]+$/, incompleteLinkMessage);
+}
 
 export const signInSchema = z.object({
   email: emailField,
-  password: z.string().min(1, "Enter your password."),
+  password: plainText("Passwords cannot hold control characters. Check what you typed.").pipe(
+    z.string().min(1, "Enter your password."),
+  ),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
 
@@ -23,7 +38,7 @@ export type RequestPasswordResetInput = z.infer<typeof requestPasswordResetSchem
 export function tokenWithNewPasswordSchema(incompleteLinkMessage: string) {
   return z
     .object({
-      token: z.string().min(1, incompleteLinkMessage),
+      token: linkTokenField(incompleteLinkMessage),
       password: newPasswordField,
       confirmPassword: z.string(),
     })

@@ -2,13 +2,20 @@
 import { z } from "zod";
 import { ROLES } from "../roles";
 import { emailField } from "./auth";
+import { plainText } from "./text";
 
 const roleField = z.enum(ROLES, { error: "Choose a role." });
-const userIdField = z.string().trim().min(1, "Choose a person.");
+// Ids are better-auth's: letters and digits. Anything else is not a person on this page.
+const userIdField = z
+  .string()
+  .trim()
+  .min(1, "Choose a person.")
+  .max(64, "Choose a person.")
+  .regex(/^[A-Za-z0-9_-]+$/, "Choose a person.");
 
 export const inviteUserSchema = z.object({
   email: emailField,
-  name: z.string().trim().min(1, "Enter the person's name.").max(120, "Use at most 120 characters."),
+  name: plainText().trim().min(1, "Enter the person's name.").max(120, "Use at most 120 characters."),
   role: roleField,
 });
 export type InviteUserInput = z.infer<typeof inviteUserSchema>;

@@ -1,0 +1,164 @@
+// Gusset's HTTP server: Next's request handler behind a plain node:http server, so the client's address
+// comes from the connection itself and not from whatever X-Forwarded-For a browser chooses to send.
+//
+//   node scripts/serve.mjs --hostname 127.0.0.1 --port 3000
+//
+// For every request it works out the client address once and hands it to the app in the
+// x-gusset-client-address header (any copy of that header the client sent is dropped first):
+// - when the connecting peer is one of GUSSET_TRUSTED_PROXIES (addresses or CIDR ranges, comma
+//   separated), the address is read from X-Forwarded-For, walking from the right past the trusted hops;
+// - otherwise it is the socket's own address, and X-Forwarded-For is removed so nothing downstream
+//   believes it.
+// Rate limits and the audit trail read only x-gusset-client-address (lib/auth/client-address.ts), and
+// only when this server set GUSSET_CLIENT_ADDRESS_FROM_SERVER, so `next start` run on its own cannot be
+// fooled by a forged header either: it records no address at all.
+import http from "node:http";
+import net from "node:net";
+import { parseArgs } from "node:util";
+import next from "next";
+
+export const CLIENT_ADDRESS_HEADER = "x-gusset-client-address";
+
+/** "127.0.0.1, 10.0.0.0/8, ::1" → a BlockList that answers "is this a trusted proxy?". */
+export function trustedProxyList(setting) {
+  const list = new net.BlockList();
+  for (const entry of (setting ?? "")
+    .split(",")
+    .map((item) => item.trim())
+    .filter(Boolean)) {
+    const [address, prefix] = entry.split("/");
+    const family = net.isIPv6(address) ? "ipv6" : net.isIPv4(address) ? "ipv4" : null;
+    if (!family) throw new Error(`GUSSET_TRUSTED_PROXIES: "${entry}" is not an IP address or CIDR range`);
+    if (prefix === undefined) list.addAddress(address, family);
+    else {
+      const bits = Number(prefix);
+      if (!/^\d+$/.test(prefix) || bits > (family === "ipv4" ? 32 : 128)) {
+        throw new Error(`GUSSET_TRUSTED_PROXIES: "${entry}" has a bad prefix length`);
+      }
+      list.addSubnet(address, bits, family);
+    }
+  }
+  return list;
+}
+
+/** "::ffff:192.0.2.1" → "192.0.2.1"; other addresses unchanged. */
+function plainAddress(address) {
+  const mapped = /^::ffff:(\d+\.\d+\.\d+\.\d+)$/i.exec(address ?? "");
+  return mapped ? mapped[1] : (address ?? null);
+}
+
+function isTrusted(list, address) {
+  if (!address) return false;
+  const family = net.isIPv6(address) ? "ipv6" : net.isIPv4(address) ? "ipv4" : null;
+  return family !== null && list.check(address, family);
+}
+
+/**
+ * The client's address for a request that reached us from `peer` with this X-Forwarded-For value.
+ * Only a trusted peer's forwarded chain is read; a malformed hop ends the walk at the last good one.
+ */
+export function resolveClientAddress(peer, forwardedFor, trusted) {
+  const from = plainAddress(peer);
+  if (!isTrusted(trusted, from) || typeof forwardedFor !== "string") return from;
+  const hops = forwardedFor
+    .split(",")
+    .map((hop) => plainAddress(hop.trim()))
+    .filter(Boolean);
+  let client = from;
+  for (let i = hops.length - 1; i >= 0; i--) {
+    if (net.isIP(hops[i]) === 0) break;
+    client = hops[i];
+    if (!isTrusted(trusted, hops[i])) break;
+  }
+  return client;
+}
+
+/** Next's own limit on a server action's body (serverActions.bodySizeLimit, 1 MB by default). */
+export const ACTION_BODY_LIMIT = 1024 * 1024;
+
+export const ACTION_MESSAGES = {
+  foreignOrigin: "This request did not come from a Gusset page. Open Gusset at its own address and try again.",
+  tooLarge: "This request is larger than Gusset accepts (1 MB). Shorten what you entered and try again.",
+  unreadable: "Gusset could not read this request. Reload the page and try again.",
+};
+
+function answer(res, status, message) {
+  res.writeHead(status, { "content-type": "text/plain; charset=utf-8", "cache-control": "no-store" });
+  res.end(`${message}\n`);
+}
+
+/**
+ * A server action (a POST carrying Next-Action) is refused before Next sees it when it comes from another
+ * site or is too large; Next would answer both with a bare 500. Any other 5xx Next gives an action is a
+ * body it could not decode (Gusset's own actions catch their errors and answer 200 with a message), so it
+ * becomes a 400 with a sentence. Returns true when the request has been answered here.
+ */
+export function guardServerAction(req, res) {
+  if (req.method !== "POST" || !req.headers["next-action"]) return false;
+  const origin = req.headers.origin;
+  const originHost = URL.canParse(origin ?? "") ? new URL(origin).host : null;
+  if (!originHost || originHost !== req.headers.host) {
+    answer(res, 403, ACTION_MESSAGES.foreignOrigin);
+    return true;
+  }
+  if (Number(req.headers["content-length"] ?? 0) > ACTION_BODY_LIMIT) {
+    answer(res, 413, ACTION_MESSAGES.tooLarge);
+    return true;
+  }
+  const writeHead = res.writeHead.bind(res);
+  const write = res.write.bind(res);
+  const end = res.end.bind(res);
+  let replaced = false;
+  res.writeHead = (status, ...rest) => {
+    if (status < 500) return writeHead(status, ...rest);
+    replaced = true;
+    for (const name of res.getHeaderNames()) res.removeHeader(name);
+    return writeHead(400, { "content-type": "text/plain; charset=utf-8", "cache-control": "no-store" });
+  };
+  res.write = (chunk, ...rest) => (replaced ? true : write(chunk, ...rest));
+  res.end = (...args) => {
+    if (!res.headersSent) res.writeHead(res.statusCode);
+    return replaced ? end(`${ACTION_MESSAGES.unreadable}\n`) : end(...args);
+  };
+  return false;
+}
+
+async function main() {
+  const { values } = parseArgs({
+    options: { hostname: { type: "string", default: "127.0.0.1" }, port: { type: "string", default: "3000" } },
+  });
+  const port = Number.parseInt(values.port, 10);
+  const trusted = trustedProxyList(process.env.GUSSET_TRUSTED_PROXIES);
+  // Read by lib/server-env.ts: the app believes x-gusset-client-address only under this server.
+  process.env.GUSSET_CLIENT_ADDRESS_FROM_SERVER = "1";
+  const app = next({ dev: false, hostname: values.hostname, port });
+  const handle = app.getRequestHandler();
+  await app.prepare();
+  const server = http.createServer((req, res) => {
+    const client = resolveClientAddress(req.socket.remoteAddress, req.headers["x-forwarded-for"], trusted);
+    delete req.headers[CLIENT_ADDRESS_HEADER];
+    if (!isTrusted(trusted, plainAddress(req.socket.remoteAddress))) delete req.headers["x-forwarded-for"];
+    if (client) req.headers[CLIENT_ADDRESS_HEADER] = client;
+    if (guardServerAction(req, res)) {
+      req.resume();
+      return;
+    }
+    handle(req, res);
+  });
+  server.listen(port, values.hostname, () => {
+    console.log(`Gusset serving on http://${values.hostname}:${port}`);
+  });
+  const stop = () => {
+    server.close(() => process.exit(0));
+    server.closeAllConnections();
+  };
+  process.on("SIGTERM", stop);
+  process.on("SIGINT", stop);
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) {
+  main().catch((error) => {
+    console.error(error);
+    process.exit(1);
+  });
+}

@@ -132,7 +132,11 @@ export function writeEnvLocal(env) {
   fs.writeFileSync(envLocalPath, `${lines.join("\n")}\n`, { mode: 0o600 });
 }
 
-/** The environment for a child process: ours on top of the inherited one. */
+/**
+ * The environment for a child process: ours on top of the inherited one, less the owner's and the
+ * superuser's database URLs should the shell have them: those are added only where needed (migrate, vitest).
+ */
 export function childEnv(gusset, extra = {}) {
-  return { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...gusset, ...extra };
+  const { DATABASE_OWNER_URL: _owner, DATABASE_ADMIN_URL: _admin, ...inherited } = process.env;
+  return { ...inherited, NEXT_TELEMETRY_DISABLED: "1", ...gusset, ...extra };
 }

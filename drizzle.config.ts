@@ -4,6 +4,7 @@ export default defineConfig({
   dialect: "postgresql",
   schema: "./db/schema/index.ts",
   out: "./drizzle",
-  dbCredentials: { url: process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/gusset" },
+  // Only the owner role may change the schema (see scripts/migrate.ts); the app's role cannot.
+  dbCredentials: { url: process.env.DATABASE_OWNER_URL ?? "postgres://gusset_owner@127.0.0.1:54329/gusset" },
   strict: true,
 });

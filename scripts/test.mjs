@@ -8,7 +8,7 @@ import { spawn } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { authSecret, childEnv, gussetEnv, portsFor, repoRoot } from "./lib/env.mjs";
+import { authSecret, childEnv, databaseUrlFor, gussetEnv, migrationEnv, portsFor, repoRoot } from "./lib/env.mjs";
 import { buildStaleness, ensureBuild } from "./lib/build.mjs";
 import { CHROMIUM_PACKAGE, POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
 import { createLifecycle, profileSetup } from "./lib/lifecycle.mjs";
@@ -82,8 +82,11 @@ await main(async () => {
   if (onlyUnitTests(vitestArgs)) say("only unit tests asked for: no database, fakes or server started");
   else await prepareEverything(env);
 
+  // The tests' own code runs as the app's role (DATABASE_URL) like the server and the worker; the owner's
+  // and the superuser's URLs are for fixtures only: scratch databases, migrations, the owner's view.
+  const testEnv = { ...env, ...migrationEnv("test"), DATABASE_ADMIN_URL: databaseUrlFor("test", "superuser", "postgres") };
   const reportFile = path.join(os.tmpdir(), `gusset-vitest-${process.pid}.json`);
-  const code = await timer.phase("vitest", () => runVitest(env, reportFile));
+  const code = await timer.phase("vitest", () => runVitest(testEnv, reportFile));
   const counts = countsLine(reportFile);
   await registry.stopAll();
   say(timer.summary());

@@ -1,8 +1,15 @@
-// The frame of a one-shot script against DATABASE_URL (scripts/migrate.ts, scripts/seed.ts): its own
-// one-connection pool, closed afterwards, and the process's exit code from the work's result.
+// The frame of a one-shot script against the database (scripts/migrate.ts as the owner role, scripts/seed.ts
+// as the app's role): its own one-connection pool, closed afterwards, and the process's exit code from the
+// work's result.
 import pg from "pg";
 
-export function runDatabaseScript(name: string, work: (pool: pg.Pool, url: string) => Promise<number>): void {
+type UrlVariable = "DATABASE_URL" | "DATABASE_OWNER_URL";
+
+export function runDatabaseScript(
+  name: string,
+  work: (pool: pg.Pool, url: string) => Promise<number>,
+  { urlVariable = "DATABASE_URL" }: { urlVariable?: UrlVariable } = {},
+): void {
   main().then(
     (code) => process.exit(code),
     (error: unknown) => {
@@ -12,9 +19,9 @@ export function runDatabaseScript(name: string, work: (pool: pg.Pool, url: strin
   );
 
   async function main(): Promise<number> {
-    const url = process.env.DATABASE_URL;
+    const url = process.env[urlVariable];
     if (!url) {
-      console.error(`${name}: DATABASE_URL is not set`);
+      console.error(`${name}: ${urlVariable} is not set`);
       return 1;
     }
     const pool = new pg.Pool({ connectionString: url, max: 1 });

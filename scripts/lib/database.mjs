@@ -1,4 +1,5 @@
-// Migrations, the demo seed and the demo sign-ins, each run through tsx against DATABASE_URL.
+// Migrations (as the owner role, DATABASE_OWNER_URL), the demo seed and the demo sign-ins (as the app's
+// role, DATABASE_URL), each run through tsx.
 import fs from "node:fs";
 import path from "node:path";
 import { repoRoot } from "./env.mjs";

@@ -27,6 +27,24 @@ export function databaseFor(profile) {
 }
 
 /**
+ * The two PostgreSQL roles: the owner runs the migrations and owns every table; the app (the Next
+ * server, the worker, the seed) logs in as a role that may only read and write rows. Neither is a
+ * superuser. Both log in over loopback without a password, like `postgres` (the cluster trusts 127.0.0.1).
+ */
+export const DATABASE_ROLES = { owner: "gusset_owner", app: "gusset_app" };
+
+/** `role`: "app", "owner", or "superuser" (`postgres`, for set-up and test fixtures only). */
+export function databaseUrlFor(profile, role, database = databaseFor(profile)) {
+  const user = role === "superuser" ? "postgres" : DATABASE_ROLES[role];
+  return `postgres://${user}@127.0.0.1:${portsFor(profile).postgres}/${database}`;
+}
+
+/** What the migrations read on top of the app's variables: the owner's connection. */
+export function migrationEnv(profile) {
+  return { DATABASE_OWNER_URL: databaseUrlFor(profile, "owner") };
+}
+
+/**
  * The state folder: `.gusset/` at the repo root, unless PostgreSQL (run as the `postgres` user when we
  * are root) could not reach it because a parent folder is closed to others; then a folder under /tmp
  * named after the repo path, so each checkout keeps its own.
@@ -76,12 +94,15 @@ export function authSecret() {
   return { secret: crypto.randomBytes(36).toString("base64url"), created: true };
 }
 
-/** The variables every Gusset process reads. `fakeMail` is false when a real SMTP server is configured. */
+/**
+ * The variables every Gusset process reads; DATABASE_URL is the app's role. The owner's URL is not among
+ * them (see migrationEnv): only the migrations get it. `fakeMail` is false when a real SMTP server is configured.
+ */
 export function gussetEnv(profile, { secret, fakeMail = true }) {
   const ports = portsFor(profile);
   const appUrl = `http://127.0.0.1:${ports.app}`;
   const env = {
-    DATABASE_URL: `postgres://postgres@127.0.0.1:${ports.postgres}/${databaseFor(profile)}`,
+    DATABASE_URL: databaseUrlFor(profile, "app"),
     BETTER_AUTH_SECRET: secret,
     BETTER_AUTH_URL: appUrl,
     SMTP_HOST: "127.0.0.1",
@@ -114,7 +135,11 @@ export function writeEnvLocal(env) {
   fs.writeFileSync(envLocalPath, `${lines.join("\n")}\n`, { mode: 0o600 });
 }
 
-/** The environment for a child process: ours on top of the inherited one. */
+/**
+ * The environment for a child process: ours on top of the inherited one, less the owner's and the
+ * superuser's database URLs should the shell have them: those are added only where needed (migrate, vitest).
+ */
 export function childEnv(gusset, extra = {}) {
-  return { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...gusset, ...extra };
+  const { DATABASE_OWNER_URL: _owner, DATABASE_ADMIN_URL: _admin, ...inherited } = process.env;
+  return { ...inherited, NEXT_TELEMETRY_DISABLED: "1", ...gusset, ...extra };
 }

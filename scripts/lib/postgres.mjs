@@ -9,7 +9,8 @@ function asClusterOwner(command, args) {
   return isRoot ? ["runuser", ["-u", "postgres", "--", command, ...args]] : [command, args];
 }
 
-function psql(port, database, sql, { allowFailure = false } = {}) {
+/** Runs SQL as the superuser `postgres` (trusted on loopback): set-up work only, never the app's. */
+export function psql(port, database, sql, { allowFailure = false } = {}) {
   const env = { ...process.env, PGCONNECT_TIMEOUT: "5" };
   const args = ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", "-d", database, "-v", "ON_ERROR_STOP=1"];
   return run(`${PG_BIN}/psql`, [...args, "-tAc", sql], { env, quiet: true, allowFailure });
@@ -130,18 +131,18 @@ export async function ensurePostgres({ layout, port, fast = false }) {
   };
 }
 
-export function createDatabaseIfMissing(port, name) {
+export function createDatabaseIfMissing(port, name, owner) {
   const exists = psql(port, "postgres", `select 1 from pg_database where datname = '${name}'`).stdout.trim() === "1";
   if (!exists) {
-    psql(port, "postgres", `create database "${name}"`);
+    psql(port, "postgres", `create database "${name}" owner "${owner}"`);
     say(`created database ${name}`);
   }
   return !exists;
 }
 
 /** Drops and recreates a database, closing whatever sessions still hold it. */
-export function recreateDatabase(port, name) {
+export function recreateDatabase(port, name, owner) {
   psql(port, "postgres", `drop database if exists "${name}" with (force)`);
-  psql(port, "postgres", `create database "${name}"`);
+  psql(port, "postgres", `create database "${name}" owner "${owner}"`);
   say(`recreated database ${name}`);
 }

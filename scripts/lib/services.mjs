@@ -2,8 +2,9 @@
 // fake SMTP and S3, and the background worker. The database chain and the fakes start side by side;
 // the worker once both are up (it needs the queue schema and sends to the fake SMTP).
 import { migrate, seed } from "./database.mjs";
+import { ensureDatabaseRoles, handDatabaseToOwner } from "./database-roles.mjs";
 import { ensureFakeS3, ensureFakeSmtp } from "./fakes.mjs";
-import { portsFor } from "./env.mjs";
+import { DATABASE_ROLES, migrationEnv, portsFor } from "./env.mjs";
 import { allOrFirstError, say } from "./processes.mjs";
 import { createDatabaseIfMissing, ensurePostgres, recreateDatabase } from "./postgres.mjs";
 import { runningServerPid } from "./server.mjs";
@@ -21,7 +22,7 @@ async function stopUnlessShared(postgres, { profile, layout }) {
 
 /**
  * `fresh` (npm test): drop and recreate the database, and start PostgreSQL without fsync when this run
- * is the one starting it.
+ * is the one starting it. The database belongs to the owner role (scripts/lib/database-roles.mjs).
  */
 export async function prepareServices({ setup, env, registry, timer, fresh }) {
   const { ports, layout, database, profile } = setup;
@@ -29,10 +30,13 @@ export async function prepareServices({ setup, env, registry, timer, fresh }) {
     await timer.phase("postgres", async () => {
       const postgres = await ensurePostgres({ layout, port: ports.postgres, fast: fresh });
       if (postgres.started) registry.add("PostgreSQL", () => stopUnlessShared(postgres, setup));
-      if (fresh) recreateDatabase(ports.postgres, database);
-      else createDatabaseIfMissing(ports.postgres, database);
+      ensureDatabaseRoles(ports.postgres);
+      if (fresh) recreateDatabase(ports.postgres, database, DATABASE_ROLES.owner);
+      else createDatabaseIfMissing(ports.postgres, database, DATABASE_ROLES.owner);
+      handDatabaseToOwner(ports.postgres, database); // a database from before the roles belongs to postgres
     });
-    await timer.phase("migrate", () => migrate(env));
+    // Only the migrations get the owner's URL; the seed, the worker and the server run as the app's role.
+    await timer.phase("migrate", () => migrate({ ...env, ...migrationEnv(profile) }));
     await timer.phase("seed", () => seed(env));
   };
   const fakes = () =>

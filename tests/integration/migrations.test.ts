@@ -1,11 +1,26 @@
 // The migrations in drizzle/ build the whole schema on an EMPTY database (a fresh one made for this
 // test on the same server, dropped afterwards), through the same script `npm start` runs; and what the
-// database itself enforces: append-only audit events and the role CHECKs.
+// database itself enforces: append-only audit events and the role CHECKs. The append-only triggers are
+// checked as the owner role, whom they stop too; the app's role is stopped before them, by its privileges
+// (database-role.test.ts).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { scratchDatabase, serverUrl, withClient } from "./helpers/scratch-database";
+import { appRole, ownerRole, ownerServerUrl, scratchDatabase, withClient } from "./helpers/scratch-database";
 
 const scratch = scratchDatabase("migrate");
 const freshUrl = scratch.url;
+const freshOwnerUrl = scratch.ownerUrl;
+
+/** Every access list of the database, its schemas and its relations, to show a second run grants nothing new. */
+const accessLists = () =>
+  withClient(freshOwnerUrl, async (client) => {
+    const { rows } = await client.query(
+      `select 'database' as kind, datname::text as name, datacl::text as acl from pg_database where datname = current_database()
+       union all select 'schema', nspname::text, nspacl::text from pg_namespace
+       union all select 'relation', oid::regclass::text, relacl::text from pg_class where relkind in ('r', 'p', 'v', 'S')
+       order by 1, 2`,
+    );
+    return rows;
+  });
 const runMigrate = () => scratch.runScript("scripts/migrate.ts");
 
 let firstRun: ReturnType<typeof runMigrate>;
@@ -21,15 +36,28 @@ afterAll(async () => {
 });
 
 describe("migrations on an empty database", () => {
-  it("apply cleanly with scripts/migrate.ts, and a second run applies nothing", () => {
+  it("apply cleanly with scripts/migrate.ts, and a second run applies nothing and grants nothing new", async () => {
     expect(firstRun.status, firstRun.stderr).toBe(0);
+    expect(firstRun.stdout).toMatch(
+      new RegExp(`privileges of ${appRole} set on \\d+ tables \\(\\d+ of the job queue; append-only: audit_events\\)`),
+    );
+    const before = await accessLists();
     const second = runMigrate();
     expect(second.status, second.stderr).toBe(0);
     expect(second.stdout).toMatch(/ 0 new migration/);
+    expect(await accessLists()).toEqual(before);
+  }, 60_000);
+
+  it("refuse to run when the app's role is the owner, and change nothing", async () => {
+    const before = await accessLists();
+    const run = scratch.runScript("scripts/migrate.ts", [], { DATABASE_URL: freshOwnerUrl.toString() });
+    expect(run.status).toBe(1);
+    expect(run.stderr).toContain(`DATABASE_URL and DATABASE_OWNER_URL both log in as ${ownerRole}`);
+    expect(await accessLists()).toEqual(before);
   }, 60_000);
 
   it("create every table the app uses", async () => {
-    const tables = await withClient(freshUrl, async (client) => {
+    const tables = await withClient(freshOwnerUrl, async (client) => {
       const result = await client.query(
         "select table_name from information_schema.tables where table_schema = 'public' order by 1",
       );
@@ -48,8 +76,8 @@ describe("migrations on an empty database", () => {
     ]);
   });
 
-  it("make audit_events append-only: INSERT works, UPDATE, DELETE and TRUNCATE raise", async () => {
-    await withClient(freshUrl, async (client) => {
+  it("make audit_events append-only, for the owner too: INSERT works, UPDATE, DELETE and TRUNCATE raise", async () => {
+    await withClient(freshOwnerUrl, async (client) => {
       await client.query("insert into audit_events (action) values ('test.append')");
       await expect(client.query("update audit_events set action = 'test.changed'")).rejects.toThrow(/append-only: UPDATE/);
       await expect(client.query("delete from audit_events")).rejects.toThrow(/append-only: DELETE/);
@@ -74,8 +102,8 @@ describe("migrations on an empty database", () => {
 });
 
 describe("the test database", () => {
-  it("refuses to change or delete its audit events too", async () => {
-    await withClient(serverUrl, async (client) => {
+  it("refuses to change or delete its audit events too, even to the owner", async () => {
+    await withClient(ownerServerUrl, async (client) => {
       const { rows } = await client.query("insert into audit_events (action) values ('test.append-only') returning id");
       const id = rows[0].id as string;
       await expect(client.query("update audit_events set details = '{\"x\":1}' where id = $1", [id])).rejects.toThrow(

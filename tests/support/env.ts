@@ -6,7 +6,12 @@ function read(name: string, fallback: string): string {
 }
 
 export const testEnv = {
-  databaseUrl: read("DATABASE_URL", "postgres://postgres@127.0.0.1:54329/gusset_test"),
+  /** The app's role, as the server and the worker connect. */
+  databaseUrl: read("DATABASE_URL", "postgres://gusset_app@127.0.0.1:54329/gusset_test"),
+  /** The owner role, which runs the migrations: for checks of what the owner sees. */
+  ownerDatabaseUrl: read("DATABASE_OWNER_URL", "postgres://gusset_owner@127.0.0.1:54329/gusset_test"),
+  /** The superuser, on the maintenance database: only to create and drop scratch databases. */
+  adminDatabaseUrl: read("DATABASE_ADMIN_URL", "postgres://postgres@127.0.0.1:54329/postgres"),
   baseUrl: read("GUSSET_BASE_URL", "http://127.0.0.1:3100"),
   mailApiUrl: read("FAKE_MAIL_API_URL", "http://127.0.0.1:2581"),
   mailFrom: read("MAIL_FROM", "Gusset <no-reply@gusset.example>"),

@@ -21,6 +21,7 @@ import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "@/lib/domain/password-
 import { renderPasswordResetMail } from "@/lib/mail/templates";
 import { enqueueJob } from "@/lib/jobs/enqueue";
 import { serverEnv } from "@/lib/server-env";
+import { ACCOUNT_LOCKED_MESSAGE } from "@/lib/domain/schemas/auth";
 import { bodyHasControlCharacters } from "@/lib/domain/schemas/text";
 import { CLIENT_ADDRESS_HEADER, clientAddressFrom } from "./client-address";
 
@@ -42,8 +43,7 @@ export const SIGN_IN_ADDRESS_RATE_LIMIT = { window: 60, max: 30 };
  */
 export const ACCOUNT_SIGN_IN_LIMIT = { window: 15 * 60, max: 10 };
 export const ACCOUNT_LOCKED_CODE = "ACCOUNT_LOCKED";
-export const ACCOUNT_LOCKED_MESSAGE =
-  "Too many failed sign-ins for this e-mail address. Wait 15 minutes, or set a new password with “Forgot your password?”.";
+export { ACCOUNT_LOCKED_MESSAGE };
 /** Reset requests from one client address per minute. */
 export const PASSWORD_RESET_RATE_LIMIT = { window: 60, max: 3 };
 /** Reset e-mails to one address per hour: more requests are answered the same way but send nothing. */

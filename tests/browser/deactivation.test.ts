@@ -3,6 +3,7 @@
 // words. Reactivation lets them back in. The person is created by invitation in this run.
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, expect, it } from "vitest";
+import { pool } from "@/db";
 import { launchBrowser } from "../support/browser";
 import { appUrl } from "../support/env";
 import {
@@ -42,9 +43,14 @@ it(
     await page.goto(appUrl("/projects"));
     await page.getByTestId("projects-table").waitFor();
 
-    // The admin deactivates them.
+    // The admin deactivates them; the audit trail has the address the admin's browser connected from.
     await people.goto();
     await people.deactivate(person.email);
+    const { rows } = await pool.query(
+      "select ip_address from audit_events where action = 'users.deactivate' and details->>'email' = $1",
+      [person.email],
+    );
+    expect(rows).toEqual([{ ip_address: "127.0.0.1" }]);
 
     // Their next navigation — client-side, through the menu — lands on sign-in.
     await page.getByTestId("nav-home").click();

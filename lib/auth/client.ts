@@ -11,6 +11,7 @@
 // for the sentence to show. Invitations are not here: they go through our own server actions.
 import { createAuthClient } from "better-auth/react";
 import { inferAdditionalFields } from "better-auth/client/plugins";
+import { ACCOUNT_LOCKED_MESSAGE } from "@/lib/domain/schemas/auth";
 import type { Auth } from "./server";
 
 export const authClient = createAuthClient({
@@ -29,9 +30,7 @@ const MESSAGES: Record<string, string> = {
   USER_NOT_FOUND: "This reset link is invalid, used or expired. Ask for a new one.",
   INVALID_ORIGIN: "This page's address does not match Gusset's. Reload and try again.",
   MISSING_OR_NULL_ORIGIN: "This page's address does not match Gusset's. Reload and try again.",
-  // The server's own sentence (lib/auth/server.ts ACCOUNT_LOCKED_MESSAGE) is shown when it sends one.
-  ACCOUNT_LOCKED:
-    "Too many failed sign-ins for this e-mail address. Wait 15 minutes, or set a new password with “Forgot your password?”.",
+  ACCOUNT_LOCKED: ACCOUNT_LOCKED_MESSAGE,
 };
 
 /** A sentence for the person, whatever better-auth answered. */

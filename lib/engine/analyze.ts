@@ -10,6 +10,7 @@ import { assembleStiffness } from "./stiffness";
 import { appliedNodalLoads, caseFixedEndForces, casePrescribed, caseRhs } from "./load-vector";
 import { buildDofMap, DofKind, globalDof, RZ, type DofMap } from "./dofs";
 import { factorStiffness, relativeResidual } from "./solve";
+import { rigidBodyMotions } from "./rigid-body";
 import { equilibriumResidual, fullDisplacements, recoverForces, type CaseResult, type CaseVectors } from "./results";
 import { combineCases, envelopeResults, type EnvelopeResult } from "./combinations";
 import { unstableError, type EngineError, type EngineWarning } from "./diagnostics";
@@ -147,6 +148,10 @@ export function analyze(input: unknown): AnalysisOutcome {
   const { ctx, dofs, K } = stiffness;
   const { model } = ctx;
   const tAssembled = performance.now();
+
+  // A structure the supports let move as a whole is said to be so, before a pivot fails at some node.
+  const rigid = rigidBodyMotions(model, ctx.members);
+  if (rigid.length > 0) return { ok: false, errors: rigid };
 
   // K is factored once; every load case reuses the factor.
   let factor: CholeskyFactor | null = null;

@@ -3,6 +3,7 @@
  * a schema cannot phrase well: non-finite numbers (named by path), references between ids, member lengths,
  * property signs, and load positions along members.
  */
+import { z } from "zod";
 import { ModelSchema, type Load, type Model } from "./model";
 import { formatPath, type EngineError } from "./diagnostics";
 import { DOF_NAMES } from "./dofs";
@@ -271,8 +272,19 @@ export interface ValidModel {
 
 export type ValidationOutcome = ({ ok: true } & ValidModel) | { ok: false; errors: EngineError[] };
 
+/**
+ * zod names an unknown key but not the ones it would have accepted; a person who typed `Fy` or `suport` needs
+ * the list to fix it. The issue carries the object schema that refused the key, so its shape gives the list.
+ */
+const unknownKeyMessages: z.core.$ZodErrorMap = (issue) => {
+  if (issue.code !== "unrecognized_keys" || !(issue.inst instanceof z.ZodObject)) return undefined;
+  const keys = issue.keys.map((k) => `"${k}"`).join(", ");
+  const valid = Object.keys(issue.inst.shape).join(", ");
+  return `unknown key${issue.keys.length > 1 ? "s" : ""} ${keys}; the valid keys here are ${valid}`;
+};
+
 export function validateModel(input: unknown): ValidationOutcome {
-  const parsed = ModelSchema.safeParse(input);
+  const parsed = ModelSchema.safeParse(input, { error: unknownKeyMessages });
   if (!parsed.success) {
     // The schema rejects NaN and ±Infinity too; name those precisely, by path, before anything else.
     const nonFinite: EngineError[] = [];

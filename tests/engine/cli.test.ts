@@ -52,6 +52,6 @@ describe("npm run analyze", () => {
   it("prints errors as JSON and exits non-zero for an unstable model", () => {
     const { status, json } = runCli(example("unstable.json"));
     expect(status).toBe(1);
-    expect(json).toEqual({ ok: false, errors: [expect.objectContaining({ kind: "unstable", direction: "ux" })] });
+    expect(json).toEqual({ ok: false, errors: [expect.objectContaining({ kind: "rigid-body", motion: "slide-x" })] });
   }, 30_000);
 });

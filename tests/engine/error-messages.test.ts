@@ -186,13 +186,67 @@ describe("refusals name what is wrong, where", () => {
   });
 
   it("a node nothing holds in rotation is named with the words an engineer uses", () => {
-    // A pinned base and a free tip: the whole member swings about A, and B is the first free equation.
+    // A truss member carries no moment, so a couple on its free end B has nothing to turn against.
+    const errors = errorsAfter((m) => {
+      m.members[0].kind = "truss";
+      m.loadCases[0].loads.push({ kind: "nodal", node: "B", mz: 1 });
+    });
+    expect(errors).toEqual([
+      { kind: "unstable", node: "B", direction: "rz", message: "Node B is free to rotate (mechanism or missing support)" },
+    ]);
+  });
+
+  it("a part free to move is named by node and direction", () => {
+    // B hangs between two collinear truss members: nothing holds it in y, though the supports hold the whole.
+    const errors = errorsAfter((m) => {
+      m.nodes[1] = { id: "B", x: 4, y: 0 };
+      m.nodes.push({ id: "C", x: 8, y: 0, support: { uy: "fixed" } });
+      m.members = [
+        { id: "AB", start: "A", end: "B", kind: "truss", E, A },
+        { id: "BC", start: "B", end: "C", kind: "truss", E, A },
+      ];
+    });
+    expect(errors).toEqual([
+      { kind: "unstable", node: "B", direction: "uy", message: "Node B is free to move in y (mechanism or missing support)" },
+    ]);
+  });
+
+  it("a structure the supports let slide is said to slide, not pinned on one node", () => {
+    const errors = errorsAfter((m) => {
+      m.nodes[0].support = { uy: "fixed" };
+      m.nodes[1].support = { uy: "fixed" };
+    });
+    expect(errors).toEqual([
+      { kind: "rigid-body", motion: "slide-x", message: "The structure can slide in x as a whole: no support restrains x" },
+    ]);
+  });
+
+  it("a structure whose reactions all pass through one point is said to turn about it", () => {
+    // A pinned base and a free tip: the whole member swings about A.
     const errors = errorsAfter((m) => {
       m.nodes[0].support = { ux: "fixed", uy: "fixed", rz: "free" };
       m.nodes[1].support = { ux: "free", uy: "free", rz: "free" };
     });
     expect(errors).toEqual([
-      { kind: "unstable", node: "B", direction: "rz", message: "Node B is free to rotate (mechanism or missing support)" },
+      {
+        kind: "rigid-body",
+        motion: "turn",
+        about: { x: 0, y: 0 },
+        node: "A",
+        message:
+          "The structure can turn as a whole about node A (x = 0 m, y = 0 m): every support reaction acts through that point and nothing holds the structure in rotation",
+      },
+    ]);
+  });
+
+  it("a key the model does not know is named with the keys it would accept", () => {
+    const errors = errorsAfter((m) => m.loadCases[0].loads.push({ kind: "nodal", node: "B", Fy: -1 }));
+    expect(errors).toEqual([
+      {
+        kind: "invalid-model",
+        path: "loadCases[0].loads[0]",
+        message: 'loadCases[0].loads[0]: unknown key "Fy"; the valid keys here are kind, node, fx, fy, mz',
+      },
     ]);
   });
 });

@@ -1,0 +1,126 @@
+/**
+ * Whole-structure mechanisms are named as such (lib/engine/rigid-body.ts): a plane structure whose supports
+ * leave x, y or rotation free, or whose reactions are all concurrent or all parallel, moves as a rigid body
+ * (common practice: improper supports). Local mechanisms keep the node-and-direction message.
+ */
+import { describe, expect, it } from "vitest";
+import { analyze, type ModelInput } from "@/lib/engine";
+import { A, E, I } from "./helpers";
+
+type Support = NonNullable<ModelInput["nodes"][number]["support"]>;
+
+function errorsOf(model: ModelInput) {
+  const out = analyze(model);
+  if (out.ok) throw new Error("expected the analysis to refuse the model");
+  return out.errors;
+}
+
+/** A triangle truss A(0,0) – B(6,0) – C(3,4) with the given supports and a load at C. */
+function triangle(supports: { A?: Support; B?: Support; C?: Support }): ModelInput {
+  const truss = (id: string, start: string, end: string) => ({ id, start, end, kind: "truss" as const, E, A });
+  return {
+    nodes: [
+      { id: "A", x: 0, y: 0, support: supports.A },
+      { id: "B", x: 6, y: 0, support: supports.B },
+      { id: "C", x: 3, y: 4, support: supports.C },
+    ],
+    members: [truss("AB", "A", "B"), truss("BC", "B", "C"), truss("CA", "C", "A")],
+    loadCases: [{ id: "P", loads: [{ kind: "nodal", node: "C", fy: -10e3 }] }],
+  };
+}
+
+describe("the supports let the whole structure move", () => {
+  it("no support in x: it slides in x", () => {
+    expect(errorsOf(triangle({ A: { uy: "fixed" }, B: { uy: "fixed" } }))).toEqual([
+      { kind: "rigid-body", motion: "slide-x", message: "The structure can slide in x as a whole: no support restrains x" },
+    ]);
+  });
+
+  it("no support in y: it slides in y", () => {
+    expect(errorsOf(triangle({ A: { ux: "fixed" }, C: { ux: "fixed" } }))).toEqual([
+      { kind: "rigid-body", motion: "slide-y", message: "The structure can slide in y as a whole: no support restrains y" },
+    ]);
+  });
+
+  it("no support at all: it slides both ways and turns", () => {
+    expect(errorsOf(triangle({})).map((e) => e.message)).toEqual([
+      "The structure can slide in x as a whole: no support restrains x",
+      "The structure can slide in y as a whole: no support restrains y",
+      "The structure can turn as a whole about any point: no support restrains it",
+    ]);
+  });
+
+  it("reactions concurrent at a point that is no node: it turns about that point", () => {
+    // x held at C (line y = 4), y held at A (line x = 0): both reactions pass through (0, 4).
+    expect(errorsOf(triangle({ A: { uy: "fixed" }, C: { ux: "fixed" } }))).toEqual([
+      {
+        kind: "rigid-body",
+        motion: "turn",
+        about: { x: 0, y: 4 },
+        message:
+          "The structure can turn as a whole about the point x = 0 m, y = 4 m: every support reaction acts through that point and nothing holds the structure in rotation",
+      },
+    ]);
+  });
+
+  it("x held on one line only: it slides in y and turns about that line", () => {
+    const errors = errorsOf(triangle({ A: { ux: "fixed" }, B: { ux: "fixed" } }));
+    expect(errors.map((e) => e.kind === "rigid-body" && e.motion)).toEqual(["slide-y", "turn"]);
+    expect(errors[1]).toMatchObject({ line: { y: 0 } });
+  });
+
+  it("a rotational support at a truss node holds nothing in rotation", () => {
+    const errors = errorsOf(triangle({ A: { ux: "fixed", uy: "fixed", rz: "fixed" } }));
+    expect(errors).toEqual([expect.objectContaining({ kind: "rigid-body", motion: "turn", node: "A" })]);
+  });
+
+  it("a support at a node no member reaches holds nothing", () => {
+    const model = triangle({ A: { uy: "fixed" }, B: { uy: "fixed" } });
+    model.nodes.push({ id: "loose", x: 9, y: 9, support: { ux: "fixed", uy: "fixed", rz: "fixed" } });
+    expect(errorsOf(model)).toEqual([expect.objectContaining({ kind: "rigid-body", motion: "slide-x" })]);
+  });
+});
+
+describe("supports that hold the whole structure", () => {
+  it("a pin and a roller at another x: analysed", () => {
+    expect(analyze(triangle({ A: { ux: "fixed", uy: "fixed" }, B: { uy: "fixed" } })).ok).toBe(true);
+  });
+
+  it("a single fixed base of a frame member (a cantilever): analysed", () => {
+    const model: ModelInput = {
+      nodes: [
+        { id: "A", x: 0, y: 0, support: { ux: "fixed", uy: "fixed", rz: "fixed" } },
+        { id: "B", x: 0, y: 3 },
+      ],
+      members: [{ id: "AB", start: "A", end: "B", E, A, I }],
+      loadCases: [{ id: "H", loads: [{ kind: "nodal", node: "B", fx: 1e3 }] }],
+    };
+    expect(analyze(model).ok).toBe(true);
+  });
+
+  it("springs count as supports", () => {
+    const spring = { kind: "spring" as const, stiffness: 1e6 };
+    expect(analyze(triangle({ A: { ux: spring, uy: spring }, B: { uy: spring } })).ok).toBe(true);
+  });
+
+  it("a local mechanism is still named by node and direction", () => {
+    // Pinned bases at different x hold the whole; a beam hinged at both knees lets the portal sway.
+    const model: ModelInput = {
+      nodes: [
+        { id: "A", x: 0, y: 0, support: { ux: "fixed", uy: "fixed" } },
+        { id: "B", x: 0, y: 4 },
+        { id: "C", x: 8, y: 4 },
+        { id: "D", x: 8, y: 0, support: { ux: "fixed", uy: "fixed" } },
+      ],
+      members: [
+        { id: "AB", start: "A", end: "B", E, A, I },
+        { id: "BC", start: "B", end: "C", E, A, I, releases: { startMoment: true, endMoment: true } },
+        { id: "DC", start: "D", end: "C", E, A, I },
+      ],
+      loadCases: [{ id: "W", loads: [{ kind: "nodal", node: "B", fx: 1e3 }] }],
+    };
+    const errors = errorsOf(model);
+    expect(errors).toEqual([expect.objectContaining({ kind: "unstable" })]);
+    expect(errors[0].message).toMatch(/^Node [BC] is free to (move in [xy]|rotate) \(mechanism or missing support\)$/);
+  });
+});

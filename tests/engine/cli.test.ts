@@ -113,6 +113,7 @@ describe("the default report", () => {
     expect(stdout).toContain("Units: forces kN, lengths m, moments kN·m, deflections mm (the model is read in N, m, Pa)");
     expect(stdout).toContain("M positive sagging");
     expect(stdout).toContain('Load case D "Dead"');
+    expect(stdout).toContain("2 nodes, 1 member, 3 equations; 1 load case, 0 combinations");
     expect(stdout).toContain("Warnings: none");
   });
 
@@ -162,7 +163,8 @@ describe("the default report", () => {
   it("in kip and ft, deflections in inches (1 ft = 0.3048 m, 1 lbf = 4.4482216152605 N: NIST SP 811 (2008), Appendix B)", () => {
     const { code, stdout } = run("beam.json", "--units", "kip,ft");
     expect(code).toBe(EXIT.ok);
-    expect(stdout).toContain("Units: forces kip, lengths ft, moments kip·ft, deflections in");
+    expect(stdout).toContain("Units: forces kip, lengths ft, moments kip·ft, deflections in (inches)");
+    expect(stdout).toContain("(exact by definition, NIST SP 811 (2008), Appendix B)");
     const kip = 4448.2216152605;
     expectShown(cells(stdout, "  Reactions", "A")[2], R / kip);
     const [, , , Mplus, , delta] = cells(stdout, "  Members", "AB");

@@ -94,7 +94,8 @@ function jsonText(value: unknown, compact: boolean): string {
 
 export function runAnalyze(argv: ReadonlyArray<string>, io: CliIo): CliOutcome {
   const options = parseArguments(argv);
-  if (typeof options === "string") return { code: EXIT.cannotRun, stdout: "", stderr: `${options}\n\n${USAGE}` };
+  if (typeof options === "string")
+    return { code: EXIT.cannotRun, stdout: "", stderr: `${options}\n(npm run analyze -- --help lists the options)\n` };
   if (options.help) return { code: EXIT.ok, stdout: USAGE, stderr: "" };
   if (options.schema) return { code: EXIT.ok, stdout: jsonText(modelJsonSchema(), options.compact), stderr: "" };
   const file = options.file!;

@@ -73,17 +73,23 @@ function isSupported(node: Model["nodes"][number]): boolean {
   return !!s && (s.ux !== "free" || s.uy !== "free" || s.rz !== "free");
 }
 
+function count(n: number, word: string): string {
+  return `${n} ${word}${n === 1 ? "" : "s"}`;
+}
+
 function header(input: ReportInput, resultCount: number): string[] {
-  const { result, units, source } = input;
+  const { result, units: u, source } = input;
   const s = result.stats;
-  const u = units;
-  const cases = Object.keys(result.loadCases).length;
-  const combos = Object.keys(result.combinations).length;
+  const identity = engineIdentityLabel({ version: result.engineVersion, sourceHash: result.engineSourceHash });
+  const cases = count(Object.keys(result.loadCases).length, "load case");
+  const combos = count(Object.keys(result.combinations).length, "combination");
+  const deflection = u.deflection.name ? `${u.deflection.symbol} (${u.deflection.name})` : u.deflection.symbol;
   return [
-    `${source}: linear elastic analysis, Gusset frame engine ${engineIdentityLabel({ version: result.engineVersion, sourceHash: result.engineSourceHash })}`,
-    `${s.nodes} nodes, ${s.members} members, ${s.equations} equations; ${cases} load case${cases === 1 ? "" : "s"}, ${combos} combination${combos === 1 ? "" : "s"}${resultCount === 0 ? " (nothing to report)" : ""}`,
+    `${source}: linear elastic analysis, Gusset frame engine ${identity}`,
+    `${count(s.nodes, "node")}, ${count(s.members, "member")}, ${count(s.equations, "equation")}; ${cases}, ${combos}${resultCount === 0 ? " (nothing to report)" : ""}`,
     "",
-    `Units: forces ${u.force.symbol}, lengths ${u.length.symbol}, moments ${u.moment.symbol}, deflections ${u.deflection.symbol} (the model is read in N, m, Pa)`,
+    `Units: forces ${u.force.symbol}, lengths ${u.length.symbol}, moments ${u.moment.symbol}, deflections ${deflection} (the model is read in N, m, Pa)`,
+    ...(u.conversions ? [`  ${u.conversions}`] : []),
     "Signs: reactions are the forces the supports apply, along global x (right) and y (up), moments counter-clockwise;",
     "  N is positive in tension; M positive sagging (tension on the member's local -y face); deflection along local y.",
     "  N, V and deflection: the value of largest magnitude along the member, with its sign; M: the largest and smallest.",

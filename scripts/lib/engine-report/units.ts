@@ -8,6 +8,8 @@ export interface Unit {
   readonly symbol: string;
   /** How many SI units (N, m, N·m) one of this unit is. */
   readonly size: number;
+  /** Spelled out where the symbol alone could be misread ("deflections in"). */
+  readonly name?: string;
 }
 
 export interface UnitSystem {
@@ -19,6 +21,8 @@ export interface UnitSystem {
   readonly moment: Unit;
   /** Deflections: mm in SI practice, inches in US practice. */
   readonly deflection: Unit;
+  /** Where the conversion factors come from, for the report's header; none for SI. */
+  readonly conversions?: string;
 }
 
 const FOOT = 0.3048;
@@ -41,7 +45,9 @@ export const UNIT_SYSTEMS: ReadonlyArray<UnitSystem> = [
     force: { symbol: "kip", size: KIP },
     length: { symbol: "ft", size: FOOT },
     moment: { symbol: "kip·ft", size: KIP * FOOT },
-    deflection: { symbol: "in", size: INCH },
+    deflection: { symbol: "in", size: INCH, name: "inches" },
+    conversions:
+      "1 ft = 0.3048 m, 1 in = 0.0254 m, 1 kip = 1000 lbf = 4448.2216152605 N (exact by definition, NIST SP 811 (2008), Appendix B)",
   },
 ];
 

@@ -7,7 +7,8 @@
 import { ENGINE_SOURCE_HASH } from "./identity.generated";
 
 /** Semantic version of the engine. Bump it when results change, then run `npm run engine:golden`. */
-export const ENGINE_VERSION = "0.1.0";
+// 0.2.0: a structure that can move as a whole is refused with the new error kind `rigid-body`.
+export const ENGINE_VERSION = "0.2.0";
 
 export interface EngineIdentity {
   readonly version: string;

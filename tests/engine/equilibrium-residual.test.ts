@@ -42,6 +42,12 @@ describe("equilibriumResidual", () => {
     expect(equilibriumResidual(twoNodes, [0, 0, 0, 0, 0, 0], [0, 0, 0, 0, 0, 0])).toEqual({ fx: 0, fy: 0, mz: 0, relative: 0 });
   });
 
+  it("keeps the sign of an unbalanced horizontal force", () => {
+    // 5 applied to the right at (2, 1), 2 of reaction to the left at (0, 0): 3 to the right is left over.
+    // ΣM about the origin = −1·5 = −5. Force part 3 / 7; moment part 5 / 5 = 1.
+    expect(equilibriumResidual(twoNodes, [0, 0, 0, 5, 0, 0], [-2, 0, 0, 0, 0, 0])).toEqual({ fx: 3, fy: 0, mz: -5, relative: 1 });
+  });
+
   it("is reported with every analysed load case, near rounding", () => {
     const result = analyzeOrThrow(
       lineBeam(

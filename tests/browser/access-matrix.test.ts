@@ -138,7 +138,8 @@ const API_ROUTES: Record<string, ApiRow> = {
   "GET /api/health/route": {
     path: "/api/health",
     expect: same<ApiOutcome>("ok"),
-    ok: (answer) => expect([answer.status, jsonOf(answer)]).toEqual([200, { ok: true }]),
+    ok: (answer) =>
+      expect([answer.status, jsonOf(answer)]).toEqual([200, { status: "ok", checks: { database: "up", queue: "up" } }]),
   },
   "HEAD /api/health/route": {
     path: "/api/health",

@@ -48,7 +48,7 @@ export const LAYERS = {
   },
   components: { may: ["components", "lib/domain", "lib/engine"], types: ["lib/data", "lib/use-cases"] },
   app: { may: ["app", "components", "lib/use-cases", "lib/auth", "lib/domain", "lib/engine"], types: ["lib/data"] },
-  // proxy.ts, before every request: security headers from the settings.
+  // proxy.ts, before every request: security headers from the settings, and the database check.
   proxy: { may: ["lib/use-cases", "lib/domain", "lib/server-env"] },
 };
 

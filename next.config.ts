@@ -1,4 +1,5 @@
 import type { NextConfig } from "next";
+import { OUTAGE_PAGE_PATH, OUTAGE_REQUEST_HEADER } from "./lib/domain/outage";
 import { securityHeaders } from "./lib/domain/security-headers";
 
 const nextConfig: NextConfig = {
@@ -15,6 +16,18 @@ const nextConfig: NextConfig = {
   async headers() {
     const headers = Object.entries(securityHeaders({})).map(([key, value]) => ({ key, value }));
     return [{ source: "/:path*", headers }];
+  },
+  // While the database cannot be reached, proxy.ts marks a page request with this header (and answers
+  // 503); this shows the outage page in its place. A rewrite from proxy.ts itself would do the same, but
+  // Next proxies such a rewrite over HTTP, back into the proxy, when it was started with -H 127.0.0.1
+  // (vercel/next.js#94745); a rewrite here stays inside the server. proxy.ts drops the header from
+  // every incoming request, so only an outage sets it.
+  async rewrites() {
+    return {
+      beforeFiles: [{ source: "/:path*", has: [{ type: "header", key: OUTAGE_REQUEST_HEADER }], destination: OUTAGE_PAGE_PATH }],
+      afterFiles: [],
+      fallback: [],
+    };
   },
 };
 

@@ -73,6 +73,8 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     expect: { ...signedInPage("admin"), admin: mailboxInUse ? "ok" : "not-found" },
   },
   "/_not-found/page": { path: "/no-such-page-here", expect: same<PageOutcome>("not-found") },
+  // The outage page: proxy.ts shows it in place of a page only while the database is down; asked for directly, 404.
+  "/unavailable/page": { path: "/unavailable", expect: same<PageOutcome>("not-found") },
 };
 
 /** Framework entries with no route of their own to probe. */

@@ -32,6 +32,7 @@ const PAGES: Record<string, { path: string; status: number | "mailbox" }> = {
   "/(app)/admin/users/page": { path: "/admin/users", status: 200 },
   "/(app)/admin/mailbox/page": { path: "/admin/mailbox", status: "mailbox" }, // 404 when a real SMTP server is used
   "/_not-found/page": { path: "/no-such-page-here", status: 404 },
+  "/unavailable/page": { path: "/unavailable", status: 404 }, // only shown while the database is down
 };
 /** Framework entries with no address of their own. */
 const NOT_PAGES = new Set(["/_global-error/page"]);

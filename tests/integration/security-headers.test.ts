@@ -99,6 +99,17 @@ describe("security headers over http", () => {
     expect(seen.size).toBe(3);
   });
 
+  it("on the outage page's address, which is a 404 while the database is up", async () => {
+    // The header only the proxy may set is dropped when a client sends it.
+    const { response, text } = await get("/unavailable", { "x-gusset-outage": "/home" });
+    expect(response.status).toBe(404);
+    expect(text).not.toContain("cannot reach its database");
+    expectSecurityHeaders(response, "page");
+    const home = await get("/home", { ...Object.fromEntries(admin), "x-gusset-outage": "/home" });
+    expect(home.response.status).toBe(200);
+    expect(home.text).toContain("<title>Home · Gusset</title>");
+  });
+
   it("on a route handler, signed out and signed in", async () => {
     const health = await get("/api/health");
     expect(health.response.status).toBe(200);

@@ -18,7 +18,7 @@ export default async function Unavailable() {
   return (
     <StatusPage
       code="503"
-      title="Gusset cannot reach its database"
+      title="Gusset is unavailable for a moment"
       testId="unavailable-page"
       action={
         // A full page load, not a client navigation: the proxy checks the database again.
@@ -28,10 +28,7 @@ export default async function Unavailable() {
       }
     >
       <p data-testid="unavailable-message">Gusset cannot reach its database; try again in a minute.</p>
-      <p>
-        Nothing was changed by opening this page. If it lasts longer than a few minutes, tell your firm&apos;s Gusset admin: the
-        server is running, but its database is not answering.
-      </p>
+      <p>Nothing was changed by opening this page. If it lasts more than a few minutes, tell your firm&apos;s Gusset admin.</p>
     </StatusPage>
   );
 }

@@ -115,7 +115,8 @@ describe("every page for a signed-in admin", () => {
   it("navigates in the client (chunks loaded by trusted scripts) with no CSP violation", async () => {
     const page = await adminPage();
     const violations = await watchViolations(page);
-    await page.goto(appUrl("/home"), { waitUntil: "load" });
+    const response = await page.goto(appUrl("/home"), { waitUntil: "load" });
+    expect(response?.headers()["content-security-policy"]).toMatch(/'strict-dynamic'/);
     await page.evaluate(() => ((window as unknown as { __samePage: boolean }).__samePage = true));
     await page.getByTestId("nav-admin-users").click();
     await page.waitForURL((url) => url.pathname === "/admin/users");

@@ -11,6 +11,7 @@ import prettierRecommended from "eslint-plugin-prettier/recommended";
 
 /** Our own top-level modules, as imported through the `@/` alias. */
 const MODULES = [
+  "proxy",
   "app",
   "components",
   "lib/use-cases",
@@ -47,6 +48,8 @@ export const LAYERS = {
   },
   components: { may: ["components", "lib/domain", "lib/engine"], types: ["lib/data", "lib/use-cases"] },
   app: { may: ["app", "components", "lib/use-cases", "lib/auth", "lib/domain", "lib/engine"], types: ["lib/data"] },
+  // proxy.ts, before every request: security headers from the settings, and the database check.
+  proxy: { may: ["lib/use-cases", "lib/domain", "lib/server-env"] },
 };
 
 const LAYER_MESSAGE = "crosses the layer table (DEVELOPERS.md, Layout): call the layer meant for it instead.";
@@ -118,8 +121,8 @@ function layerBlocks() {
   });
   for (const [folder, layer] of Object.entries(LAYERS)) {
     const patterns = restrictionsFor(folder, layer);
-    if (folder === "lib/server-env") {
-      blocks.push(block(["lib/server-env.ts"], patterns, folder));
+    if (folder === "lib/server-env" || folder === "proxy") {
+      blocks.push(block([`${folder}.ts`], patterns, folder));
     } else if (folder === "app" || folder === "components") {
       blocks.push(block([`${folder}/**/*.{ts,tsx,js,mjs}`], patterns, folder));
     } else {

@@ -1,4 +1,4 @@
-import { defineConfig } from "vitest/config";
+import { configDefaults, defineConfig } from "vitest/config";
 import path from "node:path";
 
 // `server-only` throws outside React's server environment; tests import server modules directly.
@@ -7,10 +7,12 @@ const alias = {
   "server-only": path.resolve(import.meta.dirname, "tests/support/server-only.ts"),
 };
 
-// Three projects: unit (pure code, engine), integration (real PostgreSQL, fake SMTP/S3 started by
-// scripts/test.mjs), browser (playwright-core driving Debian's chromium against a served build).
+// Four projects: unit (pure code, engine), integration (real PostgreSQL, fake SMTP/S3 started by
+// scripts/test.mjs), browser (playwright-core driving Debian's chromium against a served build), and
+// outage (stops PostgreSQL under the served build and starts it again, so it runs alone, last).
 // groupOrder runs them one after the other, so integration tests and browser journeys never share
 // the test database at the same moment.
+const OUTAGE_TESTS = ["tests/integration/database-outage.test.ts"];
 export default defineConfig({
   resolve: { alias },
   test: {
@@ -29,6 +31,7 @@ export default defineConfig({
         test: {
           name: "integration",
           include: ["tests/integration/**/*.test.ts"],
+          exclude: [...configDefaults.exclude, ...OUTAGE_TESTS],
           environment: "node",
           // Tests that call handlers in-process stand in for scripts/serve.mjs: they set the client's
           // address in x-gusset-client-address themselves (lib/auth/client-address.ts).
@@ -49,6 +52,17 @@ export default defineConfig({
           testTimeout: 60_000,
           hookTimeout: 120_000,
           sequence: { groupOrder: 2 },
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: "outage",
+          include: OUTAGE_TESTS,
+          environment: "node",
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+          sequence: { groupOrder: 3 },
         },
       },
     ],

@@ -11,6 +11,11 @@ const sans = localFont({
   variable: "--font-gusset-sans",
 });
 
+// Every page renders per request: proxy.ts gives each response a fresh script nonce, which Next stamps on
+// the scripts it writes while rendering; a page prerendered at build time would carry none, and the
+// Content-Security-Policy would block its scripts. (Pages read the session anyway; this covers the rest.)
+export const dynamic = "force-dynamic";
+
 export const metadata: Metadata = {
   title: { default: "Gusset", template: "%s · Gusset" },
   description: "The firm's library of calculation standards.",

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { GussetMark } from "@/components/gusset-mark";
 import { buttonClasses } from "@/components/ui/button";
 
-// The frame for 403 and 404 pages. A 403 from a signed-in page renders inside the shell (which has
+// The frame for the 403, 404 and 503 pages. A 403 from a signed-in page renders inside the shell (which has
 // the brand already), a 404 for an unknown address renders alone: the `in-[.app-shell-main]` variants
 // drop the brand and the full height when an ancestor is the shell's main area.
 export function StatusPage({
@@ -10,11 +10,14 @@ export function StatusPage({
   title,
   children,
   testId,
+  action,
 }: {
   code: string;
   title: string;
   children: React.ReactNode;
   testId: string;
+  /** The one button; by default back to the home page. */
+  action?: React.ReactNode;
 }) {
   return (
     <section className="grid min-h-dvh place-items-center px-6 in-[.app-shell-main]:min-h-[60dvh]" data-testid={testId}>
@@ -27,9 +30,11 @@ export function StatusPage({
         <h1 className="mt-1 text-2xl font-semibold tracking-tight text-ink-950">{title}</h1>
         <div className="mt-3 space-y-3 text-[0.95rem] leading-relaxed text-ink-700">{children}</div>
         <div className="mt-8 flex gap-3">
-          <Link href="/home" className={buttonClasses("primary")}>
-            Go to your home page
-          </Link>
+          {action ?? (
+            <Link href="/home" className={buttonClasses("primary")}>
+              Go to your home page
+            </Link>
+          )}
         </div>
       </div>
     </section>

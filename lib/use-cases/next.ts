@@ -7,10 +7,12 @@ import { unstable_rethrow } from "next/navigation";
 import type { z } from "zod";
 import type { ActionState } from "@/lib/domain/action-state";
 import type { Actor } from "@/lib/domain/actor";
-import { AppError, ERROR_STATUS, toPublicError } from "@/lib/domain/errors";
+import { AppError, ERROR_STATUS, isDatabaseUnavailable, toPublicError, type PublicError } from "@/lib/domain/errors";
+import { RETRY_AFTER_SECONDS } from "@/lib/domain/outage";
 import type { Permission } from "@/lib/domain/permissions";
 import { clientAddressFrom } from "@/lib/auth/client-address";
 import { getActor, getActorFromHeaders, getClientAddress } from "@/lib/auth/session";
+import { readDatabaseState } from "./health";
 import { executeUseCase, runUseCase } from "./run";
 import type { UseCase } from "./use-case";
 
@@ -41,7 +43,7 @@ export function serverAction<P extends Permission, S extends z.ZodType, T>(
  * For route handlers: reads the input from the JSON or form body (POST/PUT/PATCH) or the search
  * params (GET/HEAD/DELETE), plus the route's params; answers `{ data }` with 200, or `respond(result)`
  * for a shape of its own, and `{ error: { code, message, fieldErrors? } }` with 400/401/403/404/409/
- * 422/429/500.
+ * 422/429/500, or 503 `unavailable` (with Retry-After) while the database cannot be reached.
  */
 export function routeHandler<P extends Permission, S extends z.ZodType, T>(
   useCase: UseCase<P, S, T>,
@@ -49,17 +51,56 @@ export function routeHandler<P extends Permission, S extends z.ZodType, T>(
 ): (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response> {
   return async (request, context) => {
     try {
-      const actor: Actor | null = await getActorFromHeaders(request.headers);
+      const actor = await readActor(useCase.permission, request.headers);
       const params = (await context?.params) ?? {};
       const raw = { ...(await readRequestInput(request)), ...params };
       const result = await runUseCase(useCase, { actor, input: raw, ipAddress: clientAddressFrom(request.headers) });
       return options.respond ? options.respond(result) : Response.json({ data: result ?? null });
     } catch (error) {
       unstable_rethrow(error);
-      const publicError = toPublicError(error);
-      return Response.json({ error: publicError }, { status: ERROR_STATUS[publicError.code] });
+      return errorResponse(toPublicError(error));
     }
   };
+}
+
+function errorResponse(publicError: PublicError): Response {
+  const status = ERROR_STATUS[publicError.code];
+  const headers: HeadersInit = status === 503 ? { "Retry-After": String(RETRY_AFTER_SECONDS) } : {};
+  return Response.json({ error: publicError }, { status, headers });
+}
+
+/**
+ * For the one route handler that is not a use case (better-auth's endpoints, which catch their own errors
+ * and answer 500): while the database cannot be reached, a 5xx answer, or a thrown connection error,
+ * becomes the API's 503 `unavailable` like every other route's.
+ */
+export function answerOutages(handler: (request: Request) => Promise<Response>): (request: Request) => Promise<Response> {
+  return async (request) => {
+    let response: Response;
+    try {
+      response = await handler(request);
+    } catch (error) {
+      if (!isDatabaseUnavailable(error)) throw error;
+      return errorResponse(toPublicError(error));
+    }
+    if (response.status < 500) return response;
+    const database = await runUseCase(readDatabaseState, { actor: null, input: {} });
+    return database === "up" ? response : errorResponse(toPublicError(new AppError("unavailable")));
+  };
+}
+
+/**
+ * The caller of a route. A public use case serves anonymous callers anyway, so when the session cannot
+ * be read because the database is down it runs as one: the health check must answer exactly then, even
+ * for a browser that sends its session cookie.
+ */
+async function readActor(permission: Permission, requestHeaders: Headers): Promise<Actor | null> {
+  try {
+    return await getActorFromHeaders(requestHeaders);
+  } catch (error) {
+    if (permission === "public" && isDatabaseUnavailable(error)) return null;
+    throw error;
+  }
 }
 
 /** FormData → plain object; repeated keys become arrays; Next's own $ACTION_ fields are dropped. */

@@ -83,13 +83,3 @@ export const readSelf = defineUseCase({
   run: async (_input, { actor }) => ({ id: actor.id, name: actor.name, email: actor.email, role: actor.role }),
   audit: null,
 });
-
-/** Liveness (GET /api/health): public, and says nothing a prober could use. */
-export const readHealth = defineUseCase({
-  name: "health.read",
-  permission: "public",
-  input: z.object({}).passthrough(),
-  run: async () => ({ ok: true as const }),
-  audit: null,
-  database: false,
-});

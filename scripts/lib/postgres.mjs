@@ -108,27 +108,19 @@ export async function ensurePostgres({ layout, port, fast = false }) {
     throw new SetupError(`PostgreSQL did not start:\n${result.stdout}${result.stderr}\n${tail}`);
   }
   say(`PostgreSQL started on 127.0.0.1:${port}${fast ? " (fsync off, for tests)" : ""}`);
-  return {
-    started: true,
-    stop: async () => {
-      const pid = readPostmasterPid(layout.pgData);
-      if (pid !== null && !pidAlive(pid)) {
-        fs.rmSync(path.join(layout.pgData, "postmaster.pid"), { force: true }); // died already: pg_ctl would wait on it
-        return;
-      }
-      const [stopCmd, stopArgs] = asClusterOwner(`${PG_BIN}/pg_ctl`, [
-        "-D",
-        layout.pgData,
-        "-m",
-        "fast",
-        "-w",
-        "-t",
-        "30",
-        "stop",
-      ]);
-      run(stopCmd, stopArgs, { quiet: true });
-    },
-  };
+  return { started: true, stop: async () => stopPostgres({ layout }) };
+}
+
+/** Stops the cluster in the layout's data folder (fast: open sessions are ended); a dead one is cleaned up. */
+export async function stopPostgres({ layout }) {
+  const pid = readPostmasterPid(layout.pgData);
+  if (pid === null) return;
+  if (!pidAlive(pid)) {
+    fs.rmSync(path.join(layout.pgData, "postmaster.pid"), { force: true }); // died already: pg_ctl would wait on it
+    return;
+  }
+  const [stopCmd, stopArgs] = asClusterOwner(`${PG_BIN}/pg_ctl`, ["-D", layout.pgData, "-m", "fast", "-w", "-t", "30", "stop"]);
+  run(stopCmd, stopArgs, { quiet: true });
 }
 
 export function createDatabaseIfMissing(port, name, owner) {

@@ -17,7 +17,7 @@ import { DEFAULT_MESSAGES } from "@/lib/domain/errors";
 import { ACTION_FIXTURES, type ActionAnswer } from "../integration/helpers/action-fixtures";
 import { appUrl, testEnv } from "../support/env";
 import { DEMO_BY_ROLE, demoSession, isFakeMailInUse, journeyTimeout, whoAmI, type SessionCookie } from "../support/pages";
-import { expectRowsUnchanged, snapshotRows, type ExpectedChange } from "../support/snapshot";
+import { expectRowsUnchanged, refusalWrites, snapshotRows, type ExpectedChange } from "../support/snapshot";
 
 type Who = "anonymous" | Role;
 const EVERYONE: Who[] = ["anonymous", "admin", "lead", "engineer", "auditor"];
@@ -73,6 +73,8 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     expect: { ...signedInPage("admin"), admin: mailboxInUse ? "ok" : "not-found" },
   },
   "/_not-found/page": { path: "/no-such-page-here", expect: same<PageOutcome>("not-found") },
+  // The outage page: proxy.ts shows it in place of a page only while the database is down; asked for directly, 404.
+  "/unavailable/page": { path: "/unavailable", expect: same<PageOutcome>("not-found") },
 };
 
 /** Framework entries with no route of their own to probe. */
@@ -138,7 +140,8 @@ const API_ROUTES: Record<string, ApiRow> = {
   "GET /api/health/route": {
     path: "/api/health",
     expect: same<ApiOutcome>("ok"),
-    ok: (answer) => expect([answer.status, jsonOf(answer)]).toEqual([200, { ok: true }]),
+    ok: (answer) =>
+      expect([answer.status, jsonOf(answer)]).toEqual([200, { status: "ok", checks: { database: "up", queue: "up" } }]),
   },
   "HEAD /api/health/route": {
     path: "/api/health",
@@ -255,10 +258,17 @@ function urlOfRouteEntry(entry: string): string {
 // ---- asking the server ---------------------------------------------------------------------------
 
 const sessions = {} as Record<Who, SessionCookie | null>;
+/** Who each session is, by id: a role refused by the use-case runner is named in its audit event. */
+const actors = {} as Record<Who, { id: string } | null>;
 
 beforeAll(async () => {
   sessions.anonymous = null;
-  for (const role of ROLES) sessions[role] = await demoSession(role);
+  actors.anonymous = null;
+  for (const role of ROLES) {
+    sessions[role] = await demoSession(role);
+    const me = await fetch(appUrl("/api/me"), { headers: { Cookie: sessions[role]! } });
+    actors[role] = (await me.json()) as { id: string };
+  }
 }, journeyTimeout(4));
 
 const headersFor = (who: Who): Record<string, string> => (sessions[who] ? { Cookie: sessions[who]! } : {});
@@ -456,7 +466,8 @@ describe("server actions", () => {
           actual[who] = "ok";
           continue;
         }
-        const answer = await unchangedBy(true, () => callAction(who, action, input));
+        // The runner's one write for a signed-in person refused for their role: the access.refused audit event.
+        const answer = await unchangedBy(true, () => callAction(who, action, input), refusalWrites(expected, actors[who]));
         const refusal = { state: { ok: false, error: { code: expected, message: DEFAULT_MESSAGES[expected] } } };
         actual[who] = isDeepStrictEqual(answer, refusal) ? expected : `answered ${JSON.stringify(answer)}`;
       }

@@ -202,7 +202,7 @@ const ROUTES: RouteRow[] = [
     expected: PUBLIC,
     succeeded: async (response) => {
       expect(response.status).toBe(200);
-      expect(await response.json()).toEqual({ ok: true });
+      expect(await response.json()).toEqual({ status: "ok", checks: { database: "up", queue: "up" } });
     },
   },
   {

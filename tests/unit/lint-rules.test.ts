@@ -31,6 +31,7 @@ describe("the database handle", () => {
     "lib/auth/session.ts",
     "lib/use-cases/people.ts",
     "lib/mail/send-mail.ts",
+    "proxy.ts",
   ])("is refused in %s", async (filePath) => {
     for (const code of DB_IMPORTS) expect(await restrictedImports(filePath, `${code}\nexport const x = db;`)).not.toEqual([]);
   });
@@ -112,6 +113,11 @@ describe("the layer table", () => {
     ["app/(app)/x/page.tsx", "@/lib/data/users", false],
     ["app/(app)/x/page.tsx", "@/lib/jobs/enqueue", false],
     ["app/(app)/x/page.tsx", "@/db/schema", false],
+    ["proxy.ts", "@/lib/use-cases/health", true],
+    ["proxy.ts", "@/lib/server-env", true],
+    ["proxy.ts", "@/lib/data/health", false],
+    ["proxy.ts", "@/lib/auth/session", false],
+    ["app/(app)/x/page.tsx", "@/proxy", false],
   ];
   it.each(CASES)("%s importing %s: allowed %s", async (filePath, specifier, allowed) => {
     const messages = await restrictedImports(filePath, `import * as m from "${specifier}";\nexport const x = m;`);

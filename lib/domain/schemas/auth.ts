@@ -1,6 +1,6 @@
 // Shared by the sign-in and password forms (react-hook-form's zodResolver) and the server.
 // Not server-only on purpose: the browser validates with the very same rules.
-import { z } from "zod";
+import { z } from "../zod";
 import { newPasswordField } from "../password-policy";
 import { plainText } from "./text";
 

@@ -1,6 +1,6 @@
 // The invitation link page and the admin's invitation list: schemas, and what each state of a link
 // tells the person holding it.
-import { z } from "zod";
+import { z } from "../zod";
 import { tokenWithNewPasswordSchema } from "./auth";
 
 export const acceptInvitationSchema = tokenWithNewPasswordSchema(

@@ -1,7 +1,7 @@
 // Text a person types (names, e-mail addresses, passwords, ids from links): no control characters and no
 // bidirectional controls. A NUL byte cannot be stored in PostgreSQL text at all, and a right-to-left override
 // in a name turns "Engineer · admin" into "reenignE · admin" wherever the name is shown.
-import { z } from "zod";
+import { z } from "../zod";
 
 // C0 controls, DEL, C1 controls.
 // eslint-disable-next-line no-control-regex -- control characters are exactly what is refused here

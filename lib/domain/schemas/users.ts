@@ -1,5 +1,5 @@
 // One schema per people-management use case, shared by the admin forms and the server actions.
-import { z } from "zod";
+import { z } from "../zod";
 import { ROLES } from "../roles";
 import { emailField } from "./auth";
 import { plainText } from "./text";

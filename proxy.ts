@@ -44,6 +44,8 @@ export async function proxy(request: NextRequest): Promise<NextResponse> {
   const requestHeaders = new Headers(request.headers);
   requestHeaders.set("Content-Security-Policy", headers["Content-Security-Policy"]);
   requestHeaders.delete(OUTAGE_REQUEST_HEADER); // only the proxy may ask for the outage page
+  // The page's own address, for the sign-in page's ?next= (lib/auth/session.ts); set here, never the client's.
+  requestHeaders.set("x-gusset-path", `${request.nextUrl.pathname}${request.nextUrl.search}`);
 
   const outage = isPageRead(request) && (await runUseCase(readDatabaseState, { actor: null, input: {} })) === "down";
   // next.config.ts rewrites a request that carries this header to the outage page; the status set here stays.

@@ -82,8 +82,18 @@ export const ACTION_MESSAGES = {
   unreadable: "Gusset could not read this request. Reload the page and try again.",
 };
 
+/** The security headers of a plain-text answer given here, before Next (which adds them to its own, proxy.ts). */
+const PLAIN_ANSWER_HEADERS = {
+  "content-type": "text/plain; charset=utf-8",
+  "cache-control": "no-store",
+  "content-security-policy": "default-src 'none'; frame-ancestors 'none'",
+  "x-content-type-options": "nosniff",
+  "x-frame-options": "DENY",
+  "referrer-policy": "strict-origin-when-cross-origin",
+};
+
 function answer(res, status, message) {
-  res.writeHead(status, { "content-type": "text/plain; charset=utf-8", "cache-control": "no-store" });
+  res.writeHead(status, PLAIN_ANSWER_HEADERS);
   res.end(`${message}\n`);
 }
 
@@ -113,7 +123,7 @@ export function guardServerAction(req, res) {
     if (status < 500) return writeHead(status, ...rest);
     replaced = true;
     for (const name of res.getHeaderNames()) res.removeHeader(name);
-    return writeHead(400, { "content-type": "text/plain; charset=utf-8", "cache-control": "no-store" });
+    return writeHead(400, PLAIN_ANSWER_HEADERS);
   };
   res.write = (chunk, ...rest) => (replaced ? true : write(chunk, ...rest));
   res.end = (...args) => {

@@ -184,6 +184,12 @@ describe("redirect after sign-in", () => {
     expect(reply.text).toContain(String.raw`\"next\":\"/home\"`);
   });
 
+  it("a signed-out visitor is sent to sign in with the page they asked for, never a path they claim in a header", async () => {
+    const reply = await send("/admin/users?tab=pending", { headers: { "x-gusset-path": "//evil.example" } });
+    expect(reply.status).toBe(307);
+    expect(reply.headers.location).toBe(`/sign-in?next=${encodeURIComponent("/admin/users?tab=pending")}`);
+  });
+
   it("keeps a path on Gusset", async () => {
     const { actor, password } = await createTestUser({ role: "engineer", label: "redirect-ok" });
     const cookie = await sessionCookie(actor.email, password);
@@ -292,6 +298,8 @@ describe("server actions", () => {
     const reply = await post(headers, json([null, {}]));
     expect(reply.status).toBe(403);
     expect(reply.text).toBe("This request did not come from a Gusset page. Open Gusset at its own address and try again.\n");
+    expect(reply.headers["content-security-policy"]).toBe("default-src 'none'; frame-ancestors 'none'");
+    expect(reply.headers["x-content-type-options"]).toBe("nosniff");
   });
 
   it("a body over 1 MB is refused with 413", async () => {

@@ -37,15 +37,16 @@ export const getActor = cache(async (): Promise<Actor | null> => getActorFromHea
  */
 export async function requirePageActor(action?: Action, options?: { next?: string }): Promise<Actor> {
   const actor = await getActor();
-  if (!actor) redirect(`/sign-in?next=${encodeURIComponent(safePath(options?.next ?? currentPath(await headers())))}`);
+  if (!actor) redirect(`/sign-in?next=${encodeURIComponent(safePath(currentPath(await headers()) ?? options?.next))}`);
   if (action && !can(actor.role, action)) forbidden();
   return actor;
 }
 
 /**
- * The path being viewed, for the sign-in page's ?next=. Next does not hand a page its own URL; a
- * proxy.ts may pass it on as x-gusset-path (pathname + search). Otherwise home.
+ * The path being viewed, with its query, for the sign-in page's ?next=. Next does not hand a page its own
+ * URL; proxy.ts passes it on as x-gusset-path (replacing any the client sent). Without it, the page's own
+ * `next` or home.
  */
-function currentPath(requestHeaders: Headers): string {
-  return requestHeaders.get("x-gusset-path") ?? "/home";
+function currentPath(requestHeaders: Headers): string | null {
+  return requestHeaders.get("x-gusset-path");
 }

@@ -300,8 +300,11 @@ function fromOwnOrigin(request: Request): boolean {
   return origin !== null && getTrustedOrigins().includes(origin);
 }
 
-async function handleSignIn(request: Request, ipAddress: string | null): Promise<Response> {
-  const email = readEmail(await readRequestBody(request));
+/** What every POST handler here gets: the request (still unread), its body read once, and the client's address. */
+type AuthPost = { request: Request; body: Record<string, unknown> | null; ipAddress: string | null };
+
+async function handleSignIn({ request, body, ipAddress }: AuthPost): Promise<Response> {
+  const email = readEmail(body);
   if (email) {
     const perAddress = await consumeRateLimit({
       key: `sign-in|${ipAddress ?? "no-address"}|${email}`,
@@ -342,8 +345,8 @@ export const RESET_REQUESTED_MESSAGE = "If this email exists in our system, chec
  * has an account (checks, two counters); the look-up, the token and the queued e-mail happen after the
  * answer has gone (Next's after()), so the answer's timing says nothing about the address.
  */
-async function handlePasswordResetRequest(request: Request, ipAddress: string | null): Promise<Response> {
-  const parsed = resetRequestSchema.safeParse(await readRequestBody(request));
+async function handlePasswordResetRequest({ request, body, ipAddress }: AuthPost): Promise<Response> {
+  const parsed = resetRequestSchema.safeParse(body);
   if (!parsed.success) return refusal(400, "INVALID_EMAIL", "Enter an e-mail address like name@firm.example.");
   const { email } = parsed.data;
   const perAddress = await consumeRateLimit({
@@ -401,8 +404,9 @@ export async function handleAuthRequest(request: Request): Promise<Response> {
   if (request.method !== "POST") return auth.handler(request);
   const path = new URL(request.url).pathname.replace(/^\/api\/auth/, "");
   const ipAddress = clientAddressFrom(request.headers);
+  const body = await readRequestBody(request);
   if (!fromOwnOrigin(request)) {
-    const email = readEmail(await readRequestBody(request));
+    const email = readEmail(body);
     if (path === "/sign-in/email") await auditFailedSignIn(email, "INVALID_ORIGIN", ipAddress).catch(logAuditFailure);
     else if (path === "/request-password-reset") {
       await auditForEmail(
@@ -414,10 +418,10 @@ export async function handleAuthRequest(request: Request): Promise<Response> {
     return refusal(403, "INVALID_ORIGIN", FOREIGN_ORIGIN_MESSAGE);
   }
   // A NUL byte cannot even be looked up in PostgreSQL text; no field of these forms may hold control characters.
-  if (bodyHasControlCharacters(await readRequestBody(request))) {
+  if (bodyHasControlCharacters(body)) {
     return refusal(400, "INVALID_CHARACTERS", "Remove the control characters from what you typed and try again.");
   }
-  if (path === "/sign-in/email") return handleSignIn(request, ipAddress);
-  if (path === "/request-password-reset") return handlePasswordResetRequest(request, ipAddress);
+  if (path === "/sign-in/email") return handleSignIn({ request, body, ipAddress });
+  if (path === "/request-password-reset") return handlePasswordResetRequest({ request, body, ipAddress });
   return auth.handler(request);
 }

@@ -4,18 +4,8 @@
  * residual far above rounding means the structure is close to a mechanism).
  */
 import { describe, expect, it } from "vitest";
-import { analyze, type ModelInput } from "@/lib/engine";
-
-/** A 20-member cantilever whose members are `ratio` times stiffer axially and `ratio` times softer in bending. */
-function slenderChain(ratio: number): ModelInput {
-  const nodes: NonNullable<ModelInput["nodes"]> = [{ id: "n0", x: 0, y: 0, support: { ux: "fixed", uy: "fixed", rz: "fixed" } }];
-  const members: NonNullable<ModelInput["members"]> = [];
-  for (let i = 1; i <= 20; i++) {
-    nodes.push({ id: `n${i}`, x: i * 0.5, y: (i % 3) * 0.1 });
-    members.push({ id: `m${i}`, start: `n${i - 1}`, end: `n${i}`, E: 200e9, A: 5e-3 * ratio, I: 8e-5 / ratio });
-  }
-  return { nodes, members, loadCases: [{ id: "A", loads: [{ kind: "nodal", node: "n20", fx: 1e3, fy: -5e3, mz: 0 }] }] };
-}
+import { analyze } from "@/lib/engine";
+import { slenderChain } from "./helpers";
 
 describe("analysis report", () => {
   it("times each stage: none negative, the stages within the whole, the whole within the wall clock", () => {

@@ -6,22 +6,13 @@
  */
 import { describe, expect, it } from "vitest";
 import type { ModelInput } from "@/lib/engine";
-import { analyzeOrThrow, lineBeam } from "./helpers";
+import { analyzeOrThrow, lineBeam, slenderChain } from "./helpers";
 
 function cantileverChain(): ModelInput {
-  const nodes: NonNullable<ModelInput["nodes"]> = [{ id: "n0", x: 0, y: 0, support: { ux: "fixed", uy: "fixed", rz: "fixed" } }];
-  const members: NonNullable<ModelInput["members"]> = [];
-  for (let i = 1; i <= 20; i++) {
-    nodes.push({ id: `n${i}`, x: i * 0.5, y: (i % 3) * 0.1 });
-    members.push({ id: `m${i}`, start: `n${i - 1}`, end: `n${i}`, E: 200e9, A: 5e-3, I: 8e-5 });
-  }
+  const chain = slenderChain(1);
   return {
-    nodes,
-    members,
-    loadCases: [
-      { id: "A", loads: [{ kind: "nodal", node: "n20", fx: 1e3, fy: -5e3, mz: 0 }] },
-      { id: "B", loads: [{ kind: "nodal", node: "n10", fx: 0, fy: -3e3, mz: 2e3 }] },
-    ],
+    ...chain,
+    loadCases: [...chain.loadCases!, { id: "B", loads: [{ kind: "nodal", node: "n10", fx: 0, fy: -3e3, mz: 2e3 }] }],
     combinations: [
       { id: "C1", factors: { A: 1 } },
       { id: "C2", factors: { A: 1.35, B: 1.5 } },

@@ -96,3 +96,18 @@ export function expectNear(actual: number | undefined, expected: number, toleran
 export function runs(numRuns: number): { numRuns: number } {
   return { numRuns: process.env.GUSSET_MUTATION ? Math.max(4, Math.ceil(numRuns / 4)) : numRuns };
 }
+
+/**
+ * A 20-member cantilever zig-zagging along x, fixed at n0 and loaded at its tip in load case A; its members
+ * are `ratio` times stiffer axially and `ratio` times softer in bending than the usual section, so a large
+ * ratio makes its equations ill-conditioned. Round-off leaves a residual that is not zero even at ratio 1.
+ */
+export function slenderChain(ratio: number): ModelInput {
+  const nodes: NonNullable<ModelInput["nodes"]> = [{ id: "n0", x: 0, y: 0, support: { ux: "fixed", uy: "fixed", rz: "fixed" } }];
+  const members: NonNullable<ModelInput["members"]> = [];
+  for (let i = 1; i <= 20; i++) {
+    nodes.push({ id: `n${i}`, x: i * 0.5, y: (i % 3) * 0.1 });
+    members.push({ id: `m${i}`, start: `n${i - 1}`, end: `n${i}`, E: 200e9, A: A * ratio, I: I / ratio });
+  }
+  return { nodes, members, loadCases: [{ id: "A", loads: [{ kind: "nodal", node: "n20", fx: 1e3, fy: -5e3, mz: 0 }] }] };
+}

@@ -69,6 +69,52 @@ describe("the supports let the whole structure move", () => {
     expect(errors[1]).toMatchObject({ line: { y: 0 } });
   });
 
+  it("y held on one vertical line only: it slides in x and turns about that line", () => {
+    expect(errorsOf(triangle({ A: { uy: "fixed" } }))).toEqual([
+      { kind: "rigid-body", motion: "slide-x", message: "The structure can slide in x as a whole: no support restrains x" },
+      {
+        kind: "rigid-body",
+        motion: "turn",
+        line: { x: 0 },
+        message:
+          "The structure can turn as a whole about any point of the line x = 0 m: every support reaction acts along that line and nothing holds the structure in rotation",
+      },
+    ]);
+  });
+
+  it("a single pin away from the origin: it turns about that node", () => {
+    expect(errorsOf(triangle({ C: { ux: "fixed", uy: "fixed" } }))).toEqual([
+      {
+        kind: "rigid-body",
+        motion: "turn",
+        about: { x: 3, y: 4 },
+        node: "C",
+        message:
+          "The structure can turn as a whole about node C (x = 3 m, y = 4 m): every support reaction acts through that point and nothing holds the structure in rotation",
+      },
+    ]);
+  });
+
+  it("coordinates that differ by round-off relative to the model's size lie on one line", () => {
+    // B sits 5e-12 m above A's level on a model 6 m across (about 1e-12 of its size): the x restraints at A and
+    // B act along one line through A, so the pin at A and the x roller at B let it turn about A.
+    const model = triangle({ A: { ux: "fixed", uy: "fixed" }, B: { ux: "fixed" } });
+    model.nodes[1] = { ...model.nodes[1], y: 5e-12 };
+    expect(errorsOf(model)).toEqual([
+      expect.objectContaining({ kind: "rigid-body", motion: "turn", about: { x: 0, y: 0 }, node: "A" }),
+    ]);
+  });
+
+  it("the same round-off on a model far from the origin, in negative coordinates", () => {
+    // The tolerance scales with the largest |coordinate|, here 60 m: 5e-11 m is round-off there too.
+    const model = triangle({ A: { ux: "fixed", uy: "fixed" }, B: { ux: "fixed" } });
+    model.nodes = model.nodes.map((n) => ({ ...n, x: n.x - 60, y: n.y - 40 }));
+    model.nodes[1] = { ...model.nodes[1], y: -40 + 5e-11 };
+    expect(errorsOf(model)).toEqual([
+      expect.objectContaining({ kind: "rigid-body", motion: "turn", about: { x: -60, y: -40 }, node: "A" }),
+    ]);
+  });
+
   it("a rotational support at a truss node holds nothing in rotation", () => {
     const errors = errorsOf(triangle({ A: { ux: "fixed", uy: "fixed", rz: "fixed" } }));
     expect(errors).toEqual([expect.objectContaining({ kind: "rigid-body", motion: "turn", node: "A" })]);
@@ -96,6 +142,26 @@ describe("supports that hold the whole structure", () => {
       loadCases: [{ id: "H", loads: [{ kind: "nodal", node: "B", fx: 1e3 }] }],
     };
     expect(analyze(model).ok).toBe(true);
+  });
+
+  it("a fixed support at the end node of a member holds the structure in rotation", () => {
+    // The member runs from the free tip to the fixed base, so the base is the member's end node.
+    const model: ModelInput = {
+      nodes: [
+        { id: "tip", x: 0, y: 3 },
+        { id: "base", x: 0, y: 0, support: { ux: "fixed", uy: "fixed", rz: "fixed" } },
+      ],
+      members: [{ id: "column", start: "tip", end: "base", E, A, I }],
+      loadCases: [{ id: "H", loads: [{ kind: "nodal", node: "tip", fx: 1e3 }] }],
+    };
+    expect(analyze(model).ok).toBe(true);
+  });
+
+  it("a model with no members: a free node is named, not the whole structure", () => {
+    const out = analyze({ nodes: [{ id: "a", x: 0, y: 0 }], members: [], loadCases: [{ id: "P", loads: [] }] });
+    expect(out.ok ? [] : out.errors).toEqual([
+      { kind: "unstable", node: "a", direction: "ux", message: "Node a is free to move in x (mechanism or missing support)" },
+    ]);
   });
 
   it("springs count as supports", () => {

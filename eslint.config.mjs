@@ -21,6 +21,7 @@ const MODULES = [
   "lib/mail",
   "lib/storage",
   "lib/engine",
+  "lib/standards",
   "lib/server-env",
   "lib/domain",
   "db",
@@ -37,6 +38,8 @@ export const LAYERS = {
   "lib/domain": { may: [] },
   "lib/server-env": { may: [] },
   "lib/engine": { may: [] },
+  // The standards' evaluation: pure like the engine, it runs on the server, in scripts and in the browser.
+  "lib/standards": { may: ["lib/engine", "lib/domain"] },
   db: { may: ["lib/domain", "lib/server-env"] },
   "lib/mail": { may: ["lib/domain", "lib/server-env"] },
   "lib/storage": { may: ["lib/domain", "lib/server-env"] },
@@ -44,10 +47,24 @@ export const LAYERS = {
   "lib/jobs": { may: ["db", "lib/data", "lib/mail", "lib/domain", "lib/server-env"], handle: true },
   "lib/auth": { may: ["db", "lib/data", "lib/jobs", "lib/mail", "lib/domain", "lib/server-env"] },
   "lib/use-cases": {
-    may: ["db", "lib/auth", "lib/data", "lib/jobs", "lib/mail", "lib/storage", "lib/engine", "lib/domain", "lib/server-env"],
+    may: [
+      "db",
+      "lib/auth",
+      "lib/data",
+      "lib/jobs",
+      "lib/mail",
+      "lib/storage",
+      "lib/engine",
+      "lib/standards",
+      "lib/domain",
+      "lib/server-env",
+    ],
   },
-  components: { may: ["components", "lib/domain", "lib/engine"], types: ["lib/data", "lib/use-cases"] },
-  app: { may: ["app", "components", "lib/use-cases", "lib/auth", "lib/domain", "lib/engine"], types: ["lib/data"] },
+  components: { may: ["components", "lib/domain", "lib/engine", "lib/standards"], types: ["lib/data", "lib/use-cases"] },
+  app: {
+    may: ["app", "components", "lib/use-cases", "lib/auth", "lib/domain", "lib/engine", "lib/standards"],
+    types: ["lib/data"],
+  },
   // proxy.ts, before every request: security headers from the settings, and the database check.
   proxy: { may: ["lib/use-cases", "lib/domain", "lib/server-env"] },
 };
@@ -114,7 +131,9 @@ const engineForbiddenPatterns = [
 function layerBlocks() {
   const blocks = [];
   const rule = (patterns, folder) =>
-    folder === "lib/engine" ? { paths: engineForbiddenPaths, patterns: [...patterns, ...engineForbiddenPatterns] } : { patterns };
+    folder === "lib/engine" || folder === "lib/standards"
+      ? { paths: engineForbiddenPaths, patterns: [...patterns, ...engineForbiddenPatterns] }
+      : { patterns };
   const block = (files, patterns, folder) => ({
     files,
     rules: { "no-restricted-imports": "off", "@typescript-eslint/no-restricted-imports": ["error", rule(patterns, folder)] },

@@ -21,7 +21,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: "unit",
-          include: ["tests/unit/**/*.test.ts", "tests/engine/**/*.test.ts"],
+          include: ["tests/unit/**/*.test.ts", "tests/engine/**/*.test.ts", "tests/standards/**/*.test.ts"],
           environment: "node",
           sequence: { groupOrder: 0 },
         },

@@ -2,7 +2,7 @@
 // then `vitest run` (unit, integration, browser) with extra arguments passed through. Stops what it
 // started and exits with vitest's code.
 //   npm test                        everything
-//   npm test -- tests/engine        a subset; when every path given is under tests/unit or tests/engine
+//   npm test -- tests/engine        a subset; when every path given is under tests/unit, tests/engine or tests/standards
 //   npm test -- --project unit      (or only unit projects are named) no services are started
 import { spawn } from "node:child_process";
 import fs from "node:fs";
@@ -30,7 +30,7 @@ function onlyUnitTests(args) {
     else if (!arg.startsWith("-")) paths.push(arg);
   }
   if (projects.length > 0 && projects.every((p) => p === "unit")) return true;
-  return paths.length > 0 && paths.every((p) => /^(\.\/)?tests\/(unit|engine)(\/|$)/.test(p));
+  return paths.length > 0 && paths.every((p) => /^(\.\/)?tests\/(unit|engine|standards)(\/|$)/.test(p));
 }
 
 async function prepareEverything(env) {

@@ -1,0 +1,124 @@
+/**
+ * Design checks: demand against capacity, with the utilisation and where it governs.
+ *
+ * A check with `for_each` runs for every member of a group under every result listed, at every section the
+ * diagrams can govern at (the sampled points, both sides of each load discontinuity, and the exact extremes of
+ * N, V and M), on the forces acting there together — N with the M beside it, for interaction — and with that
+ * member's own length and properties. It reports the governing member, result and position; it never pools
+ * maxima from different places.
+ *
+ * The utilisation is demand ÷ capacity for `<=` and capacity ÷ demand for `>=`; it passes at 1 or less and is
+ * shown rounded up (1.004 shows as 1.01 and fails; never "1.00 FAIL") — common practice for design checks.
+ */
+import type { CheckDefinition } from "./definition";
+import { compileExpression, ExpressionError } from "./expressions";
+import { GenerateError } from "./generate";
+import { membersOf, resultIds, type ResultsView, type Where } from "./extracts";
+import { describeDimension, hasDimensionOf, isUnit, math, type Value } from "./units";
+
+/** Names a `for_each` check's expressions see besides the standard's own: the section's forces and the member. */
+export const SECTION_NAMES = ["N", "V", "M", "x", "L_member", "E_member", "A_member", "I_member"] as const;
+
+export interface CheckOutcome {
+  readonly demand: Value;
+  readonly capacity: Value;
+  readonly utilisation: number;
+  readonly pass: boolean;
+  /** Where it governs (for_each checks only). */
+  readonly where?: Where;
+  /** How many member sections × results were checked (for_each checks only). */
+  readonly sectionsChecked?: number;
+}
+
+type Scope = ReadonlyMap<string, Value>;
+
+/** Utilisation rounded up to two decimals, for display. */
+export function displayUtilisation(u: number): string {
+  const up = Math.ceil(u * 100 - 1e-9) / 100;
+  return up.toFixed(2);
+}
+
+function evaluate(source: string, scope: Scope, path: PropertyKey[]): Value {
+  try {
+    return compileExpression(source, new Set(scope.keys())).evaluate(scope);
+  } catch (error) {
+    if (error instanceof ExpressionError) throw new GenerateError(path, error.message);
+    throw error;
+  }
+}
+
+function utilisationOf(definition: CheckDefinition, demand: Value, capacity: Value, path: PropertyKey[]): number {
+  if (typeof demand === "string" || typeof demand === "boolean" || typeof capacity === "string" || typeof capacity === "boolean")
+    throw new GenerateError(path, "demand and capacity must be numbers or quantities");
+  const sameKind = isUnit(demand) ? isUnit(capacity) && demand.equalBase(capacity) : hasDimensionOf(capacity, "dimensionless");
+  if (!sameKind)
+    throw new GenerateError(
+      path,
+      `the demand is ${describeDimension(demand)} but the capacity is ${describeDimension(capacity)}; they must be of the same kind`,
+    );
+  const d = isUnit(demand) ? (demand.toSI().toNumber() as number) : demand;
+  const c = isUnit(capacity) ? (capacity.toSI().toNumber() as number) : (capacity as number);
+  const [num, den] = definition.relation === "<=" ? [d, c] : [c, d];
+  if (den === 0) {
+    if (num === 0) return 0;
+    throw new GenerateError(
+      path,
+      `the ${definition.relation === "<=" ? "capacity" : "demand"} is zero: the utilisation is unbounded`,
+    );
+  }
+  const u = num / den;
+  if (u < 0)
+    throw new GenerateError(path, "the demand and capacity have opposite signs; write the demand as a magnitude, e.g. abs(M)");
+  return u;
+}
+
+export function runCheck(view: ResultsView | null, definition: CheckDefinition, scope: Scope, path: PropertyKey[]): CheckOutcome {
+  if (!definition.for_each) {
+    const demand = evaluate(definition.demand, scope, [...path, "demand"]);
+    const capacity = evaluate(definition.capacity, scope, [...path, "capacity"]);
+    const utilisation = utilisationOf(definition, demand, capacity, path);
+    return { demand, capacity, utilisation, pass: utilisation <= 1 };
+  }
+  if (!view) throw new GenerateError(path, "a check for each member needs the analysis");
+  const members = membersOf(view, definition.for_each.members, scope, [...path, "for_each", "members"]);
+  const unders = resultIds(view, definition.for_each.under, scope, [...path, "for_each", "under"]);
+  let best: CheckOutcome | null = null;
+  let sections = 0;
+  for (const member of members) {
+    const props = memberProperties(view, member);
+    for (const under of unders) {
+      const d = view.diagram(member, under);
+      const xs: { x: number; side: "left" | "right" }[] = d.samples.x.map((x, k, all) => ({
+        x,
+        side: k > 0 && all[k - 1] === x ? "right" : k + 1 < all.length && all[k + 1] === x ? "left" : "right",
+      }));
+      for (const q of ["N", "V", "M"] as const)
+        for (const e of [d.extremes[q].max, d.extremes[q].min]) xs.push({ x: e.x, side: "left" }, { x: e.x, side: "right" });
+      for (const { x, side } of xs) {
+        const f = d.valueAt(x, side);
+        const local = new Map(scope);
+        local.set("N", math.unit(f.N, "N"));
+        local.set("V", math.unit(f.V, "N"));
+        local.set("M", math.unit(f.M, "N m"));
+        local.set("x", math.unit(x, "m"));
+        local.set("L_member", math.unit(d.length, "m"));
+        local.set("E_member", math.unit(props.E, "Pa"));
+        local.set("A_member", math.unit(props.A, "m^2"));
+        local.set("I_member", math.unit(props.I ?? 0, "m^4"));
+        const demand = evaluate(definition.demand, local, [...path, "demand"]);
+        const capacity = evaluate(definition.capacity, local, [...path, "capacity"]);
+        const utilisation = utilisationOf(definition, demand, capacity, path);
+        sections++;
+        if (best === null || utilisation > best.utilisation)
+          best = { demand, capacity, utilisation, pass: utilisation <= 1, where: { member, x, under } };
+      }
+    }
+  }
+  return { ...best!, pass: best!.utilisation <= 1, sectionsChecked: sections };
+}
+
+function memberProperties(view: ResultsView, member: string): { E: number; A: number; I?: number } {
+  const m = view.model.members?.find((candidate) => candidate.id === member);
+  if (!m) throw new Error(`no member ${member}`);
+  return { E: m.E, A: m.A, ...(m.I !== undefined ? { I: m.I } : {}) };
+}

@@ -11,6 +11,7 @@ import { checkExpression, ExpressionError, reservedNameReason } from "./expressi
 import { evaluateDefinition, type EvaluationOutcome } from "./evaluate";
 import { SECTION_NAMES } from "./checks";
 import { QUANTITY_OF } from "./extracts";
+import { checkNarrative } from "./narrative";
 import { formatPath, parseSource, type ParsedSource, type SourceProblem } from "./source";
 import { hasDimensionOf, isTradeUnitText, math, QUANTITIES, type Quantity } from "./units";
 
@@ -195,7 +196,7 @@ function compileUncached(source: string): CompileOutcome {
       ),
     };
   const definition = valid.data;
-  const problems = staticProblems(parsed, definition);
+  const problems = [...staticProblems(parsed, definition), ...checkNarrative(parsed.narrative, definition, parsed.narrativeLine)];
   if (problems.length > 0) return { ok: false, problems };
   const probed = probeProblems(parsed, definition);
   if (probed.length > 0) return { ok: false, problems: probed };

@@ -46,18 +46,10 @@ export async function getSessionEndReason(requestHeaders: Headers): Promise<Sign
   return token ? findSessionEndReason(token) : null;
 }
 
-/** The action this request's page was refused for, kept for the 403 page (same render, same cache). */
-const refusal = cache((): { action: Action | null } => ({ action: null }));
-
-/** What the page the 403 page stands in for required, when requirePageActor refused it in this request. */
-export function getRefusedAction(): Action | null {
-  return refusal().action;
-}
-
 /**
  * For pages: an anonymous visitor is sent to sign in (and brought back afterwards), told why when their
  * session was ended on purpose; a signed-in person whose role lacks the action gets the 403 page
- * (app/forbidden.tsx), which names the role the page is for.
+ * (app/forbidden.tsx), which names their role and the roles the page is for.
  */
 export async function requirePageActor(action?: Action, options?: { next?: string }): Promise<Actor> {
   const actor = await getActor();
@@ -67,10 +59,7 @@ export async function requirePageActor(action?: Action, options?: { next?: strin
     const next = encodeURIComponent(safePath(currentPath(requestHeaders) ?? options?.next));
     redirect(reason ? `/sign-in?reason=${reason}&next=${next}` : `/sign-in?next=${next}`);
   }
-  if (action && !can(actor.role, action)) {
-    refusal().action = action;
-    forbidden();
-  }
+  if (action && !can(actor.role, action)) forbidden();
   return actor;
 }
 

@@ -418,6 +418,7 @@ describe("signing in brings people back", () => {
   it("applies to every signed-in page", () => {
     expect(signedInPages.map((page) => page.path)).toEqual([
       "/home",
+      "/profile",
       "/library",
       "/projects",
       "/runs",

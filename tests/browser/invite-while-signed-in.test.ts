@@ -4,16 +4,8 @@
 import { expect, it } from "vitest";
 import { useBrowser } from "../support/browser";
 import { appUrl } from "../support/env";
-import {
-  AppShell,
-  DEMO_BY_ROLE,
-  InvitationPage,
-  PeoplePage,
-  SignInPage,
-  fillNewPassword,
-  journeyTimeout,
-  uniqueEmail,
-} from "../support/pages";
+import { AppShell, DEMO_BY_ROLE, InvitationPage, PeoplePage, SignInPage, journeyTimeout, uniqueEmail } from "../support/pages";
+import { fillNewPassword } from "../support/pages/password-pages";
 
 const browser = useBrowser();
 

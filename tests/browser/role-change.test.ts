@@ -26,13 +26,18 @@ it(
     await page.getByTestId("nav-audit").click();
     const forbidden = page.getByTestId("forbidden-page");
     await forbidden.waitFor();
-    expect(await page.getByTestId("forbidden-role").textContent()).toBe("Engineer");
+    await expect.poll(() => page.getByTestId("forbidden-role").textContent(), { timeout: 10_000 }).toBe("Engineer");
     expect(await page.getByTestId("forbidden-name").textContent()).toBe(person.name);
     expect(await page.getByTestId("forbidden-for").textContent()).toBe("This page is for the Admin and QA auditor roles.");
     // … and the shell is redrawn for the engineer: no "Audit trail", the engineer's entries, the new role.
     await page.getByTestId("nav-audit").waitFor({ state: "detached", timeout: 10_000 });
     await page.locator('[data-testid="user-role"]', { hasText: "Engineer" }).waitFor();
     expect(await shell.navLabels()).not.toContain("Audit trail");
+
+    // Loaded afresh, the 403 page names the new role at once.
+    await page.reload();
+    await forbidden.waitFor();
+    expect(await page.getByTestId("forbidden-role").textContent()).toBe("Engineer");
 
     // A promotion to admin: the next click brings People (and the audit trail) into the navigation.
     await people.goto();

@@ -40,13 +40,13 @@ export default async function ProfilePage() {
       />
       <div className="grid max-w-3xl gap-6">
         <Section title="Your details" testId="profile-details">
-          <dl className="grid gap-4 text-sm sm:grid-cols-[8rem_minmax(0,1fr)]">
+          <dl className="grid gap-x-4 gap-y-1 text-sm sm:grid-cols-[8rem_minmax(0,1fr)] sm:gap-y-4">
             <dt className="text-ink-700">Name</dt>
-            <dd className="font-medium break-words text-ink-950" data-testid="profile-name">
+            <dd className="mb-3 font-medium break-words text-ink-950 sm:mb-0" data-testid="profile-name">
               {profile.name}
             </dd>
             <dt className="text-ink-700">E-mail</dt>
-            <dd className="break-all text-ink-950" data-testid="profile-email">
+            <dd className="mb-3 break-all text-ink-950 sm:mb-0" data-testid="profile-email">
               {profile.email}
             </dd>
             <dt className="text-ink-700">Role</dt>

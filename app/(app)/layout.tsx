@@ -6,6 +6,7 @@ import { runUseCase } from "@/lib/use-cases/run";
 import { readShell } from "@/lib/use-cases/reads";
 import { GussetMark } from "@/components/gusset-mark";
 import { NAV_ITEMS } from "./_components/nav-items";
+import { SessionWatcher } from "./_components/session-watcher";
 import { SideNav } from "./_components/side-nav";
 import { UserMenu } from "./_components/user-menu";
 
@@ -24,6 +25,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
 
   return (
     <div className="min-h-dvh md:grid md:grid-cols-[15rem_1fr]">
+      <SessionWatcher userId={actor.id} role={actor.role} name={actor.name} />
       <aside className="border-b border-ink-200 bg-paper-raised md:sticky md:top-0 md:h-dvh md:border-r md:border-b-0">
         <div className="flex h-full flex-col gap-3 px-3 py-3 md:gap-6 md:py-4">
           <Link href="/home" className="flex items-center gap-2.5 px-2 text-plate-700" data-testid="brand">

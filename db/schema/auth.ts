@@ -1,6 +1,7 @@
 // The four tables better-auth reads and writes (user, session, account, verification) plus its
 // rate-limit table, written by hand from its schema so that drizzle-kit owns the migrations.
-// Gusset adds two columns to the user: the role and when the account was deactivated.
+// Gusset adds three columns to the user (the role, when the account was deactivated, the person's time
+// zone) and one table of its own: why a session was ended on purpose.
 import { sql } from "drizzle-orm";
 import { boolean, check, index, integer, bigint, pgTable, text, timestamp } from "drizzle-orm/pg-core";
 
@@ -18,6 +19,8 @@ export const user = pgTable(
       .default("engineer"),
     /** Set when an admin deactivates the account; a deactivated user cannot sign in. */
     deactivatedAt: timestamp("deactivated_at", { withTimezone: true }),
+    /** An IANA time zone the person chose on their profile; null: the browser's own. */
+    timeZone: text("time_zone"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
@@ -44,6 +47,29 @@ export const session = pgTable(
 );
 export type Session = typeof session.$inferSelect;
 export type NewSession = typeof session.$inferInsert;
+
+/**
+ * Why a session was ended by someone's action (deactivation, a password change elsewhere), keyed by a hash
+ * of its token: the browser that still holds the token is told why on the sign-in page. Rows go with the
+ * person, and are pruned once the session would have expired anyway.
+ */
+export const endedSession = pgTable(
+  "ended_session",
+  {
+    /** SHA-256 of the session token, hex: the token itself was a credential. */
+    tokenHash: text("token_hash").primaryKey(),
+    userId: text("user_id")
+      .notNull()
+      .references(() => user.id, { onDelete: "cascade" }),
+    reason: text("reason", { enum: ["deactivated", "password-changed"] }).notNull(),
+    endedAt: timestamp("ended_at", { withTimezone: true }).notNull().defaultNow(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+  },
+  (t) => [
+    index("ended_session_user_id_idx").on(t.userId),
+    check("ended_session_reason_check", sql`${t.reason} in ('deactivated', 'password-changed')`),
+  ],
+);
 
 export const account = pgTable(
   "account",

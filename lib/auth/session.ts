@@ -1,6 +1,7 @@
 import "server-only";
 // Who is asking, for pages, server actions and route handlers. The only module that reads the
 // request's headers; everything below it takes the actor as an argument.
+import { getSessionCookie } from "better-auth/cookies";
 import { headers } from "next/headers";
 import { cache } from "react";
 import { forbidden, redirect } from "next/navigation";
@@ -8,6 +9,8 @@ import type { Actor } from "@/lib/domain/actor";
 import { can, type Action } from "@/lib/domain/permissions";
 import { isRole } from "@/lib/domain/roles";
 import { safePath } from "@/lib/domain/safe-path";
+import type { SignInReason } from "@/lib/domain/schemas/sign-in";
+import { findSessionEndReason } from "@/lib/data/sessions";
 import { clientAddressFrom } from "./client-address";
 import { auth } from "./server";
 
@@ -20,7 +23,7 @@ export async function getActorFromHeaders(requestHeaders: Headers): Promise<Acto
   const { id, name, email, role, deactivatedAt } = current.user;
   // Sessions are deleted on deactivation; this is the second lock in case one slipped through.
   if (deactivatedAt || !isRole(role)) return null;
-  return { id, name, email, role };
+  return { id, name, email, role, sessionId: current.session.id };
 }
 
 /** The client's address for this request (see lib/auth/client-address.ts), or null. */
@@ -32,12 +35,30 @@ export async function getClientAddress(): Promise<string | null> {
 export const getActor = cache(async (): Promise<Actor | null> => getActorFromHeaders(await headers()));
 
 /**
- * For pages: an anonymous visitor is sent to sign in (and brought back afterwards); a signed-in person
- * whose role lacks the action gets the 403 page (app/forbidden.tsx).
+ * Why the browser's session cookie no longer signs anyone in, when it was ended on purpose (deactivation,
+ * a password change elsewhere); null for no cookie, a forged or expired one, or a plain sign-out.
+ */
+export async function getSessionEndReason(requestHeaders: Headers): Promise<SignInReason | null> {
+  const cookie = getSessionCookie(requestHeaders);
+  if (!cookie) return null;
+  // The cookie is "<token>.<signature>"; only the token was stored (as a hash) when the session ended.
+  const token = decodeURIComponent(cookie).split(".")[0];
+  return token ? findSessionEndReason(token) : null;
+}
+
+/**
+ * For pages: an anonymous visitor is sent to sign in (and brought back afterwards), told why when their
+ * session was ended on purpose; a signed-in person whose role lacks the action gets the 403 page
+ * (app/forbidden.tsx), which names their role and the roles the page is for.
  */
 export async function requirePageActor(action?: Action, options?: { next?: string }): Promise<Actor> {
   const actor = await getActor();
-  if (!actor) redirect(`/sign-in?next=${encodeURIComponent(safePath(currentPath(await headers()) ?? options?.next))}`);
+  if (!actor) {
+    const requestHeaders = await headers();
+    const reason = await getSessionEndReason(requestHeaders);
+    const next = encodeURIComponent(safePath(currentPath(requestHeaders) ?? options?.next));
+    redirect(reason ? `/sign-in?reason=${reason}&next=${next}` : `/sign-in?next=${next}`);
+  }
   if (action && !can(actor.role, action)) forbidden();
   return actor;
 }

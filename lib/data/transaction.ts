@@ -21,3 +21,11 @@ export async function runInTransaction<T>(work: (tx: Transaction) => Promise<T>)
   // Inside an open transaction this is a savepoint: it rolls back alone, or commits with the outer one.
   return outer ? outer.transaction(run) : db.transaction(run);
 }
+
+/**
+ * Runs `work` on the pool, outside the open transaction: for the one kind of write that must outlast a
+ * rollback, a counter of failed attempts (a wrong current password is refused, and still counted).
+ */
+export function outsideTransaction<T>(work: () => Promise<T>): Promise<T> {
+  return scopes.exit(work);
+}

@@ -3,7 +3,7 @@ import "server-only";
 // cases make (lib/use-cases/people.ts checks permissions and writes the audit events). The firm always
 // keeps at least one active admin.
 import { and, asc, eq, isNull, sql } from "drizzle-orm";
-import { session, user } from "@/db/schema";
+import { user } from "@/db/schema";
 import { AppError } from "@/lib/domain/errors";
 import type { Role } from "@/lib/domain/roles";
 import { currentDb } from "./transaction";
@@ -94,10 +94,4 @@ export async function updateUser(userId: string, set: Partial<typeof user.$infer
     .where(eq(user.id, userId))
     .returning(userColumns);
   return toUserDto(updated);
-}
-
-/** Ends every open session of a person; returns how many there were. */
-export async function endSessionsOf(userId: string): Promise<number> {
-  const ended = await currentDb().delete(session).where(eq(session.userId, userId)).returning({ id: session.id });
-  return ended.length;
 }

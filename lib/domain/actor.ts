@@ -4,7 +4,14 @@ import { AppError } from "./errors";
 import { can, type Action } from "./permissions";
 import type { Role } from "./roles";
 
-export type Actor = { id: string; name: string; email: string; role: Role };
+export type Actor = {
+  id: string;
+  name: string;
+  email: string;
+  role: Role;
+  /** The session the request came with, when it came with one (a script or test acts without). */
+  sessionId?: string;
+};
 
 /** Throws "unauthenticated" for no actor and "forbidden" when the role lacks the action. */
 export function assertCanOrThrow(actor: Actor | null | undefined, action: Action): asserts actor is Actor {

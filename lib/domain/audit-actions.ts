@@ -22,6 +22,12 @@ export type AuditDetails = {
   "access.refused": { useCase: string; permission: string };
   /** An invitation link was used but not accepted; reason is the error code, message what the person saw. */
   "invitations.accept.failed": { reason: string; message: string };
+  /** A person changed their own password on the profile page; their other sessions were ended. */
+  "profile.change-password": { sessionsEnded: number };
+  /** reason: "wrong-current-password" or "rate-limited". */
+  "profile.change-password.failed": { reason: string };
+  /** null: the browser's own time zone. */
+  "profile.set-time-zone": { from: string | null; to: string | null };
 };
 
 export type AuditAction = keyof AuditDetails;
@@ -41,6 +47,9 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "invitations.revoke": "Revoked an invitation",
   "access.refused": "Was refused an action",
   "invitations.accept.failed": "Failed to accept an invitation",
+  "profile.change-password": "Changed their password",
+  "profile.change-password.failed": "Failed to change their password",
+  "profile.set-time-zone": "Set their time zone",
 };
 
 function isAuditAction(value: string): value is AuditAction {

@@ -24,13 +24,13 @@ import {
 } from "@/lib/data/invitations";
 import {
   assertNotLastActiveAdminOrThrow,
-  endSessionsOf,
   getUserOrThrow,
   listUsers,
   updateUser,
   userExistsWithEmail,
   type UserDto,
 } from "@/lib/data/users";
+import { endSessions } from "@/lib/data/sessions";
 import { enqueueJob } from "@/lib/jobs/enqueue";
 import { renderInvitationMail } from "@/lib/mail/templates";
 import { defineUseCase } from "./use-case";
@@ -118,7 +118,10 @@ export const setUserRole = defineUseCase({
         },
 });
 
-/** Deactivation ends every open session of that person in the same transaction and blocks new sign-ins. */
+/**
+ * Deactivation ends every open session of that person in the same transaction and blocks new sign-ins;
+ * a browser still holding one of those sessions is told why on the sign-in page.
+ */
 export const deactivateUser = defineUseCase({
   name: "users.deactivate",
   permission: "users.deactivate",
@@ -127,7 +130,7 @@ export const deactivateUser = defineUseCase({
     const target = await getUserOrThrow(userId);
     if (target.status === "deactivated") throw new AppError("conflict", `${target.name} is already deactivated.`);
     if (target.role === "admin") await assertNotLastActiveAdminOrThrow(userId, "deactivate");
-    const sessionsEnded = await endSessionsOf(userId);
+    const sessionsEnded = await endSessions({ userId, reason: "deactivated" });
     return { user: await updateUser(userId, { deactivatedAt: new Date() }), sessionsEnded };
   },
   audit: ({ result: { user, sessionsEnded } }) => ({

@@ -62,6 +62,7 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     expect: same<PageOutcome>("ok"),
   },
   "/(app)/home/page": { path: "/home", title: "Home", expect: signedInPage("admin", "lead", "engineer", "auditor") },
+  "/(app)/profile/page": { path: "/profile", title: "Profile", expect: signedInPage("admin", "lead", "engineer", "auditor") },
   "/(app)/library/page": { path: "/library", title: "Library", expect: signedInPage("lead", "engineer", "auditor") },
   "/(app)/projects/page": { path: "/projects", title: "Projects", expect: signedInPage("lead", "engineer", "auditor") },
   "/(app)/runs/page": { path: "/runs", title: "Runs", expect: signedInPage("lead", "engineer", "auditor") },
@@ -219,6 +220,9 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/admin/users/actions.ts#deactivateUserAction": adminOnlyAction(),
   "app/(app)/admin/users/actions.ts#reactivateUserAction": adminOnlyAction(),
   "app/(app)/admin/users/actions.ts#revokeInvitationAction": adminOnlyAction(),
+  // Every role has a profile, and each call acts on the caller only.
+  "app/(app)/profile/actions.ts#changePasswordAction": anonymousElse<ActionOutcome>("unauthenticated", "ok"),
+  "app/(app)/profile/actions.ts#setTimeZoneAction": anonymousElse<ActionOutcome>("unauthenticated", "ok"),
   // The invitation link is the credential: anyone holding a real one may accept it, and lands home.
   "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": same<ActionOutcome>("ok"),
 };
@@ -414,6 +418,7 @@ describe("signing in brings people back", () => {
   it("applies to every signed-in page", () => {
     expect(signedInPages.map((page) => page.path)).toEqual([
       "/home",
+      "/profile",
       "/library",
       "/projects",
       "/runs",

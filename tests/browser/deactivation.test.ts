@@ -52,9 +52,15 @@ it(
     );
     expect(rows).toEqual([{ ip_address: "127.0.0.1" }]);
 
-    // Their next navigation — client-side, through the menu — lands on sign-in.
+    // Their next navigation — client-side, through the menu — lands on sign-in, which says why and whom to ask.
     await page.getByTestId("nav-home").click();
     await page.waitForURL((url) => url.pathname === "/sign-in", { timeout: 15_000 });
+    const reason = page.getByTestId("sign-in-reason");
+    await reason.waitFor();
+    expect(await page.getByRole("heading", { level: 1 }).textContent()).toBe("This account has been deactivated");
+    expect(await reason.textContent()).toMatch(
+      /administrator of your firm deactivated this account.*ask one of your firm's admins/,
+    );
     // A full page load does too, and /api/me no longer knows them.
     await page.goto(appUrl("/projects"));
     expect(new URL(page.url()).pathname).toBe("/sign-in");

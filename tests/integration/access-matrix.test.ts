@@ -86,6 +86,9 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/admin/users/actions.ts#deactivateUserAction": ADMIN_ONLY,
   "app/(app)/admin/users/actions.ts#reactivateUserAction": ADMIN_ONLY,
   "app/(app)/admin/users/actions.ts#revokeInvitationAction": ADMIN_ONLY,
+  // Every role has a profile, and each call acts on the caller only.
+  "app/(app)/profile/actions.ts#changePasswordAction": SIGNED_IN,
+  "app/(app)/profile/actions.ts#setTimeZoneAction": SIGNED_IN,
   // Public: the link is the credential; anyone holding a real one may accept it.
   "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": PUBLIC,
 };

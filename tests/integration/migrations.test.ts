@@ -66,6 +66,7 @@ describe("migrations on an empty database", () => {
     expect(tables).toEqual([
       "account",
       "audit_events",
+      "ended_session",
       "firm",
       "invitations",
       "projects",

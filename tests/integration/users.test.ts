@@ -45,7 +45,7 @@ describe("deactivation", () => {
     const { actor: admin } = await createTestUser({ role: "admin" });
     const { actor, password } = await createTestUser({ role: "engineer" });
     const headers = await signInHeaders(actor.email, password);
-    expect(await getActorFromHeaders(headers)).toEqual(actor);
+    expect(await getActorFromHeaders(headers)).toEqual({ ...actor, sessionId: expect.any(String) });
 
     const result = await runUseCase(deactivateUser, { actor: admin, input: { userId: actor.id } });
     expect(result).toMatchObject({ user: { id: actor.id, status: "deactivated" }, sessionsEnded: 1 });

@@ -1,6 +1,7 @@
 "use client";
 
 import { useEffect, useRef, useState } from "react";
+import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { authClient } from "@/lib/auth/client";
 
@@ -86,6 +87,15 @@ export function UserMenu({ name, email, roleLabel }: UserMenuProps) {
             <p className="truncate text-xs text-ink-500">{email}</p>
             <p className="mt-1 text-xs text-plate-700">{roleLabel}</p>
           </div>
+          <Link
+            href="/profile"
+            role="menuitem"
+            data-testid="profile-link"
+            onClick={() => setOpen(false)}
+            className="mt-1 block w-full rounded-plate px-3 py-2 text-left text-sm text-ink-700 hover:bg-paper-sunk"
+          >
+            Profile
+          </Link>
           <button
             type="button"
             role="menuitem"

@@ -13,11 +13,16 @@ export const revokeInvitationSchema = z.object({
 });
 export type RevokeInvitationInput = z.infer<typeof revokeInvitationSchema>;
 
+/** Said after an invitation to an address that already had an open one: that earlier link stops working. */
+export const EARLIER_INVITATION_CANCELLED_MESSAGE =
+  "The earlier invitation to this address was cancelled: its link no longer works.";
+
 export type InvitationStatus = "valid" | "expired" | "used" | "revoked";
 
 export const INVITATION_MESSAGES: Record<Exclude<InvitationStatus, "valid"> | "unknown", string> = {
   unknown: "This invitation link is not valid. Check that you copied all of it, or ask your admin for a new one.",
   expired: "This invitation has expired. Ask your admin to send a new one.",
   used: "This invitation has already been used. Sign in with your e-mail and password, or reset your password.",
-  revoked: "This invitation was withdrawn. Ask your admin for a new one if you still need access.",
+  revoked:
+    "This invitation was cancelled. If a newer one was sent to you, use the link in the latest e-mail; otherwise ask your admin for a new one.",
 };

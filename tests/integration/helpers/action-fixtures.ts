@@ -5,6 +5,7 @@ import { expect } from "vitest";
 import { eq } from "drizzle-orm";
 import { db } from "@/db";
 import * as schema from "@/db/schema";
+import { WRONG_CURRENT_PASSWORD_MESSAGE } from "@/lib/domain/schemas/profile";
 import { auditEventsFor, createTestUser, inviteWithToken, sessionCount, signInHeaders, uniqueEmail } from "./people";
 
 /** What calling a server action came to: its ActionState, or the redirect it answered with. */
@@ -126,6 +127,40 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
       },
     };
   },
+  // The caller is always the one whose password would change, and the browser matrix calls as the demo
+  // people, whose passwords other tests sign in with. So the call names a wrong current password: getting
+  // past the permission check shows as the use case's own answer, a refused current password, audited.
+  "app/(app)/profile/actions.ts#changePasswordAction": async () => ({
+    input: {
+      currentPassword: "not-the-current-password",
+      password: "matrix-new-password-1",
+      confirmPassword: "matrix-new-password-1",
+    },
+    succeeded: async (answer) => {
+      expect(answer).toEqual({
+        state: {
+          ok: false,
+          error: {
+            code: "invalid-input",
+            message: WRONG_CURRENT_PASSWORD_MESSAGE,
+            fieldErrors: { currentPassword: [WRONG_CURRENT_PASSWORD_MESSAGE] },
+          },
+        },
+      });
+      const events = await auditEventsFor({ action: "profile.change-password.failed" });
+      const newest = events.sort((a, b) => b.id - a.id)[0];
+      expect(newest?.details).toEqual({ reason: "wrong-current-password" });
+    },
+  }),
+  // "" is the browser's own time zone: the demo people keep theirs as it was (none).
+  "app/(app)/profile/actions.ts#setTimeZoneAction": async () => ({
+    input: { timeZone: "" },
+    succeeded: async (answer) => {
+      expect(answer).toMatchObject({ state: { ok: true, data: { userId: expect.any(String), timeZone: null } } });
+      const { userId } = (answer as { state: { data: { userId: string } } }).state.data;
+      expect((await userRow(userId)).timeZone).toBeNull();
+    },
+  }),
   // A real link: the account is made, the person signed in and sent home.
   "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": async () => {
     const { invitation, token } = await inviteWithToken("lead");

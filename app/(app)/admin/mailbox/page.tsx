@@ -20,7 +20,7 @@ export default async function MailboxPage() {
     <>
       <PageHeader
         title="Demo mailbox"
-        lead="E-mails Gusset has sent while running as a demo. They never left this machine. Open an invitation or reset link here to try it as the person it was sent to — in a private window, so that you stay signed in here."
+        lead="E-mails Gusset has sent while running as a demo. They never left this machine. To try an invitation or reset link as the person it was sent to, open it in a private window, so that you stay signed in here; opened in this window, an invitation asks before it signs you out. Only the newest invitation to an address works: inviting it again cancels the earlier link."
       />
       {messages.length === 0 ? (
         <EmptyState title="No e-mails yet">Invite someone from the People page and the invitation appears here.</EmptyState>

@@ -5,6 +5,7 @@ import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { ROLES, ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/domain/roles";
 import { inviteUserSchema, type InviteUserInput } from "@/lib/domain/schemas/users";
+import { EARLIER_INVITATION_CANCELLED_MESSAGE } from "@/lib/domain/schemas/invitations";
 import { Button } from "@/components/ui/button";
 import { EmailField, SelectField, TextField } from "@/components/ui/field";
 import { FormError, Notice } from "@/components/ui/notice";
@@ -78,6 +79,9 @@ export function InviteForm() {
       {state?.ok ? (
         <Notice tone="pass" testId="invite-sent">
           Invitation sent to <strong>{state.data.email}</strong> as {ROLE_LABELS[state.data.role]}. The link works for seven days.
+          {state.data.replacedInvitations.length > 0 ? (
+            <span data-testid="invite-replaced"> {EARLIER_INVITATION_CANCELLED_MESSAGE}</span>
+          ) : null}
         </Notice>
       ) : null}
     </form>

@@ -49,7 +49,7 @@ export function formatQuantity(si: number, quantity: Quantity, unit: string | un
 }
 
 /** Trailing zeros of a decimal part dropped: an input typed as `6 m` reads back as 6 m, not 6.000 m. */
-function trimZeros(text: string): string {
+export function trimZeros(text: string): string {
   return text.replace(/(\.\d*?)0+(?=×|$)/, "$1").replace(/\.(?=×|$)/, "");
 }
 

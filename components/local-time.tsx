@@ -20,9 +20,13 @@ export function LocalTime({ iso, timeZone, className }: { iso: string; timeZone?
   const instant = new Date(iso);
   const utc = formatUtc(instant);
   const zone = timeZone && isTimeZone(timeZone) ? timeZone : browserZone;
+  const text = zone ? formatInTimeZone(instant, zone) : utc;
+  // Day and time each kept whole, so a narrow column wraps between them and nowhere else.
+  const split = text.indexOf(" ");
   return (
     <time dateTime={instant.toISOString()} title={utc} className={className} data-testid="local-time">
-      {zone ? formatInTimeZone(instant, zone) : utc}
+      <span className="whitespace-nowrap">{text.slice(0, split)}</span>{" "}
+      <span className="whitespace-nowrap">{text.slice(split + 1)}</span>
     </time>
   );
 }

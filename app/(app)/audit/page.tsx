@@ -16,6 +16,18 @@ import { AuditFilters, type AuditFilterErrors, type AuditFilterValues } from "./
 
 export const metadata: Metadata = { title: "Audit trail" };
 
+/** How the message names a filter the address got wrong. */
+const FILTER_NAMES: Record<keyof AuditFilterErrors, string> = {
+  actor: "Who",
+  action: "What",
+  from: "From",
+  to: "To",
+  signIns: "Show sign-ins",
+  tz: "Time zone",
+  limit: "Events a page",
+  before: "Page",
+};
+
 /** One value of a search param as the form shows it back (a repeated param shows its first). */
 function shown(value: string | string[] | undefined): string {
   return Array.isArray(value) ? (value[0] ?? "") : (value ?? "");
@@ -65,7 +77,9 @@ export default async function AuditPage({ searchParams }: PageProps<"/audit">) {
         <Notice tone="fault" title="These filters cannot be used" testId="audit-filter-error">
           <ul className="list-disc pl-5">
             {Object.entries(errors).map(([field, message]) => (
-              <li key={field}>{message}</li>
+              <li key={field}>
+                {FILTER_NAMES[field as keyof AuditFilterErrors]} “{shown(raw[field])}”: {message}
+              </li>
             ))}
           </ul>
           <p className="mt-1">Correct them above, or clear the filters to see the whole trail.</p>
@@ -114,10 +128,10 @@ function AuditResults({
         <TableFrame testId="audit-table" headings={["When", "What happened", "Who", "Subject", "IP address"]}>
           {events.map((event) => (
             <tr key={event.id} data-testid="audit-row" data-action={event.action}>
-              <td className="px-4 py-2.5 align-top whitespace-nowrap text-ink-500 tabular">
+              <td className="px-4 py-2.5 align-top text-ink-500 tabular">
                 <LocalTime iso={event.occurredAt} />
               </td>
-              <td className="min-w-64 px-4 py-2.5 align-top text-ink-700">
+              <td className="min-w-48 px-4 py-2.5 align-top text-ink-700 sm:min-w-64">
                 <AuditSentence event={event} />
               </td>
               <td className="px-4 py-2.5 align-top" data-testid="audit-actor">
@@ -164,8 +178,8 @@ function PersonCell({ who, note }: { who: AuditPerson | string; note?: string })
   return (
     <>
       {note ? <span className="block text-xs text-ink-500">{note}</span> : null}
-      <span className="text-ink-900">{who.person}</span>
-      {who.email ? <span className="block text-xs text-ink-500">{who.email}</span> : null}
+      <span className="text-ink-900 [overflow-wrap:anywhere]">{who.person}</span>
+      {who.email ? <span className="block text-xs whitespace-nowrap text-ink-500">{who.email}</span> : null}
     </>
   );
 }

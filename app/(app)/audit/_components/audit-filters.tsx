@@ -77,7 +77,7 @@ export function AuditFilters({
       role="search"
       aria-label="Filter the audit trail"
       data-testid="audit-filters"
-      className="mb-6 flex flex-wrap items-end gap-x-4 gap-y-3 rounded-plate bg-paper-raised p-4 shadow-sheet ring-1 ring-ink-200"
+      className="mb-6 flex flex-wrap items-start gap-x-4 gap-y-3 rounded-plate bg-paper-raised p-4 shadow-sheet ring-1 ring-ink-200"
     >
       <Field id="audit-filter-actor" label="Who" error={errors.actor} className="w-full sm:w-64">
         <select {...controlProps("actor", values, errors)}>
@@ -110,7 +110,8 @@ export function AuditFilters({
           <input type="date" {...controlProps(name, values, errors)} />
         </Field>
       ))}
-      <div className="flex h-10 items-center">
+      {/* Level with the controls, below their labels. */}
+      <div className="flex h-10 items-center sm:mt-6">
         <label className="flex items-center gap-2 text-sm text-ink-700">
           <input
             type="checkbox"
@@ -123,7 +124,7 @@ export function AuditFilters({
           Show sign-ins
         </label>
       </div>
-      <div className="flex items-center gap-3">
+      <div className="flex items-center gap-3 sm:mt-6">
         <button type="submit" className={buttonClasses("primary")} data-testid="audit-filter-submit">
           Filter
         </button>

@@ -110,8 +110,8 @@ export function AuditFilters({
           <input type="date" {...controlProps(name, values, errors)} />
         </Field>
       ))}
-      {/* Level with the controls, below their labels. */}
-      <div className="flex h-10 items-center sm:mt-6">
+      {/* A line of its own, so the controls above keep their widths and this never strays. */}
+      <div className="flex basis-full flex-wrap items-center gap-x-6 gap-y-3">
         <label className="flex items-center gap-2 text-sm text-ink-700">
           <input
             type="checkbox"
@@ -123,14 +123,14 @@ export function AuditFilters({
           />
           Show sign-ins
         </label>
-      </div>
-      <div className="flex items-center gap-3 sm:mt-6">
-        <button type="submit" className={buttonClasses("primary")} data-testid="audit-filter-submit">
-          Filter
-        </button>
-        <Link href="/audit" className="text-sm font-medium text-plate-700 hover:underline" data-testid="audit-filter-clear">
-          Clear
-        </Link>
+        <div className="flex items-center gap-3">
+          <button type="submit" className={buttonClasses("primary")} data-testid="audit-filter-submit">
+            Filter
+          </button>
+          <Link href="/audit" className="text-sm font-medium text-plate-700 hover:underline" data-testid="audit-filter-clear">
+            Clear
+          </Link>
+        </div>
       </div>
       <TimeZoneField timeZone={timeZone} />
     </form>

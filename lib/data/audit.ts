@@ -2,8 +2,9 @@ import "server-only";
 // The audit trail: written for every change (by the use-case runner, lib/use-cases/run.ts) and every
 // sign-in attempt, read by auditors and admins. The table refuses UPDATE, DELETE and TRUNCATE
 // (drizzle/0002_audit_append_only.sql).
-import { and, desc, eq, lt } from "drizzle-orm";
-import { auditEvents, user } from "@/db/schema";
+import { and, asc, desc, eq, gte, lt, notInArray, sql } from "drizzle-orm";
+import { alias } from "drizzle-orm/pg-core";
+import { auditEvents, invitations, user } from "@/db/schema";
 import { auditActionLabel, type AuditEventInput } from "@/lib/domain/audit-actions";
 import { currentDb } from "./transaction";
 
@@ -15,7 +16,11 @@ export type AuditEventDto = {
   actorName: string | null;
   action: string;
   label: string;
+  /** The stored reference ("user:…", "invitation:…"); pages show the names below, never this. */
   subject: string | null;
+  /** The person (or the invited person) the reference points at; null when it points at nothing on record. */
+  subjectName: string | null;
+  subjectEmail: string | null;
   details: Record<string, unknown>;
   ipAddress: string | null;
 };
@@ -34,16 +39,32 @@ export async function recordAuditEvent(event: AuditEventInput): Promise<void> {
     });
 }
 
-/** Newest first; pass the last id seen as `before` for the next page. Callers check audit.read. */
+/** Which events a page of the trail holds. `from` is inclusive, `until` exclusive. */
+export type AuditEventFilter = {
+  limit?: number;
+  /** The last id seen: the page holds older events. */
+  before?: number;
+  actorId?: string;
+  action?: string;
+  from?: Date;
+  until?: Date;
+  /** Actions left out (sign-ins, unless asked for). */
+  excludeActions?: readonly string[];
+};
+
+// The person an event was done to ("user:<id>") and the invitation it concerned ("invitation:<uuid>").
+const subjectUser = alias(user, "subject_user");
+
+/** Newest first, with the actor's and the subject's names; pass the last id seen as `before` for the next page. Callers check audit.read. */
 export async function listAuditEvents({
   limit = 50,
   before,
   actorId,
-}: {
-  limit?: number;
-  before?: number;
-  actorId?: string;
-}): Promise<{ events: AuditEventDto[]; nextBefore: number | null }> {
+  action,
+  from,
+  until,
+  excludeActions = [],
+}: AuditEventFilter): Promise<{ events: AuditEventDto[]; nextBefore: number | null }> {
   const pageSize = Math.min(Math.max(Math.trunc(limit), 1), 200);
   const rows = await currentDb()
     .select({
@@ -54,15 +75,23 @@ export async function listAuditEvents({
       actorName: user.name,
       action: auditEvents.action,
       subject: auditEvents.subject,
+      subjectName: sql<string | null>`coalesce(${subjectUser.name}, ${invitations.name})`,
+      subjectEmail: sql<string | null>`coalesce(${subjectUser.email}, ${invitations.email})`,
       details: auditEvents.details,
       ipAddress: auditEvents.ipAddress,
     })
     .from(auditEvents)
     .leftJoin(user, eq(user.id, auditEvents.actorId))
+    .leftJoin(subjectUser, sql`${auditEvents.subject} = 'user:' || ${subjectUser.id}`)
+    .leftJoin(invitations, sql`${auditEvents.subject} = 'invitation:' || ${invitations.id}::text`)
     .where(
       and(
         before === undefined ? undefined : lt(auditEvents.id, before),
         actorId === undefined ? undefined : eq(auditEvents.actorId, actorId),
+        action === undefined ? undefined : eq(auditEvents.action, action),
+        from === undefined ? undefined : gte(auditEvents.occurredAt, from),
+        until === undefined ? undefined : lt(auditEvents.occurredAt, until),
+        excludeActions.length === 0 ? undefined : notInArray(auditEvents.action, [...excludeActions]),
       ),
     )
     .orderBy(desc(auditEvents.id))
@@ -76,4 +105,15 @@ export async function listAuditEvents({
     })),
     nextBefore: rows.length > pageSize ? page[page.length - 1].id : null,
   };
+}
+
+export type AuditPersonDto = { id: string; name: string; email: string; deactivated: boolean };
+
+/** Everyone who has an account, for the trail's "who" filter: by name, deactivated people included. */
+export async function listAuditPeople(): Promise<AuditPersonDto[]> {
+  const rows = await currentDb()
+    .select({ id: user.id, name: user.name, email: user.email, deactivatedAt: user.deactivatedAt })
+    .from(user)
+    .orderBy(asc(user.name), asc(user.email));
+  return rows.map(({ deactivatedAt, ...person }) => ({ ...person, deactivated: deactivatedAt !== null }));
 }

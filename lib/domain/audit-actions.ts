@@ -52,9 +52,15 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "profile.set-time-zone": "Set their time zone",
 };
 
-function isAuditAction(value: string): value is AuditAction {
+export function isAuditAction(value: string): value is AuditAction {
   return Object.hasOwn(AUDIT_ACTION_LABELS, value);
 }
+
+/**
+ * Sign-ins and failed sign-ins: most of the trail by count, so lists hide them unless asked for (or unless
+ * one of them is the action filtered on). A sign-out, once recorded, belongs here too.
+ */
+export const SIGN_IN_ACTIONS: readonly AuditAction[] = ["auth.sign-in", "auth.sign-in.failed"];
 
 /** The label for a stored action; an action written by an older version keeps its key as its label. */
 export function auditActionLabel(action: string): string {

@@ -4,8 +4,10 @@ import "server-only";
 // the 403 page; this is the check that holds if a page forgets.
 import { z } from "zod";
 import { can } from "@/lib/domain/permissions";
-import { listAuditEventsSchema } from "@/lib/domain/schemas/audit";
-import { listAuditEvents, type AuditEventDto } from "@/lib/data/audit";
+import { SIGN_IN_ACTIONS } from "@/lib/domain/audit-actions";
+import { auditTrailQuerySchema } from "@/lib/domain/schemas/audit";
+import { nextDay, startOfDayInTimeZone } from "@/lib/domain/zoned-time";
+import { listAuditEvents, listAuditPeople, type AuditEventDto } from "@/lib/data/audit";
 import { getFirmName } from "@/lib/data/firm";
 import { countPendingInvitations } from "@/lib/data/invitations";
 import { isMailboxEnabled, listCapturedMail } from "@/lib/data/mailbox";
@@ -45,7 +47,9 @@ export const readHome = defineUseCase({
     if (can(actor.role, "users.read")) {
       summary.people = { ...(await countUsers()), pendingInvitations: await countPendingInvitations() };
     }
-    if (can(actor.role, "audit.read")) summary.audit = { recent: (await listAuditEvents({ limit: 5 })).events };
+    // The card is for changes: sign-ins would crowd them out within minutes.
+    if (can(actor.role, "audit.read"))
+      summary.audit = { recent: (await listAuditEvents({ limit: 5, excludeActions: SIGN_IN_ACTIONS })).events };
     return summary;
   },
   audit: null,
@@ -59,11 +63,31 @@ export const readProjects = defineUseCase({
   audit: null,
 });
 
+/** A page of the trail, filtered; dates are whole days in the query's time zone. */
 export const readAuditTrail = defineUseCase({
   name: "audit.list",
   permission: "audit.read",
-  input: listAuditEventsSchema,
-  run: async ({ limit, before }) => listAuditEvents({ limit, before }),
+  input: auditTrailQuerySchema,
+  run: async ({ limit, before, actor, action, from, to, signIns, tz }) =>
+    listAuditEvents({
+      limit,
+      before,
+      actorId: actor,
+      action,
+      from: from ? startOfDayInTimeZone(from, tz) : undefined,
+      until: to ? startOfDayInTimeZone(nextDay(to), tz) : undefined,
+      // Asking for a sign-in action by name is asking for sign-ins.
+      excludeActions: signIns || action ? [] : SIGN_IN_ACTIONS,
+    }),
+  audit: null,
+});
+
+/** The people the trail can be filtered by. */
+export const readAuditPeople = defineUseCase({
+  name: "audit.people",
+  permission: "audit.read",
+  input: noInput,
+  run: async () => listAuditPeople(),
   audit: null,
 });
 

@@ -64,18 +64,18 @@ function RoleCards({ role, summary, mailbox }: { role: Role; summary: HomeSummar
     ) : null;
   const projectsCard = projects ? (
     <HomeCard
-      title="Projects"
+      title="Jobs"
       testId="home-projects"
       figure={projects.count}
-      figureLabel="jobs"
+      figureLabel={projects.count === 1 ? "job on record" : "jobs on record"}
       href="/projects"
-      linkLabel="All projects"
+      linkLabel="All jobs"
     >
       <RecentProjects projects={projects.recent} />
     </HomeCard>
   ) : null;
   const auditCard = audit ? (
-    <HomeCard title="Audit trail" testId="home-audit" href="/audit" linkLabel="Open the audit trail">
+    <HomeCard title="Recent changes" testId="home-audit" href="/audit" linkLabel="Open the audit trail">
       <RecentAuditEvents events={audit.recent} />
     </HomeCard>
   ) : null;
@@ -92,7 +92,7 @@ function RoleCards({ role, summary, mailbox }: { role: Role; summary: HomeSummar
     case "lead":
       return (
         <>
-          <HomeCard title="Library drafts and reviews" testId="home-library" coming href="/library" linkLabel="Library">
+          <HomeCard title="Standards: drafts and reviews" testId="home-library" coming href="/library" linkLabel="Standards">
             Your drafts, drafts waiting for your review, and versions you published will be listed here.
           </HomeCard>
           {projectsCard}
@@ -108,8 +108,8 @@ function RoleCards({ role, summary, mailbox }: { role: Role; summary: HomeSummar
           <HomeCard title="Recent runs" testId="home-runs" coming href="/runs" linkLabel="Runs">
             Your runs and the calc sheets waiting for you to prepare or check will be listed here.
           </HomeCard>
-          <HomeCard title="Library" testId="home-library" coming href="/library" linkLabel="Library">
-            Published versions of the firm&apos;s standard calcs, ready to run in a project.
+          <HomeCard title="Standards" testId="home-library" coming href="/library" linkLabel="Standards">
+            Published versions of the firm&apos;s standard calcs, ready to run in a job.
           </HomeCard>
         </>
       );

@@ -30,7 +30,7 @@ export function HomeCard({
     >
       <div className="flex items-baseline justify-between gap-3">
         <h2 className="text-sm font-semibold text-ink-900">{title}</h2>
-        {coming ? <span className="text-[0.7rem] font-medium tracking-wide text-ink-400 uppercase">Coming</span> : null}
+        {coming ? <span className="text-[0.7rem] font-medium tracking-wide text-ink-500 uppercase">Coming</span> : null}
       </div>
       {figure !== undefined ? (
         <p className="mt-3 flex items-baseline gap-2">

@@ -1,9 +1,10 @@
 import type { AuditEventDto } from "@/lib/data/audit";
 import type { ProjectDto } from "@/lib/data/projects";
-import { formatDateTime } from "@/components/format-date";
+import { AuditSentence } from "@/components/audit-sentence";
+import { LocalTime } from "@/components/local-time";
 
 export function RecentProjects({ projects }: { projects: ProjectDto[] }) {
-  if (projects.length === 0) return <p>No projects yet.</p>;
+  if (projects.length === 0) return <p>No jobs yet.</p>;
   return (
     <ul className="space-y-1.5" data-testid="home-recent-projects">
       {projects.map((project) => (
@@ -19,18 +20,15 @@ export function RecentProjects({ projects }: { projects: ProjectDto[] }) {
 }
 
 export function RecentAuditEvents({ events }: { events: AuditEventDto[] }) {
-  if (events.length === 0) return <p>Nothing recorded yet.</p>;
+  if (events.length === 0) return <p>No changes recorded yet.</p>;
   return (
-    <ul className="space-y-1.5" data-testid="home-recent-audit">
+    <ul className="space-y-2.5" data-testid="home-recent-audit">
       {events.map((event) => (
-        <li key={event.id} className="flex flex-wrap gap-x-3">
-          <span className="text-xs leading-5 text-ink-400 tabular">{formatDateTime(event.occurredAt)}</span>
-          <span className="text-ink-700">
-            {event.label}
-            {event.actorName || event.actorEmail ? (
-              <span className="text-ink-400"> · {event.actorName ?? event.actorEmail}</span>
-            ) : null}
+        <li key={event.id} data-testid="home-audit-event" data-action={event.action}>
+          <span className="block text-ink-700">
+            <AuditSentence event={event} />
           </span>
+          <LocalTime iso={event.occurredAt} className="text-xs leading-5 text-ink-500 tabular" />
         </li>
       ))}
     </ul>

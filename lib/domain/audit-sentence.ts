@@ -1,0 +1,167 @@
+// One audit event as one sentence that says who acted on whom: "Ines Okafor-Lind changed Sam Reed's role
+// from Engineer to Standards lead". Shared by the home cards and the audit trail, so both read the same.
+// Details come from a jsonb column that older versions wrote too, so every field is read defensively;
+// raw ids are never part of a sentence.
+import { auditActionLabel } from "./audit-actions";
+import { ROLE_LABELS, isRole } from "./roles";
+
+/** What the sentence needs of an event: the stored fields plus the names the query resolved. */
+export type AuditSentenceEvent = {
+  action: string;
+  actorName: string | null;
+  actorEmail: string | null;
+  /** The stored reference ("user:…", "invitation:…"); only its kind is used. */
+  subject: string | null;
+  /** The subject's name and e-mail, from the user or invitation the reference points at; null when none is found. */
+  subjectName: string | null;
+  subjectEmail: string | null;
+  details: Record<string, unknown>;
+};
+
+/** A person named in a sentence, with the e-mail a page may show beside or under the name. */
+export type AuditPerson = { person: string; email: string | null };
+export type AuditSentencePart = string | AuditPerson;
+
+function text(value: unknown): string | null {
+  return typeof value === "string" && value.length > 0 ? value : null;
+}
+
+function count(value: unknown): number | null {
+  return typeof value === "number" && Number.isFinite(value) ? value : null;
+}
+
+function roleLabel(value: unknown): string | null {
+  return isRole(value) ? ROLE_LABELS[value] : text(value);
+}
+
+function plural(n: number, one: string, many: string): string {
+  return `${n} ${n === 1 ? one : many}`;
+}
+
+/** Who acted: their name (with e-mail), the e-mail typed, Gusset itself for the seed, else "Someone". */
+export function auditActorOf(event: AuditSentenceEvent): AuditPerson | string {
+  if (event.actorName) return { person: event.actorName, email: event.actorEmail };
+  if (event.actorEmail) return { person: event.actorEmail, email: null };
+  return event.action === "system.seed" ? "Gusset" : "Someone";
+}
+
+/** The person or invitation acted on; says plainly when the record it points at is gone. */
+export function auditSubjectOf(event: AuditSentenceEvent): AuditPerson | string {
+  const recordedEmail = text(event.details.email);
+  if (event.subject?.startsWith("invitation:")) {
+    const email = event.subjectEmail ?? recordedEmail;
+    return email ? { person: email, email: null } : "an unknown invitation";
+  }
+  if (event.subjectName) return { person: event.subjectName, email: event.subjectEmail };
+  if (event.subject === null && recordedEmail) return { person: recordedEmail, email: null };
+  return recordedEmail ? `a deleted account (${recordedEmail})` : "an unknown account";
+}
+
+/** The account a sign-in or reset was attempted for: the known person, else the e-mail as typed. */
+function attemptedAccountOf(event: AuditSentenceEvent): AuditPerson | string {
+  if (event.subjectName) return { person: event.subjectName, email: event.subjectEmail };
+  if (event.actorName) return { person: event.actorName, email: event.actorEmail };
+  return event.actorEmail ? { person: event.actorEmail, email: null } : "an unknown account";
+}
+
+const SIGN_IN_REASONS: Record<string, string> = {
+  INVALID_EMAIL_OR_PASSWORD: "wrong password",
+  ACCOUNT_DEACTIVATED: "the account is deactivated",
+  RATE_LIMITED: "too many attempts",
+  EMAIL_RATE_LIMITED: "too many requests for this e-mail",
+  INVALID_ORIGIN: "sent from a page that is not Gusset's",
+  INVALID_TOKEN: "the link was invalid, used or expired",
+};
+
+function reasonWords(details: Record<string, unknown>): string | null {
+  const reason = text(details.reason);
+  if (!reason) return null;
+  return SIGN_IN_REASONS[reason] ?? `refused (${reason})`;
+}
+
+/** The sentence as parts: plain text and the people in it (so a page can style names and show e-mails). */
+export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart[] {
+  const actor = auditActorOf(event);
+  const d = event.details;
+  switch (event.action) {
+    case "system.seed": {
+      const firm = text(d.firm);
+      const users = count(d.users);
+      const jobs = count(d.projects);
+      const sizes =
+        users !== null && jobs !== null ? ` with ${plural(users, "person", "people")} and ${plural(jobs, "job", "jobs")}` : "";
+      return [actor, ` set up the demo firm${firm ? ` ${firm}` : ""}${sizes}`];
+    }
+    case "auth.sign-in":
+      return [actor, " signed in"];
+    case "auth.sign-in.failed": {
+      const why = d.knownUser === false ? "no account has this e-mail" : reasonWords(d);
+      return ["Failed sign-in as ", attemptedAccountOf(event), why ? `: ${why}` : ""];
+    }
+    case "auth.password-reset.requested": {
+      const why = d.knownUser === false ? "no account has this e-mail" : reasonWords(d);
+      return ["Password reset asked for ", attemptedAccountOf(event), why ? `: ${why}` : ""];
+    }
+    case "auth.password-reset":
+      return [actor, " reset their password"];
+    case "auth.password-reset.failed": {
+      const why = reasonWords(d);
+      return [`A password reset was refused${why ? `: ${why}` : ""}`];
+    }
+    case "users.invite": {
+      const role = roleLabel(d.role);
+      const replaced = Array.isArray(d.replacedInvitations) ? d.replacedInvitations.length : 0;
+      const cancelled =
+        replaced === 0
+          ? ""
+          : replaced === 1
+            ? ", cancelling the earlier invitation"
+            : `, cancelling ${replaced} earlier invitations`;
+      return [actor, " invited ", auditSubjectOf(event), `${role ? ` as ${role}` : ""}${cancelled}`];
+    }
+    case "users.set-role": {
+      const from = roleLabel(d.from);
+      const to = roleLabel(d.to);
+      const change = from && to ? ` from ${from} to ${to}` : to ? ` to ${to}` : "";
+      return [actor, " changed ", auditSubjectOf(event), `'s role${change}`];
+    }
+    case "users.deactivate": {
+      const ended = count(d.sessionsEnded) ?? 0;
+      return [
+        actor,
+        " deactivated ",
+        auditSubjectOf(event),
+        ended > 0 ? `, ending ${plural(ended, "open session", "open sessions")}` : "",
+      ];
+    }
+    case "users.reactivate":
+      return [actor, " reactivated ", auditSubjectOf(event)];
+    case "invitations.accept": {
+      const role = roleLabel(d.role);
+      return [actor, ` accepted the invitation${role ? ` and joined as ${role}` : ""}`];
+    }
+    case "invitations.revoke": {
+      const role = roleLabel(d.role);
+      return [actor, " cancelled the invitation to ", auditSubjectOf(event), role ? ` as ${role}` : ""];
+    }
+    case "access.refused": {
+      const useCase = text(d.useCase);
+      const permission = text(d.permission);
+      return [actor, ` was refused ${useCase ?? "an action"}${permission ? ` (it needs ${permission})` : ""}`];
+    }
+    case "invitations.accept.failed": {
+      const message = text(d.message);
+      return [`An invitation link could not be used${message ? `: ${message}` : ""}`];
+    }
+    default:
+      // A kind this version has no sentence for (a newer or retired one): who, and its label.
+      return [actor, `: ${auditActionLabel(event.action)}`];
+  }
+}
+
+/** The sentence as plain text. */
+export function auditSentence(event: AuditSentenceEvent): string {
+  return auditSentenceParts(event)
+    .map((part) => (typeof part === "string" ? part : part.person))
+    .join("");
+}

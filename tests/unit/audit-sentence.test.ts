@@ -1,0 +1,194 @@
+// Audit events in words (issue 9, item 1): who acted on whom, never a raw id; a role change says from
+// which role to which when that was recorded; a subject no longer on record is named plainly.
+import { describe, expect, it } from "vitest";
+import {
+  auditActorOf,
+  auditSentence,
+  auditSentenceParts,
+  auditSubjectOf,
+  type AuditSentenceEvent,
+} from "@/lib/domain/audit-sentence";
+import { AUDIT_ACTION_LABELS, type AuditAction } from "@/lib/domain/audit-actions";
+
+const ines = { actorName: "Ines Okafor-Lind", actorEmail: "ines@marrowby-fenn.example" };
+const sam = { subject: "user:6hJ2kQ9xPzL0", subjectName: "Sam Reed", subjectEmail: "sam@marrowby-fenn.example" };
+
+function event(overrides: Partial<AuditSentenceEvent>): AuditSentenceEvent {
+  return {
+    action: "users.reactivate",
+    actorName: null,
+    actorEmail: null,
+    subject: null,
+    subjectName: null,
+    subjectEmail: null,
+    details: {},
+    ...overrides,
+  };
+}
+
+describe("auditSentence", () => {
+  it.each<[string, Partial<AuditSentenceEvent>, string]>([
+    [
+      "a deactivation names both people",
+      { action: "users.deactivate", ...ines, ...sam, details: { email: sam.subjectEmail, sessionsEnded: 0 } },
+      "Ines Okafor-Lind deactivated Sam Reed",
+    ],
+    [
+      "a deactivation that ended sessions counts them",
+      { action: "users.deactivate", ...ines, ...sam, details: { email: sam.subjectEmail, sessionsEnded: 2 } },
+      "Ines Okafor-Lind deactivated Sam Reed, ending 2 open sessions",
+    ],
+    [
+      "a role change says from which role to which",
+      { action: "users.set-role", ...ines, ...sam, details: { email: sam.subjectEmail, from: "engineer", to: "lead" } },
+      "Ines Okafor-Lind changed Sam Reed's role from Engineer to Standards lead",
+    ],
+    [
+      "a role change recorded without its old role says only the new one",
+      { action: "users.set-role", ...ines, ...sam, details: { email: sam.subjectEmail, to: "auditor" } },
+      "Ines Okafor-Lind changed Sam Reed's role to QA auditor",
+    ],
+    [
+      "an invitation names the invited e-mail and role",
+      {
+        action: "users.invite",
+        ...ines,
+        subject: "invitation:0b7e3c1e-9a55-4d2b-8f0e-1c2d3e4f5a6b",
+        subjectName: "Dana Example",
+        subjectEmail: "dana@elsewhere.example",
+        details: { email: "dana@elsewhere.example", role: "engineer", replacedInvitations: [] },
+      },
+      "Ines Okafor-Lind invited dana@elsewhere.example as Engineer",
+    ],
+    [
+      "an invitation that replaced an earlier one says it was cancelled",
+      {
+        action: "users.invite",
+        ...ines,
+        subject: "invitation:0b7e3c1e",
+        subjectEmail: "dana@elsewhere.example",
+        details: { email: "dana@elsewhere.example", role: "auditor", replacedInvitations: ["a1"] },
+      },
+      "Ines Okafor-Lind invited dana@elsewhere.example as QA auditor, cancelling the earlier invitation",
+    ],
+    [
+      "a cancelled invitation",
+      {
+        action: "invitations.revoke",
+        ...ines,
+        subject: "invitation:0b7e3c1e",
+        subjectEmail: "dana@elsewhere.example",
+        details: { email: "dana@elsewhere.example", role: "engineer" },
+      },
+      "Ines Okafor-Lind cancelled the invitation to dana@elsewhere.example as Engineer",
+    ],
+    [
+      "an accepted invitation",
+      {
+        action: "invitations.accept",
+        actorName: "Dana Example",
+        actorEmail: "dana@elsewhere.example",
+        details: { role: "lead", invitedById: "x" },
+      },
+      "Dana Example accepted the invitation and joined as Standards lead",
+    ],
+    [
+      "a reactivation",
+      { action: "users.reactivate", ...ines, ...sam, details: { email: sam.subjectEmail } },
+      "Ines Okafor-Lind reactivated Sam Reed",
+    ],
+    [
+      "a sign-in",
+      { action: "auth.sign-in", ...ines, subject: "user:1", subjectName: ines.actorName },
+      "Ines Okafor-Lind signed in",
+    ],
+    [
+      "a failed sign-in for a known person gives the reason in words",
+      {
+        action: "auth.sign-in.failed",
+        ...ines,
+        subject: "user:1",
+        subjectName: ines.actorName,
+        details: { reason: "INVALID_EMAIL_OR_PASSWORD", knownUser: true },
+      },
+      "Failed sign-in as Ines Okafor-Lind: wrong password",
+    ],
+    [
+      "a failed sign-in for an address with no account",
+      {
+        action: "auth.sign-in.failed",
+        actorEmail: "nobody@elsewhere.example",
+        details: { reason: "INVALID_EMAIL_OR_PASSWORD", knownUser: false },
+      },
+      "Failed sign-in as nobody@elsewhere.example: no account has this e-mail",
+    ],
+    [
+      "a failed sign-in for a deactivated account",
+      { action: "auth.sign-in.failed", ...ines, ...sam, details: { reason: "ACCOUNT_DEACTIVATED", knownUser: true } },
+      "Failed sign-in as Sam Reed: the account is deactivated",
+    ],
+    [
+      "a refused action names the use case and what it needs",
+      { action: "access.refused", ...ines, details: { useCase: "audit.list", permission: "audit.read" } },
+      "Ines Okafor-Lind was refused audit.list (it needs audit.read)",
+    ],
+    [
+      "the seed is Gusset's own doing",
+      { action: "system.seed", details: { firm: "Marrowby Fenn Structural", users: 4, projects: 1 } },
+      "Gusset set up the demo firm Marrowby Fenn Structural with 4 people and 1 job",
+    ],
+    [
+      "an unused invitation link has no actor",
+      { action: "invitations.accept.failed", details: { reason: "conflict", message: "This invitation has expired." } },
+      "An invitation link could not be used: This invitation has expired.",
+    ],
+  ])("%s", (_name, overrides, expected) => {
+    expect(auditSentence(event(overrides))).toBe(expected);
+  });
+
+  it("says plainly when the person acted on is no longer on record", () => {
+    const gone = event({
+      action: "users.deactivate",
+      ...ines,
+      subject: "user:6hJ2kQ9xPzL0",
+      details: { email: "old@x.example" },
+    });
+    expect(auditSentence(gone)).toBe("Ines Okafor-Lind deactivated a deleted account (old@x.example)");
+    const unknown = event({ action: "users.reactivate", ...ines, subject: "user:6hJ2kQ9xPzL0", details: {} });
+    expect(auditSentence(unknown)).toBe("Ines Okafor-Lind reactivated an unknown account");
+    expect(auditSubjectOf(event({ action: "users.invite", subject: "invitation:zz", details: {} }))).toBe(
+      "an unknown invitation",
+    );
+  });
+
+  it("names an actor with no account by the e-mail recorded, and an actor with nothing recorded as someone", () => {
+    expect(auditActorOf(event({ actorEmail: "typed@x.example" }))).toEqual({ person: "typed@x.example", email: null });
+    expect(auditActorOf(event({}))).toBe("Someone");
+    expect(auditActorOf(event({ ...ines }))).toEqual({ person: ines.actorName, email: ines.actorEmail });
+  });
+
+  it("never puts a raw id in a sentence, for any action this version knows", () => {
+    for (const action of Object.keys(AUDIT_ACTION_LABELS) as AuditAction[]) {
+      const withNames = auditSentence(event({ action, ...ines, ...sam, details: { email: sam.subjectEmail } }));
+      const withoutNames = auditSentence(event({ action, subject: "user:6hJ2kQ9xPzL0", details: {} }));
+      for (const sentence of [withNames, withoutNames]) {
+        expect(sentence, action).not.toContain("6hJ2kQ9xPzL0");
+        expect(sentence, action).not.toMatch(/undefined|null|\[object/);
+      }
+    }
+  });
+
+  it("keeps an action it has no sentence for readable: who, then the stored key", () => {
+    expect(auditSentence(event({ action: "test.future-kind", ...ines }))).toBe("Ines Okafor-Lind: test.future-kind");
+  });
+
+  it("marks the people in the sentence, with their e-mails, so a page can show them", () => {
+    const parts = auditSentenceParts(
+      event({ action: "users.set-role", ...ines, ...sam, details: { email: sam.subjectEmail, from: "engineer", to: "admin" } }),
+    );
+    expect(parts.filter((part) => typeof part !== "string")).toEqual([
+      { person: "Ines Okafor-Lind", email: "ines@marrowby-fenn.example" },
+      { person: "Sam Reed", email: "sam@marrowby-fenn.example" },
+    ]);
+  });
+});

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageActor } from "@/lib/auth/session";
 import { runUseCase } from "@/lib/use-cases/run";
+import { readProfile } from "@/lib/use-cases/profile";
 import { readAuditPeople, readAuditTrail } from "@/lib/use-cases/reads";
 import { auditTrailHref, auditTrailQuerySchema, type AuditTrailQuery } from "@/lib/domain/schemas/audit";
 import { auditActorOf, auditSubjectOf, type AuditPerson } from "@/lib/domain/audit-sentence";
@@ -62,6 +63,8 @@ export default async function AuditPage({ searchParams }: PageProps<"/audit">) {
       };
   // One after another: each use case is its own transaction on the one pool.
   const people = await runUseCase(readAuditPeople, { actor, input: {} });
+  // The person's own time zone from their profile, when set; otherwise the browser's.
+  const timeZone = (await runUseCase(readProfile, { actor, input: {} })).timeZone ?? undefined;
   const trail = parsed.success ? await runUseCase(readAuditTrail, { actor, input: parsed.data }) : null;
 
   return (
@@ -70,9 +73,9 @@ export default async function AuditPage({ searchParams }: PageProps<"/audit">) {
         title="Audit trail"
         lead="Who did what, to whom, and when: invitations, role changes, deactivations and sign-ins. Entries are append-only — the database refuses to change or delete them."
       />
-      <AuditFilters values={values} errors={errors} people={people} />
+      <AuditFilters values={values} errors={errors} people={people} timeZone={timeZone} />
       {trail && parsed.success ? (
-        <AuditResults query={parsed.data} events={trail.events} nextBefore={trail.nextBefore} />
+        <AuditResults query={parsed.data} events={trail.events} nextBefore={trail.nextBefore} timeZone={timeZone} />
       ) : (
         <Notice tone="fault" title="These filters cannot be used" testId="audit-filter-error">
           <ul className="list-disc pl-5">
@@ -104,10 +107,12 @@ function AuditResults({
   query,
   events,
   nextBefore,
+  timeZone,
 }: {
   query: AuditTrailQuery;
   events: AuditEventDto[];
   nextBefore: number | null;
+  timeZone?: string;
 }) {
   const filtered = Boolean(query.actor || query.action || query.from || query.to);
   const signInsHidden = !query.signIns && !query.action;
@@ -129,7 +134,7 @@ function AuditResults({
           {events.map((event) => (
             <tr key={event.id} data-testid="audit-row" data-action={event.action}>
               <td className="px-4 py-2.5 align-top text-ink-500 tabular">
-                <LocalTime iso={event.occurredAt} />
+                <LocalTime iso={event.occurredAt} timeZone={timeZone} />
               </td>
               <td className="min-w-48 px-4 py-2.5 align-top text-ink-700 sm:min-w-64">
                 <AuditSentence event={event} />

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { requirePageActor } from "@/lib/auth/session";
 import { ROLE_LABELS, ROLE_SUMMARIES, type Role } from "@/lib/domain/roles";
 import { runUseCase } from "@/lib/use-cases/run";
+import { readProfile } from "@/lib/use-cases/profile";
 import { readHome, type HomeSummary } from "@/lib/use-cases/reads";
 import { HomeCard } from "./_components/home-card";
 import { RecentAuditEvents, RecentProjects } from "./_components/recent-lists";
@@ -11,6 +12,7 @@ export const metadata: Metadata = { title: "Home" };
 export default async function HomePage() {
   const actor = await requirePageActor(undefined, { next: "/home" });
   const summary = await runUseCase(readHome, { actor, input: {} });
+  const timeZone = (await runUseCase(readProfile, { actor, input: {} })).timeZone ?? undefined;
   const mailbox = summary.mailboxEnabled;
   const firstName = actor.name.split(" ")[0];
 
@@ -26,7 +28,7 @@ export default async function HomePage() {
         <p className="mt-2 max-w-2xl text-[0.95rem] text-ink-500">{ROLE_SUMMARIES[actor.role]}</p>
       </header>
       <div className="grid gap-4 sm:grid-cols-2 xl:grid-cols-3">
-        <RoleCards role={actor.role} summary={summary} mailbox={mailbox} />
+        <RoleCards role={actor.role} summary={summary} mailbox={mailbox} timeZone={timeZone} />
       </div>
     </div>
   );
@@ -34,7 +36,17 @@ export default async function HomePage() {
 
 // What each role sees first. Counts come only from the parts of the summary the server filled in for
 // this role; a part missing from the summary is simply not drawn.
-function RoleCards({ role, summary, mailbox }: { role: Role; summary: HomeSummary; mailbox: boolean }) {
+function RoleCards({
+  role,
+  summary,
+  mailbox,
+  timeZone,
+}: {
+  role: Role;
+  summary: HomeSummary;
+  mailbox: boolean;
+  timeZone?: string;
+}) {
   const { people, projects, audit } = summary;
   const peopleCard = people ? (
     <HomeCard
@@ -76,7 +88,7 @@ function RoleCards({ role, summary, mailbox }: { role: Role; summary: HomeSummar
   ) : null;
   const auditCard = audit ? (
     <HomeCard title="Recent changes" testId="home-audit" href="/audit" linkLabel="Open the audit trail">
-      <RecentAuditEvents events={audit.recent} />
+      <RecentAuditEvents events={audit.recent} timeZone={timeZone} />
     </HomeCard>
   ) : null;
 

@@ -19,7 +19,7 @@ export function RecentProjects({ projects }: { projects: ProjectDto[] }) {
   );
 }
 
-export function RecentAuditEvents({ events }: { events: AuditEventDto[] }) {
+export function RecentAuditEvents({ events, timeZone }: { events: AuditEventDto[]; timeZone?: string }) {
   if (events.length === 0) return <p>No changes recorded yet.</p>;
   return (
     <ul className="space-y-2.5" data-testid="home-recent-audit">
@@ -28,7 +28,7 @@ export function RecentAuditEvents({ events }: { events: AuditEventDto[] }) {
           <span className="block text-ink-700">
             <AuditSentence event={event} />
           </span>
-          <LocalTime iso={event.occurredAt} className="text-xs leading-5 text-ink-500 tabular" />
+          <LocalTime iso={event.occurredAt} timeZone={timeZone} className="text-xs leading-5 text-ink-500 tabular" />
         </li>
       ))}
     </ul>

@@ -6,7 +6,7 @@
 import { describe, expect, it } from "vitest";
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
-import { compileStandard } from "@/lib/standards";
+import { compileStandard, definitionJsonSchema } from "@/lib/standards";
 import { runVerification } from "@/lib/standards/verify";
 
 const root = path.resolve(import.meta.dirname, "../../content/standards");
@@ -48,5 +48,12 @@ describe("the starting standards", () => {
       expect(Object.keys(e.evaluation.checks).length).toBeGreaterThanOrEqual(1);
       expect(e.evaluation.equilibriumResidual).toBeLessThan(1e-9);
     });
+  });
+});
+
+describe("the JSON Schema of the definition", () => {
+  it("content/standard.schema.json is up to date (npm run standards:schema writes it)", () => {
+    const committed = readFileSync(path.resolve(import.meta.dirname, "../../content/standard.schema.json"), "utf8");
+    expect(JSON.parse(committed)).toEqual(definitionJsonSchema());
   });
 });

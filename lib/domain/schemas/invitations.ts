@@ -19,5 +19,5 @@ export const INVITATION_MESSAGES: Record<Exclude<InvitationStatus, "valid"> | "u
   unknown: "This invitation link is not valid. Check that you copied all of it, or ask your admin for a new one.",
   expired: "This invitation has expired. Ask your admin to send a new one.",
   used: "This invitation has already been used. Sign in with your e-mail and password, or reset your password.",
-  revoked: "This invitation was withdrawn. Ask your admin for a new one if you still need access.",
+  revoked: "This invitation was cancelled. Ask your admin for a new one if you still need access.",
 };

@@ -1,19 +1,21 @@
 import { SHEET, outlinePath } from "@/components/connection-geometry";
 import { GussetMark } from "@/components/gusset-mark";
+import { SkipLink } from "@/components/ui/skip-link";
 
 // Pages for people who are not signed in: sign-in, password reset, accepting an invitation.
 export default function AuthLayout({ children }: { children: React.ReactNode }) {
   return (
     <div className="grid min-h-dvh lg:grid-cols-[minmax(0,5fr)_minmax(0,4fr)]">
+      <SkipLink />
       <div className="flex flex-col px-6 py-8 sm:px-12">
         <div className="flex items-center gap-2.5 text-plate-700">
           <GussetMark className="h-8 w-8" />
           <span className="text-xl font-semibold tracking-tight text-ink-950">Gusset</span>
         </div>
-        <main className="flex flex-1 items-center justify-center py-10">
+        <main id="main" tabIndex={-1} className="flex flex-1 items-center justify-center py-10 focus:outline-none">
           <div className="w-full max-w-sm">{children}</div>
         </main>
-        <p className="text-xs text-ink-400">The firm&apos;s library of calculation standards.</p>
+        <p className="text-xs text-ink-500">The firm&apos;s library of calculation standards.</p>
       </div>
       <AuthPanel />
     </div>

@@ -12,7 +12,7 @@ export const ROLE_LABELS: Record<Role, string> = {
 export const ROLE_SUMMARIES: Record<Role, string> = {
   admin: "Invites people, sets roles, deactivates accounts.",
   lead: "Writes and reviews templates, publishes and withdraws versions.",
-  engineer: "Runs published versions inside projects, prepares and checks calc sheets.",
+  engineer: "Runs published versions inside jobs, prepares and checks calc sheets.",
   auditor: "Reads everything, traces and verifies results; changes nothing.",
 };
 

@@ -40,7 +40,7 @@ afterAll(async () => {
 
 describe("the skip link", () => {
   it("is the first thing Tab reaches, shows itself, and takes focus to the page's content", async () => {
-    const page = await pageAs("engineer", "/runs");
+    const page = await pageAs("engineer", "/home");
     await page.keyboard.press("Tab");
     expect(await focused(page)).toBe("skip-link");
     const link = page.getByTestId("skip-link");
@@ -48,7 +48,7 @@ describe("the skip link", () => {
     expect((await link.boundingBox())!.width).toBeGreaterThan(50); // visible while focused, not a 1 px sr-only box
     await page.keyboard.press("Enter");
     expect(await focused(page)).toBe("app-main");
-    // The next Tab goes into the page, past the navigation and the user menu.
+    // The next Tab goes into the page (a link on a home card), past the navigation and the user menu.
     await page.keyboard.press("Tab");
     expect(await page.evaluate(() => document.activeElement?.closest("main") !== null)).toBe(true);
   });

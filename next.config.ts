@@ -22,6 +22,16 @@ const nextConfig: NextConfig = {
   // Next proxies such a rewrite over HTTP, back into the proxy, when it was started with -H 127.0.0.1
   // (vercel/next.js#94745); a rewrite here stays inside the server. proxy.ts drops the header from
   // every incoming request, so only an outage sets it.
+  // The trade's words: a project is a job, the firm's calculation templates are its standards. Old
+  // addresses (bookmarks, links in e-mails) keep working, permanently moved.
+  async redirects() {
+    return [
+      { source: "/projects", destination: "/jobs", permanent: true },
+      { source: "/projects/:path*", destination: "/jobs/:path*", permanent: true },
+      { source: "/library", destination: "/standards", permanent: true },
+      { source: "/library/:path*", destination: "/standards/:path*", permanent: true },
+    ];
+  },
   async rewrites() {
     return {
       beforeFiles: [{ source: "/:path*", has: [{ type: "header", key: OUTAGE_REQUEST_HEADER }], destination: OUTAGE_PAGE_PATH }],

@@ -1,18 +1,21 @@
+import { SHEET, outlinePath } from "@/components/connection-geometry";
 import { GussetMark } from "@/components/gusset-mark";
+import { SkipLink } from "@/components/ui/skip-link";
 
 // Pages for people who are not signed in: sign-in, password reset, accepting an invitation.
 export default function AuthLayout({ children }: { children: React.ReactNode }) {
   return (
     <div className="grid min-h-dvh lg:grid-cols-[minmax(0,5fr)_minmax(0,4fr)]">
+      <SkipLink />
       <div className="flex flex-col px-6 py-8 sm:px-12">
         <div className="flex items-center gap-2.5 text-plate-700">
           <GussetMark className="h-8 w-8" />
           <span className="text-xl font-semibold tracking-tight text-ink-950">Gusset</span>
         </div>
-        <main className="flex flex-1 items-center justify-center py-10">
+        <main id="main" tabIndex={-1} className="flex flex-1 items-center justify-center py-10 focus:outline-none">
           <div className="w-full max-w-sm">{children}</div>
         </main>
-        <p className="text-xs text-ink-400">The firm&apos;s library of calculation standards.</p>
+        <p className="text-xs text-ink-500">The firm&apos;s library of calculation standards.</p>
       </div>
       <AuthPanel />
     </div>
@@ -30,30 +33,37 @@ function AuthPanel() {
           </pattern>
         </defs>
         <rect width="400" height="520" fill="url(#grid)" />
-        {/* column and beam */}
+        {/* column and beam, with their centre lines meeting at the work point */}
         <rect x="60" y="40" width="36" height="440" fill="#276f75" fillOpacity="0.35" />
         <rect x="96" y="330" width="290" height="32" fill="#276f75" fillOpacity="0.35" />
-        {/* brace, coming in at 45° */}
-        <path d="M190 236 L360 66 L384 90 L214 260 Z" fill="#31868c" fillOpacity="0.35" />
-        {/* the gusset plate */}
-        <path d="M96 170 H160 L280 290 V330 H96 Z" fill="#dcedeb" fillOpacity="0.9" />
+        {/* the gusset plate, its third side cut square to the brace */}
+        <path d={outlinePath(SHEET.plate)} fill="#dcedeb" fillOpacity="0.9" />
+        {/* the brace at 45°, lapping onto the plate; its centre line runs through the work point */}
+        <path d={outlinePath(SHEET.brace)} fill="#31868c" fillOpacity="0.45" stroke="#123c40" strokeOpacity="0.5" />
+        <path
+          d={`M${SHEET.axis.workPoint.x} ${SHEET.axis.workPoint.y} L${SHEET.axis.far.x} ${SHEET.axis.far.y}`}
+          stroke="#b9dcd9"
+          strokeOpacity="0.5"
+          strokeDasharray="14 4 2 4"
+        />
         <g fill="#123c40">
-          <circle cx="170" cy="222" r="6" />
-          <circle cx="196" cy="248" r="6" />
-          <circle cx="222" cy="274" r="6" />
-          <circle cx="116" cy="200" r="5" />
-          <circle cx="116" cy="240" r="5" />
-          <circle cx="116" cy="280" r="5" />
+          {SHEET.bolts.map((bolt) => (
+            <circle key={`${bolt.x},${bolt.y}`} cx={bolt.x} cy={bolt.y} r={SHEET.boltRadius} />
+          ))}
+          {/* the plate's bolts to the column and to the beam, clear of the brace */}
+          <circle cx="116" cy="190" r="5" />
+          <circle cx="116" cy="225" r="5" />
+          <circle cx="116" cy="260" r="5" />
           <circle cx="150" cy="312" r="5" />
           <circle cx="190" cy="312" r="5" />
           <circle cx="230" cy="312" r="5" />
         </g>
         {/* a dimension line, as on a detail */}
         <g stroke="#b9dcd9" strokeOpacity="0.6" fill="none">
-          <path d="M96 410 H280 M96 402 V418 M280 402 V418" />
+          <path d="M96 410 H254 M96 402 V418 M254 402 V418" />
         </g>
         <text
-          x="188"
+          x="175"
           y="432"
           fill="#b9dcd9"
           fillOpacity="0.7"

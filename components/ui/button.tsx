@@ -1,4 +1,4 @@
-import type { ButtonHTMLAttributes } from "react";
+import type { ButtonHTMLAttributes, Ref } from "react";
 
 type Variant = "primary" | "secondary" | "quiet" | "danger";
 
@@ -15,6 +15,8 @@ export function buttonClasses(variant: Variant = "primary", size: "md" | "sm" = 
 }
 
 type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & {
+  /** For moving focus to the button after an action (React 19 passes ref as a prop). */
+  ref?: Ref<HTMLButtonElement>;
   variant?: Variant;
   size?: "md" | "sm";
   /** Shows a pending label and blocks a second submit while the server works. */

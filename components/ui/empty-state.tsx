@@ -14,7 +14,7 @@ export function EmptyState({
   return (
     <section data-testid={testId} className="rounded-plate border border-dashed border-ink-300 bg-paper-raised/60 px-6 py-8">
       <div className="flex items-start gap-4">
-        <svg viewBox="0 0 24 24" aria-hidden className="mt-0.5 h-6 w-6 shrink-0 text-ink-300">
+        <svg viewBox="0 0 24 24" aria-hidden className="mt-0.5 h-6 w-6 shrink-0 text-ink-400">
           {/* a blank sheet with a ruled margin: nothing recorded yet */}
           <path d="M5 2.5h10l4 4v15H5z" fill="none" stroke="currentColor" strokeWidth="1.5" />
           <path d="M8 10h8M8 13.5h8M8 17h5" stroke="currentColor" strokeWidth="1.5" />
@@ -26,7 +26,7 @@ export function EmptyState({
             <ul className="mt-3 space-y-1 text-sm text-ink-700">
               {items.map((item) => (
                 <li key={item} className="flex gap-2">
-                  <span aria-hidden className="text-plate-600">
+                  <span aria-hidden className="text-plate-700">
                     —
                   </span>
                   {item}

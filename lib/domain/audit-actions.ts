@@ -44,7 +44,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "users.deactivate": "Deactivated an account",
   "users.reactivate": "Reactivated an account",
   "invitations.accept": "Accepted an invitation",
-  "invitations.revoke": "Revoked an invitation",
+  "invitations.revoke": "Cancelled an invitation",
   "access.refused": "Was refused an action",
   "invitations.accept.failed": "Failed to accept an invitation",
   "profile.change-password": "Changed their password",

@@ -160,7 +160,9 @@ export const revokeInvitation = defineUseCase({
     const row = await lockInvitationById(invitationId);
     if (!row) throw new AppError("not-found", "That invitation no longer exists.");
     const status = invitationStatus(row);
-    if (status !== "valid") throw new AppError("conflict", `That invitation is already ${status}.`);
+    // Said in the page's words: an admin "cancels" an invitation (the data calls it revoked).
+    const said = { revoked: "cancelled", used: "accepted", expired: "expired" } as const;
+    if (status !== "valid") throw new AppError("conflict", `That invitation was already ${said[status]}.`);
     await markInvitation(invitationId, { revokedAt: new Date() });
     return toInvitationDto(row);
   },

@@ -16,7 +16,7 @@ const browser = useBrowser();
 
 /**
  * Keyed by the build's app-paths-manifest entry: a concrete address for every page and the status an
- * admin gets there (library, projects and runs are not an admin's: their 403 page is what is checked).
+ * admin gets there (standards, jobs and runs are not an admin's: their 403 page is what is checked).
  */
 const PAGES: Record<string, { path: string; status: number | "mailbox" }> = {
   "/page": { path: "/", status: 200 }, // sent home
@@ -25,8 +25,8 @@ const PAGES: Record<string, { path: string; status: number | "mailbox" }> = {
   "/(auth)/reset-password/page": { path: "/reset-password?token=not-a-real-token", status: 200 },
   "/(auth)/invite/[token]/page": { path: "/invite/not-a-real-token", status: 200 },
   "/(app)/home/page": { path: "/home", status: 200 },
-  "/(app)/library/page": { path: "/library", status: 403 },
-  "/(app)/projects/page": { path: "/projects", status: 403 },
+  "/(app)/standards/page": { path: "/standards", status: 403 },
+  "/(app)/jobs/page": { path: "/jobs", status: 403 },
   "/(app)/runs/page": { path: "/runs", status: 403 },
   "/(app)/audit/page": { path: "/audit", status: 200 },
   "/(app)/admin/users/page": { path: "/admin/users", status: 200 },

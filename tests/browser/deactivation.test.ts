@@ -37,11 +37,11 @@ it(
     };
     const { password } = person;
 
-    // The person joins by invitation and is signed in, working on the projects page.
+    // The person joins by invitation and is signed in, working on the jobs page.
     const { context: adminContext, people } = await openPeopleAsAdmin(browser);
     const { context: personContext, page } = await invitePersonAndAccept(browser, people, person);
-    await page.goto(appUrl("/projects"));
-    await page.getByTestId("projects-table").waitFor();
+    await page.goto(appUrl("/jobs"));
+    await page.getByTestId("jobs-table").waitFor();
 
     // The admin deactivates them; the audit trail has the address the admin's browser connected from.
     await people.goto();
@@ -62,7 +62,7 @@ it(
       /administrator of your firm deactivated this account.*ask one of your firm's admins/,
     );
     // A full page load does too, and /api/me no longer knows them.
-    await page.goto(appUrl("/projects"));
+    await page.goto(appUrl("/jobs"));
     expect(new URL(page.url()).pathname).toBe("/sign-in");
     const me = await page.request.get(appUrl("/api/me"));
     expect(me.status()).toBe(401);

@@ -13,9 +13,9 @@ const mailboxInUse = await isFakeMailInUse();
 
 const EXPECTED_NAV: Record<Role, string[]> = {
   admin: ["Home", "Audit trail", "People", ...(mailboxInUse ? ["Demo mailbox"] : [])],
-  lead: ["Home", "Library", "Projects", "Runs"],
-  engineer: ["Home", "Library", "Projects", "Runs"],
-  auditor: ["Home", "Library", "Projects", "Runs", "Audit trail", "People"],
+  lead: ["Home", "Standards", "Jobs", "Runs"],
+  engineer: ["Home", "Standards", "Jobs", "Runs"],
+  auditor: ["Home", "Standards", "Jobs", "Runs", "Audit trail", "People"],
 };
 
 // What each home shows first: one panel that only that role's home has.

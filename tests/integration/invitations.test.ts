@@ -140,7 +140,7 @@ describe("invitations", () => {
     await expectRefusal(
       () => runUseCase(revokeInvitation, { actor: admin, input: { invitationId: again.id } }),
       "conflict",
-      "That invitation is already revoked.",
+      "That invitation was already cancelled.",
     );
   });
 

@@ -193,9 +193,9 @@ describe("redirect after sign-in", () => {
   it("keeps a path on Gusset", async () => {
     const { actor, password } = await createTestUser({ role: "engineer", label: "redirect-ok" });
     const cookie = await sessionCookie(actor.email, password);
-    const reply = await send(`/sign-in?next=${encodeURIComponent("/projects?view=all")}`, { headers: { cookie } });
+    const reply = await send(`/sign-in?next=${encodeURIComponent("/jobs?view=all")}`, { headers: { cookie } });
     expect(reply.status).toBe(307);
-    expect(reply.headers.location).toBe("/projects?view=all");
+    expect(reply.headers.location).toBe("/jobs?view=all");
   });
 });
 

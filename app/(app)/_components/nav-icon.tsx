@@ -3,9 +3,10 @@ import type { NavIcon as NavIconName } from "./nav-items";
 // Line icons drawn for Gusset on a 20-unit grid, 1.5 stroke, to sit beside 14 px labels.
 const PATHS: Record<NavIconName, string> = {
   home: "M3 9.5 10 4l7 5.5V16a1 1 0 0 1-1 1h-3.5v-4.5h-5V17H4a1 1 0 0 1-1-1z",
-  library: "M4 3.5h3v13H4zM8.5 3.5h3v13h-3zM13 4.2l2.8-.7 2.4 12.6-2.8.7z",
-  projects: "M3 6.5h14v9.5H3zM7 6.5V4h6v2.5M3 10.5h14",
-  runs: "M3 15.5 7.5 10l3 3 6.5-8M13 5h4v4",
+  standards: "M4 3.5h3v13H4zM8.5 3.5h3v13h-3zM13 4.2l2.8-.7 2.4 12.6-2.8.7z",
+  jobs: "M3 6.5h14v9.5H3zM7 6.5V4h6v2.5M3 10.5h14",
+  // a calc sheet with a "run" arrowhead on it: a standard put through its steps
+  runs: "M4.5 2.5h8l3 3v12h-11zM12.5 2.5v3h3M8 8.5l4.5 3-4.5 3z",
   audit: "M5 2.5h7l3.5 3.5v11.5H5zM8 9.5h5M8 12.5h5M8 15.5h3",
   people:
     "M7.5 9a2.75 2.75 0 1 0 0-5.5 2.75 2.75 0 0 0 0 5.5zM2.5 16.5c.5-3 2.5-4.5 5-4.5s4.5 1.5 5 4.5M13.5 4a2.5 2.5 0 0 1 0 5M15 12c1.5.5 2.3 2 2.5 4.5",

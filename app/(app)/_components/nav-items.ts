@@ -3,7 +3,7 @@
 // would answer 403. Hiding is a courtesy here — the page's own requirePageActor() is the check.
 import type { Action } from "@/lib/domain/permissions";
 
-export type NavIcon = "home" | "library" | "projects" | "runs" | "audit" | "people" | "mailbox";
+export type NavIcon = "home" | "standards" | "jobs" | "runs" | "audit" | "people" | "mailbox";
 
 export type NavItem = {
   href: string;
@@ -16,8 +16,8 @@ export type NavItem = {
 
 export const NAV_ITEMS: NavItem[] = [
   { href: "/home", label: "Home", icon: "home", permission: null, group: "work" },
-  { href: "/library", label: "Library", icon: "library", permission: "library.read", group: "work" },
-  { href: "/projects", label: "Projects", icon: "projects", permission: "projects.read", group: "work" },
+  { href: "/standards", label: "Standards", icon: "standards", permission: "library.read", group: "work" },
+  { href: "/jobs", label: "Jobs", icon: "jobs", permission: "projects.read", group: "work" },
   { href: "/runs", label: "Runs", icon: "runs", permission: "runs.read", group: "work" },
   { href: "/audit", label: "Audit trail", icon: "audit", permission: "audit.read", group: "work" },
   { href: "/admin/users", label: "People", icon: "people", permission: "users.read", group: "admin" },

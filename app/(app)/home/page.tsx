@@ -74,13 +74,13 @@ function RoleCards({
         {mailbox ? " While Gusset runs as a demo, sent e-mails are in the demo mailbox." : null}
       </HomeCard>
     ) : null;
-  const projectsCard = projects ? (
+  const jobsCard = projects ? (
     <HomeCard
       title="Jobs"
       testId="home-projects"
       figure={projects.count}
       figureLabel={projects.count === 1 ? "job on record" : "jobs on record"}
-      href="/projects"
+      href="/jobs"
       linkLabel="All jobs"
     >
       <RecentProjects projects={projects.recent} />
@@ -104,10 +104,10 @@ function RoleCards({
     case "lead":
       return (
         <>
-          <HomeCard title="Standards: drafts and reviews" testId="home-library" coming href="/library" linkLabel="Standards">
+          <HomeCard title="Standards: drafts and reviews" testId="home-library" coming href="/standards" linkLabel="Standards">
             Your drafts, drafts waiting for your review, and versions you published will be listed here.
           </HomeCard>
-          {projectsCard}
+          {jobsCard}
           <HomeCard title="Recent runs" testId="home-runs" coming href="/runs" linkLabel="Runs">
             Runs of the versions you maintain, and any affected by a withdrawal, will be listed here.
           </HomeCard>
@@ -116,11 +116,11 @@ function RoleCards({
     case "engineer":
       return (
         <>
-          {projectsCard}
+          {jobsCard}
           <HomeCard title="Recent runs" testId="home-runs" coming href="/runs" linkLabel="Runs">
             Your runs and the calc sheets waiting for you to prepare or check will be listed here.
           </HomeCard>
-          <HomeCard title="Standards" testId="home-library" coming href="/library" linkLabel="Standards">
+          <HomeCard title="Standards" testId="home-library" coming href="/standards" linkLabel="Standards">
             Published versions of the firm&apos;s standard calcs, ready to run in a job.
           </HomeCard>
         </>
@@ -133,7 +133,7 @@ function RoleCards({
             Verifying the hash chain of runs, reproducing a run from its record, and tracing a number to its template version will
             be available here.
           </HomeCard>
-          {projectsCard}
+          {jobsCard}
           {peopleCard}
         </>
       );

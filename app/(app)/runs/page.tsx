@@ -16,13 +16,13 @@ export default async function RunsPage() {
       <EmptyState
         title="No runs yet"
         items={[
-          "Runs by project, with the template version and engine version that produced them.",
+          "Runs by job, with the standard's version and the engine version that produced them.",
           "Calc sheets waiting to be checked or approved.",
           "Runs affected by a withdrawn version, and their re-runs on the corrected one.",
         ]}
       >
-        Running a published version inside a project is coming once the library has its first templates. Each run is stored for
-        good, so that any number on a drawing can be traced back to it.
+        Running a published version inside a job is coming once the firm has its first standards. Each run is stored for good, so
+        that any number on a drawing can be traced back to it.
       </EmptyState>
     </>
   );

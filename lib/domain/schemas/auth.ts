@@ -11,12 +11,17 @@ export const ACCOUNT_LOCKED_MESSAGE =
 /** The longest e-mail address SMTP can carry (RFC 5321's path limit less the angle brackets). */
 export const EMAIL_MAX_LENGTH = 254;
 
-export const emailField = plainText()
-  .trim()
-  .toLowerCase()
-  .min(1, "Enter your e-mail address.")
-  .max(EMAIL_MAX_LENGTH, `An e-mail address has at most ${EMAIL_MAX_LENGTH} characters. Check what you typed.`)
-  .pipe(z.email("Enter an e-mail address like name@firm.example."));
+/** An e-mail address; `emptyMessage` says whose it is ("your" on the sign-in forms, "an" for someone else's). */
+export function emailFieldSaying(emptyMessage: string) {
+  return plainText()
+    .trim()
+    .toLowerCase()
+    .min(1, emptyMessage)
+    .max(EMAIL_MAX_LENGTH, `An e-mail address has at most ${EMAIL_MAX_LENGTH} characters. Check what you typed.`)
+    .pipe(z.email("Enter an e-mail address like name@firm.example."));
+}
+
+export const emailField = emailFieldSaying("Enter your e-mail address.");
 
 /** The token of an e-mailed link: letters, digits, "-" and "_" only. */
 export function linkTokenField(incompleteLinkMessage: string) {

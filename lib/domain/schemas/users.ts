@@ -1,7 +1,7 @@
 // One schema per people-management use case, shared by the admin forms and the server actions.
 import { z } from "../zod";
 import { ROLES } from "../roles";
-import { emailField } from "./auth";
+import { emailFieldSaying } from "./auth";
 import { plainText } from "./text";
 
 const roleField = z.enum(ROLES, { error: "Choose a role." });
@@ -14,7 +14,7 @@ const userIdField = z
   .regex(/^[A-Za-z0-9_-]+$/, "Choose a person.");
 
 export const inviteUserSchema = z.object({
-  email: emailField,
+  email: emailFieldSaying("Enter an e-mail address."),
   name: plainText().trim().min(1, "Enter the person's name.").max(120, "Use at most 120 characters."),
   role: roleField,
 });

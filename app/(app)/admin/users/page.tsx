@@ -7,7 +7,7 @@ import { PageHeader } from "@/components/ui/page-header";
 import { TableFrame } from "@/components/ui/table";
 import { InviteForm } from "./_components/invite-form";
 import { PendingInvitations } from "./_components/pending-invitations";
-import { UserRow } from "./_components/user-row";
+import { UnsavedRolesGuard, UserRow } from "./_components/user-row";
 
 export const metadata: Metadata = { title: "People" };
 
@@ -44,7 +44,12 @@ export default async function PeoplePage() {
         <h2 id="people-heading" className="mb-3 text-base font-semibold text-ink-900">
           {people.length} {people.length === 1 ? "person" : "people"}
         </h2>
-        <TableFrame testId="users-table" headings={["Name", "E-mail", "Role", "Status", { label: "Actions", hidden: true }]}>
+        {controls.setRole ? <UnsavedRolesGuard /> : null}
+        <TableFrame
+          testId="users-table"
+          label="People"
+          headings={["Name", "E-mail", "Role", "Status", { label: "Actions", hidden: true }]}
+        >
           {people.map((person) => (
             <UserRow key={person.id} person={person} controls={controls} isSelf={person.id === actor.id} />
           ))}
@@ -54,7 +59,7 @@ export default async function PeoplePage() {
         <h2 id="invitations-heading" className="mb-3 text-base font-semibold text-ink-900">
           Pending invitations
         </h2>
-        <PendingInvitations invitations={invitations} canRevoke={mayInvite} />
+        <PendingInvitations invitations={invitations} canCancel={mayInvite} />
       </section>
     </>
   );

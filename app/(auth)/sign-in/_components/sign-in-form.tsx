@@ -53,7 +53,8 @@ export function SignInForm({ next, notice }: { next: string; notice?: string }) 
         </Notice>
       ) : null}
       <FormError message={serverError} />
-      <EmailField error={errors.email?.message} {...register("email")} />
+      {/* The one thing to do on this page: start typing (the e-mail field is the page's first field). */}
+      <EmailField autoFocus error={errors.email?.message} {...register("email")} />
       <div>
         <TextField
           label="Password"

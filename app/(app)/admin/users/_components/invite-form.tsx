@@ -1,6 +1,6 @@
 "use client";
 
-import { startTransition, useActionState, useEffect } from "react";
+import { startTransition, useActionState, useEffect, useRef } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { ROLES, ROLE_LABELS, ROLE_SUMMARIES } from "@/lib/domain/roles";
@@ -19,16 +19,26 @@ export function InviteForm() {
     handleSubmit,
     reset,
     control,
+    setFocus,
     formState: { errors },
   } = useForm<InviteUserInput>({
     resolver: zodResolver(inviteUserSchema),
     defaultValues: { email: "", name: "", role: "engineer" },
   });
 
-  // A sent invitation clears the form for the next one; a refused one keeps what was typed.
+  // A sent invitation clears the form for the next one and takes focus to the confirmation (the button
+  // pressed is still there, but the form it sent is now empty); a refused one keeps what was typed, and
+  // the first field in error takes focus (react-hook-form's shouldFocusError for its own checks).
+  const sentRef = useRef<HTMLDivElement>(null);
   useEffect(() => {
-    if (state?.ok) reset();
-  }, [state, reset]);
+    if (state?.ok) {
+      reset();
+      sentRef.current?.focus();
+    } else if (state && !state.ok) {
+      const field = (["name", "email", "role"] as const).find((name) => state.error.fieldErrors?.[name]);
+      if (field) setFocus(field);
+    }
+  }, [state, reset, setFocus]);
 
   const server = actionErrors(state, ["email", "name", "role"]);
   const role = useWatch({ control, name: "role" });
@@ -77,12 +87,15 @@ export function InviteForm() {
       </p>
       <FormError message={server.form} />
       {state?.ok ? (
-        <Notice tone="pass" testId="invite-sent">
-          Invitation sent to <strong>{state.data.email}</strong> as {ROLE_LABELS[state.data.role]}. The link works for seven days.
-          {state.data.replacedInvitations.length > 0 ? (
-            <span data-testid="invite-replaced"> {EARLIER_INVITATION_CANCELLED_MESSAGE}</span>
-          ) : null}
-        </Notice>
+        <div ref={sentRef} tabIndex={-1}>
+          <Notice tone="pass" testId="invite-sent">
+            Invitation sent to <strong>{state.data.email}</strong> as {ROLE_LABELS[state.data.role]}. The link works for seven
+            days.
+            {state.data.replacedInvitations.length > 0 ? (
+              <span data-testid="invite-replaced"> {EARLIER_INVITATION_CANCELLED_MESSAGE}</span>
+            ) : null}
+          </Notice>
+        </div>
       ) : null}
     </form>
   );

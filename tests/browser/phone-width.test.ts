@@ -1,0 +1,92 @@
+// At a phone's width (390 px) no page scrolls sideways, for anyone: every page for every role in
+// tests/support/app-pages.ts. Wide tables scroll inside their own box with their first column held in
+// place, and the navigation folds behind a "Menu" button that says whether it is open.
+import { afterAll, describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { useBrowser } from "../support/browser";
+import { pageVisits, visitorContexts } from "../support/app-pages";
+import { isFakeMailInUse, journeyTimeout } from "../support/pages";
+
+const browser = useBrowser();
+const mailboxInUse = await isFakeMailInUse();
+const PHONE = { width: 390, height: 844 };
+const visitors = visitorContexts(browser, PHONE);
+
+afterAll(async () => {
+  await visitors.closeAll();
+});
+
+/** How wide the document is against the window's width, and the elements that reach past its right edge. */
+function measure(page: Page) {
+  return page.evaluate(() => {
+    const root = document.documentElement;
+    const escaping = [...document.querySelectorAll<HTMLElement>("body *")]
+      .filter((element) => element.getBoundingClientRect().right > root.clientWidth + 1)
+      // Inside a box that scrolls sideways is fine: that box is what scrolls, not the page.
+      .filter((element) => !element.parentElement?.closest('[class*="overflow-x-auto"]'))
+      .slice(0, 5)
+      .map(
+        (element) =>
+          `${element.tagName.toLowerCase()}${element.dataset.testid ? `[${element.dataset.testid}]` : ""}.${element.className}`,
+      );
+    return { scrollWidth: root.scrollWidth, clientWidth: root.clientWidth, escaping };
+  });
+}
+
+describe("no page scrolls sideways at 390 px", () => {
+  it.each(pageVisits({ mailboxInUse }))(
+    "$label",
+    async ({ page: { path }, visitor }) => {
+      const page = await visitors.open(visitor, path);
+      const { scrollWidth, clientWidth, escaping } = await measure(page);
+      expect({ scrollWidth, escaping }).toEqual({ scrollWidth: clientWidth, escaping: [] });
+      expect(clientWidth).toBe(PHONE.width);
+      await page.close();
+    },
+    journeyTimeout(1),
+  );
+});
+
+describe("at 390 px", () => {
+  it("the navigation is a menu behind a button that says whether it is open, and opening it widens nothing", async () => {
+    const page = await visitors.open("auditor", "/home");
+    const button = page.getByTestId("nav-menu-button");
+    const link = page.getByTestId("nav-admin-users");
+    expect(await button.isVisible()).toBe(true);
+    expect(await button.getAttribute("aria-expanded")).toBe("false");
+    expect(await link.isVisible()).toBe(false);
+    await button.click();
+    expect(await button.getAttribute("aria-expanded")).toBe("true");
+    expect(await link.isVisible()).toBe(true);
+    expect((await measure(page)).scrollWidth).toBe(PHONE.width);
+    // Following a link closes the menu on the new page.
+    await link.click();
+    await page.waitForURL((url) => url.pathname === "/admin/users");
+    await page.getByTestId("users-table").waitFor();
+    expect(await button.getAttribute("aria-expanded")).toBe("false");
+    await page.close();
+  });
+
+  it("the People table scrolls in its own box, its first column (the name) staying in view", async () => {
+    const page = await visitors.open("admin", "/admin/users");
+    const box = page.getByTestId("users-table-scroll");
+    const sizes = await box.evaluate((element) => ({ scrollWidth: element.scrollWidth, clientWidth: element.clientWidth }));
+    expect(sizes.scrollWidth).toBeGreaterThan(sizes.clientWidth); // wider than a phone: it does scroll…
+    await box.evaluate((element) => (element.scrollLeft = element.scrollWidth));
+    const name = page.getByTestId("user-row").first().locator("td").first();
+    const [boxLeft, nameLeft] = [(await box.boundingBox())!.x, (await name.boundingBox())!.x];
+    expect(Math.abs(nameLeft - boxLeft)).toBeLessThan(2); // …and the name column stays at its left edge
+    expect(await name.evaluate((cell) => getComputedStyle(cell).position)).toBe("sticky");
+    expect((await measure(page)).scrollWidth).toBe(PHONE.width);
+    await page.close();
+  });
+
+  it("the user menu opens inside the window", async () => {
+    const page = await visitors.open("engineer", "/home");
+    await page.getByTestId("user-menu-button").click();
+    const menu = page.getByTestId("user-menu");
+    await menu.waitFor();
+    expect((await measure(page)).scrollWidth).toBe(PHONE.width);
+    await page.close();
+  });
+});

@@ -47,7 +47,7 @@ function RoleCards({
   mailbox: boolean;
   timeZone?: string;
 }) {
-  const { people, projects, audit } = summary;
+  const { people, projects: jobs, audit } = summary;
   const peopleCard = people ? (
     <HomeCard
       title="People"
@@ -74,16 +74,16 @@ function RoleCards({
         {mailbox ? " While Gusset runs as a demo, sent e-mails are in the demo mailbox." : null}
       </HomeCard>
     ) : null;
-  const jobsCard = projects ? (
+  const jobsCard = jobs ? (
     <HomeCard
       title="Jobs"
       testId="home-projects"
-      figure={projects.count}
-      figureLabel={projects.count === 1 ? "job on record" : "jobs on record"}
+      figure={jobs.count}
+      figureLabel={jobs.count === 1 ? "job on record" : "jobs on record"}
       href="/jobs"
       linkLabel="All jobs"
     >
-      <RecentProjects projects={projects.recent} />
+      <RecentProjects projects={jobs.recent} />
     </HomeCard>
   ) : null;
   const auditCard = audit ? (

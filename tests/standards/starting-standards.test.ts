@@ -57,3 +57,14 @@ describe("the JSON Schema of the definition", () => {
     expect(JSON.parse(committed)).toEqual(definitionJsonSchema());
   });
 });
+
+describe("the complete example in content/README.md", () => {
+  it("compiles, and its verification case passes", () => {
+    const readme = readFileSync(path.resolve(import.meta.dirname, "../../content/README.md"), "utf8");
+    const start = readme.indexOf("```yaml\n") + "```yaml\n".length;
+    const example = readme.slice(start, readme.indexOf("```\n", start));
+    const out = compileStandard(example);
+    expect(out.ok ? [] : out.problems).toEqual([]);
+    if (out.ok) expect(runVerification(out.standard).map((r) => r.pass)).toEqual([true]);
+  });
+});

@@ -246,3 +246,56 @@ function checkResult(source: string, out: unknown): Value {
     throw new ExpressionError(source, "the result is not a real number (the root or log of a negative value?)");
   throw new ExpressionError(source, "the result is not a number");
 }
+
+/** Values in SI as plain numbers (texts and conditions as they are), for the numeric path. */
+export type SiValue = number | string | boolean;
+
+export interface NumericExpression {
+  readonly names: ReadonlyArray<string>;
+  evaluate(scope: ReadonlyMap<string, SiValue>): SiValue;
+}
+
+const numericCache = new Map<string, NumericExpression>();
+
+/**
+ * The same expression on plain SI numbers: every unit in it replaced by its factor to SI (`kN` → 1000,
+ * `mm` → 0.001, `deg` → π/180), every name read as its SI number. Sound only after the expression has been
+ * evaluated once with units, which checks its dimensions: then the SI arithmetic gives the SI result, many
+ * times faster — used where one expression runs at hundreds of sections.
+ */
+export function compileNumeric(source: string, known: ReadonlySet<string>): NumericExpression {
+  const key = `${[...known].sort().join(",")}\u0000${source}`;
+  const hit = numericCache.get(key);
+  if (hit) return hit;
+  const { node, names } = checkExpression(source, known);
+  const numeric = node.transform((n) => {
+    if (n.type !== "SymbolNode") return n;
+    const name = (n as unknown as { name: string }).name;
+    if (known.has(name) || !TRADE_UNITS.has(name)) return n;
+    return new math.ConstantNode(math.unit(1, name).toSI().toNumber() as number);
+  });
+  const code = numeric.compile();
+  const compiled: NumericExpression = {
+    names,
+    evaluate(scope) {
+      const own = new Map<string, SiValue>();
+      for (const name of names) {
+        const value = scope.get(name);
+        if (value === undefined) throw new ExpressionError(source, `\`${name}\` has no value here`);
+        own.set(name, value);
+      }
+      let out: unknown;
+      try {
+        out = code.evaluate(own);
+      } catch (error) {
+        throw new ExpressionError(source, describeMathError(error as Error));
+      }
+      const value = checkResult(source, out);
+      if (math.isUnit(value)) throw new ExpressionError(source, "a unit was left in the numeric form");
+      return value as SiValue;
+    },
+  };
+  if (numericCache.size >= CACHE_LIMIT) numericCache.clear();
+  numericCache.set(key, compiled);
+  return compiled;
+}

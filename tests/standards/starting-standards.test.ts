@@ -46,6 +46,8 @@ describe("the starting standards", () => {
       const e = out.standard.evaluate();
       if (!e.ok) throw new Error(JSON.stringify(e));
       expect(Object.keys(e.evaluation.checks).length).toBeGreaterThanOrEqual(1);
+      expect(Object.entries(e.evaluation.checks).filter(([, c]) => !c.pass)).toEqual([]);
+      expect(e.evaluation.pass).toBe(true);
       expect(e.evaluation.equilibriumResidual).toBeLessThan(1e-9);
     });
   });

@@ -25,6 +25,7 @@ const PAGES: Record<string, { path: string; status: number | "mailbox" }> = {
   "/(auth)/reset-password/page": { path: "/reset-password?token=not-a-real-token", status: 200 },
   "/(auth)/invite/[token]/page": { path: "/invite/not-a-real-token", status: 200 },
   "/(app)/home/page": { path: "/home", status: 200 },
+  "/(app)/profile/page": { path: "/profile", status: 200 },
   "/(app)/standards/page": { path: "/standards", status: 403 },
   "/(app)/jobs/page": { path: "/jobs", status: 403 },
   "/(app)/runs/page": { path: "/runs", status: 403 },

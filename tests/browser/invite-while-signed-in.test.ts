@@ -30,7 +30,16 @@ it(
     await page.goto(appUrl("/admin/mailbox"));
     const mails = page.locator(`[data-testid="mail-item"][data-to="${email}"]`);
     await mails.first().waitFor({ timeout: 15_000 });
-    await expect.poll(() => mails.count(), { timeout: 15_000 }).toBe(2);
+    // The second mail may be sent after the page was drawn: read the mailbox again until it is there.
+    await expect
+      .poll(
+        async () => {
+          await page.reload();
+          return mails.count();
+        },
+        { timeout: 30_000, interval: 1000 },
+      )
+      .toBe(2);
     const latest = (await mails.nth(0).getByTestId("mail-link").first().getAttribute("href"))!;
     const earlier = (await mails.nth(1).getByTestId("mail-link").first().getAttribute("href"))!;
 

@@ -1,4 +1,4 @@
-// The trail's filters as a plain GET form: it works without JavaScript, and the address it leads to can be
+// The trail's filters as a plain GET form: the address it leads to holds the whole query and can be
 // bookmarked or sent to a colleague. Values are shown as typed, with any error beneath its field.
 import Link from "next/link";
 import { AUDIT_ACTION_LABELS, type AuditAction } from "@/lib/domain/audit-actions";

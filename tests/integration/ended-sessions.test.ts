@@ -8,6 +8,9 @@ import { hashSessionToken } from "@/lib/data/sessions";
 import { deactivateUser, reactivateUser } from "@/lib/use-cases/people";
 import { runUseCase } from "@/lib/use-cases/run";
 import { createTestUser, signInHeaders } from "./helpers/people";
+import { GET as getMe } from "@/app/api/me/route";
+
+const meWith = (headers: Headers) => getMe(new Request("http://127.0.0.1/api/me", { headers }), { params: Promise.resolve({}) });
 
 describe("why a session ended", () => {
   it("names deactivation for the browser that held the session, until the account is reactivated", async () => {
@@ -36,5 +39,22 @@ describe("why a session ended", () => {
     const headers = await signInHeaders(actor.email, password);
     await pool.query("delete from session where user_id = $1", [actor.id]);
     expect(await getSessionEndReason(headers)).toBeNull();
+  });
+
+  it("GET /api/me answers 401 with the reason, so the open page can say it though this answer clears the cookie", async () => {
+    const { actor: admin } = await createTestUser({ role: "admin" });
+    const { actor, password } = await createTestUser({ role: "lead", label: "mover" });
+    const headers = await signInHeaders(actor.email, password);
+    expect((await meWith(headers)).status).toBe(200);
+
+    await runUseCase(deactivateUser, { actor: admin, input: { userId: actor.id } });
+    const refused = await meWith(headers);
+    expect(refused.status).toBe(401);
+    expect(await refused.json()).toMatchObject({ reason: "deactivated" });
+
+    // No cookie, no reason: the plain 401.
+    const anonymous = await meWith(new Headers());
+    expect(anonymous.status).toBe(401);
+    expect(await anonymous.json()).not.toHaveProperty("reason");
   });
 });

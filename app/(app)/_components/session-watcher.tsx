@@ -25,7 +25,14 @@ export function SessionWatcher({ userId, role, name }: { userId: string; role: s
       }
       if (cancelled) return;
       if (response.status === 401) {
-        router.refresh();
+        // Ended on purpose: straight to the sign-in page with the reason (checked there against a fixed
+        // list), since this very answer cleared the cookie the next page would have read it from.
+        const { reason } = (await response.json().catch(() => ({}))) as { reason?: unknown };
+        if (cancelled) return;
+        if (typeof reason === "string" && /^[a-z-]{1,40}$/.test(reason)) {
+          const next = `${window.location.pathname}${window.location.search}`;
+          router.replace(`/sign-in?reason=${reason}&next=${encodeURIComponent(next)}`);
+        } else router.refresh();
         return;
       }
       if (!response.ok) return;

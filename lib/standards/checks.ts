@@ -11,7 +11,14 @@
  * shown rounded up (1.004 shows as 1.01 and fails; never "1.00 FAIL") — common practice for design checks.
  */
 import type { CheckDefinition } from "./definition";
-import { compileExpression, compileNumeric, ExpressionError, type NumericExpression, type SiValue } from "./expressions";
+import {
+  compileExpression,
+  compileNumeric,
+  ExpressionError,
+  type NumericExpression,
+  type SiScope,
+  type SiValue,
+} from "./expressions";
 import { GenerateError } from "./generate";
 import { membersOf, resultIds, type ResultsView, type Where } from "./extracts";
 import { describeDimension, hasDimensionOf, isUnit, math, type Value } from "./units";
@@ -40,7 +47,7 @@ export function displayUtilisation(u: number): string {
 
 function evaluate(source: string, scope: Scope, path: PropertyKey[]): Value {
   try {
-    return compileExpression(source, new Set(scope.keys())).evaluate(scope);
+    return compileExpression(source, scope).evaluate(scope);
   } catch (error) {
     if (error instanceof ExpressionError) throw new GenerateError(path, error.message);
     throw error;
@@ -115,15 +122,20 @@ export function runCheck(view: ResultsView | null, definition: CheckDefinition, 
           );
           dimensionsChecked = true;
         }
-        const local = new Map(siScope);
-        local.set("N", f.N);
-        local.set("V", f.V);
-        local.set("M", f.M);
-        local.set("x", x);
-        local.set("L_member", d.length);
-        local.set("E_member", props.E);
-        local.set("A_member", props.A);
-        local.set("I_member", props.I ?? 0);
+        // The section's own names over the standard's, without copying the standard's scope each time.
+        const section: Record<(typeof SECTION_NAMES)[number], number> = {
+          N: f.N,
+          V: f.V,
+          M: f.M,
+          x,
+          L_member: d.length,
+          E_member: props.E,
+          A_member: props.A,
+          I_member: props.I ?? 0,
+        };
+        const local: SiScope = {
+          get: (name) => (Object.hasOwn(section, name) ? section[name as keyof typeof section] : siScope.get(name)),
+        };
         const demand = numericValue(numericDemand, local, [...path, "demand"]);
         const capacity = numericValue(numericCapacity, local, [...path, "capacity"]);
         const utilisation = utilisationOf(definition, demand, capacity, path);
@@ -177,7 +189,7 @@ function numeric(source: string, known: ReadonlySet<string>, path: PropertyKey[]
   }
 }
 
-function numericValue(expression: NumericExpression, scope: ReadonlyMap<string, SiValue>, path: PropertyKey[]): Value {
+function numericValue(expression: NumericExpression, scope: SiScope, path: PropertyKey[]): Value {
   try {
     return expression.evaluate(scope);
   } catch (error) {

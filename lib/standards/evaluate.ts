@@ -134,7 +134,7 @@ export function evaluateDefinition(definition: Definition, given: Readonly<Recor
       const path = ["derived", key, "expr"];
       let value: Value;
       try {
-        value = compileExpression(d.expr, new Set(scope.keys())).evaluate(scope);
+        value = compileExpression(d.expr, scope).evaluate(scope);
       } catch (error) {
         if (error instanceof ExpressionError) return fail(path, error.message);
         throw error;
@@ -182,7 +182,7 @@ export function evaluateDefinition(definition: Definition, given: Readonly<Recor
 
     const assumptions: EvaluatedAssumption[] = definition.assumptions.map((a, k) => {
       if (!("check" in a)) return { text: a.text, status: "to confirm" };
-      const holds = compileExpression(a.check, new Set(scope.keys())).evaluate(scope);
+      const holds = compileExpression(a.check, scope).evaluate(scope);
       if (typeof holds !== "boolean")
         throw new GenerateError(["assumptions", k, "check"], `\`${a.check}\` must be a condition (true or false)`);
       return { text: a.text, status: holds ? "verified" : "not met" };

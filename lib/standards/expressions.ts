@@ -119,7 +119,12 @@ function describeNode(node: MathNode): string {
  * Parse and check an expression; `known` holds the names it may read. Throws ExpressionError with a sentence
  * a person can act on.
  */
-export function checkExpression(source: string, known: ReadonlySet<string>): { node: MathNode; names: string[] } {
+/** The names an expression may read: a Set, or the Map of values itself. */
+export interface KnownNames {
+  has(name: string): boolean;
+}
+
+export function checkExpression(source: string, known: KnownNames): { node: MathNode; names: string[] } {
   if (source.length > MAX_EXPRESSION_LENGTH)
     throw new ExpressionError(source.slice(0, 40) + "…", `an expression may be at most ${MAX_EXPRESSION_LENGTH} characters`);
   let node: MathNode;
@@ -192,10 +197,12 @@ export function checkExpression(source: string, known: ReadonlySet<string>): { n
 const cache = new Map<string, CompiledExpression>();
 const CACHE_LIMIT = 20_000;
 
-export function compileExpression(source: string, known: ReadonlySet<string>): CompiledExpression {
-  const key = `${[...known].sort().join(",")}\u0000${source}`;
+export function compileExpression(source: string, known: KnownNames): CompiledExpression {
+  // Cached by its text: a cached expression serves wherever every name it reads is known (names are never
+  // units, so no other symbol of it can change meaning); otherwise it is checked again and refused.
+  const key = source;
   const hit = cache.get(key);
-  if (hit) return hit;
+  if (hit && hit.names.every((name) => known.has(name))) return hit;
   const { node, names } = checkExpression(source, known);
   const code = node.compile();
   const compiled: CompiledExpression = {
@@ -250,9 +257,14 @@ function checkResult(source: string, out: unknown): Value {
 /** Values in SI as plain numbers (texts and conditions as they are), for the numeric path. */
 export type SiValue = number | string | boolean;
 
+/** Where a numeric expression reads its names: a Map, or a lighter view over several. */
+export interface SiScope {
+  get(name: string): SiValue | undefined;
+}
+
 export interface NumericExpression {
   readonly names: ReadonlyArray<string>;
-  evaluate(scope: ReadonlyMap<string, SiValue>): SiValue;
+  evaluate(scope: SiScope): SiValue;
 }
 
 const numericCache = new Map<string, NumericExpression>();
@@ -263,10 +275,10 @@ const numericCache = new Map<string, NumericExpression>();
  * evaluated once with units, which checks its dimensions: then the SI arithmetic gives the SI result, many
  * times faster — used where one expression runs at hundreds of sections.
  */
-export function compileNumeric(source: string, known: ReadonlySet<string>): NumericExpression {
-  const key = `${[...known].sort().join(",")}\u0000${source}`;
+export function compileNumeric(source: string, known: KnownNames): NumericExpression {
+  const key = source;
   const hit = numericCache.get(key);
-  if (hit) return hit;
+  if (hit && hit.names.every((name) => known.has(name))) return hit;
   const { node, names } = checkExpression(source, known);
   const numeric = node.transform((n) => {
     if (n.type !== "SymbolNode") return n;

@@ -25,7 +25,7 @@ type Scope = ReadonlyMap<string, Value>;
 
 function evaluateAt(source: string, scope: Scope, path: ReadonlyArray<PropertyKey>): Value {
   try {
-    return compileExpression(source, new Set(scope.keys())).evaluate(scope);
+    return compileExpression(source, scope).evaluate(scope);
   } catch (error) {
     if (error instanceof ExpressionError) throw new GenerateError(path, error.message);
     throw error;

@@ -12,9 +12,11 @@ const readSelfHandler = routeHandler(readSelf, {
 // elsewhere): looking the session up clears its cookie, so the page the browser asks for next could no
 // longer tell. The shell's session watcher takes the reason to the sign-in page (one of a fixed list).
 export async function GET(request: Request, context: { params: Promise<Record<string, string>> }): Promise<Response> {
-  const reason = await getSessionEndReason(request.headers);
   const response = await readSelfHandler(request, context);
-  if (response.status !== 401 || !reason) return response;
+  if (response.status !== 401) return response;
+  // Only for a 401, and never at the cost of the answer itself (a database outage is the handler's 503).
+  const reason = await getSessionEndReason(request.headers).catch(() => null);
+  if (!reason) return response;
   const body = (await response.json()) as Record<string, unknown>;
   return Response.json({ ...body, reason }, { status: 401, headers: response.headers });
 }

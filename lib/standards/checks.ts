@@ -19,7 +19,7 @@ import {
   type SiScope,
   type SiValue,
 } from "./expressions";
-import { GenerateError } from "./generate";
+import { evaluateAt, GenerateError } from "./generate";
 import { membersOf, resultIds, type ResultsView, type Where } from "./extracts";
 import { describeDimension, hasDimensionOf, isUnit, math, type Value } from "./units";
 
@@ -43,15 +43,6 @@ type Scope = ReadonlyMap<string, Value>;
 export function displayUtilisation(u: number): string {
   const up = Math.ceil(u * 100 - 1e-9) / 100;
   return up.toFixed(2);
-}
-
-function evaluate(source: string, scope: Scope, path: PropertyKey[]): Value {
-  try {
-    return compileExpression(source, scope).evaluate(scope);
-  } catch (error) {
-    if (error instanceof ExpressionError) throw new GenerateError(path, error.message);
-    throw error;
-  }
 }
 
 function utilisationOf(definition: CheckDefinition, demand: Value, capacity: Value, path: PropertyKey[]): number {
@@ -81,8 +72,8 @@ function utilisationOf(definition: CheckDefinition, demand: Value, capacity: Val
 
 export function runCheck(view: ResultsView | null, definition: CheckDefinition, scope: Scope, path: PropertyKey[]): CheckOutcome {
   if (!definition.for_each) {
-    const demand = evaluate(definition.demand, scope, [...path, "demand"]);
-    const capacity = evaluate(definition.capacity, scope, [...path, "capacity"]);
+    const demand = evaluateAt(definition.demand, scope, [...path, "demand"]);
+    const capacity = evaluateAt(definition.capacity, scope, [...path, "capacity"]);
     const utilisation = utilisationOf(definition, demand, capacity, path);
     return { demand, capacity, utilisation, pass: utilisation <= 1 };
   }
@@ -116,8 +107,8 @@ export function runCheck(view: ResultsView | null, definition: CheckDefinition, 
           const withUnits = sectionScope(scope, f, x, d.length, props);
           utilisationOf(
             definition,
-            evaluate(definition.demand, withUnits, [...path, "demand"]),
-            evaluate(definition.capacity, withUnits, [...path, "capacity"]),
+            evaluateAt(definition.demand, withUnits, [...path, "demand"]),
+            evaluateAt(definition.capacity, withUnits, [...path, "capacity"]),
             path,
           );
           dimensionsChecked = true;
@@ -147,8 +138,8 @@ export function runCheck(view: ResultsView | null, definition: CheckDefinition, 
   const g = best!;
   const d = view.diagram(g.member, g.under);
   const withUnits = sectionScope(scope, d.valueAt(g.x, g.side), g.x, d.length, memberProperties(view, g.member));
-  const demand = evaluate(definition.demand, withUnits, [...path, "demand"]);
-  const capacity = evaluate(definition.capacity, withUnits, [...path, "capacity"]);
+  const demand = evaluateAt(definition.demand, withUnits, [...path, "demand"]);
+  const capacity = evaluateAt(definition.capacity, withUnits, [...path, "capacity"]);
   const utilisation = utilisationOf(definition, demand, capacity, path);
   return {
     demand,

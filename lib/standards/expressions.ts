@@ -209,25 +209,37 @@ export function compileExpression(source: string, known: KnownNames): CompiledEx
     source,
     names,
     evaluate(scope) {
-      // Only the names the expression reads are handed over: nothing else is reachable from it.
-      const own = new Map<string, Value>();
-      for (const name of names) {
-        const value = scope.get(name);
-        if (value === undefined) throw new ExpressionError(source, `\`${name}\` has no value here`);
-        own.set(name, value);
-      }
-      let out: unknown;
-      try {
-        out = code.evaluate(own);
-      } catch (error) {
-        throw new ExpressionError(source, describeMathError(error as Error));
-      }
-      return checkResult(source, out);
+      return runCompiled(source, code, names, scope);
     },
   };
   if (cache.size >= CACHE_LIMIT) cache.clear();
   cache.set(key, compiled);
   return compiled;
+}
+
+/**
+ * Run a compiled tree with only the names it reads handed over (nothing else is reachable from it), and check
+ * its result: a finite real number, a quantity, a text or a condition.
+ */
+function runCompiled(
+  source: string,
+  code: { evaluate(scope: Map<string, unknown>): unknown },
+  names: ReadonlyArray<string>,
+  scope: { get(name: string): unknown },
+): Value {
+  const own = new Map<string, unknown>();
+  for (const name of names) {
+    const value = scope.get(name);
+    if (value === undefined) throw new ExpressionError(source, `\`${name}\` has no value here`);
+    own.set(name, value);
+  }
+  let out: unknown;
+  try {
+    out = code.evaluate(own);
+  } catch (error) {
+    throw new ExpressionError(source, describeMathError(error as Error));
+  }
+  return checkResult(source, out);
 }
 
 function describeMathError(error: Error): string {
@@ -290,19 +302,7 @@ export function compileNumeric(source: string, known: KnownNames): NumericExpres
   const compiled: NumericExpression = {
     names,
     evaluate(scope) {
-      const own = new Map<string, SiValue>();
-      for (const name of names) {
-        const value = scope.get(name);
-        if (value === undefined) throw new ExpressionError(source, `\`${name}\` has no value here`);
-        own.set(name, value);
-      }
-      let out: unknown;
-      try {
-        out = code.evaluate(own);
-      } catch (error) {
-        throw new ExpressionError(source, describeMathError(error as Error));
-      }
-      const value = checkResult(source, out);
+      const value = runCompiled(source, code, names, scope);
       if (math.isUnit(value)) throw new ExpressionError(source, "a unit was left in the numeric form");
       return value as SiValue;
     },

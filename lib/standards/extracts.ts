@@ -147,25 +147,19 @@ function maxAbs(
 }
 
 export function readExtract(view: ResultsView, definition: ExtractDefinition, scope: Scope, path: PropertyKey[]): ExtractValue {
-  if ("reaction" in definition) {
-    const node = checkedNode(view, definition.reaction.node, scope, [...path, "reaction", "node"]);
+  if ("reaction" in definition || "displacement" in definition) {
+    const [key, spec, read] =
+      "reaction" in definition
+        ? (["reaction", definition.reaction, nodeReaction] as const)
+        : (["displacement", definition.displacement, nodeDisplacement] as const);
+    const node = checkedNode(view, spec.node, scope, [...path, key, "node"]);
     const unders = resultIds(view, definition.under, scope, [...path, "under"]);
+    // The value of largest magnitude over the results read, with its sign and where.
     let best: ExtractValue | null = null;
     for (const under of unders) {
-      const value = nodeReaction(view.result, node, under)[definition.reaction.component];
+      const value = (read(view.result, node, under) as unknown as Record<string, number>)[spec.component];
       if (best === null || Math.abs(value) > Math.abs(best.value))
-        best = { value, quantity: QUANTITY_OF[definition.reaction.component], where: { node, under } };
-    }
-    return best!;
-  }
-  if ("displacement" in definition) {
-    const node = checkedNode(view, definition.displacement.node, scope, [...path, "displacement", "node"]);
-    const unders = resultIds(view, definition.under, scope, [...path, "under"]);
-    let best: ExtractValue | null = null;
-    for (const under of unders) {
-      const value = nodeDisplacement(view.result, node, under)[definition.displacement.component];
-      if (best === null || Math.abs(value) > Math.abs(best.value))
-        best = { value, quantity: QUANTITY_OF[definition.displacement.component], where: { node, under } };
+        best = { value, quantity: QUANTITY_OF[spec.component], where: { node, under } };
     }
     return best!;
   }

@@ -23,7 +23,8 @@ export class GenerateError extends Error {
 
 type Scope = ReadonlyMap<string, Value>;
 
-function evaluateAt(source: string, scope: Scope, path: ReadonlyArray<PropertyKey>): Value {
+/** Evaluate an expression in a scope; a refusal becomes a GenerateError at the given path. */
+export function evaluateAt(source: string, scope: Scope, path: ReadonlyArray<PropertyKey>): Value {
   try {
     return compileExpression(source, scope).evaluate(scope);
   } catch (error) {

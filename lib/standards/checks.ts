@@ -11,14 +11,7 @@
  * shown rounded up (1.004 shows as 1.01 and fails; never "1.00 FAIL") — common practice for design checks.
  */
 import type { CheckDefinition } from "./definition";
-import {
-  compileExpression,
-  compileNumeric,
-  ExpressionError,
-  type NumericExpression,
-  type SiScope,
-  type SiValue,
-} from "./expressions";
+import { compileNumeric, ExpressionError, type NumericExpression, type SiScope, type SiValue } from "./expressions";
 import { evaluateAt, GenerateError } from "./generate";
 import { membersOf, resultIds, type ResultsView, type Where } from "./extracts";
 import { describeDimension, hasDimensionOf, isUnit, math, type Value } from "./units";

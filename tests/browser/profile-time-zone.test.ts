@@ -22,9 +22,12 @@ it(
     await adminContext.close();
 
     await page.goto(appUrl("/profile"));
+    // The hint naming the browser's zone is rendered only once the form has hydrated.
+    await page.getByText("Your browser is set to").waitFor();
     await page.getByTestId("time-zone").selectOption("Pacific/Auckland");
     await page.getByTestId("time-zone-submit").click();
-    await page.getByTestId("time-zone-saved").waitFor();
+    // The notice names the zone that was stored (a choice lost to hydration would store none).
+    expect(await page.getByTestId("time-zone-saved").textContent()).toContain("Pacific/Auckland");
 
     for (const [path, scope] of [
       ["/audit", "audit-row"],

@@ -1,6 +1,6 @@
 "use client";
 
-import { startTransition, useActionState, useMemo, useState, useSyncExternalStore } from "react";
+import { startTransition, useActionState, useMemo, useSyncExternalStore } from "react";
 import { Button } from "@/components/ui/button";
 import { SelectField } from "@/components/ui/field";
 import { FormError, Notice } from "@/components/ui/notice";
@@ -24,7 +24,6 @@ const subscribeToNothing = () => () => undefined;
 // The zones come from the server's list (the one it validates against), so every choice here is accepted.
 export function TimeZoneForm({ current, zones }: { current: string | null; zones: string[] }) {
   const [state, save, pending] = useActionState(setTimeZoneAction, null);
-  const [choice, setChoice] = useState(current ?? "");
   // The browser's own zone and each zone's offset now are known only in the browser (its clock, its
   // time-zone data): filled in after the first render, so the server's HTML and the browser's agree.
   const inBrowser = useSyncExternalStore(
@@ -48,15 +47,16 @@ export function TimeZoneForm({ current, zones }: { current: string | null; zones
       data-testid="time-zone-form"
       onSubmit={(event) => {
         event.preventDefault();
-        startTransition(() => save({ timeZone: choice }));
+        // Read from the form, not from state: a choice made before the page hydrated is kept.
+        const timeZone = String(new FormData(event.currentTarget).get("timeZone") ?? "");
+        startTransition(() => save({ timeZone }));
       }}
     >
       <FormError message={server.form} />
       <SelectField
         label="Show times in"
         name="timeZone"
-        value={choice}
-        onChange={(event) => setChoice(event.target.value)}
+        defaultValue={current ?? ""}
         data-testid="time-zone"
         errorTestId="time-zone-error"
         error={server.field.timeZone}

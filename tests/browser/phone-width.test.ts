@@ -1,14 +1,12 @@
-// At a phone's width (390 px) no page scrolls sideways, for anyone: every page for every role in
-// tests/support/app-pages.ts. Wide tables scroll inside their own box with their first column held in
-// place, and the navigation folds behind a "Menu" button that says whether it is open.
+// At a phone's width (390 px): wide tables scroll inside their own box with their first column held in
+// place, and the navigation folds behind a "Menu" button that says whether it is open. That no page
+// scrolls sideways, for anyone, is checked on every page by page-walk.test.ts.
 import { afterAll, describe, expect, it } from "vitest";
 import type { Page } from "playwright-core";
 import { useBrowser } from "../support/browser";
-import { pageVisits, visitorContexts } from "../support/app-pages";
-import { isFakeMailInUse, journeyTimeout } from "../support/pages";
+import { visitorContexts } from "../support/app-pages";
 
 const browser = useBrowser();
-const mailboxInUse = await isFakeMailInUse();
 const PHONE = { width: 390, height: 844 };
 const visitors = visitorContexts(browser, PHONE);
 
@@ -32,20 +30,6 @@ function measure(page: Page) {
     return { scrollWidth: root.scrollWidth, clientWidth: root.clientWidth, escaping };
   });
 }
-
-describe("no page scrolls sideways at 390 px", () => {
-  it.each(pageVisits({ mailboxInUse }))(
-    "$label",
-    async ({ page: { path }, visitor }) => {
-      const page = await visitors.open(visitor, path);
-      const { scrollWidth, clientWidth, escaping } = await measure(page);
-      expect({ scrollWidth, escaping }).toEqual({ scrollWidth: clientWidth, escaping: [] });
-      expect(clientWidth).toBe(PHONE.width);
-      await page.close();
-    },
-    journeyTimeout(1),
-  );
-});
 
 describe("at 390 px", () => {
   it("the navigation is a menu behind a button that says whether it is open, and opening it widens nothing", async () => {

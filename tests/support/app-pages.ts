@@ -1,7 +1,8 @@
-// Every page a person can reach, and who reaches it: the one list the page-by-page browser checks
-// (accessibility.test.ts with axe, phone-width.test.ts at 390 px) walk through. A new page is one more
-// line here, e.g. { name: "profile", path: "/profile", visitors: SIGNED_IN }.
-import type { Browser, BrowserContext, Page } from "playwright-core";
+// Every page a person can reach, who reaches it and what they get: the one list page-walk.test.ts walks
+// through (the policy, axe, 390 px). A new page is one more line here, e.g.
+//   { name: "profile", entry: "/(app)/profile/page", path: "/profile", visitors: SIGNED_IN },
+// and the walk fails until every page the build contains (its app-paths manifest) has a line.
+import type { Browser, BrowserContext, Page, Response } from "playwright-core";
 import type { Role } from "@/lib/domain/roles";
 import { appUrl } from "./env";
 import { demoSession, toBrowserCookies } from "./pages/sessions";
@@ -10,7 +11,11 @@ export type Visitor = "anonymous" | Role;
 
 export type AppPage = {
   name: string;
+  /** The build's app-paths-manifest entry the address is served by. */
+  entry: string;
   path: string;
+  /** What the visitors get (after any redirect); 200 unless said. */
+  status?: number;
   visitors: Visitor[];
   /** Only while the app runs with the fake SMTP server (else it answers 404). */
   mailbox?: true;
@@ -20,23 +25,45 @@ export const SIGNED_IN: Role[] = ["admin", "lead", "engineer", "auditor"];
 const WORK: Role[] = ["lead", "engineer", "auditor"];
 
 export const APP_PAGES: AppPage[] = [
-  { name: "sign-in", path: "/sign-in", visitors: ["anonymous"] },
-  { name: "forgot password", path: "/forgot-password", visitors: ["anonymous"] },
-  { name: "reset password, bad link", path: "/reset-password?token=not-a-real-token", visitors: ["anonymous"] },
-  { name: "invitation, bad link", path: "/invite/not-a-real-token", visitors: ["anonymous"] },
-  { name: "home", path: "/home", visitors: SIGNED_IN },
-  { name: "profile", path: "/profile", visitors: SIGNED_IN },
-  { name: "standards", path: "/standards", visitors: WORK },
-  { name: "jobs", path: "/jobs", visitors: WORK },
-  { name: "runs", path: "/runs", visitors: WORK },
-  { name: "audit trail", path: "/audit", visitors: ["admin", "auditor"] },
-  { name: "people", path: "/admin/users", visitors: ["admin", "auditor"] },
-  { name: "demo mailbox", path: "/admin/mailbox", visitors: ["admin"], mailbox: true },
-  { name: "403, not part of the role", path: "/runs", visitors: ["admin"] },
-  { name: "403, not part of the role", path: "/audit", visitors: ["lead", "engineer"] },
-  { name: "403, not part of the role", path: "/admin/mailbox", visitors: ["auditor"] },
-  { name: "404", path: "/no-such-page-here", visitors: ["anonymous", ...SIGNED_IN] },
+  { name: "the bare address", entry: "/page", path: "/", visitors: ["anonymous", "engineer"] }, // sign-in or home
+  { name: "sign-in", entry: "/(auth)/sign-in/page", path: "/sign-in", visitors: ["anonymous"] },
+  { name: "forgot password", entry: "/(auth)/forgot-password/page", path: "/forgot-password", visitors: ["anonymous"] },
+  {
+    name: "reset password, bad link",
+    entry: "/(auth)/reset-password/page",
+    path: "/reset-password?token=not-a-real-token",
+    visitors: ["anonymous"],
+  },
+  {
+    name: "invitation, bad link",
+    entry: "/(auth)/invite/[token]/page",
+    path: "/invite/not-a-real-token",
+    visitors: ["anonymous"],
+  },
+  { name: "home", entry: "/(app)/home/page", path: "/home", visitors: SIGNED_IN },
+  { name: "profile", entry: "/(app)/profile/page", path: "/profile", visitors: SIGNED_IN },
+  { name: "standards", entry: "/(app)/standards/page", path: "/standards", visitors: WORK },
+  { name: "jobs", entry: "/(app)/jobs/page", path: "/jobs", visitors: WORK },
+  { name: "runs", entry: "/(app)/runs/page", path: "/runs", visitors: WORK },
+  { name: "audit trail", entry: "/(app)/audit/page", path: "/audit", visitors: ["admin", "auditor"] },
+  { name: "people", entry: "/(app)/admin/users/page", path: "/admin/users", visitors: ["admin", "auditor"] },
+  { name: "demo mailbox", entry: "/(app)/admin/mailbox/page", path: "/admin/mailbox", visitors: ["admin"], mailbox: true },
+  { name: "403, not part of the role", entry: "/(app)/runs/page", path: "/runs", status: 403, visitors: ["admin"] },
+  { name: "403, not part of the role", entry: "/(app)/audit/page", path: "/audit", status: 403, visitors: ["lead"] },
+  {
+    name: "403, not part of the role",
+    entry: "/(app)/admin/mailbox/page",
+    path: "/admin/mailbox",
+    status: 403,
+    visitors: ["auditor"],
+  },
+  { name: "404", entry: "/_not-found/page", path: "/no-such-page-here", status: 404, visitors: ["anonymous", "engineer"] },
+  // Shown only while the database is down (tests/integration/database-outage.test.ts); 404 otherwise.
+  { name: "unavailable, database up", entry: "/unavailable/page", path: "/unavailable", status: 404, visitors: ["anonymous"] },
 ];
+
+/** Framework entries with no address of their own. */
+export const NOT_PAGES = new Set(["/_global-error/page"]);
 
 /** Every (page, visitor) pair, flattened, for it.each. */
 export function pageVisits({ mailboxInUse }: { mailboxInUse: boolean }): { page: AppPage; visitor: Visitor; label: string }[] {
@@ -49,17 +76,14 @@ export function pageVisits({ mailboxInUse }: { mailboxInUse: boolean }): { page:
  * One browser context per visitor and viewport, signed in as that demo person (or nobody), reused across
  * a test file; close them with closeAll().
  */
-export function visitorContexts(browser: () => Browser, options: { width: number; height: number; bypassCSP?: boolean }) {
+export function visitorContexts(browser: () => Browser, options: { width: number; height: number }) {
   const contexts = new Map<Visitor, Promise<BrowserContext>>();
   const contextFor = (visitor: Visitor) => {
     if (!contexts.has(visitor)) {
       contexts.set(
         visitor,
         (async () => {
-          const context = await browser().newContext({
-            viewport: { width: options.width, height: options.height },
-            bypassCSP: options.bypassCSP ?? false,
-          });
+          const context = await browser().newContext({ viewport: { width: options.width, height: options.height } });
           if (visitor !== "anonymous") await context.addCookies(toBrowserCookies(await demoSession(visitor)));
           return context;
         })(),
@@ -70,11 +94,20 @@ export function visitorContexts(browser: () => Browser, options: { width: number
   return {
     /** A new page for the visitor, opened at `path` with the page's scripts run and the network quiet. */
     async open(visitor: Visitor, path: string): Promise<Page> {
+      return (await this.visit(visitor, path)).page;
+    },
+    /** As open(), with the response, and `prepare` run on the page before it navigates. */
+    async visit(
+      visitor: Visitor,
+      path: string,
+      prepare?: (page: Page) => Promise<void>,
+    ): Promise<{ page: Page; response: Response | null }> {
       const page = await (await contextFor(visitor)).newPage();
-      await page.goto(appUrl(path), { waitUntil: "load" });
+      await prepare?.(page);
+      const response = await page.goto(appUrl(path), { waitUntil: "load" });
       await page.waitForFunction(() => (window as unknown as { next?: { appDir?: boolean } }).next?.appDir === true);
       await page.waitForLoadState("networkidle");
-      return page;
+      return { page, response };
     },
     async closeAll(): Promise<void> {
       for (const context of contexts.values()) await (await context).close();

@@ -10,14 +10,13 @@ import AxeBuilder from "@axe-core/playwright";
 import type { Page } from "playwright-core";
 import { afterAll, describe, expect, it } from "vitest";
 import { useBrowser } from "../support/browser";
-import { APP_PAGES, NOT_PAGES, pageVisits, visitorContexts } from "../support/app-pages";
+import { APP_PAGES, measureWidth, NOT_PAGES, pageVisits, PHONE, visitorContexts } from "../support/app-pages";
 import { NONCE_POLICY, watchViolations } from "../support/csp";
 import { isFakeMailInUse, journeyTimeout } from "../support/pages";
 
 const browser = useBrowser();
 const mailboxInUse = await isFakeMailInUse();
 const DESKTOP = { width: 1280, height: 900 };
-const PHONE = { width: 390, height: 844 };
 const visitors = visitorContexts(browser, DESKTOP);
 
 afterAll(async () => {
@@ -40,19 +39,7 @@ async function seriousViolations(page: Page) {
 /** Narrows the window to a phone's; how wide the document is then, and what reaches past its right edge. */
 async function measureAtPhoneWidth(page: Page) {
   await page.setViewportSize(PHONE);
-  return page.evaluate(() => {
-    const root = document.documentElement;
-    const escaping = [...document.querySelectorAll<HTMLElement>("body *")]
-      .filter((element) => element.getBoundingClientRect().right > root.clientWidth + 1)
-      // Inside a box that scrolls sideways is fine: that box is what scrolls, not the page.
-      .filter((element) => !element.parentElement?.closest('[class*="overflow-x-auto"]'))
-      .slice(0, 5)
-      .map(
-        (element) =>
-          `${element.tagName.toLowerCase()}${element.dataset.testid ? `[${element.dataset.testid}]` : ""}.${element.className}`,
-      );
-    return { scrollWidth: root.scrollWidth, clientWidth: root.clientWidth, escaping };
-  });
+  return measureWidth(page);
 }
 
 describe("every page, for everyone who reaches it", () => {

@@ -2,34 +2,15 @@
 // place, and the navigation folds behind a "Menu" button that says whether it is open. That no page
 // scrolls sideways, for anyone, is checked on every page by page-walk.test.ts.
 import { afterAll, describe, expect, it } from "vitest";
-import type { Page } from "playwright-core";
 import { useBrowser } from "../support/browser";
-import { visitorContexts } from "../support/app-pages";
+import { measureWidth, PHONE, visitorContexts } from "../support/app-pages";
 
 const browser = useBrowser();
-const PHONE = { width: 390, height: 844 };
 const visitors = visitorContexts(browser, PHONE);
 
 afterAll(async () => {
   await visitors.closeAll();
 });
-
-/** How wide the document is against the window's width, and the elements that reach past its right edge. */
-function measure(page: Page) {
-  return page.evaluate(() => {
-    const root = document.documentElement;
-    const escaping = [...document.querySelectorAll<HTMLElement>("body *")]
-      .filter((element) => element.getBoundingClientRect().right > root.clientWidth + 1)
-      // Inside a box that scrolls sideways is fine: that box is what scrolls, not the page.
-      .filter((element) => !element.parentElement?.closest('[class*="overflow-x-auto"]'))
-      .slice(0, 5)
-      .map(
-        (element) =>
-          `${element.tagName.toLowerCase()}${element.dataset.testid ? `[${element.dataset.testid}]` : ""}.${element.className}`,
-      );
-    return { scrollWidth: root.scrollWidth, clientWidth: root.clientWidth, escaping };
-  });
-}
 
 describe("at 390 px", () => {
   it("the navigation is a menu behind a button that says whether it is open, and opening it widens nothing", async () => {
@@ -42,7 +23,7 @@ describe("at 390 px", () => {
     await button.click();
     expect(await button.getAttribute("aria-expanded")).toBe("true");
     expect(await link.isVisible()).toBe(true);
-    expect((await measure(page)).scrollWidth).toBe(PHONE.width);
+    expect((await measureWidth(page)).scrollWidth).toBe(PHONE.width);
     // Following a link closes the menu on the new page.
     await link.click();
     await page.waitForURL((url) => url.pathname === "/admin/users");
@@ -61,7 +42,7 @@ describe("at 390 px", () => {
     const [boxLeft, nameLeft] = [(await box.boundingBox())!.x, (await name.boundingBox())!.x];
     expect(Math.abs(nameLeft - boxLeft)).toBeLessThan(2); // …and the name column stays at its left edge
     expect(await name.evaluate((cell) => getComputedStyle(cell).position)).toBe("sticky");
-    expect((await measure(page)).scrollWidth).toBe(PHONE.width);
+    expect((await measureWidth(page)).scrollWidth).toBe(PHONE.width);
     await page.close();
   });
 
@@ -70,7 +51,7 @@ describe("at 390 px", () => {
     await page.getByTestId("user-menu-button").click();
     const menu = page.getByTestId("user-menu");
     await menu.waitFor();
-    expect((await measure(page)).scrollWidth).toBe(PHONE.width);
+    expect((await measureWidth(page)).scrollWidth).toBe(PHONE.width);
     await page.close();
   });
 });

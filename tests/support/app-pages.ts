@@ -114,3 +114,22 @@ export function visitorContexts(browser: () => Browser, options: { width: number
     },
   };
 }
+
+export const PHONE = { width: 390, height: 844 };
+
+/** How wide the document is against the window's width, and the elements that reach past its right edge. */
+export function measureWidth(page: Page) {
+  return page.evaluate(() => {
+    const root = document.documentElement;
+    const escaping = [...document.querySelectorAll<HTMLElement>("body *")]
+      .filter((element) => element.getBoundingClientRect().right > root.clientWidth + 1)
+      // Inside a box that scrolls sideways is fine: that box is what scrolls, not the page.
+      .filter((element) => !element.parentElement?.closest('[class*="overflow-x-auto"]'))
+      .slice(0, 5)
+      .map(
+        (element) =>
+          `${element.tagName.toLowerCase()}${element.dataset.testid ? `[${element.dataset.testid}]` : ""}.${element.className}`,
+      );
+    return { scrollWidth: root.scrollWidth, clientWidth: root.clientWidth, escaping };
+  });
+}

@@ -4,13 +4,21 @@ import { drizzle } from "drizzle-orm/node-postgres";
 import { seedDemoFirm } from "../db/seed";
 import * as schema from "../db/schema";
 import { runDatabaseScript } from "./lib/database-script";
+import { seedStartingStandards } from "./lib/seed-standards";
 
 runDatabaseScript("seed", async (pool) => {
-  const result = await seedDemoFirm(drizzle(pool, { schema, casing: "snake_case" }));
+  const database = drizzle(pool, { schema, casing: "snake_case" });
+  const result = await seedDemoFirm(database);
   console.log(
     result.seeded
       ? `seed: demo firm created (${result.users} users, ${result.projects} projects)`
       : "seed: already seeded (users exist); nothing changed",
+  );
+  const standards = await seedStartingStandards(database);
+  console.log(
+    standards.seeded
+      ? `seed: starting standards published (${standards.standards} standards, ${standards.versions} versions)`
+      : `seed: starting standards not imported (${standards.reason}); nothing changed`,
   );
   return 0;
 });

@@ -1,3 +1,4 @@
 export * from "./auth";
 export * from "./audit";
 export * from "./firm";
+export * from "./standards";

@@ -28,6 +28,25 @@ export type AuditDetails = {
   "profile.change-password.failed": { reason: string };
   /** null: the browser's own time zone. */
   "profile.set-time-zone": { from: string | null; to: string | null };
+  // The standards' lifecycle. `slug` names the standard; `hash` is the content hash of the source concerned.
+  "standards.create": { slug: string; title: string };
+  "standards.draft.start": { slug: string; fromVersion: number };
+  "standards.draft.save": { slug: string; hash: string | null; problems: number };
+  "standards.draft.discard": { slug: string };
+  "standards.draft.submit": { slug: string; round: number; changelog: string; hash: string };
+  "standards.draft.return": { slug: string; round: number; comments: number; authorName: string };
+  "standards.publish": {
+    slug: string;
+    number: number;
+    hash: string;
+    title: string;
+    authorName: string;
+    supersedes: number[];
+    cases: number;
+  };
+  "standards.withdraw": { slug: string; number: number; reason: string };
+  /** A standard imported from content/standards/ by the seed, as a published version. */
+  "standards.import": { slug: string; number: number; hash: string };
 };
 
 export type AuditAction = keyof AuditDetails;
@@ -50,6 +69,15 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "profile.change-password": "Changed their password",
   "profile.change-password.failed": "Failed to change their password",
   "profile.set-time-zone": "Set their time zone",
+  "standards.create": "Started a new standard",
+  "standards.draft.start": "Started a draft from a version",
+  "standards.draft.save": "Saved a draft",
+  "standards.draft.discard": "Discarded a draft",
+  "standards.draft.submit": "Submitted a draft for review",
+  "standards.draft.return": "Returned a draft with comments",
+  "standards.publish": "Approved and published a version",
+  "standards.withdraw": "Withdrew a version",
+  "standards.import": "Imported a starting standard",
 };
 
 export function isAuditAction(value: string): value is AuditAction {

@@ -153,6 +153,45 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
       const message = text(d.message);
       return [`An invitation link could not be used${message ? `: ${message}` : ""}`];
     }
+    case "standards.create":
+      return [actor, ` started a new standard, ${text(d.title) ?? text(d.slug) ?? "untitled"}`];
+    case "standards.draft.start":
+      return [actor, ` started a draft of ${text(d.slug) ?? "a standard"} from version ${count(d.fromVersion) ?? "?"}`];
+    case "standards.draft.save": {
+      const problems = count(d.problems) ?? 0;
+      return [
+        actor,
+        ` saved a draft of ${text(d.slug) ?? "a standard"}${problems > 0 ? ` (${plural(problems, "problem", "problems")} left)` : ""}`,
+      ];
+    }
+    case "standards.draft.discard":
+      return [actor, ` discarded a draft of ${text(d.slug) ?? "a standard"}`];
+    case "standards.draft.submit":
+      return [actor, ` submitted ${text(d.slug) ?? "a standard"} for review: “${text(d.changelog) ?? ""}”`];
+    case "standards.draft.return": {
+      const comments = count(d.comments) ?? 0;
+      const author = text(d.authorName);
+      return [
+        actor,
+        ` returned ${author ? `${author}'s ` : "a "}draft of ${text(d.slug) ?? "a standard"}${comments > 0 ? ` with ${plural(comments, "comment", "comments")}` : ""}`,
+      ];
+    }
+    case "standards.publish": {
+      const author = text(d.authorName);
+      const superseded =
+        Array.isArray(d.supersedes) && d.supersedes.length > 0 ? `, superseding version ${d.supersedes.join(", ")}` : "";
+      return [
+        actor,
+        ` approved and published ${text(d.title) ?? text(d.slug) ?? "a standard"} version ${count(d.number) ?? "?"}${author ? ` by ${author}` : ""}${superseded}`,
+      ];
+    }
+    case "standards.withdraw":
+      return [
+        actor,
+        ` withdrew ${text(d.slug) ?? "a standard"} version ${count(d.number) ?? "?"}: ${text(d.reason) ?? "no reason given"}`,
+      ];
+    case "standards.import":
+      return [actor, ` imported ${text(d.slug) ?? "a standard"} version ${count(d.number) ?? "?"} from the starting library`];
     default:
       // A kind this version has no sentence for (a newer or retired one): who, and its label.
       return [actor, `: ${auditActionLabel(event.action)}`];

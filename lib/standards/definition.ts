@@ -71,10 +71,15 @@ export const SUPPORT_PRESETS = {
   "roller-x": { ux: "free", uy: "fixed", rz: "free" },
   "roller-y": { ux: "fixed", uy: "free", rz: "free" },
 } as const;
-const support = z.union([
-  z.enum(Object.keys(SUPPORT_PRESETS) as [keyof typeof SUPPORT_PRESETS, ...(keyof typeof SUPPORT_PRESETS)[]]),
-  z.object({ ux: restraint.optional(), uy: restraint.optional(), rz: restraint.optional() }).strict(),
-]);
+const support = z.union(
+  [
+    z.enum(Object.keys(SUPPORT_PRESETS) as [keyof typeof SUPPORT_PRESETS, ...(keyof typeof SUPPORT_PRESETS)[]]),
+    z.object({ ux: restraint.optional(), uy: restraint.optional(), rz: restraint.optional() }).strict(),
+  ],
+  {
+    error: `a support is one of ${Object.keys(SUPPORT_PRESETS).join(", ")}, or { ux, uy, rz } each fixed, free, a spring or a settlement`,
+  },
+);
 
 const NodeTemplate = z.object({ id: template, x: expr, y: expr, support: support.optional(), each, when }).strict();
 

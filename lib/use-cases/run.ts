@@ -45,16 +45,16 @@ function parseOrThrow<S extends z.ZodType>(schema: S, raw: unknown): z.infer<S> 
  * Runs a use case as `actor` with raw (unparsed) input. Resolves once the transaction has committed;
  * throws AppError for refusals and bad input, and rolls everything back on any error.
  */
-export async function runUseCase<P extends Permission, S extends z.ZodType, T>(
-  useCase: UseCase<P, S, T>,
+export async function runUseCase<P extends Permission, S extends z.ZodType, T, R>(
+  useCase: UseCase<P, S, T, R>,
   request: UseCaseRequest,
 ): Promise<T> {
   return (await executeUseCase(useCase, request)).result;
 }
 
 /** runUseCase, also handing back the parsed input (for adapters that act on it after the commit). */
-export async function executeUseCase<P extends Permission, S extends z.ZodType, T>(
-  useCase: UseCase<P, S, T>,
+export async function executeUseCase<P extends Permission, S extends z.ZodType, T, R>(
+  useCase: UseCase<P, S, T, R>,
   { actor, input: raw, ipAddress = null }: UseCaseRequest,
 ): Promise<{ input: z.infer<S>; result: T }> {
   let allowed: ActorFor<P>;
@@ -78,8 +78,9 @@ export async function executeUseCase<P extends Permission, S extends z.ZodType, 
     if (useCase.database === false) return { input, result: await useCase.run(input, { actor: allowed }) };
     const work = useCase.run;
     const audit = useCase.audit;
+    const prepared = (useCase.prepare ? await useCase.prepare(input, { actor: allowed }) : undefined) as R;
     const result = await runInTransaction(async (tx) => {
-      const value = await work(input, { actor: allowed, tx });
+      const value = await work(input, { actor: allowed, tx, prepared });
       const event = audit?.({ input, result: value, actor: allowed });
       if (event)
         await recordAuditEvent({ actorId: allowed?.id ?? null, actorEmail: allowed?.email ?? null, ipAddress, ...event });

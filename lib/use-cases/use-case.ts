@@ -11,10 +11,12 @@ import type { AppError } from "@/lib/domain/errors";
 /** A use case that requires a permission always sees a signed-in actor; a public one may see none. */
 export type ActorFor<P extends Permission> = P extends "public" ? Actor | null : Actor;
 
-export type UseCaseContext<P extends Permission> = {
+export type UseCaseContext<P extends Permission, R = undefined> = {
   actor: ActorFor<P>;
   /** The transaction the work, its audit event and any queued job share. */
   tx: Transaction;
+  /** What `prepare` computed before the transaction opened (undefined without one). */
+  prepared: R;
 };
 
 /** For the few use cases that touch no data at all (liveness): no transaction is opened. */
@@ -29,13 +31,19 @@ export type AuditFailure = (args: { error: AppError; actor: Actor | null }) => A
 /** The audit event of a change; actor fields default to the actor who ran it. */
 export type AuditFor<P extends Permission, I, T> = (args: { input: I; result: T; actor: ActorFor<P> }) => AuditEventInput | null;
 
-export type UseCase<P extends Permission, S extends z.ZodType, T> =
+export type UseCase<P extends Permission, S extends z.ZodType, T, R = undefined> =
   | {
       /** For logs and error messages, e.g. "users.invite". */
       name: string;
       permission: P;
       input: S;
-      run: (input: z.infer<S>, context: UseCaseContext<P>) => Promise<T>;
+      /**
+       * Slow pure work (compiling and verifying a standard in the evaluation pool) done after the permission
+       * and input checks but before the transaction opens, so no connection is held while it runs. It may
+       * read (outside the transaction); `run` must re-check under its locks that what was prepared still holds.
+       */
+      prepare?: (input: z.infer<S>, context: DatabaseFreeContext<P>) => Promise<R>;
+      run: (input: z.infer<S>, context: UseCaseContext<P, R>) => Promise<T>;
       /** null for reads: they change nothing, so they write no event. */
       audit: AuditFor<P, z.infer<S>, T> | null;
       auditFailure?: AuditFailure;
@@ -45,6 +53,7 @@ export type UseCase<P extends Permission, S extends z.ZodType, T> =
       name: string;
       permission: P;
       input: S;
+      prepare?: undefined;
       run: (input: z.infer<S>, context: DatabaseFreeContext<P>) => Promise<T>;
       audit: null;
       auditFailure?: undefined;
@@ -53,6 +62,8 @@ export type UseCase<P extends Permission, S extends z.ZodType, T> =
     };
 
 /** Declares a use case (an identity function that lets TypeScript infer the types). */
-export function defineUseCase<P extends Permission, S extends z.ZodType, T>(useCase: UseCase<P, S, T>): UseCase<P, S, T> {
+export function defineUseCase<P extends Permission, S extends z.ZodType, T, R = undefined>(
+  useCase: UseCase<P, S, T, R>,
+): UseCase<P, S, T, R> {
   return useCase;
 }

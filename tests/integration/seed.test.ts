@@ -27,7 +27,7 @@ afterAll(async () => {
 describe("demo seed", () => {
   it("seeds an empty database once, then says it is already seeded", () => {
     expect(firstSeed.status, firstSeed.stderr).toBe(0);
-    expect(firstSeed.stdout).toMatch(/demo firm created \(4 users, 2 projects\)/);
+    expect(firstSeed.stdout).toMatch(/demo firm created \(5 users, 2 projects\)/);
     const second = runScript("scripts/seed.ts", ["--conditions=react-server"]);
     expect(second.status, second.stderr).toBe(0);
     expect(second.stdout).toMatch(/already seeded/);

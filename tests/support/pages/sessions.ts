@@ -10,7 +10,8 @@ import { DEMO_USERS } from "@/db/demo-users";
 import type { Role } from "@/lib/domain/roles";
 import { appUrl, testEnv } from "../env";
 
-export const DEMO_BY_ROLE = Object.fromEntries(DEMO_USERS.map((user) => [user.role, user])) as Record<
+// The first demo person of each role (the demo has a second lead, the reviewer, listed after the first).
+export const DEMO_BY_ROLE = Object.fromEntries(DEMO_USERS.toReversed().map((user) => [user.role, user])) as Record<
   Role,
   (typeof DEMO_USERS)[number]
 >;

@@ -1,0 +1,396 @@
+import "server-only";
+// Standards, their drafts, reviews and published versions (db/schema/standards.ts). Permissions are checked
+// by the use cases (lib/use-cases/standards.ts) before any of this runs. A version's status is derived from
+// its latest event; nothing here updates a published version (the database would refuse).
+import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
+import { alias } from "drizzle-orm/pg-core";
+import {
+  standardDrafts,
+  standardReviewComments,
+  standardReviews,
+  standards,
+  standardVersionEvents,
+  standardVersions,
+  user,
+  type DraftState,
+  type ReviewOutcome,
+  type StandardDraft,
+  type StandardReview,
+  type StandardVersion,
+  type VersionEventKind,
+} from "@/db/schema";
+import { AppError } from "@/lib/domain/errors";
+import { currentDb } from "./transaction";
+
+export type VersionStatus = VersionEventKind;
+
+export type VersionSummaryDto = {
+  id: string;
+  standardId: string;
+  slug: string;
+  number: number;
+  title: string;
+  category: string;
+  tags: string[];
+  summary: string;
+  changelog: string;
+  contentHash: string;
+  status: VersionStatus;
+  authorName: string;
+  reviewerName: string;
+  publishedAt: string;
+};
+
+export type VersionDto = VersionSummaryDto & {
+  source: string;
+  basedOnVersionId: string | null;
+  verifiedWith: string;
+  verification: unknown;
+  events: { kind: VersionStatus; reason: string | null; actorName: string | null; occurredAt: string }[];
+};
+
+export type DraftDto = {
+  id: string;
+  standardId: string;
+  slug: string;
+  authorId: string;
+  authorName: string;
+  state: DraftState;
+  source: string;
+  basedOnVersionId: string | null;
+  basedOnNumber: number | null;
+  publishedVersionId: string | null;
+  createdAt: string;
+  updatedAt: string;
+};
+
+export type ReviewDto = {
+  id: string;
+  draftId: string;
+  round: number;
+  source: string;
+  changelog: string;
+  submittedById: string;
+  submittedByName: string;
+  submittedAt: string;
+  reviewerId: string | null;
+  reviewerName: string | null;
+  outcome: ReviewOutcome | null;
+  note: string | null;
+  decidedAt: string | null;
+  comments: { id: number; line: number | null; body: string; authorName: string; createdAt: string }[];
+};
+
+const author = alias(user, "author");
+const reviewer = alias(user, "reviewer");
+
+/** The latest event of each version: its status. */
+function latestEvents() {
+  return currentDb()
+    .selectDistinctOn([standardVersionEvents.versionId], {
+      versionId: standardVersionEvents.versionId,
+      kind: standardVersionEvents.kind,
+    })
+    .from(standardVersionEvents)
+    .orderBy(standardVersionEvents.versionId, desc(standardVersionEvents.id))
+    .as("latest_event");
+}
+
+function versionSummaryQuery() {
+  const latest = latestEvents();
+  return currentDb()
+    .select({
+      id: standardVersions.id,
+      standardId: standardVersions.standardId,
+      slug: standards.slug,
+      number: standardVersions.number,
+      title: standardVersions.title,
+      category: standardVersions.category,
+      tags: standardVersions.tags,
+      summary: standardVersions.summary,
+      changelog: standardVersions.changelog,
+      contentHash: standardVersions.contentHash,
+      status: sql<VersionStatus>`coalesce(${latest.kind}, 'published')`,
+      authorName: author.name,
+      reviewerName: reviewer.name,
+      publishedAt: standardVersions.publishedAt,
+    })
+    .from(standardVersions)
+    .innerJoin(standards, eq(standards.id, standardVersions.standardId))
+    .innerJoin(author, eq(author.id, standardVersions.authorId))
+    .innerJoin(reviewer, eq(reviewer.id, standardVersions.reviewerId))
+    .leftJoin(latest, eq(latest.versionId, standardVersions.id));
+}
+
+type SummaryRow = Awaited<ReturnType<ReturnType<typeof versionSummaryQuery>["execute"]>>[number];
+const toSummary = (row: SummaryRow): VersionSummaryDto => ({ ...row, publishedAt: row.publishedAt.toISOString() });
+
+export async function getStandardBySlug(slug: string): Promise<{ id: string; slug: string } | null> {
+  const [row] = await currentDb()
+    .select({ id: standards.id, slug: standards.slug })
+    .from(standards)
+    .where(eq(standards.slug, slug));
+  return row ?? null;
+}
+
+export async function slugTaken(slug: string): Promise<boolean> {
+  return (await getStandardBySlug(slug)) !== null;
+}
+
+export async function insertStandard(values: { slug: string; createdById: string }): Promise<{ id: string; slug: string }> {
+  const [row] = await currentDb().insert(standards).values(values).returning({ id: standards.id, slug: standards.slug });
+  return row;
+}
+
+/** Locks the standard's row: publications of one standard take their numbers one at a time. */
+export async function lockStandard(id: string): Promise<void> {
+  await currentDb().select({ id: standards.id }).from(standards).where(eq(standards.id, id)).for("update");
+}
+
+/** Every version of every standard, newest number first within each standard. */
+export async function listVersionSummaries(): Promise<VersionSummaryDto[]> {
+  const rows = await versionSummaryQuery().orderBy(asc(standards.slug), desc(standardVersions.number));
+  return rows.map(toSummary);
+}
+
+export async function listVersionsOf(standardId: string): Promise<VersionSummaryDto[]> {
+  const rows = await versionSummaryQuery()
+    .where(eq(standardVersions.standardId, standardId))
+    .orderBy(desc(standardVersions.number));
+  return rows.map(toSummary);
+}
+
+export async function getVersion(where: { id: string } | { standardId: string; number: number }): Promise<VersionDto | null> {
+  const condition =
+    "id" in where
+      ? eq(standardVersions.id, where.id)
+      : and(eq(standardVersions.standardId, where.standardId), eq(standardVersions.number, where.number));
+  const [summary] = await versionSummaryQuery().where(condition);
+  if (!summary) return null;
+  const [content] = await currentDb()
+    .select({
+      source: standardVersions.source,
+      basedOnVersionId: standardVersions.basedOnVersionId,
+      verifiedWith: standardVersions.verifiedWith,
+      verification: standardVersions.verification,
+    })
+    .from(standardVersions)
+    .where(eq(standardVersions.id, summary.id));
+  const events = await currentDb()
+    .select({
+      kind: standardVersionEvents.kind,
+      reason: standardVersionEvents.reason,
+      actorName: user.name,
+      occurredAt: standardVersionEvents.occurredAt,
+    })
+    .from(standardVersionEvents)
+    .leftJoin(user, eq(user.id, standardVersionEvents.actorId))
+    .where(eq(standardVersionEvents.versionId, summary.id))
+    .orderBy(asc(standardVersionEvents.id));
+  return {
+    ...toSummary(summary),
+    ...content,
+    events: events.map((event) => ({ ...event, occurredAt: event.occurredAt.toISOString() })),
+  };
+}
+
+export async function nextVersionNumber(standardId: string): Promise<number> {
+  const [row] = await currentDb()
+    .select({ last: sql<number>`coalesce(max(${standardVersions.number}), 0)`.mapWith(Number) })
+    .from(standardVersions)
+    .where(eq(standardVersions.standardId, standardId));
+  return row.last + 1;
+}
+
+export async function insertVersion(values: typeof standardVersions.$inferInsert): Promise<StandardVersion> {
+  const [row] = await currentDb().insert(standardVersions).values(values).returning();
+  return row;
+}
+
+export async function insertVersionEvent(values: {
+  versionId: string;
+  kind: VersionEventKind;
+  reason?: string | null;
+  actorId: string | null;
+}): Promise<void> {
+  await currentDb().insert(standardVersionEvents).values(values);
+}
+
+// ---- drafts ----------------------------------------------------------------------------------------
+
+function draftQuery() {
+  const basedOn = alias(standardVersions, "based_on");
+  return currentDb()
+    .select({
+      id: standardDrafts.id,
+      standardId: standardDrafts.standardId,
+      slug: standards.slug,
+      authorId: standardDrafts.authorId,
+      authorName: user.name,
+      state: standardDrafts.state,
+      source: standardDrafts.source,
+      basedOnVersionId: standardDrafts.basedOnVersionId,
+      basedOnNumber: basedOn.number,
+      publishedVersionId: standardDrafts.publishedVersionId,
+      createdAt: standardDrafts.createdAt,
+      updatedAt: standardDrafts.updatedAt,
+    })
+    .from(standardDrafts)
+    .innerJoin(standards, eq(standards.id, standardDrafts.standardId))
+    .innerJoin(user, eq(user.id, standardDrafts.authorId))
+    .leftJoin(basedOn, eq(basedOn.id, standardDrafts.basedOnVersionId));
+}
+type DraftRow = Awaited<ReturnType<ReturnType<typeof draftQuery>["execute"]>>[number];
+const toDraft = (row: DraftRow): DraftDto => ({
+  ...row,
+  createdAt: row.createdAt.toISOString(),
+  updatedAt: row.updatedAt.toISOString(),
+});
+
+export async function getDraft(id: string): Promise<DraftDto | null> {
+  const [row] = await draftQuery().where(eq(standardDrafts.id, id));
+  return row ? toDraft(row) : null;
+}
+
+/** The draft, locked for the rest of the transaction; not found is a 404 with a sentence. */
+export async function lockDraftOrThrow(id: string): Promise<StandardDraft> {
+  const [row] = await currentDb().select().from(standardDrafts).where(eq(standardDrafts.id, id)).for("update");
+  if (!row) throw new AppError("not-found", "That draft does not exist (it may have been discarded).");
+  return row;
+}
+
+/** Drafts still being worked on (editing or in review), newest first; of one standard when given. */
+export async function listOpenDrafts(standardId?: string): Promise<DraftDto[]> {
+  const open = inArray(standardDrafts.state, ["editing", "in-review"]);
+  const rows = await draftQuery()
+    .where(standardId ? and(open, eq(standardDrafts.standardId, standardId)) : open)
+    .orderBy(desc(standardDrafts.updatedAt));
+  return rows.map(toDraft);
+}
+
+export async function insertDraft(values: {
+  standardId: string;
+  authorId: string;
+  source: string;
+  basedOnVersionId: string | null;
+}): Promise<StandardDraft> {
+  const [row] = await currentDb().insert(standardDrafts).values(values).returning();
+  return row;
+}
+
+export async function updateDraft(
+  id: string,
+  values: Partial<Pick<StandardDraft, "source" | "state" | "publishedVersionId">>,
+): Promise<void> {
+  await currentDb()
+    .update(standardDrafts)
+    .set({ ...values, updatedAt: new Date() })
+    .where(eq(standardDrafts.id, id));
+}
+
+// ---- reviews ---------------------------------------------------------------------------------------
+
+export async function insertReview(values: {
+  draftId: string;
+  round: number;
+  source: string;
+  changelog: string;
+  submittedById: string;
+}): Promise<StandardReview> {
+  const [row] = await currentDb().insert(standardReviews).values(values).returning();
+  return row;
+}
+
+export async function countReviews(draftId: string): Promise<number> {
+  const [row] = await currentDb()
+    .select({ n: sql<number>`count(*)`.mapWith(Number) })
+    .from(standardReviews)
+    .where(eq(standardReviews.draftId, draftId));
+  return row.n;
+}
+
+/** What was submitted; not found is a 404. */
+export async function getReviewSource(id: string): Promise<string> {
+  const [row] = await currentDb()
+    .select({ source: standardReviews.source })
+    .from(standardReviews)
+    .where(eq(standardReviews.id, id));
+  if (!row) throw new AppError("not-found", "That submission does not exist.");
+  return row.source;
+}
+
+/** The review, locked; not found is a 404. */
+export async function lockReviewOrThrow(id: string): Promise<StandardReview> {
+  const [row] = await currentDb().select().from(standardReviews).where(eq(standardReviews.id, id)).for("update");
+  if (!row) throw new AppError("not-found", "That submission does not exist.");
+  return row;
+}
+
+export async function decideReview(id: string, values: { reviewerId: string; outcome: ReviewOutcome; note: string | null }) {
+  await currentDb()
+    .update(standardReviews)
+    .set({ ...values, decidedAt: new Date() })
+    .where(eq(standardReviews.id, id));
+}
+
+export async function insertReviewComments(
+  reviewId: string,
+  authorId: string,
+  comments: { line: number | null; body: string }[],
+): Promise<void> {
+  if (comments.length === 0) return;
+  await currentDb()
+    .insert(standardReviewComments)
+    .values(comments.map((comment) => ({ ...comment, reviewId, authorId })));
+}
+
+/** Every submission of a draft, oldest first, with its comments. */
+export async function listReviews(draftId: string): Promise<ReviewDto[]> {
+  const submitter = alias(user, "submitter");
+  const rows = await currentDb()
+    .select({
+      id: standardReviews.id,
+      draftId: standardReviews.draftId,
+      round: standardReviews.round,
+      source: standardReviews.source,
+      changelog: standardReviews.changelog,
+      submittedById: standardReviews.submittedById,
+      submittedByName: submitter.name,
+      submittedAt: standardReviews.submittedAt,
+      reviewerId: standardReviews.reviewerId,
+      reviewerName: reviewer.name,
+      outcome: standardReviews.outcome,
+      note: standardReviews.note,
+      decidedAt: standardReviews.decidedAt,
+    })
+    .from(standardReviews)
+    .innerJoin(submitter, eq(submitter.id, standardReviews.submittedById))
+    .leftJoin(reviewer, eq(reviewer.id, standardReviews.reviewerId))
+    .where(eq(standardReviews.draftId, draftId))
+    .orderBy(asc(standardReviews.round));
+  const ids = rows.map((row) => row.id);
+  const comments =
+    ids.length === 0
+      ? []
+      : await currentDb()
+          .select({
+            id: standardReviewComments.id,
+            reviewId: standardReviewComments.reviewId,
+            line: standardReviewComments.line,
+            body: standardReviewComments.body,
+            authorName: user.name,
+            createdAt: standardReviewComments.createdAt,
+          })
+          .from(standardReviewComments)
+          .innerJoin(user, eq(user.id, standardReviewComments.authorId))
+          .where(inArray(standardReviewComments.reviewId, ids))
+          .orderBy(asc(standardReviewComments.line), asc(standardReviewComments.id));
+  return rows.map((row) => ({
+    ...row,
+    submittedAt: row.submittedAt.toISOString(),
+    decidedAt: row.decidedAt?.toISOString() ?? null,
+    comments: comments
+      .filter((comment) => comment.reviewId === row.id)
+      .map(({ reviewId: _, ...comment }) => ({ ...comment, createdAt: comment.createdAt.toISOString() })),
+  }));
+}

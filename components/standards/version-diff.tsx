@@ -305,10 +305,10 @@ export function VersionDiff({
             </caption>
             <thead className="border-b border-ink-200 bg-paper-sunk font-sans text-ink-500">
               <tr>
-                <th scope="col" className="px-2 py-1.5 text-right font-semibold whitespace-nowrap">
+                <th scope="col" className="px-2 py-1.5 text-right align-bottom font-semibold">
                   {oldLabel}
                 </th>
-                <th scope="col" className="px-2 py-1.5 text-right font-semibold whitespace-nowrap">
+                <th scope="col" className="px-2 py-1.5 text-right align-bottom font-semibold">
                   {newLabel}
                 </th>
                 <th scope="col" className="px-1 py-1.5">

@@ -21,8 +21,8 @@ import type { UseCase } from "./use-case";
  * then `then(result, input)` after the commit; never throws to the client except Next's own
  * redirect()/notFound()/forbidden().
  */
-export function serverAction<P extends Permission, S extends z.ZodType, T>(
-  useCase: UseCase<P, S, T>,
+export function serverAction<P extends Permission, S extends z.ZodType, T, R>(
+  useCase: UseCase<P, S, T, R>,
   options: { then?: (result: T, input: z.infer<S>) => void | Promise<void> } = {},
 ): (previous: ActionState<T>, payload: FormData | z.input<S>) => Promise<ActionState<T>> {
   return async (_previous, payload) => {
@@ -45,8 +45,8 @@ export function serverAction<P extends Permission, S extends z.ZodType, T>(
  * for a shape of its own, and `{ error: { code, message, fieldErrors? } }` with 400/401/403/404/409/
  * 422/429/500, or 503 `unavailable` (with Retry-After) while the database cannot be reached.
  */
-export function routeHandler<P extends Permission, S extends z.ZodType, T>(
-  useCase: UseCase<P, S, T>,
+export function routeHandler<P extends Permission, S extends z.ZodType, T, R>(
+  useCase: UseCase<P, S, T, R>,
   options: { respond?: (result: T) => Response } = {},
 ): (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response> {
   return async (request, context) => {

@@ -30,15 +30,12 @@ export interface Circle {
 /** Text size in viewBox units; the estimate of a label's width (for the margins) assumes a sans face. */
 export const FONT_SIZE = 11;
 const CHAR_WIDTH = 0.6 * FONT_SIZE;
-// Sizes in viewBox units, chosen so a support reads at a glance beside 11-unit text.
-const SYMBOL = 14;
-const HEAD = 7;
-/** Nodal and point loads share one arrow length: the value is printed, not scaled. */
-const ARROW = 32;
-/** The largest distributed load's arrows; the others in proportion, at least 40 % of it. */
-const UDL_HEIGHT = 26;
-const HINGE_RADIUS = 3.5;
-const MARGIN = 8;
+/**
+ * Sizes in viewBox units, chosen so a support reads at a glance beside 11-unit text. Nodal and point loads share
+ * one arrow length (the value is printed, not scaled); the largest distributed load's arrows are `udl` long, the
+ * others in proportion, at least 40 % of it.
+ */
+const SIZE = { symbol: 14, head: 7, arrow: 32, udl: 26, hinge: 3.5, margin: 8 } as const;
 
 const add = (a: Point, b: Point): Point => ({ x: a.x + b.x, y: a.y + b.y });
 const scaled = (a: Point, k: number): Point => ({ x: a.x * k, y: a.y * k });
@@ -103,7 +100,7 @@ function labelBeyond(p: Point, out: Point, text: string, gap = 4): TextLabel {
 }
 
 /** Whether two labels' estimated boxes overlap. */
-function overlaps(a: TextLabel, b: TextLabel): boolean {
+export function overlaps(a: TextLabel, b: TextLabel): boolean {
   const [p, q] = [textBox(a), textBox(b)];
   return p.left < q.right && q.left < p.right && p.top < q.bottom && q.top < p.bottom;
 }
@@ -115,9 +112,9 @@ const magnitude = (si: number, unit: string) => `${formatNumber(Math.abs(si) / 1
 /** An arrow whose tip is at `tip`, pointing along the unit vector `dir`, `length` long. */
 function arrow(tip: Point, dir: Point, length: number, b: Bounds): { shaft: string; head: string; tail: Point } {
   const tail = along(tip, dir, -length);
-  const base = along(tip, dir, -HEAD);
+  const base = along(tip, dir, -SIZE.head);
   const n = perp(dir);
-  const head = [tip, along(base, n, HEAD / 2.6), along(base, n, -HEAD / 2.6)];
+  const head = [tip, along(base, n, SIZE.head / 2.6), along(base, n, -SIZE.head / 2.6)];
   b.points([tail, ...head]);
   return { shaft: polyline([tail, base]), head: closed(head), tail };
 }
@@ -130,9 +127,9 @@ function curvedArrow(c: Point, radius: number, ccw: boolean, b: Bounds): { shaft
   const at = (t: number) => ({ x: c.x + radius * Math.cos(t), y: c.y - radius * Math.sin(t) });
   const tangent = { x: -Math.sin(end) * sign, y: -Math.cos(end) * sign };
   const tip = at(end);
-  const base = along(tip, tangent, -HEAD);
+  const base = along(tip, tangent, -SIZE.head);
   const n = perp(tangent);
-  const head = [tip, along(base, n, HEAD / 2.6), along(base, n, -HEAD / 2.6)];
+  const head = [tip, along(base, n, SIZE.head / 2.6), along(base, n, -SIZE.head / 2.6)];
   b.points([at(start), at(start + sign * 0.5 * Math.PI), at(start + sign * Math.PI), ...head]);
   const shaft = `M${coords(at(start))} A${radius} ${radius} 0 1 ${ccw ? 0 : 1} ${coords(base)}`;
   return { shaft, head: closed(head), labelAt: { x: c.x + radius * 0.75, y: c.y - radius * 0.75 } };
@@ -250,21 +247,21 @@ function drawSupport(
     const [wheeled, block] = [kind !== "pinned", kind === "guided"];
     parts.push(kind);
     const n = perp(away);
-    const base = along(at, away, SYMBOL);
+    const base = along(at, away, SIZE.symbol);
     if (block)
       outlines.push([
-        along(at, n, -SYMBOL * 0.45),
-        along(base, n, -SYMBOL * 0.45),
-        along(base, n, SYMBOL * 0.45),
-        along(at, n, SYMBOL * 0.45),
+        along(at, n, -SIZE.symbol * 0.45),
+        along(base, n, -SIZE.symbol * 0.45),
+        along(base, n, SIZE.symbol * 0.45),
+        along(at, n, SIZE.symbol * 0.45),
       ]);
-    else outlines.push([at, along(base, n, -SYMBOL * 0.6), along(base, n, SYMBOL * 0.6)]);
-    if (!wheeled) return ground(base, away, SYMBOL * 0.9);
+    else outlines.push([at, along(base, n, -SIZE.symbol * 0.6), along(base, n, SIZE.symbol * 0.6)]);
+    if (!wheeled) return ground(base, away, SIZE.symbol * 0.9);
     for (const k of [-0.35, 0.35]) {
-      const c = along(along(base, away, 2.6), n, k * SYMBOL);
+      const c = along(along(base, away, 2.6), n, k * SIZE.symbol);
       wheels.push({ cx: round(c.x), cy: round(c.y), r: 2.6 });
     }
-    ground(along(base, away, 5.2), away, SYMBOL * 0.9);
+    ground(along(base, away, 5.2), away, SIZE.symbol * 0.9);
   };
   const spring = (away: Point) => {
     parts.push("spring");
@@ -273,7 +270,7 @@ function drawSupport(
     for (let i = 1; i <= 6; i++) zig.push(along(along(at, away, 3 + i * 3), n, i === 6 ? 0 : i % 2 ? 4 : -4));
     zig.push(along(at, away, 24));
     strokes.push(zig);
-    ground(along(at, away, 24), away, SYMBOL * 0.7);
+    ground(along(at, away, 24), away, SIZE.symbol * 0.7);
   };
   if (ux === "fixed" && uy === "fixed" && rz === "fixed") {
     // A wall across the direction the members leave in, snapped to the nearer axis.
@@ -281,7 +278,7 @@ function drawSupport(
       Math.abs(memberDir.y) >= Math.abs(memberDir.x)
         ? { x: 0, y: memberDir.y > 0 ? -1 : 1 }
         : { x: memberDir.x > 0 ? -1 : 1, y: 0 };
-    ground(at, away, SYMBOL);
+    ground(at, away, SIZE.symbol);
     parts.push("fixed");
   } else {
     // A roller held against rotation is a block on wheels (guided).
@@ -310,7 +307,7 @@ function drawSupport(
     if (typeof r !== "object" || r.kind !== "prescribed" || r.value === 0) return;
     if (r.loadCase !== undefined && r.loadCase !== shownCase) return;
     const text = dof === "rz" ? `θ ${formatNumber(r.value)} rad` : `Δ${dof.slice(1)} ${formatNumber(r.value * 1000)} mm`;
-    notes.push(labelBeyond(along(at, below, SYMBOL + 10 + notes.length * FONT_SIZE), below, text));
+    notes.push(labelBeyond(along(at, below, SIZE.symbol + 10 + notes.length * FONT_SIZE), below, text));
   });
   [...strokes, ...outlines].forEach((ps) => b.points(ps));
   wheels.forEach((w) =>
@@ -365,7 +362,7 @@ function drawLoads(
   }
   // Loads on one storey must not reach the next: at most a third of the shortest member.
   const shortest = Math.min(...[...geometry.values()].map((m) => m.length * scale).filter((l) => l > 0));
-  const udlHeight = Math.max(12, Math.min(UDL_HEIGHT, shortest / 3));
+  const udlHeight = Math.max(12, Math.min(SIZE.udl, shortest / 3));
   const wMax = Math.max(0, ...spans.map((s) => Math.max(Math.abs(s.wStart), Math.abs(s.wEnd))));
   const directionOf = (direction: string, m: Geometry): Point =>
     direction === "local-x"
@@ -412,7 +409,7 @@ function drawLoads(
       const length = parallel ? 10 : Math.abs(w) * k;
       const tip = parallel ? along(base, force, 5) : base;
       tails.push(parallel ? along(base, side, 0) : along(tip, dir, -w * k));
-      if (length < HEAD * 0.8) continue;
+      if (length < SIZE.head * 0.8) continue;
       const drawn = arrow(tip, scaled(dir, Math.sign(w)), length, b);
       shafts.push(drawn.shaft);
       heads.push(drawn.head);
@@ -451,7 +448,7 @@ function drawLoads(
       const dir = scaled(directionOf(load.direction, m), Math.sign(load.value));
       const parallel = Math.abs(m.u.x * dir.y - m.u.y * dir.x) < 0.2;
       const tip = parallel ? along(at, perp(m.u), 6) : at;
-      const drawn = arrow(tip, dir, parallel ? ARROW * 0.6 : ARROW, b);
+      const drawn = arrow(tip, dir, parallel ? SIZE.arrow * 0.6 : SIZE.arrow, b);
       push(
         "point",
         load.member,
@@ -469,7 +466,7 @@ function drawLoads(
       ] as const) {
         if (f === 0) continue;
         const d = scaled(dir, Math.sign(f));
-        const drawn = arrow(along(at, d, -3), d, ARROW, b);
+        const drawn = arrow(along(at, d, -3), d, SIZE.arrow, b);
         push("nodal", load.node, [drawn.shaft], [drawn.head], labelBeyond(drawn.tail, scaled(d, -1), magnitude(f, "kN")));
       }
       if (load.mz) {
@@ -529,7 +526,7 @@ export function layoutModel(model: ModelInput, options: ModelDrawingOptions = {}
         [m.releases?.startMoment, from, u],
         [m.releases?.endMoment, to, scaled(u, -1)],
       ] as const)
-        if (released) hinges.push({ ...mapCircle(along(p, d, HINGE_RADIUS + 1.5)), r: HINGE_RADIUS });
+        if (released) hinges.push({ ...mapCircle(along(p, d, SIZE.hinge + 1.5)), r: SIZE.hinge });
   }
   const cases = model.loadCases ?? [];
   const shown =
@@ -565,7 +562,7 @@ export function layoutModel(model: ModelInput, options: ModelDrawingOptions = {}
   const what = `${options.name ? `${options.name} model` : "Structural model"}: ${plural(raw.length, "node")}, ${plural(members.length, "member")}, ${plural(supports.length, "support")}`;
   const summary = `${what}; ${shown ? `loads of case ${shown.id}${shown.name ? ` (${shown.name})` : ""}` : "no loads shown"}`;
   return {
-    viewBox: b.viewBox(MARGIN),
+    viewBox: b.viewBox(SIZE.margin),
     scale,
     members,
     hinges,
@@ -704,5 +701,5 @@ export function layoutDiagram(
   if (marks.length === 0)
     notes.push({ x: width / 2, y: base - 6, text: `${display.symbol} = 0 along the member`, anchor: "middle" });
   notes.forEach(b.text);
-  return { viewBox: b.viewBox(MARGIN), baseline, curves, marks, notes, positiveBelow, points };
+  return { viewBox: b.viewBox(SIZE.margin), baseline, curves, marks, notes, positiveBelow, points };
 }

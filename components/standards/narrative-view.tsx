@@ -2,6 +2,7 @@
 // each placeholder filled from one evaluation — an input's value, a derivation (formula, values substituted,
 // result) typeset by KaTeX, an extract with where it occurs, a check with its utilisation, the model drawing,
 // a member diagram. Server-rendered; nothing in a narrative runs as code.
+import "katex/dist/katex.min.css";
 import katex from "katex";
 import { Fragment, jsx, jsxs } from "react/jsx-runtime";
 import { toJsxRuntime, type Components } from "hast-util-to-jsx-runtime";

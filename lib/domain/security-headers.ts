@@ -24,10 +24,14 @@ export function contentSecurityPolicy({
   const directives: [string, ...string[]][] = [
     ["default-src", "'self'"],
     ["script-src", ...scripts],
-    // The stylesheets Next builds from app/globals.css, served from /_next/static. No inline <style>
-    // and no style="" attributes are rendered (Next's route announcer sets its style through the
-    // CSSOM, which CSP does not govern), so neither 'unsafe-inline' nor a nonce is needed.
+    // The stylesheets Next builds (app/globals.css, KaTeX's), served from /_next/static. No inline
+    // <style> element is rendered or allowed (Next's route announcer and CodeMirror, mounted in a shadow
+    // root, style through the CSSOM, which CSP does not govern).
     ["style-src", "'self'"],
+    // Typeset equations: KaTeX sizes its boxes with style="" attributes (height, vertical-align, margins).
+    // Attribute styles cannot load anything (img-src and font-src stay 'self') or run script; narratives
+    // cannot write attributes at all (their HTML is refused and the output sanitised).
+    ["style-src-attr", "'unsafe-inline'"],
     // The app's icon (app/icon.svg); no remote or data: images.
     ["img-src", "'self'"],
     // Inter ships with the app (next/font/local), served from /_next/static/media.

@@ -18,6 +18,7 @@ const policyWith = (scripts: string) =>
     "default-src 'self'",
     `script-src ${scripts}`,
     "style-src 'self'",
+    "style-src-attr 'unsafe-inline'",
     "img-src 'self'",
     "font-src 'self'",
     "connect-src 'self'",

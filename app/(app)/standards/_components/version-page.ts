@@ -1,0 +1,24 @@
+import "server-only";
+// What the standard page and a version's page both load: the version, its standard's history, and the
+// reader's time zone.
+import { notFound } from "next/navigation";
+import type { Actor } from "@/lib/domain/actor";
+import { AppError } from "@/lib/domain/errors";
+import { runUseCase } from "@/lib/use-cases/run";
+import { readProfile } from "@/lib/use-cases/profile";
+import { readStandard, readVersion } from "@/lib/use-cases/standards";
+
+export async function loadVersionPage(actor: Actor, slug: string, number?: number) {
+  try {
+    const standard = await runUseCase(readStandard, { actor, input: { slug } });
+    if (standard.versions.length === 0) return { standard, version: null, timeZone: undefined };
+    // The standard's page shows the version engineers run: the newest not withdrawn (else the newest).
+    const chosen = number ?? (standard.versions.find((v) => v.status !== "withdrawn") ?? standard.versions[0]).number;
+    const version = await runUseCase(readVersion, { actor, input: { slug, number: chosen } });
+    const timeZone = (await runUseCase(readProfile, { actor, input: {} })).timeZone ?? undefined;
+    return { standard, version, timeZone };
+  } catch (error) {
+    if (error instanceof AppError && (error.code === "not-found" || error.code === "invalid-input")) notFound();
+    throw error;
+  }
+}

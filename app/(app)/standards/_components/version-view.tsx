@@ -1,0 +1,274 @@
+// One published version of a standard, as a reader needs it: who wrote and approved it and when, its
+// changelog and content hash, what it covers and does not, its inputs, the model drawn with its loads, the
+// narrative with its equations worked at the default inputs, the checks, the verification cases with their
+// results at publication, and the version history with links to each diff.
+import Link from "next/link";
+import type { Actor } from "@/lib/domain/actor";
+import { can } from "@/lib/domain/permissions";
+import type { VersionDto, VersionSummaryDto } from "@/lib/data/standards";
+import { compileStandard } from "@/lib/standards/compile";
+import type { VerificationResult } from "@/lib/standards/verify";
+import { formatSignificant } from "@/lib/standards/format";
+import { NarrativeView } from "@/components/standards/narrative-view";
+import { ModelDrawing } from "@/components/standards/model-drawing";
+import { CheckLine } from "@/components/standards/check-line";
+import { Caution } from "@/components/standards/caution";
+import { PageHeader } from "@/components/ui/page-header";
+import { TableFrame } from "@/components/ui/table";
+import { Badge } from "@/components/ui/badge";
+import { LocalTime } from "@/components/local-time";
+import { VersionStatusBadge } from "./version-status";
+import { StartDraftButton } from "./start-draft-button";
+import { WithdrawForm } from "./withdraw-form";
+
+function Section({ title, id, children }: { title: string; id: string; children: React.ReactNode }) {
+  return (
+    <section aria-labelledby={id} className="mt-10">
+      <h2 id={id} className="mb-3 text-lg font-semibold text-ink-900">
+        {title}
+      </h2>
+      {children}
+    </section>
+  );
+}
+
+export function VersionView({
+  version,
+  history,
+  actor,
+  timeZone,
+}: {
+  version: VersionDto;
+  history: VersionSummaryDto[];
+  actor: Actor;
+  timeZone?: string;
+}) {
+  const compiled = compileStandard(version.source);
+  const leads = can(actor.role, "templates.write-draft");
+  const previous = history.find((v) => v.number === version.number - 1);
+  const base = `/standards/${version.slug}`;
+  const published = version.events.find((event) => event.kind === "published");
+  const withdrawn = version.events.find((event) => event.kind === "withdrawn");
+
+  return (
+    <>
+      <PageHeader
+        title={version.title}
+        lead={version.summary}
+        actions={
+          leads ? (
+            <>
+              {previous ? (
+                <Link
+                  href={`${base}/diff?from=${previous.number}&to=${version.number}`}
+                  className="self-center text-sm text-plate-700 hover:underline"
+                >
+                  What changed since v{previous.number}
+                </Link>
+              ) : null}
+              <StartDraftButton versionId={version.id} number={version.number} />
+            </>
+          ) : null
+        }
+      />
+      <dl
+        className="grid gap-x-8 gap-y-2 rounded-plate bg-paper-raised p-4 text-sm shadow-sheet ring-1 ring-ink-200 sm:grid-cols-[auto_minmax(0,1fr)]"
+        data-testid="version-meta"
+      >
+        <dt className="text-ink-500">Version</dt>
+        <dd className="flex flex-wrap items-center gap-2">
+          <span className="font-mono font-semibold" data-testid="version-number">
+            v{version.number}
+          </span>
+          <VersionStatusBadge status={version.status} />
+          <span className="text-ink-500">{version.category}</span>
+        </dd>
+        <dt className="text-ink-500">Written by</dt>
+        <dd>{version.authorName}</dd>
+        <dt className="text-ink-500">Approved by</dt>
+        <dd data-testid="version-reviewer">
+          {version.reviewerName}
+          {published ? (
+            <>
+              , published <LocalTime iso={published.occurredAt} timeZone={timeZone} />
+            </>
+          ) : null}
+        </dd>
+        <dt className="text-ink-500">Changelog</dt>
+        <dd data-testid="version-changelog">{version.changelog}</dd>
+        {withdrawn ? (
+          <>
+            <dt className="text-fault-700">Withdrawn</dt>
+            <dd className="text-fault-700">
+              {withdrawn.reason} ({withdrawn.actorName}, <LocalTime iso={withdrawn.occurredAt} timeZone={timeZone} />)
+            </dd>
+          </>
+        ) : null}
+        <dt className="text-ink-500">Content hash</dt>
+        <dd className="font-mono text-xs break-all text-ink-700" data-testid="content-hash">
+          sha256:{version.contentHash}
+        </dd>
+        <dt className="text-ink-500">Verified with</dt>
+        <dd className="text-ink-700">{version.verifiedWith}</dd>
+      </dl>
+      {compiled.ok ? (
+        <VersionBody version={version} compiled={compiled.standard} />
+      ) : (
+        <p className="mt-6 rounded-plate bg-fault-100 p-4 text-fault-700" data-testid="version-unreadable">
+          This version no longer compiles with this release of Gusset: {compiled.problems[0]?.message}. Its runs stay on record; a
+          standards lead should publish a corrected version.
+        </p>
+      )}
+      <Section title="Verification at publication" id="verification-heading">
+        <VerificationTable results={version.verification as VerificationResult[]} />
+      </Section>
+      <Section title="Version history" id="history-heading">
+        <ol className="divide-y divide-ink-100 rounded-plate bg-paper-raised ring-1 ring-ink-200" data-testid="version-history">
+          {history.map((item) => (
+            <li key={item.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 px-4 py-3 text-sm" data-testid="history-row">
+              <Link href={`${base}/versions/${item.number}`} className="font-mono font-semibold text-plate-800 hover:underline">
+                v{item.number}
+              </Link>
+              <VersionStatusBadge status={item.status} />
+              <span className="text-ink-700">{item.changelog}</span>
+              <span className="text-ink-500">
+                {item.authorName} · approved by {item.reviewerName}
+              </span>
+              {item.number > 1 ? (
+                <Link href={`${base}/diff?from=${item.number - 1}&to=${item.number}`} className="text-plate-700 hover:underline">
+                  diff with v{item.number - 1}
+                </Link>
+              ) : null}
+            </li>
+          ))}
+        </ol>
+      </Section>
+      {can(actor.role, "templates.withdraw") && version.status !== "withdrawn" ? (
+        <Section title="Withdraw this version" id="withdraw-heading">
+          <WithdrawForm versionId={version.id} number={version.number} />
+        </Section>
+      ) : null}
+    </>
+  );
+}
+
+function VersionBody({
+  version,
+  compiled,
+}: {
+  version: VersionDto;
+  compiled: Extract<ReturnType<typeof compileStandard>, { ok: true }>["standard"];
+}) {
+  const { definition } = compiled;
+  const outcome = compiled.evaluate();
+  return (
+    <>
+      <Section title="Scope and limitations" id="scope-heading">
+        <p className="text-ink-800">{definition.scope}</p>
+        {definition.limitations.length > 0 ? (
+          <ul className="mt-2 list-disc space-y-1 pl-6 text-ink-700" data-testid="limitations">
+            {definition.limitations.map((limitation) => (
+              <li key={limitation}>{limitation}</li>
+            ))}
+          </ul>
+        ) : null}
+        {definition.references.length > 0 ? (
+          <p className="mt-3 text-sm text-ink-500">References: {definition.references.join("; ")}</p>
+        ) : null}
+      </Section>
+      <Section title="Inputs" id="inputs-heading">
+        <TableFrame testId="inputs-table" label="Inputs" headings={["Input", "Default", "Range", "Help"]}>
+          {Object.entries(definition.inputs).map(([key, input]) => (
+            <tr key={key} data-testid="input-row" data-key={key}>
+              <td className="px-4 py-2">
+                <span className="font-medium text-ink-900">{input.label}</span>{" "}
+                <span className="font-mono text-xs text-ink-500">{key}</span>
+              </td>
+              <td className="px-4 py-2 whitespace-nowrap tabular">
+                {input.quantity === "choice" ? String(input.default) : String(input.default ?? "—")}
+              </td>
+              <td className="px-4 py-2 whitespace-nowrap text-ink-600 tabular">
+                {input.quantity === "choice"
+                  ? (input.choices ?? []).join(" / ")
+                  : [input.min ? `≥ ${input.min}` : null, input.max ? `≤ ${input.max}` : null].filter(Boolean).join(", ") || "—"}
+              </td>
+              <td className="px-4 py-2 text-ink-600">{input.help ?? ""}</td>
+            </tr>
+          ))}
+        </TableFrame>
+      </Section>
+      {outcome.ok ? (
+        <>
+          <Section title="Model at the default inputs" id="model-heading">
+            <ModelDrawing model={outcome.evaluation.model} name={version.title} />
+          </Section>
+          <Section title="Calculation at the default inputs" id="narrative-heading">
+            <Caution />
+            <NarrativeView
+              definition={definition}
+              narrative={compiled.narrative}
+              evaluation={outcome.evaluation}
+              title={version.title}
+            />
+          </Section>
+          <Section title="Checks at the default inputs" id="checks-heading">
+            <div data-testid="checks">
+              {Object.entries(outcome.evaluation.checks).map(([key, check]) => (
+                <CheckLine key={key} name={key} check={check} />
+              ))}
+            </div>
+            <p className="mt-2 text-sm">
+              Overall:{" "}
+              <Badge tone={outcome.evaluation.pass ? "pass" : "fault"} testId="overall">
+                {outcome.evaluation.pass ? "every check passes" : "a check fails"}
+              </Badge>
+            </p>
+          </Section>
+        </>
+      ) : (
+        <p className="mt-6 rounded-plate bg-warn-100 p-4 text-warn-700">
+          The default inputs could not be evaluated ({outcome.stage}).
+        </p>
+      )}
+    </>
+  );
+}
+
+function VerificationTable({ results }: { results: VerificationResult[] }) {
+  return (
+    <TableFrame
+      testId="verification-table"
+      label="Verification cases"
+      headings={["Case", "Value", "Expected", "Computed", "Result"]}
+    >
+      {results.flatMap((result) =>
+        (result.checks.length > 0 ? result.checks : [null]).map((check, index) => (
+          <tr
+            key={`${result.name}-${check?.target ?? index}`}
+            data-testid="verification-row"
+            data-pass={result.pass ? "true" : "false"}
+          >
+            <td className="px-4 py-2 align-top">
+              {index === 0 ? (
+                <>
+                  <span className="font-medium text-ink-900">{result.name}</span>
+                  <p className="max-w-sm text-xs text-ink-500">{result.source}</p>
+                </>
+              ) : null}
+            </td>
+            <td className="px-4 py-2 font-mono text-xs">{check?.target ?? result.failure ?? ""}</td>
+            <td className="px-4 py-2 whitespace-nowrap tabular">{check ? formatSignificant(check.expected, 6) : "—"}</td>
+            <td className="px-4 py-2 whitespace-nowrap tabular">
+              {check?.actual !== null && check?.actual !== undefined ? formatSignificant(check.actual, 6) : "—"}
+            </td>
+            <td className="px-4 py-2">
+              <Badge tone={(check?.pass ?? result.pass) ? "pass" : "fault"}>
+                {(check?.pass ?? result.pass) ? "Pass" : "Fail"}
+              </Badge>
+            </td>
+          </tr>
+        )),
+      )}
+    </TableFrame>
+  );
+}

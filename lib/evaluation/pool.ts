@@ -148,7 +148,8 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
   const memoryMb = options.maxOldGenerationSizeMb ?? 256;
   const maxQueue = options.maxQueue ?? 16;
   const startupTimeoutMs = options.startupTimeoutMs ?? 30_000;
-  const bundleDir = path.resolve(process.cwd(), options.bundleDir ?? DEFAULT_EVALUATION_DIR);
+  // Read at run time from the server's folder; the ignore keeps Next's file tracing from copying the whole checkout.
+  const bundleDir = path.resolve(/* turbopackIgnore: true */ process.cwd(), options.bundleDir ?? DEFAULT_EVALUATION_DIR);
 
   let loaded: { manifest: EvaluationBundleManifest; file: string } | null = null;
   const slots: Slot[] = [];

@@ -30,7 +30,10 @@ export interface EvaluationPoolOptions {
   readonly timeoutMs?: number;
   /** Each worker's old-generation heap; default 256 MB. */
   readonly maxOldGenerationSizeMb?: number;
-  /** Tasks that may wait while every worker is busy; default 16. Beyond it a task is refused as "busy". */
+  /**
+   * Tasks that may wait while every worker is busy; default 8. Beyond it a task is refused as "busy". A waiting
+   * task's own timeout starts when a worker takes it, so the worst wait is about maxQueue ÷ size × timeoutMs.
+   */
   readonly maxQueue?: number;
   /** The folder holding manifest.json and the bundle; default public/evaluation under process.cwd(). */
   readonly bundleDir?: string;
@@ -146,7 +149,7 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
   const size = Math.max(1, options.size ?? Math.min(os.availableParallelism(), 2));
   const timeoutMs = options.timeoutMs ?? 5_000;
   const memoryMb = options.maxOldGenerationSizeMb ?? 256;
-  const maxQueue = options.maxQueue ?? 16;
+  const maxQueue = options.maxQueue ?? 8;
   const startupTimeoutMs = options.startupTimeoutMs ?? 30_000;
   // Read at run time from the server's folder; the ignore keeps Next's file tracing from copying the whole checkout.
   const bundleDir = path.resolve(/* turbopackIgnore: true */ process.cwd(), options.bundleDir ?? DEFAULT_EVALUATION_DIR);

@@ -7,7 +7,7 @@
  * The runaway and the out-of-memory standard are real sources that compile: the starting multi-storey frame
  * with its count bounds raised, evaluated near the repetition limits (at most 5000 entries per list).
  */
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -197,7 +197,7 @@ describe("the evaluation pool", () => {
       expect(limited.stats()).toMatchObject({ workers: 0, workersEnded: 1 });
       expect(canonicalFrom(await limited.evaluate(beam, { L: "7 m" }))).toBe(inProcessCanonical(beam, { L: "7 m" }));
       expect(limited.stats()).toMatchObject({ workers: 1, workersStarted: 2 });
-      expect(limited.stats().lastKillMs).not.toBeNull(); // the runaway's thread has exited
+      await vi.waitFor(() => expect(limited.stats().lastKillMs).not.toBeNull(), { timeout: 30_000 }); // the runaway's thread exited
     },
     LONG,
   );

@@ -22,6 +22,7 @@ const MODULES = [
   "lib/storage",
   "lib/engine",
   "lib/standards",
+  "lib/evaluation",
   "lib/server-env",
   "lib/domain",
   "db",
@@ -40,6 +41,8 @@ export const LAYERS = {
   "lib/engine": { may: [] },
   // The standards' evaluation: pure like the engine, it runs on the server, in scripts and in the browser.
   "lib/standards": { may: ["lib/engine", "lib/domain"] },
+  // The standards' evaluation on the server, in worker threads with a timeout, and the bundle they (and browsers) run.
+  "lib/evaluation": { may: ["lib/standards", "lib/engine", "lib/domain", "lib/server-env"] },
   db: { may: ["lib/domain", "lib/server-env"] },
   "lib/mail": { may: ["lib/domain", "lib/server-env"] },
   "lib/storage": { may: ["lib/domain", "lib/server-env"] },
@@ -56,6 +59,7 @@ export const LAYERS = {
       "lib/storage",
       "lib/engine",
       "lib/standards",
+      "lib/evaluation",
       "lib/domain",
       "lib/server-env",
     ],
@@ -168,6 +172,7 @@ export default defineConfig(
       "test-results/**",
       ".stryker-tmp/**",
       "reports/**",
+      "public/evaluation/**",
     ],
   },
   js.configs.recommended,

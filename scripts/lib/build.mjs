@@ -1,6 +1,8 @@
-// `next build` when the build is missing or older than any source it is made from.
+// `next build` when the build is missing or older than any source it is made from; the evaluation bundle
+// (scripts/build-evaluation-bundle.mjs) first, when it is missing or older than its sources.
 import fs from "node:fs";
 import path from "node:path";
+import { EVALUATION_DIR, EVALUATION_SOURCES, MANIFEST_FILE } from "../build-evaluation-bundle.mjs";
 import { repoRoot } from "./env.mjs";
 import { SetupError, pidAlive, runAsync, say } from "./processes.mjs";
 
@@ -29,6 +31,7 @@ function newestMtime(entry) {
   let newest = stat.mtimeMs; // a deleted file shows as a newer folder
   for (const child of fs.readdirSync(entry)) {
     if (child === "node_modules" || child === ".next") continue;
+    if (path.join(entry, child) === path.join(repoRoot, EVALUATION_DIR)) continue; // the bundle has its own freshness
     newest = Math.max(newest, newestMtime(path.join(entry, child)));
   }
   return newest;
@@ -42,6 +45,23 @@ export function buildStaleness() {
   for (const entry of [...SOURCE_DIRS, ...SOURCE_FILES]) {
     if (newestMtime(path.join(repoRoot, entry)) > builtAt) return `${entry} changed since the last build`;
   }
+  return null;
+}
+
+/** Why the evaluation bundle must be built, or null when its manifest and bundle are newer than every source. */
+export function evaluationBundleStaleness() {
+  const manifestPath = path.join(repoRoot, EVALUATION_DIR, MANIFEST_FILE);
+  let manifest;
+  try {
+    manifest = JSON.parse(fs.readFileSync(manifestPath, "utf8"));
+  } catch {
+    return "no evaluation bundle yet";
+  }
+  if (typeof manifest.file !== "string" || !fs.existsSync(path.join(repoRoot, EVALUATION_DIR, manifest.file)))
+    return "the evaluation bundle named by its manifest is missing";
+  const builtAt = fs.statSync(manifestPath).mtimeMs;
+  for (const entry of EVALUATION_SOURCES)
+    if (newestMtime(path.join(repoRoot, entry)) > builtAt) return `${entry} changed since the evaluation bundle was built`;
   return null;
 }
 
@@ -84,19 +104,27 @@ async function syncEngineIdentity(env) {
 
 /** Builds when stale. Returns true when it built. */
 export async function ensureBuild({ env, layout }) {
-  if (buildStaleness() === null) {
+  if (buildStaleness() === null && evaluationBundleStaleness() === null) {
     say("build is up to date");
     return false;
   }
   return withBuildLock(path.join(layout.run, "build.lock"), async () => {
-    const reason = buildStaleness(); // another script may have built while we waited
-    if (reason === null) return false;
+    // another script may have built while we waited
+    if (buildStaleness() === null && evaluationBundleStaleness() === null) return false;
     if (!fs.existsSync(path.join(repoRoot, "app"))) {
       throw new SetupError("app/ does not exist yet: there is nothing for `next build` to build");
     }
-    await syncEngineIdentity(env);
-    say(`building (${reason}): next build`);
-    await runAsync(path.join(repoRoot, "node_modules", ".bin", "next"), ["build"], { cwd: repoRoot, env });
+    await syncEngineIdentity(env); // may rewrite lib/engine/identity.generated.ts, so ask again below
+    const bundleReason = evaluationBundleStaleness();
+    if (bundleReason !== null) {
+      say(`building the evaluation bundle (${bundleReason})`);
+      await runAsync(process.execPath, ["scripts/build-evaluation-bundle.mjs"], { cwd: repoRoot, env });
+    }
+    const reason = buildStaleness();
+    if (reason !== null) {
+      say(`building (${reason}): next build`);
+      await runAsync(path.join(repoRoot, "node_modules", ".bin", "next"), ["build"], { cwd: repoRoot, env });
+    }
     return true;
   });
 }

@@ -1,0 +1,57 @@
+/**
+ * The work behind each message of the protocol, as plain functions: the bundle's entry runs them in a worker,
+ * and tests and benchmarks run the very same functions in-process to compare.
+ */
+import { compileStandard, evaluationToCanonicalJson, type Definition } from "@/lib/standards";
+import { runVerification } from "@/lib/standards/verify";
+import type { CompileResult, DefinitionSummary, EvaluateResult, EvaluationRequest, TaskResults, VerifyResult } from "./protocol";
+
+function summarise(d: Definition): DefinitionSummary {
+  return {
+    title: d.title,
+    category: d.category,
+    tags: d.tags,
+    summary: d.summary,
+    inputs: Object.entries(d.inputs).map(([key, input]) => ({
+      key,
+      label: input.label,
+      quantity: input.quantity,
+      ...(input.unit === undefined ? {} : { unit: input.unit }),
+    })),
+    derived: Object.keys(d.derived),
+    extracts: Object.keys(d.extracts),
+    checks: Object.keys(d.checks),
+    verificationCases: d.verification.length,
+  };
+}
+
+export function compileTask(source: string): CompileResult {
+  const compiled = compileStandard(source);
+  return compiled.ok
+    ? { ok: true, summary: summarise(compiled.standard.definition) }
+    : { ok: false, problems: compiled.problems };
+}
+
+export function evaluateTask(source: string, inputs: Readonly<Record<string, string | number>> = {}): EvaluateResult {
+  const compiled = compileStandard(source);
+  if (!compiled.ok) return { ok: false, problems: compiled.problems };
+  const outcome = compiled.standard.evaluate(inputs);
+  return { ok: true, outcome, canonicalJson: outcome.ok ? evaluationToCanonicalJson(outcome.evaluation) : null };
+}
+
+export function verifyTask(source: string): VerifyResult {
+  const compiled = compileStandard(source);
+  if (!compiled.ok) return { ok: false, problems: compiled.problems };
+  return { ok: true, results: runVerification(compiled.standard) };
+}
+
+export function runTask(request: EvaluationRequest): TaskResults[EvaluationRequest["task"]] {
+  switch (request.task) {
+    case "compile":
+      return compileTask(request.source);
+    case "evaluate":
+      return evaluateTask(request.source, request.inputs);
+    case "verify":
+      return verifyTask(request.source);
+  }
+}

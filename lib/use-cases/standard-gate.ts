@@ -1,14 +1,17 @@
 import "server-only";
 // What a standard's source must pass before it is submitted for review and again before it is published:
 // it compiles (names, units, expressions, narrative, a probe evaluation), it has verification cases, and
-// every case passes on the current engine. Pure CPU work, run by a use case's `prepare` step, outside the
-// database transaction.
+// every case passes on the current engine. CPU work on what a lead wrote, so it runs in the evaluation pool
+// (lib/evaluation: worker threads with a hard timeout), from a use case's `prepare` step, outside the
+// database transaction. The seed checks the repository's own starting standards in-process.
 import { ENGINE_IDENTITY, engineIdentityLabel } from "@/lib/engine";
-import { compileStandard } from "@/lib/standards/compile";
+import { AppError } from "@/lib/domain/errors";
+import { evaluationPool, type PoolFailure } from "@/lib/evaluation/pool";
+import { compileTask, verifyTask } from "@/lib/evaluation/tasks";
 import { contentHash } from "@/lib/standards/content-hash";
 import { EVALUATION_VERSION } from "@/lib/standards/evaluate";
 import type { SourceProblem } from "@/lib/standards/source";
-import { runVerification, type VerificationResult } from "@/lib/standards/verify";
+import type { VerificationResult } from "@/lib/standards/verify";
 
 export type SourceMetadata = { title: string; category: string; tags: string[]; summary: string };
 
@@ -23,18 +26,31 @@ export type SourceCheck = {
   verifiedWith: string;
 };
 
-export const VERIFIED_WITH = `${engineIdentityLabel(ENGINE_IDENTITY)} · evaluation ${EVALUATION_VERSION}`;
+export const VERIFIED_WITH = `engine ${engineIdentityLabel(ENGINE_IDENTITY)} · evaluation ${EVALUATION_VERSION}`;
 
-export async function checkSource(source: string): Promise<SourceCheck> {
+/** A pool that could not finish: a sentence for the lead, with the status that fits. */
+function poolRefusal(failure: PoolFailure): AppError {
+  if (failure.reason === "busy") return new AppError("rate-limited", failure.message);
+  return new AppError("invalid-input", failure.message, { fieldErrors: { source: [failure.message] } });
+}
+
+export async function checkSource(source: string, { inProcess = false }: { inProcess?: boolean } = {}): Promise<SourceCheck> {
   const hashed = await contentHash(source);
   const hash = hashed.ok ? hashed.hash : null;
-  const compiled = compileStandard(source);
-  if (!compiled.ok) return { problems: compiled.problems, metadata: null, verification: [], hash, verifiedWith: VERIFIED_WITH };
-  const { definition } = compiled.standard;
+  const pool = inProcess ? null : evaluationPool();
+  const compiled = pool ? await pool.compile(source) : { ok: true as const, result: compileTask(source) };
+  if (!compiled.ok) throw poolRefusal(compiled);
+  if (!compiled.result.ok)
+    return { problems: [...compiled.result.problems], metadata: null, verification: [], hash, verifiedWith: VERIFIED_WITH };
+  const { summary } = compiled.result;
+  const verified = pool ? await pool.verify(source) : { ok: true as const, result: verifyTask(source) };
+  if (!verified.ok) throw poolRefusal(verified);
+  if (!verified.result.ok)
+    return { problems: [...verified.result.problems], metadata: null, verification: [], hash, verifiedWith: VERIFIED_WITH };
   return {
     problems: [],
-    metadata: { title: definition.title, category: definition.category, tags: [...definition.tags], summary: definition.summary },
-    verification: runVerification(compiled.standard),
+    metadata: { title: summary.title, category: summary.category, tags: [...summary.tags], summary: summary.summary },
+    verification: [...verified.result.results],
     hash,
     verifiedWith: VERIFIED_WITH,
   };

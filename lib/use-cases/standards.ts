@@ -52,6 +52,10 @@ import {
 } from "@/lib/data/standards";
 import { getUserOrThrow } from "@/lib/data/users";
 import { starterSource } from "@/lib/standards/starter";
+import { DefinitionSchema, type Definition } from "@/lib/standards/definition";
+import type { Evaluation } from "@/lib/standards/evaluate";
+import { parseSource } from "@/lib/standards/source";
+import { evaluationPool } from "@/lib/evaluation/pool";
 import { checkSource, gateRefusals, type SourceCheck } from "./standard-gate";
 import { defineUseCase } from "./use-case";
 
@@ -410,4 +414,47 @@ export const withdrawVersion = defineUseCase({
     subject: `standard-version:${result.versionId}`,
     details: { slug: result.slug, number: result.number, reason: result.reason },
   }),
+});
+
+export type DraftPreviewData =
+  { ok: true; definition: Definition; narrative: string; evaluation: Evaluation } | { ok: false; message: string };
+
+/** The draft evaluated at its default inputs, in the evaluation pool, for the editor's preview. */
+export const previewDraft = defineUseCase({
+  name: "standards.draft.preview",
+  permission: "templates.write-draft",
+  input: draftRefSchema,
+  prepare: async ({ draftId }): Promise<DraftPreviewData> => {
+    const draft = await getDraft(draftId);
+    if (!draft) throw new AppError("not-found", "That draft does not exist.");
+    const read = parseSource(draft.source);
+    const definition = read.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
+    if (!read.ok || !definition?.success) return { ok: false, message: "The preview appears once the saved draft compiles." };
+    const evaluated = await evaluationPool().evaluate(draft.source);
+    if (!evaluated.ok) return { ok: false, message: evaluated.message };
+    if (!evaluated.result.ok) return { ok: false, message: "The preview appears once the saved draft compiles." };
+    if (!evaluated.result.outcome.ok) return { ok: false, message: "The default inputs could not be evaluated." };
+    return {
+      ok: true,
+      definition: definition.data,
+      narrative: read.parsed.narrative,
+      evaluation: evaluated.result.outcome.evaluation,
+    };
+  },
+  run: async (_, { prepared }) => prepared,
+  audit: null,
+});
+
+/** The draft's saved source through the gate (problems, verification), for the editor page. */
+export const checkDraft = defineUseCase({
+  name: "standards.draft.check",
+  permission: "templates.write-draft",
+  input: draftRefSchema,
+  prepare: async ({ draftId }) => {
+    const draft = await getDraft(draftId);
+    if (!draft) throw new AppError("not-found", "That draft does not exist.");
+    return checkSource(draft.source);
+  },
+  run: async (_, { prepared }) => prepared,
+  audit: null,
 });

@@ -144,7 +144,7 @@ describe("a standard from first draft to withdrawal", () => {
       reviewerName: bruno.name,
       changelog: "First version.",
       summary: "A cantilever under a uniform load, checked in bending.",
-      verifiedWith: expect.stringMatching(/^gusset-engine .* · evaluation \d+\.\d+\.\d+$/),
+      verifiedWith: expect.stringMatching(/^engine \d+\.\d+\.\d+\+sha256:[0-9a-f]{12} · evaluation \d+\.\d+\.\d+$/),
     });
     expect(version.events.map((event) => event.kind)).toEqual(["published"]);
     expect((await runUseCase(readDraft, { actor: alice, input: { draftId } })).draft).toMatchObject({
@@ -262,7 +262,7 @@ describe("the publication gate", () => {
       expect(runUseCase(submitDraft, { actor: alice, input: { draftId, changelog: "First." } })).rejects.toMatchObject({
         code: "invalid-input",
         message: expect.stringMatching(
-          /Verification case “Uniform load, closed form” fails on the current engine: M_u: expected 76\.5, got 72/,
+          /Verification case “Uniform load, closed form” fails on the current engine: M_u: expected 76500, got 72000 \(SI units\)/,
         ),
       }),
     );

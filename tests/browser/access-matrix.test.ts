@@ -64,6 +64,25 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
   "/(app)/home/page": { path: "/home", title: "Home", expect: signedInPage("admin", "lead", "engineer", "auditor") },
   "/(app)/profile/page": { path: "/profile", title: "Profile", expect: signedInPage("admin", "lead", "engineer", "auditor") },
   "/(app)/standards/page": { path: "/standards", title: "Standards", expect: signedInPage("lead", "engineer", "auditor") },
+  // A starting standard the seed publishes (content/standards/simply-supported-beam, versions 1 and 2).
+  "/(app)/standards/[slug]/page": {
+    path: "/standards/simply-supported-beam",
+    expect: signedInPage("lead", "engineer", "auditor"),
+  },
+  "/(app)/standards/[slug]/versions/[number]/page": {
+    path: "/standards/simply-supported-beam/versions/1",
+    expect: signedInPage("lead", "engineer", "auditor"),
+  },
+  "/(app)/standards/[slug]/diff/page": {
+    path: "/standards/simply-supported-beam/diff?from=1&to=2",
+    expect: signedInPage("lead", "engineer", "auditor"),
+  },
+  "/(app)/standards/new/page": { path: "/standards/new", title: "New standard", expect: signedInPage("lead") },
+  // Drafts are the leads' working space; an address that names no draft is a 404 for them.
+  "/(app)/standards/drafts/[draftId]/page": {
+    path: "/standards/drafts/not-a-real-draft",
+    expect: { ...signedInPage("lead"), lead: "not-found" },
+  },
   "/(app)/jobs/page": { path: "/jobs", title: "Jobs", expect: signedInPage("lead", "engineer", "auditor") },
   "/(app)/runs/page": { path: "/runs", title: "Runs", expect: signedInPage("lead", "engineer", "auditor") },
   "/(app)/audit/page": { path: "/audit", title: "Audit trail", expect: signedInPage("admin", "auditor") },
@@ -210,6 +229,12 @@ function adminOnlyAction(): Record<Who, ActionOutcome> {
   ) as Record<Who, ActionOutcome>;
 }
 
+function leadsOnlyAction(): Record<Who, ActionOutcome> {
+  return Object.fromEntries(
+    EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "lead" ? "ok" : "forbidden"]),
+  ) as Record<Who, ActionOutcome>;
+}
+
 /**
  * Keyed "<file>#<export>" as in the build's server-reference-manifest. The input for each call and
  * the proof that an allowed call did its work are in tests/integration/helpers/action-fixtures.ts.
@@ -225,6 +250,15 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/profile/actions.ts#setTimeZoneAction": anonymousElse<ActionOutcome>("unauthenticated", "ok"),
   // The invitation link is the credential: anyone holding a real one may accept it, and lands home.
   "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": same<ActionOutcome>("ok"),
+  // Standards leads write, review, publish and withdraw standards; nobody else.
+  "app/(app)/standards/actions.ts#createStandardAction": leadsOnlyAction(),
+  "app/(app)/standards/actions.ts#startDraftAction": leadsOnlyAction(),
+  "app/(app)/standards/actions.ts#saveDraftAction": leadsOnlyAction(),
+  "app/(app)/standards/actions.ts#submitDraftAction": leadsOnlyAction(),
+  "app/(app)/standards/actions.ts#discardDraftAction": leadsOnlyAction(),
+  "app/(app)/standards/actions.ts#returnDraftAction": leadsOnlyAction(),
+  "app/(app)/standards/actions.ts#approveAndPublishAction": leadsOnlyAction(),
+  "app/(app)/standards/actions.ts#withdrawVersionAction": leadsOnlyAction(),
 };
 
 // ---- what the build contains -----------------------------------------------------------------
@@ -420,6 +454,11 @@ describe("signing in brings people back", () => {
       "/home",
       "/profile",
       "/standards",
+      "/standards/simply-supported-beam",
+      "/standards/simply-supported-beam/versions/1",
+      "/standards/simply-supported-beam/diff?from=1&to=2",
+      "/standards/new",
+      "/standards/drafts/not-a-real-draft",
       "/jobs",
       "/runs",
       "/audit",

@@ -49,6 +49,14 @@ const SIGNED_IN: Record<Who, Expected> = {
   engineer: "allowed",
   auditor: "allowed",
 };
+// Standards leads write, review, publish and withdraw standards (product.md); nobody else does.
+const LEADS_ONLY: Record<Who, Expected> = {
+  anonymous: "unauthenticated",
+  admin: "forbidden",
+  lead: "allowed",
+  engineer: "forbidden",
+  auditor: "forbidden",
+};
 const PUBLIC: Record<Who, Expected> = {
   anonymous: "allowed",
   admin: "allowed",
@@ -91,6 +99,14 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/profile/actions.ts#setTimeZoneAction": SIGNED_IN,
   // Public: the link is the credential; anyone holding a real one may accept it.
   "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": PUBLIC,
+  "app/(app)/standards/actions.ts#createStandardAction": LEADS_ONLY,
+  "app/(app)/standards/actions.ts#startDraftAction": LEADS_ONLY,
+  "app/(app)/standards/actions.ts#saveDraftAction": LEADS_ONLY,
+  "app/(app)/standards/actions.ts#submitDraftAction": LEADS_ONLY,
+  "app/(app)/standards/actions.ts#discardDraftAction": LEADS_ONLY,
+  "app/(app)/standards/actions.ts#returnDraftAction": LEADS_ONLY,
+  "app/(app)/standards/actions.ts#approveAndPublishAction": LEADS_ONLY,
+  "app/(app)/standards/actions.ts#withdrawVersionAction": LEADS_ONLY,
 };
 
 type ManifestEntry = { workers: Record<string, unknown>; filename?: string; exportedName?: string };

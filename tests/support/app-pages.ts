@@ -43,6 +43,29 @@ export const APP_PAGES: AppPage[] = [
   { name: "home", entry: "/(app)/home/page", path: "/home", visitors: SIGNED_IN },
   { name: "profile", entry: "/(app)/profile/page", path: "/profile", visitors: SIGNED_IN },
   { name: "standards", entry: "/(app)/standards/page", path: "/standards", visitors: WORK },
+  // A starting standard the seed publishes, in its two versions.
+  { name: "a standard", entry: "/(app)/standards/[slug]/page", path: "/standards/simply-supported-beam", visitors: ["engineer"] },
+  {
+    name: "a standard's version",
+    entry: "/(app)/standards/[slug]/versions/[number]/page",
+    path: "/standards/portal-frame/versions/1",
+    visitors: ["lead", "auditor"],
+  },
+  {
+    name: "two versions compared",
+    entry: "/(app)/standards/[slug]/diff/page",
+    path: "/standards/simply-supported-beam/diff?from=1&to=2",
+    visitors: ["lead"],
+  },
+  { name: "new standard", entry: "/(app)/standards/new/page", path: "/standards/new", visitors: ["lead"] },
+  // A real draft is opened by the standards journey (tests/browser/standards-journey.test.ts), with axe.
+  {
+    name: "a draft that does not exist",
+    entry: "/(app)/standards/drafts/[draftId]/page",
+    path: "/standards/drafts/not-a-real-draft",
+    status: 404,
+    visitors: ["lead"],
+  },
   { name: "jobs", entry: "/(app)/jobs/page", path: "/jobs", visitors: WORK },
   { name: "runs", entry: "/(app)/runs/page", path: "/runs", visitors: WORK },
   { name: "audit trail", entry: "/(app)/audit/page", path: "/audit", visitors: ["admin", "auditor"] },

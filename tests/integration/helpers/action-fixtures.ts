@@ -7,6 +7,44 @@ import { db } from "@/db";
 import * as schema from "@/db/schema";
 import { WRONG_CURRENT_PASSWORD_MESSAGE } from "@/lib/domain/schemas/profile";
 import { auditEventsFor, createTestUser, inviteWithToken, sessionCount, signInHeaders, uniqueEmail } from "./people";
+import { runUseCase } from "@/lib/use-cases/run";
+import { approveAndPublish, createStandard, readDraft, submitDraft } from "@/lib/use-cases/standards";
+
+let standardCounter = 0;
+const matrixSlug = () => `matrix-${Date.now().toString(36)}-${(standardCounter++).toString(36)}`;
+
+/** A draft by a lead made for the call (so never the caller's own), submitted for review when asked. */
+async function otherLeadsDraft({ submit }: { submit: boolean }) {
+  const { actor: author } = await createTestUser({ role: "lead", label: "matrix-author" });
+  const slug = matrixSlug();
+  const { draftId } = await runUseCase(createStandard, { actor: author, input: { slug, title: "Matrix beam" } });
+  const reviewId = submit
+    ? (await runUseCase(submitDraft, { actor: author, input: { draftId, changelog: "For the matrix." } })).reviewId
+    : null;
+  return { author, slug, draftId, reviewId };
+}
+
+/** A standard published by two leads made for the call. */
+async function publishedStandard() {
+  const { author, slug, reviewId } = await otherLeadsDraft({ submit: true });
+  const { actor: reviewer } = await createTestUser({ role: "lead", label: "matrix-reviewer" });
+  const published = await runUseCase(approveAndPublish, { actor: reviewer, input: { reviewId: reviewId! } });
+  return { author, slug, versionId: published.versionId };
+}
+
+/** Only the author edits a draft: a lead who is not gets past the permission check and is told so. */
+const notTheAuthor = (answer: ActionAnswer) =>
+  expect(answer).toEqual({
+    state: {
+      ok: false,
+      error: { code: "forbidden", message: "Only the draft's author edits it; start your own draft from the version instead." },
+    },
+  });
+
+async function draftRow(id: string) {
+  const [row] = await db.select().from(schema.standardDrafts).where(eq(schema.standardDrafts.id, id));
+  return row;
+}
 
 /** What calling a server action came to: its ActionState, or the redirect it answered with. */
 export type ActionAnswer =
@@ -172,6 +210,103 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
         expect(created).toMatchObject({ name: invitation.name, role: "lead", deactivatedAt: null });
         expect((await invitationRow(invitation.id)).acceptedAt).toBeInstanceOf(Date);
         expect(await sessionCount(created.id)).toBe(1);
+      },
+    };
+  },
+  "app/(app)/standards/actions.ts#createStandardAction": async () => {
+    const slug = matrixSlug();
+    return {
+      input: { slug, title: "Matrix standard" },
+      succeeded: async (answer) => {
+        const [standard] = await db.select().from(schema.standards).where(eq(schema.standards.slug, slug));
+        const [draft] = await db.select().from(schema.standardDrafts).where(eq(schema.standardDrafts.standardId, standard.id));
+        expect(answer).toEqual({ redirect: `/standards/drafts/${draft.id}` });
+        expect(draft.state).toBe("editing");
+      },
+    };
+  },
+  "app/(app)/standards/actions.ts#startDraftAction": async () => {
+    const { versionId } = await publishedStandard();
+    return {
+      input: { versionId },
+      succeeded: async (answer) => {
+        const drafts = await db.select().from(schema.standardDrafts).where(eq(schema.standardDrafts.basedOnVersionId, versionId));
+        expect(drafts).toHaveLength(1);
+        expect(answer).toEqual({ redirect: `/standards/drafts/${drafts[0].id}` });
+      },
+    };
+  },
+  "app/(app)/standards/actions.ts#saveDraftAction": async () => {
+    const { draftId } = await otherLeadsDraft({ submit: false });
+    const before = (await draftRow(draftId)).source;
+    return {
+      input: { draftId, source: "changed by someone else" },
+      succeeded: async (answer) => {
+        notTheAuthor(answer);
+        expect((await draftRow(draftId)).source).toBe(before);
+      },
+    };
+  },
+  "app/(app)/standards/actions.ts#submitDraftAction": async () => {
+    const { draftId } = await otherLeadsDraft({ submit: false });
+    return {
+      input: { draftId, changelog: "Not mine to submit." },
+      succeeded: async (answer) => {
+        notTheAuthor(answer);
+        expect((await draftRow(draftId)).state).toBe("editing");
+      },
+    };
+  },
+  "app/(app)/standards/actions.ts#discardDraftAction": async () => {
+    const { draftId } = await otherLeadsDraft({ submit: false });
+    return {
+      input: { draftId },
+      succeeded: async (answer) => {
+        notTheAuthor(answer);
+        expect((await draftRow(draftId)).state).toBe("editing");
+      },
+    };
+  },
+  "app/(app)/standards/actions.ts#returnDraftAction": async () => {
+    const { draftId, reviewId, author } = await otherLeadsDraft({ submit: true });
+    return {
+      input: { reviewId, note: "", comments: [{ line: 3, body: "Say which sections this covers." }] },
+      succeeded: async (answer) => {
+        expect(answer).toMatchObject({ state: { ok: true, data: { draftId, round: 1, comments: 1, authorName: author.name } } });
+        const view = await runUseCase(readDraft, { actor: author, input: { draftId } });
+        expect(view.draft.state).toBe("editing");
+        expect(view.reviews[0].comments.map((c) => [c.line, c.body])).toEqual([[3, "Say which sections this covers."]]);
+      },
+    };
+  },
+  "app/(app)/standards/actions.ts#approveAndPublishAction": async () => {
+    const { slug, reviewId } = await otherLeadsDraft({ submit: true });
+    return {
+      input: { reviewId },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({ redirect: `/standards/${slug}/versions/1` });
+        const [standard] = await db.select().from(schema.standards).where(eq(schema.standards.slug, slug));
+        const versions = await db
+          .select()
+          .from(schema.standardVersions)
+          .where(eq(schema.standardVersions.standardId, standard.id));
+        expect(versions.map((v) => v.number)).toEqual([1]);
+      },
+    };
+  },
+  "app/(app)/standards/actions.ts#withdrawVersionAction": async () => {
+    const { slug, versionId } = await publishedStandard();
+    return {
+      input: { versionId, reason: "Withdrawn by the access matrix." },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({
+          state: { ok: true, data: { versionId, slug, number: 1, reason: "Withdrawn by the access matrix." } },
+        });
+        const events = await db
+          .select()
+          .from(schema.standardVersionEvents)
+          .where(eq(schema.standardVersionEvents.versionId, versionId));
+        expect(events.map((e) => e.kind)).toEqual(["published", "withdrawn"]);
       },
     };
   },

@@ -4,7 +4,7 @@
 // Plain Node: it runs before `npm ci` on a fresh machine.
 import { authSecret, childEnv, gussetEnv, writeEnvLocal } from "./lib/env.mjs";
 import { ensureBuild } from "./lib/build.mjs";
-import { demoSignIns, printSignIns } from "./lib/database.mjs";
+import { demoSignIns, printSignIns, verifyLiveStandards } from "./lib/database.mjs";
 import { POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
 import { createLifecycle, profileSetup } from "./lib/lifecycle.mjs";
 import { say } from "./lib/processes.mjs";
@@ -34,7 +34,9 @@ await main(async () => {
 
   await prepareServices({ setup, env: processEnv, registry, timer, fresh: false });
   const signIns = demoSignIns(processEnv); // read while the build runs
+  const verified = verifyLiveStandards(processEnv); // likewise
   await timer.phase("build", () => ensureBuild({ env: processEnv, layout: setup.layout }));
+  await verified;
   const server = await timer.phase("server", () =>
     startServer({ env: processEnv, layout: setup.layout, port: setup.ports.app, profile: "start", registry }),
   );

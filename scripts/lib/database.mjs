@@ -20,6 +20,29 @@ export async function seed(env) {
   await runAsync(tsx, ["--conditions=react-server", "scripts/seed.ts"], { cwd: repoRoot, env });
 }
 
+/**
+ * Runs the verification cases of the firm's live standards (published or superseded, not withdrawn) on
+ * this engine. A failure is a warning, not a stop: the app still serves, and the standards lead is told
+ * which version to look at (an engine change may have broken a published standard).
+ */
+export async function verifyLiveStandards(env) {
+  const result = await runAsync(tsx, ["scripts/verify-standards.ts", "--live-only"], {
+    cwd: repoRoot,
+    env,
+    quiet: true,
+    allowFailure: true,
+  });
+  const summary = result.stdout.trim().split("\n").at(-1) ?? "";
+  if (result.status === 0) {
+    say(`live standards verified on this engine: ${summary}`);
+    return;
+  }
+  say("WARNING: a live standard fails its verification cases on this engine. Tell a standards lead; details:");
+  const failures = result.stdout.split("\n").filter((line) => /✗|FAIL|could not/.test(line));
+  for (const line of failures.slice(0, 20)) console.log(`  ${line.trim()}`);
+  if (result.stderr.trim()) console.log(result.stderr.trim().split("\n").slice(-5).join("\n"));
+}
+
 /** { firm, users } from db/demo-users.ts, or null when that file does not exist yet or cannot load. */
 export async function demoSignIns(env) {
   if (!fs.existsSync(path.join(repoRoot, "db", "demo-users.ts"))) return null;

@@ -5,7 +5,7 @@
  */
 import type { CompiledStandard } from "./compile";
 import { compileExpression, ExpressionError } from "./expressions";
-import { formatSignificant } from "./format";
+import { formatSignificant, trimZeros } from "./format";
 import { isUnit, type Value } from "./units";
 
 export interface VerificationCheck {
@@ -77,7 +77,9 @@ export function runVerification(standard: CompiledStandard): VerificationResult[
         pass,
         ...(pass
           ? {}
-          : { message: `expected ${formatSignificant(expected, 6)}, got ${formatSignificant(actual, 6)} (SI units)` }),
+          : {
+              message: `expected ${trimZeros(formatSignificant(expected, 6))}, got ${trimZeros(formatSignificant(actual, 6))} (SI units)`,
+            }),
       };
     });
     return { name: c.name, source: c.source, pass: checks.every((k) => k.pass), checks };

@@ -63,18 +63,21 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
   },
   "/(app)/home/page": { path: "/home", title: "Home", expect: signedInPage("admin", "lead", "engineer", "auditor") },
   "/(app)/profile/page": { path: "/profile", title: "Profile", expect: signedInPage("admin", "lead", "engineer", "auditor") },
-  "/(app)/standards/page": { path: "/standards", title: "Standards", expect: signedInPage("lead", "engineer", "auditor") },
+  "/(app)/standards/(list)/page": { path: "/standards", title: "Standards", expect: signedInPage("lead", "engineer", "auditor") },
   // A starting standard the seed publishes (content/standards/simply-supported-beam, versions 1 and 2).
   "/(app)/standards/[slug]/page": {
     path: "/standards/simply-supported-beam",
+    title: "Standard",
     expect: signedInPage("lead", "engineer", "auditor"),
   },
   "/(app)/standards/[slug]/versions/[number]/page": {
     path: "/standards/simply-supported-beam/versions/1",
+    title: "Standard version",
     expect: signedInPage("lead", "engineer", "auditor"),
   },
   "/(app)/standards/[slug]/diff/page": {
     path: "/standards/simply-supported-beam/diff?from=1&to=2",
+    title: "Compare versions",
     expect: signedInPage("lead", "engineer", "auditor"),
   },
   "/(app)/standards/new/page": { path: "/standards/new", title: "New standard", expect: signedInPage("lead") },

@@ -42,7 +42,7 @@ export const APP_PAGES: AppPage[] = [
   },
   { name: "home", entry: "/(app)/home/page", path: "/home", visitors: SIGNED_IN },
   { name: "profile", entry: "/(app)/profile/page", path: "/profile", visitors: SIGNED_IN },
-  { name: "standards", entry: "/(app)/standards/page", path: "/standards", visitors: WORK },
+  { name: "standards", entry: "/(app)/standards/(list)/page", path: "/standards", visitors: WORK },
   // A starting standard the seed publishes, in its two versions.
   { name: "a standard", entry: "/(app)/standards/[slug]/page", path: "/standards/simply-supported-beam", visitors: ["engineer"] },
   {

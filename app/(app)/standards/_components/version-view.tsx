@@ -135,7 +135,10 @@ export function VersionView({
                 {item.authorName} · approved by {item.reviewerName}
               </span>
               {item.number > 1 ? (
-                <Link href={`${base}/diff?from=${item.number - 1}&to=${item.number}`} className="text-plate-700 hover:underline">
+                <Link
+                  href={`${base}/diff?from=${item.number - 1}&to=${item.number}`}
+                  className="text-plate-700 underline underline-offset-2"
+                >
                   diff with v{item.number - 1}
                 </Link>
               ) : null}

@@ -31,7 +31,7 @@ export default async function DiffPage({ params, searchParams }: PageProps<"/sta
         lead={
           <>
             What changed between the two versions, part by part, then line by line.{" "}
-            <Link href={`/standards/${slug}/versions/${to}`} className="text-plate-700 hover:underline">
+            <Link href={`/standards/${slug}/versions/${to}`} className="text-plate-700 underline underline-offset-2">
               Open v{to}
             </Link>
           </>

@@ -9,9 +9,9 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { TableFrame } from "@/components/ui/table";
 import { buttonClasses } from "@/components/ui/button";
 import { formatDate } from "@/components/format-date";
-import { VersionStatusBadge } from "./_components/version-status";
-import { DraftList } from "./_components/draft-list";
-import { StandardsFilter } from "./_components/standards-filter";
+import { VersionStatusBadge } from "../_components/version-status";
+import { DraftList } from "../_components/draft-list";
+import { StandardsFilter } from "../_components/standards-filter";
 
 export const metadata: Metadata = { title: "Standards" };
 

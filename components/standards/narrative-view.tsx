@@ -44,15 +44,19 @@ export function NarrativeView({
 }) {
   let analysis: AnalysisOutcome | null = null;
   const analysed = () => (analysis ??= analyze(evaluation.model));
-  const text = (props: PlaceholderProps, key: string) => (typeof props[key] === "string" ? (props[key] as string) : "");
+  // The placeholders' attributes arrive as React props with their HTML names (`data-name`, `data-of`).
+  const text = (props: PlaceholderProps, key: string) => {
+    const value = props[`data-${key}`];
+    return typeof value === "string" ? value : "";
+  };
 
   const components: Partial<Components> = {
     "gusset-input": (props: PlaceholderProps) => {
-      const input = evaluation.inputs[text(props, "dataName")];
+      const input = evaluation.inputs[text(props, "name")];
       return input ? <strong className="font-semibold text-ink-900 tabular">{input.display}</strong> : <Missing what="input" />;
     },
     "gusset-derivation": (props: PlaceholderProps) => {
-      const key = text(props, "dataOf");
+      const key = text(props, "of");
       if (!definition.derived[key]) return <Missing what="derivation" />;
       const { symbolic, substituted, result } = derivationLatex(definition, evaluation, key);
       const label = definition.derived[key].label;
@@ -64,7 +68,7 @@ export function NarrativeView({
       );
     },
     "gusset-extract": (props: PlaceholderProps) => {
-      const key = text(props, "dataName");
+      const key = text(props, "name");
       const extract = evaluation.extracts[key];
       if (!extract) return <Missing what="extract" />;
       const where = extract.where;
@@ -83,15 +87,15 @@ export function NarrativeView({
       );
     },
     "gusset-check": (props: PlaceholderProps) => {
-      const key = text(props, "dataName");
+      const key = text(props, "name");
       const check = evaluation.checks[key];
       return check ? <CheckLine name={key} check={check} /> : <Missing what="check" />;
     },
     "gusset-model-drawing": () => <ModelDrawing model={evaluation.model} name={title} className="my-4" />,
     "gusset-diagram": (props: PlaceholderProps) => {
-      const member = text(props, "dataMember");
-      const of = text(props, "dataOf") as DiagramQuantity;
-      const under = text(props, "dataUnder");
+      const member = text(props, "member");
+      const of = text(props, "of") as DiagramQuantity;
+      const under = text(props, "under");
       const outcome = analysed();
       if (!outcome.ok) return <Missing what="diagram: the model could not be analysed" />;
       const isEnvelope = (evaluation.model.envelopes ?? []).some((envelope) => envelope.id === under);
@@ -104,7 +108,10 @@ export function NarrativeView({
 
   const tree = narrativeToHast(narrative);
   return (
-    <div className="narrative max-w-none space-y-3 text-[0.95rem] leading-relaxed text-ink-800" data-testid="narrative">
+    <div
+      className="max-w-none space-y-3 text-[0.95rem] leading-relaxed text-ink-800 [&_h1]:text-xl [&_h1]:font-semibold [&_h1]:text-ink-950 [&_h2]:mt-6 [&_h2]:text-lg [&_h2]:font-semibold [&_h2]:text-ink-900 [&_h3]:mt-4 [&_h3]:font-semibold [&_h3]:text-ink-900 [&_ol]:list-decimal [&_ol]:pl-6 [&_ul]:list-disc [&_ul]:pl-6"
+      data-testid="narrative"
+    >
       {toJsxRuntime(tree, { Fragment, jsx, jsxs, components: components as Components, passNode: false })}
     </div>
   );

@@ -8,7 +8,7 @@ import { can } from "@/lib/domain/permissions";
 import type { VersionDto, VersionSummaryDto } from "@/lib/data/standards";
 import { compileStandard } from "@/lib/standards/compile";
 import type { VerificationResult } from "@/lib/standards/verify";
-import { formatSignificant } from "@/lib/standards/format";
+import { formatSignificant, trimZeros } from "@/lib/standards/format";
 import { NarrativeView } from "@/components/standards/narrative-view";
 import { ModelDrawing } from "@/components/standards/model-drawing";
 import { CheckLine } from "@/components/standards/check-line";
@@ -242,7 +242,7 @@ function VerificationTable({ results }: { results: VerificationResult[] }) {
     <TableFrame
       testId="verification-table"
       label="Verification cases"
-      headings={["Case", "Value", "Expected", "Computed", "Result"]}
+      headings={["Case", "Value", "Expected (SI)", "Computed (SI)", "Result"]}
     >
       {results.flatMap((result) =>
         (result.checks.length > 0 ? result.checks : [null]).map((check, index) => (
@@ -260,9 +260,11 @@ function VerificationTable({ results }: { results: VerificationResult[] }) {
               ) : null}
             </td>
             <td className="px-4 py-2 font-mono text-xs">{check?.target ?? result.failure ?? ""}</td>
-            <td className="px-4 py-2 whitespace-nowrap tabular">{check ? formatSignificant(check.expected, 6) : "—"}</td>
             <td className="px-4 py-2 whitespace-nowrap tabular">
-              {check?.actual !== null && check?.actual !== undefined ? formatSignificant(check.actual, 6) : "—"}
+              {check ? trimZeros(formatSignificant(check.expected, 6)) : "—"}
+            </td>
+            <td className="px-4 py-2 whitespace-nowrap tabular">
+              {check?.actual !== null && check?.actual !== undefined ? trimZeros(formatSignificant(check.actual, 6)) : "—"}
             </td>
             <td className="px-4 py-2">
               <Badge tone={(check?.pass ?? result.pass) ? "pass" : "fault"}>

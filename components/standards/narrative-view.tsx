@@ -18,10 +18,17 @@ import { CheckLine } from "./check-line";
 type PlaceholderProps = Record<string, unknown>;
 
 /** Our own LaTeX (formulae built from the definition); trust off, so no \href or \htmlClass reaches the page. */
-function TeX({ latex, display = false }: { latex: string; display?: boolean }) {
+function TeX({ latex, display = false, label }: { latex: string; display?: boolean; label?: string }) {
   const html = katex.renderToString(latex, { displayMode: display, output: "htmlAndMathml", throwOnError: false, trust: false });
+  // A long equation scrolls sideways in its own box; keyboard users reach that box with Tab to scroll it.
   return display ? (
-    <div className="overflow-x-auto py-1" dangerouslySetInnerHTML={{ __html: html }} />
+    <div
+      className="overflow-x-auto py-1"
+      tabIndex={0}
+      role="region"
+      aria-label={label ?? "Equation"}
+      dangerouslySetInnerHTML={{ __html: html }}
+    />
   ) : (
     <span dangerouslySetInnerHTML={{ __html: html }} />
   );
@@ -63,7 +70,11 @@ export function NarrativeView({
       return (
         <div className="my-3 rounded-plate bg-paper-sunk px-4 py-2 text-ink-900" data-testid="derivation" data-of={key}>
           {label ? <div className="text-xs font-medium text-ink-500">{label}</div> : null}
-          <TeX latex={`${symbolic} ${substituted} ${result}`} display />
+          <TeX
+            latex={`${symbolic} ${substituted} ${result}`}
+            display
+            label={label ? `Derivation: ${label}` : `Derivation of ${key}`}
+          />
         </div>
       );
     },

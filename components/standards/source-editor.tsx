@@ -160,6 +160,9 @@ export function SourceEditor({
       ...(wrapLines ? [EditorView.lineWrapping] : []),
       ...(clickable ? [keymap.of([{ key: "Alt-Enter", run: (view) => lineClick(view, view.state.selection.main.head) }])] : []),
       EditorView.contentAttributes.of({
+        // Focusable even when read-only (a reviewer reads and comments with the keyboard), and so the
+        // scrolling box around it has something to focus (axe: scrollable-region-focusable).
+        tabindex: "0",
         "aria-label": ariaLabel,
         "aria-description": KEYBOARD_HINT,
         ...(readOnly ? { "aria-readonly": "true" } : {}),

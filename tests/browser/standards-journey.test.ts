@@ -42,7 +42,9 @@ async function submitDraft(page: Page, changelog: string): Promise<void> {
   const submit = page.getByTestId("draft-submit");
   await expect.poll(() => submit.isEnabled(), { timeout: 15_000 }).toBe(true);
   await submit.click();
-  await page.getByTestId("draft-submitted").waitFor();
+  // The page refreshes into the waiting state: the editor gives way to who reviews next.
+  await page.getByTestId("waiting-review").waitFor();
+  expect(await page.getByTestId("draft-state").textContent()).toBe("In review");
 }
 
 it(

@@ -88,7 +88,12 @@ it(
     await second.getByTestId("review-line").press("Enter");
     await second.getByTestId("review-comment-body").fill("The summary is still the placeholder.");
     await second.getByTestId("review-return").click();
-    await second.getByTestId("review-returned").waitFor();
+    // The page refreshes: the submission is listed as returned, with the comment on its line.
+    await second
+      .getByTestId("review-round")
+      .filter({ hasText: `Returned by ${reviewer.name}` })
+      .waitFor();
+    expect(await second.getByTestId("review-panel").count()).toBe(0);
 
     // The first lead sees the comment beside its line, fixes the summary and submits again.
     await author.goto(draftUrl);

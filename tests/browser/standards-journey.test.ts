@@ -34,7 +34,7 @@ async function appendToSource(page: Page, text: string): Promise<void> {
 
 async function saveDraft(page: Page): Promise<void> {
   await page.getByTestId("draft-save").click();
-  await expect.poll(() => page.getByTestId("draft-save-state").textContent()).toBe("Saved");
+  await expect.poll(() => page.getByTestId("draft-save-state").textContent(), { timeout: 20_000 }).toBe("Saved");
 }
 
 async function submitDraft(page: Page, changelog: string): Promise<void> {

@@ -19,7 +19,7 @@ export async function seedDemoFirm(database: NodePgDatabase<typeof schema>): Pro
     const ids: Record<string, string> = {};
     for (const demo of DEMO_USERS) {
       const { id } = await createCredentialUser(tx, { ...demo, emailVerified: true });
-      ids[demo.role] = id;
+      ids[demo.role] ??= id; // the first of each role (the demo has two leads)
     }
     await tx.insert(schema.projects).values(DEMO_PROJECTS.map((p) => ({ ...p, createdById: ids.lead ?? ids.engineer ?? null })));
     await tx.insert(schema.auditEvents).values({

@@ -5,7 +5,7 @@ export const CAUTION_TEXT =
 export function Caution() {
   return (
     <aside
-      className="my-6 rounded-plate border-l-4 border-warn-700 bg-warn-100 px-4 py-3 text-sm text-ink-800"
+      className="my-6 rounded-plate border-l-4 border-warn-700 bg-warn-100 px-4 py-3 text-sm text-ink-900"
       data-testid="caution"
       aria-label="Caution"
     >

@@ -29,7 +29,7 @@ export function CheckLine({ name, check }: { name: string; check: EvaluatedCheck
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <span className="font-semibold text-ink-900">{check.label}</span>
         <span className="flex items-center gap-2">
-          <span className="text-sm text-ink-600 tabular" data-testid="check-utilisation">
+          <span className="text-sm text-ink-700 tabular" data-testid="check-utilisation">
             utilisation {check.utilisationShown}
           </span>
           <Badge tone={check.pass ? "pass" : "fault"}>{check.pass ? "Pass" : "Fail"}</Badge>

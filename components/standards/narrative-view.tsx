@@ -120,7 +120,7 @@ export function NarrativeView({
   const tree = narrativeToHast(narrative);
   return (
     <div
-      className="max-w-none space-y-3 text-[0.95rem] leading-relaxed text-ink-800 [&_h1]:text-xl [&_h1]:font-semibold [&_h1]:text-ink-950 [&_h2]:mt-6 [&_h2]:text-lg [&_h2]:font-semibold [&_h2]:text-ink-900 [&_h3]:mt-4 [&_h3]:font-semibold [&_h3]:text-ink-900 [&_ol]:list-decimal [&_ol]:pl-6 [&_ul]:list-disc [&_ul]:pl-6"
+      className="max-w-none space-y-3 text-[0.95rem] leading-relaxed text-ink-900 [&_h1]:text-xl [&_h1]:font-semibold [&_h1]:text-ink-950 [&_h2]:mt-6 [&_h2]:text-lg [&_h2]:font-semibold [&_h2]:text-ink-900 [&_h3]:mt-4 [&_h3]:font-semibold [&_h3]:text-ink-900 [&_ol]:list-decimal [&_ol]:pl-6 [&_ul]:list-disc [&_ul]:pl-6"
       data-testid="narrative"
     >
       {toJsxRuntime(tree, { Fragment, jsx, jsxs, components: components as Components, passNode: false })}

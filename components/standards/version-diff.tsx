@@ -102,7 +102,7 @@ function SignedLine({ sign, said, value }: { sign: "+" | "−"; said: string; va
 
 function FieldList({ fields, side }: { fields: readonly FieldChange[]; side?: "old" | "new" }) {
   return (
-    <ul className="mt-1 ml-4 list-disc space-y-0.5 text-ink-700 marker:text-ink-300">
+    <ul className="mt-1 ml-4 list-disc space-y-0.5 text-ink-700 marker:text-ink-500">
       {fields.map((field) => (
         <li key={field.field}>
           {field.field ? <span className="font-mono text-[0.85em]">{field.field}</span> : null}

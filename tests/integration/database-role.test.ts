@@ -184,9 +184,16 @@ describe("the app's database role", () => {
     const sequences = await rows(
       `select c.oid::regclass::text as name, has_sequence_privilege(c.oid, 'USAGE') as usage,
               has_sequence_privilege(c.oid, 'UPDATE') as setval
-         from pg_class c join pg_namespace n on n.oid = c.relnamespace where c.relkind = 'S' and n.nspname = 'public'`,
+         from pg_class c join pg_namespace n on n.oid = c.relnamespace where c.relkind = 'S' and n.nspname = 'public' order by 1`,
     );
-    expect(sequences).toEqual([{ name: "audit_events_id_seq", usage: true, setval: false }]);
+    // The bigserial ids of the append-only tables: nextval, never setval.
+    expect(sequences).toEqual(
+      ["audit_events_id_seq", "standard_review_comments_id_seq", "standard_version_events_id_seq"].map((name) => ({
+        name,
+        usage: true,
+        setval: false,
+      })),
+    );
 
     const schemas = await rows(
       `select nspname as name, has_schema_privilege(oid, 'USAGE') as usage, has_schema_privilege(oid, 'CREATE') as create

@@ -39,7 +39,9 @@ describe("migrations on an empty database", () => {
   it("apply cleanly with scripts/migrate.ts, and a second run applies nothing and grants nothing new", async () => {
     expect(firstRun.status, firstRun.stderr).toBe(0);
     expect(firstRun.stdout).toMatch(
-      new RegExp(`privileges of ${appRole} set on \\d+ tables \\(\\d+ of the job queue; append-only: audit_events\\)`),
+      new RegExp(
+        `privileges of ${appRole} set on \\d+ tables \\(\\d+ of the job queue; append-only: audit_events, standard_review_comments, standard_version_events, standard_versions\\)`,
+      ),
     );
     const before = await accessLists();
     const second = runMigrate();
@@ -72,6 +74,12 @@ describe("migrations on an empty database", () => {
       "projects",
       "rate_limit",
       "session",
+      "standard_drafts",
+      "standard_review_comments",
+      "standard_reviews",
+      "standard_version_events",
+      "standard_versions",
+      "standards",
       "user",
       "verification",
     ]);

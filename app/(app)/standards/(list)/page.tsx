@@ -65,7 +65,7 @@ export default async function StandardsPage({ searchParams }: PageProps<"/standa
             : "Standards leads publish standards here; once a version is published you can open it and run it inside a job."}
         </EmptyState>
       ) : shown.length === 0 ? (
-        <p className="rounded-plate bg-paper-raised px-4 py-6 text-ink-600 ring-1 ring-ink-200" data-testid="standards-none">
+        <p className="rounded-plate bg-paper-raised px-4 py-6 text-ink-700 ring-1 ring-ink-200" data-testid="standards-none">
           No standard matches these filters.
         </p>
       ) : (
@@ -93,7 +93,7 @@ export default async function StandardsPage({ searchParams }: PageProps<"/standa
                 {versions > 1 ? <span className="ml-2 text-xs text-ink-500">of {versions}</span> : null}
               </td>
               <td className="px-4 py-3 whitespace-nowrap text-ink-500 tabular">{formatDate(current.publishedAt)}</td>
-              <td className="px-4 py-3 text-xs text-ink-600">{current.tags.join(", ")}</td>
+              <td className="px-4 py-3 text-xs text-ink-700">{current.tags.join(", ")}</td>
             </tr>
           ))}
         </TableFrame>

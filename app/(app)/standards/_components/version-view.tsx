@@ -167,7 +167,7 @@ function VersionBody({
   return (
     <>
       <Section title="Scope and limitations" id="scope-heading">
-        <p className="text-ink-800">{definition.scope}</p>
+        <p className="text-ink-900">{definition.scope}</p>
         {definition.limitations.length > 0 ? (
           <ul className="mt-2 list-disc space-y-1 pl-6 text-ink-700" data-testid="limitations">
             {definition.limitations.map((limitation) => (
@@ -190,12 +190,12 @@ function VersionBody({
               <td className="px-4 py-2 whitespace-nowrap tabular">
                 {input.quantity === "choice" ? String(input.default) : String(input.default ?? "—")}
               </td>
-              <td className="px-4 py-2 whitespace-nowrap text-ink-600 tabular">
+              <td className="px-4 py-2 whitespace-nowrap text-ink-700 tabular">
                 {input.quantity === "choice"
                   ? (input.choices ?? []).join(" / ")
                   : [input.min ? `≥ ${input.min}` : null, input.max ? `≤ ${input.max}` : null].filter(Boolean).join(", ") || "—"}
               </td>
-              <td className="px-4 py-2 text-ink-600">{input.help ?? ""}</td>
+              <td className="px-4 py-2 text-ink-700">{input.help ?? ""}</td>
             </tr>
           ))}
         </TableFrame>

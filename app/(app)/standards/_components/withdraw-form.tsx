@@ -26,7 +26,7 @@ export function WithdrawForm({ versionId, number }: { versionId: string; number:
         startTransition(() => withdraw({ versionId, reason }));
       }}
     >
-      <p className="text-sm text-ink-600">
+      <p className="text-sm text-ink-700">
         A withdrawn version can no longer be run. It stays on record, with every run made with it.
       </p>
       <FormError message={server.form} />

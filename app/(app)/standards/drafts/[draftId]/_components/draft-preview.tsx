@@ -25,11 +25,11 @@ export async function DraftPreview({ actor, draftId, check }: { actor: Actor; dr
 }
 
 async function previewBody(actor: Actor, draftId: string, check: SourceCheck | null) {
-  if (!check) return <p className="text-ink-600">The preview is not available: checking the draft took too long.</p>;
+  if (!check) return <p className="text-ink-700">The preview is not available: checking the draft took too long.</p>;
   if (check.problems.length > 0)
-    return <p className="text-ink-600">The preview appears once the saved draft compiles (fix the problems listed above).</p>;
+    return <p className="text-ink-700">The preview appears once the saved draft compiles (fix the problems listed above).</p>;
   const preview = await runUseCase(previewDraft, { actor, input: { draftId } });
-  if (!preview.ok) return <p className="text-ink-600">{preview.message}</p>;
+  if (!preview.ok) return <p className="text-ink-700">{preview.message}</p>;
   const { definition, narrative, evaluation } = preview;
   return (
     <>

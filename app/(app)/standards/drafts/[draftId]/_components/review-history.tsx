@@ -17,7 +17,7 @@ export function ReviewHistory({ reviews }: { reviews: ReviewDto[] }) {
             <li key={review.id} className="rounded-plate bg-paper-raised p-4 ring-1 ring-ink-200" data-testid="review-round">
               <p className="flex flex-wrap items-center gap-2 text-sm">
                 <span className="font-semibold">Submission {review.round}</span>
-                <span className="text-ink-600">
+                <span className="text-ink-700">
                   “{review.changelog}” by {review.submittedByName}
                 </span>
                 <Badge tone={review.outcome === "approved" ? "pass" : review.outcome === "returned" ? "warn" : "neutral"}>
@@ -28,13 +28,13 @@ export function ReviewHistory({ reviews }: { reviews: ReviewDto[] }) {
                       : "Awaiting review"}
                 </Badge>
               </p>
-              {review.note ? <p className="mt-2 text-ink-800">{review.note}</p> : null}
+              {review.note ? <p className="mt-2 text-ink-900">{review.note}</p> : null}
               {review.comments.length > 0 ? (
                 <ul className="mt-2 space-y-2">
                   {review.comments.map((comment) => (
                     <li key={comment.id} className="text-sm" data-testid="review-comment" data-line={comment.line ?? ""}>
                       {comment.line ? (
-                        <code className="mr-2 block truncate rounded bg-paper-sunk px-2 py-1 text-xs text-ink-600">
+                        <code className="mr-2 block truncate rounded bg-paper-sunk px-2 py-1 text-xs text-ink-700">
                           {comment.line}: {lines[comment.line - 1]}
                         </code>
                       ) : null}

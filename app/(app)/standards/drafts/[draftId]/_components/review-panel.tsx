@@ -49,7 +49,7 @@ export function ReviewPanel({ review, verification }: { review: ReviewDto; verif
         {comments.map((comment, index) => (
           <div key={index} className="rounded-plate bg-paper-raised p-3 ring-1 ring-ink-200" data-testid="review-comment-draft">
             {comment.line ? (
-              <code className="mb-2 block truncate rounded bg-paper-sunk px-2 py-1 text-xs text-ink-600">
+              <code className="mb-2 block truncate rounded bg-paper-sunk px-2 py-1 text-xs text-ink-700">
                 {comment.line}: {lines[comment.line - 1]}
               </code>
             ) : null}

@@ -56,7 +56,7 @@ import { DefinitionSchema, type Definition } from "@/lib/standards/definition";
 import type { Evaluation } from "@/lib/standards/evaluate";
 import { parseSource } from "@/lib/standards/source";
 import { evaluationPool } from "@/lib/evaluation/pool";
-import { checkSource, gateRefusals, type SourceCheck } from "./standard-gate";
+import { checkSource, gateRefusals, VERIFIED_WITH, type SourceCheck } from "./standard-gate";
 import { defineUseCase } from "./use-case";
 
 const noInput = z.object({}).default({});
@@ -216,7 +216,19 @@ export const saveDraft = defineUseCase({
   name: "standards.draft.save",
   permission: "templates.write-draft",
   input: saveDraftSchema,
-  prepare: async ({ source }) => checkSource(source),
+  // A source the pool could not finish checking (too slow, out of memory, pool full) is still saved:
+  // nothing the lead wrote is lost, and the reason is listed as its problem.
+  prepare: async ({ source }): Promise<SourceCheck> =>
+    checkSource(source).catch((error: unknown) => {
+      if (!(error instanceof AppError)) throw error;
+      return {
+        problems: [{ path: "", message: error.message }],
+        metadata: null,
+        verification: [],
+        hash: null,
+        verifiedWith: VERIFIED_WITH,
+      };
+    }),
   run: async ({ draftId, source }, { actor, prepared }): Promise<{ slug: string; check: SourceCheck }> => {
     const draft = await ownEditableDraft(draftId, actor);
     if (draft.source !== source) await updateDraft(draftId, { source });

@@ -137,9 +137,17 @@ export async function slugTaken(slug: string): Promise<boolean> {
   return (await getStandardBySlug(slug)) !== null;
 }
 
-export async function insertStandard(values: { slug: string; createdById: string }): Promise<{ id: string; slug: string }> {
-  const [row] = await currentDb().insert(standards).values(values).returning({ id: standards.id, slug: standards.slug });
-  return row;
+/** The new standard, or null when its slug was taken meanwhile (two leads creating the same one at once). */
+export async function insertStandard(values: {
+  slug: string;
+  createdById: string;
+}): Promise<{ id: string; slug: string } | null> {
+  const [row] = await currentDb()
+    .insert(standards)
+    .values(values)
+    .onConflictDoNothing({ target: standards.slug })
+    .returning({ id: standards.id, slug: standards.slug });
+  return row ?? null;
 }
 
 /** Locks the standard's row: publications of one standard take their numbers one at a time. */

@@ -150,11 +150,13 @@ export const createStandard = defineUseCase({
   permission: "templates.write-draft",
   input: createStandardSchema,
   run: async ({ slug, title }, { actor }) => {
-    if (await slugTaken(slug))
-      throw new AppError("conflict", `A standard called “${slug}” exists already.`, {
+    const taken = () =>
+      new AppError("conflict", `A standard called “${slug}” exists already.`, {
         fieldErrors: { slug: ["This short name is taken; open that standard and start a draft from it instead."] },
       });
+    if (await slugTaken(slug)) throw taken();
     const standard = await insertStandard({ slug, createdById: actor.id });
+    if (!standard) throw taken(); // created by someone else between the look-up and the insert
     const draft = await insertDraft({
       standardId: standard.id,
       authorId: actor.id,

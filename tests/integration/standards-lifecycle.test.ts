@@ -295,6 +295,14 @@ describe("the publication gate", () => {
         fieldErrors: { slug: [expect.stringMatching(/taken/)] },
       }),
     );
+    // Two leads creating the same short name at the same moment: one gets it, the other a 409 (never a 500).
+    const [bruno] = await leads();
+    const raced = uniqueSlug("raced");
+    const outcomes = await Promise.allSettled(
+      [alice, bruno].map((actor) => runUseCase(createStandard, { actor, input: { slug: raced, title: "Raced" } })),
+    );
+    expect(outcomes.map((o) => o.status).sort()).toEqual(["fulfilled", "rejected"]);
+    expect(outcomes.find((o) => o.status === "rejected")).toMatchObject({ reason: { code: "conflict" } });
     await expectNoChangeFrom(() =>
       expect(runUseCase(createStandard, { actor: alice, input: { slug: "Fixed_End", title: "x" } })).rejects.toMatchObject({
         code: "invalid-input",

@@ -118,18 +118,6 @@ export const readVersion = defineUseCase({
   audit: null,
 });
 
-export const readVersionById = defineUseCase({
-  name: "standards.read-version-by-id",
-  permission: "library.read",
-  input: z.object({ versionId: z.uuid("Choose a version.") }),
-  run: async ({ versionId }): Promise<VersionDto> => {
-    const version = await getVersion({ id: versionId });
-    if (!version) throw new AppError("not-found", "That version does not exist.");
-    return version;
-  },
-  audit: null,
-});
-
 export type DraftView = { draft: DraftDto; reviews: ReviewDto[]; basedOn: VersionDto | null };
 
 export const readDraft = defineUseCase({

@@ -3,7 +3,8 @@
  * names and expressions, evaluate at its defaults and at each choice to find dimension errors), and the time
  * to evaluate it with its default inputs, warm (median of many runs), and the multi-storey frame again at
  * 10 bays × 10 storeys. Target on the 2-core machine: every starting standard evaluates in under 10 ms, the
- * multi-storey frame at 10 × 10 under 30 ms.
+ * multi-storey frame at 10 × 10 under 30 ms. Run through scripts/run-bundled.mjs: bundled and minified as the
+ * evaluation bundle is (the code the pool and the browser run), not through tsx.
  */
 import { cpus, loadavg } from "node:os";
 import { compileStandard } from "../lib/standards";

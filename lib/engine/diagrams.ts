@@ -47,6 +47,11 @@ export type DiagramQuantity = (typeof DIAGRAM_QUANTITIES)[number];
 type AlwaysPresent = "N" | "V" | "M" | "deflection" | "axialDisplacement";
 type PerQuantity<T> = Record<AlwaysPresent, T> & Partial<Record<Exclude<DiagramQuantity, AlwaysPresent>, T>>;
 export type DiagramValues = PerQuantity<number>;
+export interface SectionForces {
+  readonly N: number;
+  readonly V: number;
+  readonly M: number;
+}
 export interface MinMax {
   readonly max: Extreme;
   readonly min: Extreme;
@@ -131,9 +136,10 @@ function statics(f0: number, f1: number, f2: number, pieces: ReturnType<typeof l
   return { N, V, M };
 }
 
-function buildDiagram(ctx: AnalysisContext, result: AnalysisResult, memberId: string, resultId: string) {
+/** The member's span loads under a result and N, V, M along it, from statics alone. */
+function buildStatics(ctx: AnalysisContext, result: AnalysisResult, memberId: string, resultId: string, caller: string) {
   const m = ctx.memberIndex.get(memberId);
-  if (m === undefined) throw new Error(`memberDiagram: no member "${memberId}"`);
+  if (m === undefined) throw new Error(`${caller}: no member "${memberId}"`);
   const p: PreparedMember = ctx.members[m];
   const r = resultFor(result, resultId);
   const L = p.frame.length;
@@ -141,7 +147,11 @@ function buildDiagram(ctx: AnalysisContext, result: AnalysisResult, memberId: st
   const breaks = breaksOf(loads, L);
   const pieces = loadPieces(loads, breaks);
   const f = r.endForces.subarray(6 * m, 6 * m + 6);
-  const { N, V, M } = statics(f[0], f[1], f[2], pieces, breaks);
+  return { m, p, r, L, loads, breaks, pieces, ...statics(f[0], f[1], f[2], pieces, breaks) };
+}
+
+function buildDiagram(ctx: AnalysisContext, result: AnalysisResult, memberId: string, resultId: string) {
+  const { m, p, r, L, loads, breaks, pieces, N, V, M } = buildStatics(ctx, result, memberId, resultId, "memberDiagram");
 
   // End displacements in local axes, with the rotations of released ends recovered by condensation.
   const g = memberDofs(p);
@@ -239,6 +249,47 @@ export function memberDiagram(
   for (const q of quantities) sampled[q] = xs.map((s) => evaluate(pieceByQuantity[q]!, s.x, s.side));
   const samples = { x: xs.map((s) => s.x), ...sampled } as MemberDiagram["samples"];
   return Object.freeze({ memberId, resultId: caseOrCombo, length: L, quantities, valueAt, extremes, samples });
+}
+
+/** N, V and M along a member: what a design check at each section reads, without the displacements. */
+export interface MemberForces {
+  readonly memberId: string;
+  readonly resultId: string;
+  readonly length: number;
+  /** N, V and M at x (m from the start node); at a point load or couple, the value just beyond it. */
+  forcesAt(x: number, side?: "left" | "right"): SectionForces;
+  /** Max and min of N, V and M over the member, with where they occur. */
+  readonly extremes: Readonly<Record<"N" | "V" | "M", MinMax>>;
+  /** The same sampled positions as the member's diagram, and N, V, M there. */
+  readonly samples: { readonly x: ReadonlyArray<number> } & Readonly<Record<"N" | "V" | "M", ReadonlyArray<number>>>;
+}
+
+/**
+ * The section forces of `memberDiagram` alone: the same statics, samples and exact extremes, without the
+ * end displacements, the condensation of released ends and the particular solutions the deflections need.
+ * A check over every section of every member of a large frame under every combination builds thousands.
+ */
+export function memberForces(
+  result: AnalysisResult,
+  memberId: string,
+  caseOrCombo: string,
+  options: DiagramOptions = {},
+): MemberForces {
+  const { L, breaks, N, V, M } = buildStatics(contextOf(result), result, memberId, caseOrCombo, "memberForces");
+  const forcesAt = (x: number, side: "left" | "right" = "right"): SectionForces => {
+    const xc = Math.min(Math.max(x, 0), L);
+    return { N: evaluate(N, xc, side), V: evaluate(V, xc, side), M: evaluate(M, xc, side) };
+  };
+  const xs = samplePositions(L, breaks, options.points ?? 21);
+  const sample = (pp: Piecewise) => xs.map((s) => evaluate(pp, s.x, s.side));
+  return Object.freeze({
+    memberId,
+    resultId: caseOrCombo,
+    length: L,
+    forcesAt,
+    extremes: { N: extrema(N), V: extrema(V), M: extrema(M) },
+    samples: { x: xs.map((s) => s.x), N: sample(N), V: sample(V), M: sample(M) },
+  });
 }
 
 export function samplePositions(L: number, breaks: Float64Array, points: number): { x: number; side: "left" | "right" }[] {

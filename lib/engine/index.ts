@@ -14,11 +14,14 @@ export * from "./access";
 export {
   memberDiagram,
   memberEnvelope,
+  memberForces,
   DIAGRAM_QUANTITIES,
   type DiagramQuantity,
   type DiagramValues,
   type MemberDiagram,
   type MemberEnvelope,
+  type MemberForces,
+  type SectionForces,
   type DiagramOptions,
 } from "./diagrams";
 export type { Extreme } from "./piecewise";

@@ -84,20 +84,41 @@ export function runCheck(view: ResultsView | null, definition: CheckDefinition, 
   let best: { utilisation: number; member: string; under: string; x: number; side: "left" | "right" } | null = null;
   let dimensionsChecked = false;
   let sections = 0;
+  // One section record and one scope, refilled at each section: tens of thousands of sections in a large frame,
+  // and allocating for each one made the collector the largest cost.
+  const section: Record<(typeof SECTION_NAMES)[number], number> = {
+    N: 0,
+    V: 0,
+    M: 0,
+    x: 0,
+    L_member: 0,
+    E_member: 0,
+    A_member: 0,
+    I_member: 0,
+  };
+  const local: SiScope = {
+    get: (name) => (Object.hasOwn(section, name) ? section[name as keyof typeof section] : siScope.get(name)),
+  };
+  const propertiesOf = memberPropertiesOf(view);
+  // A side that names nothing of the section (a capacity such as `M_bm`, or `1`) is the same at every section.
+  const bySection = (e: NumericExpression) => e.names.some((name) => (SECTION_NAMES as ReadonlyArray<string>).includes(name));
+  const fixedDemand = bySection(numericDemand) ? null : numericValue(numericDemand, local, path, "demand");
+  const fixedCapacity = bySection(numericCapacity) ? null : numericValue(numericCapacity, local, path, "capacity");
   for (const member of members) {
-    const props = memberProperties(view, member);
+    const props = propertiesOf(member);
+    section.E_member = props.E;
+    section.A_member = props.A;
+    section.I_member = props.I ?? 0;
     for (const under of unders) {
-      const d = view.diagram(member, under);
-      const xs: { x: number; side: "left" | "right" }[] = d.samples.x.map((x, k, all) => ({
-        x,
-        side: k > 0 && all[k - 1] === x ? "right" : k + 1 < all.length && all[k + 1] === x ? "left" : "right",
-      }));
-      for (const q of ["N", "V", "M"] as const)
-        for (const e of [d.extremes[q].max, d.extremes[q].min]) xs.push({ x: e.x, side: "left" }, { x: e.x, side: "right" });
-      for (const { x, side } of xs) {
-        const f = d.valueAt(x, side);
+      const d = view.forces(member, under);
+      section.L_member = d.length;
+      const at = (x: number, side: "left" | "right", N: number, V: number, M: number) => {
+        section.N = N;
+        section.V = V;
+        section.M = M;
+        section.x = x;
         if (!dimensionsChecked) {
-          const withUnits = sectionScope(scope, f, x, d.length, props);
+          const withUnits = sectionScope(scope, { N, V, M }, x, d.length, props);
           utilisationOf(
             definition,
             evaluateAt(definition.demand, withUnits, [...path, "demand"]),
@@ -106,31 +127,31 @@ export function runCheck(view: ResultsView | null, definition: CheckDefinition, 
           );
           dimensionsChecked = true;
         }
-        // The section's own names over the standard's, without copying the standard's scope each time.
-        const section: Record<(typeof SECTION_NAMES)[number], number> = {
-          N: f.N,
-          V: f.V,
-          M: f.M,
-          x,
-          L_member: d.length,
-          E_member: props.E,
-          A_member: props.A,
-          I_member: props.I ?? 0,
-        };
-        const local: SiScope = {
-          get: (name) => (Object.hasOwn(section, name) ? section[name as keyof typeof section] : siScope.get(name)),
-        };
-        const demand = numericValue(numericDemand, local, [...path, "demand"]);
-        const capacity = numericValue(numericCapacity, local, [...path, "capacity"]);
+        const demand = fixedDemand ?? numericValue(numericDemand, local, path, "demand");
+        const capacity = fixedCapacity ?? numericValue(numericCapacity, local, path, "capacity");
         const utilisation = utilisationOf(definition, demand, capacity, path);
         sections++;
         if (best === null || utilisation > best.utilisation) best = { utilisation, member, under, x, side };
+      };
+      // The sampled sections (both sides of each load discontinuity among them), read from the diagram's samples.
+      const { x: xs, N, V, M } = d.samples;
+      for (let k = 0; k < xs.length; k++) {
+        const side = k > 0 && xs[k - 1] === xs[k] ? "right" : k + 1 < xs.length && xs[k + 1] === xs[k] ? "left" : "right";
+        at(xs[k], side, N[k], V[k], M[k]);
       }
+      // Both sides of the exact extremes of N, V and M, unless already sampled there (the ends, a load's edge).
+      for (const q of ["N", "V", "M"] as const)
+        for (const e of [d.extremes[q].max, d.extremes[q].min])
+          if (!xs.includes(e.x))
+            for (const side of ["left", "right"] as const) {
+              const f = d.forcesAt(e.x, side);
+              at(e.x, side, f.N, f.V, f.M);
+            }
     }
   }
   const g = best!;
-  const d = view.diagram(g.member, g.under);
-  const withUnits = sectionScope(scope, d.valueAt(g.x, g.side), g.x, d.length, memberProperties(view, g.member));
+  const d = view.forces(g.member, g.under);
+  const withUnits = sectionScope(scope, d.forcesAt(g.x, g.side), g.x, d.length, propertiesOf(g.member));
   const demand = evaluateAt(definition.demand, withUnits, [...path, "demand"]);
   const capacity = evaluateAt(definition.capacity, withUnits, [...path, "capacity"]);
   const utilisation = utilisationOf(definition, demand, capacity, path);
@@ -173,17 +194,21 @@ function numeric(source: string, known: ReadonlySet<string>, path: PropertyKey[]
   }
 }
 
-function numericValue(expression: NumericExpression, scope: SiScope, path: PropertyKey[]): Value {
+function numericValue(expression: NumericExpression, scope: SiScope, path: PropertyKey[], part: "demand" | "capacity"): Value {
   try {
     return expression.evaluate(scope);
   } catch (error) {
-    if (error instanceof ExpressionError) throw new GenerateError(path, error.message);
+    if (error instanceof ExpressionError) throw new GenerateError([...path, part], error.message);
     throw error;
   }
 }
 
-function memberProperties(view: ResultsView, member: string): { E: number; A: number; I?: number } {
-  const m = view.model.members?.find((candidate) => candidate.id === member);
-  if (!m) throw new Error(`no member ${member}`);
-  return { E: m.E, A: m.A, ...(m.I !== undefined ? { I: m.I } : {}) };
+/** A look-up of members' E, A and I by id (the model's list, indexed once per check). */
+function memberPropertiesOf(view: ResultsView): (member: string) => { E: number; A: number; I?: number } {
+  const byId = new Map((view.model.members ?? []).map((m) => [m.id, m]));
+  return (member) => {
+    const m = byId.get(member);
+    if (!m) throw new Error(`no member ${member}`);
+    return { E: m.E, A: m.A, ...(m.I !== undefined ? { I: m.I } : {}) };
+  };
 }

@@ -226,8 +226,8 @@ function runCompiled(
   code: { evaluate(scope: Map<string, unknown>): unknown },
   names: ReadonlyArray<string>,
   scope: { get(name: string): unknown },
+  own = new Map<string, unknown>(),
 ): Value {
-  const own = new Map<string, unknown>();
   for (const name of names) {
     const value = scope.get(name);
     if (value === undefined) throw new ExpressionError(source, `\`${name}\` has no value here`);
@@ -299,10 +299,13 @@ export function compileNumeric(source: string, known: KnownNames): NumericExpres
     return new math.ConstantNode(math.unit(1, name).toSI().toNumber() as number);
   });
   const code = numeric.compile();
+  // One map for the expression's names, refilled on each call (every name is set before the expression runs):
+  // a check over every section of a large frame calls this tens of thousands of times.
+  const own = new Map<string, unknown>();
   const compiled: NumericExpression = {
     names,
     evaluate(scope) {
-      const value = runCompiled(source, code, names, scope);
+      const value = runCompiled(source, code, names, scope, own);
       if (math.isUnit(value)) throw new ExpressionError(source, "a unit was left in the numeric form");
       return value as SiValue;
     },

@@ -5,11 +5,13 @@
  */
 import {
   memberDiagram,
+  memberForces,
   nodeDisplacement,
   nodeReaction,
   type AnalysisResult,
   type DiagramQuantity,
   type MemberDiagram,
+  type MemberForces,
   type ModelInput,
 } from "@/lib/engine";
 import type { ExtractDefinition } from "./definition";
@@ -64,6 +66,8 @@ export interface ResultsView {
   readonly groups: ReadonlyMap<string, ReadonlyArray<string>>;
   /** Diagrams are built once per member and result. */
   diagram(member: string, under: string): MemberDiagram;
+  /** N, V and M alone (no displacements), built once per member and result: what a check at each section reads. */
+  forces(member: string, under: string): MemberForces;
 }
 
 export function resultsView(
@@ -71,20 +75,26 @@ export function resultsView(
   result: AnalysisResult,
   groups: ReadonlyMap<string, ReadonlyArray<string>>,
 ): ResultsView {
-  const cache = new Map<string, MemberDiagram>();
   return {
     model,
     result,
     groups,
-    diagram(member, under) {
-      const key = `${member}\u0000${under}`;
-      let d = cache.get(key);
-      if (!d) {
-        d = memberDiagram(result, member, under);
-        cache.set(key, d);
-      }
-      return d;
-    },
+    diagram: perMemberAndResult((member, under) => memberDiagram(result, member, under)),
+    forces: perMemberAndResult((member, under) => memberForces(result, member, under)),
+  };
+}
+
+/** `build`, called once per member and result and then answered from memory. */
+function perMemberAndResult<T>(build: (member: string, under: string) => T): (member: string, under: string) => T {
+  const cache = new Map<string, T>();
+  return (member, under) => {
+    const key = `${member}\u0000${under}`;
+    let value = cache.get(key);
+    if (value === undefined) {
+      value = build(member, under);
+      cache.set(key, value);
+    }
+    return value;
   };
 }
 

@@ -83,8 +83,23 @@ export type Quantity = keyof typeof QUANTITIES;
 
 /** The SI unit of a quantity as a mathjs Unit of value 1, or null for dimensionless ones. */
 export function siUnitOf(quantity: Quantity): Unit | null {
-  const text = QUANTITIES[quantity];
-  return text === "" ? null : math.unit(`1 ${text}`);
+  return siUnitCached(quantity)?.clone() ?? null;
+}
+
+// Parsed once per quantity: parsing a unit text is the costliest step of reading a value, and a large frame's
+// model reads thousands. Never handed out (siUnitOf gives a copy), so nothing can change them.
+const siUnits = new Map<Quantity, { one: Unit | null; valueless: Unit | null }>();
+function siUnitsOf(quantity: Quantity) {
+  let hit = siUnits.get(quantity);
+  if (!hit) {
+    const text = QUANTITIES[quantity];
+    hit = text === "" ? { one: null, valueless: null } : { one: math.unit(`1 ${text}`), valueless: math.unit(text) };
+    siUnits.set(quantity, hit);
+  }
+  return hit;
+}
+function siUnitCached(quantity: Quantity): Unit | null {
+  return siUnitsOf(quantity).one;
 }
 
 /** Whether a unit text names only trade units (with powers, products and quotients). */
@@ -110,7 +125,7 @@ export function isUnit(value: unknown): value is Unit {
 
 /** Does a value have the dimension of a quantity? Dimensionless quantities take plain numbers (and unitless Units). */
 export function hasDimensionOf(value: Value, quantity: Quantity): boolean {
-  const si = siUnitOf(quantity);
+  const si = siUnitCached(quantity);
   if (typeof value === "string" || typeof value === "boolean") return false;
   if (!isUnit(value)) return si === null;
   if (si === null) return value.dimensions.every((d) => d === 0);
@@ -121,8 +136,8 @@ export function hasDimensionOf(value: Value, quantity: Quantity): boolean {
 export function toSI(value: Value, quantity: Quantity): number {
   if (typeof value === "number") return value;
   if (!isUnit(value)) throw new Error(`not a number: ${String(value)}`);
-  const si = QUANTITIES[quantity];
-  return si === "" ? (value.toNumber() as number) : value.toNumber(si);
+  const si = siUnitsOf(quantity).valueless;
+  return si === null ? (value.toNumber() as number) : (value.toNumber(si as unknown as string) as number);
 }
 
 /** A plain SI number of a quantity as a mathjs value (a Unit, or the number for dimensionless ones). */

@@ -39,7 +39,7 @@ describe("a simply supported beam under uniform load", () => {
     expect(e.identity).toEqual({
       engine: expect.stringMatching(/^\d+\.\d+\.\d+$/),
       engineSourceHash: expect.stringMatching(/^[0-9a-f]{64}$/),
-      evaluation: "0.1.0",
+      evaluation: "0.2.0",
     });
   });
 

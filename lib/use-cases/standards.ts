@@ -421,6 +421,24 @@ export const withdrawVersion = defineUseCase({
 export type DraftPreviewData =
   { ok: true; definition: Definition; narrative: string; evaluation: Evaluation } | { ok: false; message: string };
 
+/** A source evaluated at its default inputs, in the evaluation pool, for a preview. */
+async function previewOf(source: string, which: "saved draft" | "text"): Promise<DraftPreviewData> {
+  const notYet = `The preview appears once the ${which} compiles.`;
+  const read = parseSource(source);
+  const definition = read.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
+  if (!read.ok || !definition?.success) return { ok: false, message: notYet };
+  const evaluated = await evaluationPool().evaluate(source);
+  if (!evaluated.ok) return { ok: false, message: evaluated.message };
+  if (!evaluated.result.ok) return { ok: false, message: notYet };
+  if (!evaluated.result.outcome.ok) return { ok: false, message: "The default inputs could not be evaluated." };
+  return {
+    ok: true,
+    definition: definition.data,
+    narrative: read.parsed.narrative,
+    evaluation: evaluated.result.outcome.evaluation,
+  };
+}
+
 /** The draft evaluated at its default inputs, in the evaluation pool, for the editor's preview. */
 export const previewDraft = defineUseCase({
   name: "standards.draft.preview",
@@ -429,21 +447,28 @@ export const previewDraft = defineUseCase({
   prepare: async ({ draftId }): Promise<DraftPreviewData> => {
     const draft = await getDraft(draftId);
     if (!draft) throw new AppError("not-found", "That draft does not exist.");
-    const read = parseSource(draft.source);
-    const definition = read.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
-    if (!read.ok || !definition?.success) return { ok: false, message: "The preview appears once the saved draft compiles." };
-    const evaluated = await evaluationPool().evaluate(draft.source);
-    if (!evaluated.ok) return { ok: false, message: evaluated.message };
-    if (!evaluated.result.ok) return { ok: false, message: "The preview appears once the saved draft compiles." };
-    if (!evaluated.result.outcome.ok) return { ok: false, message: "The default inputs could not be evaluated." };
-    return {
-      ok: true,
-      definition: definition.data,
-      narrative: read.parsed.narrative,
-      evaluation: evaluated.result.outcome.evaluation,
-    };
+    return previewOf(draft.source, "saved draft");
   },
   run: async (_, { prepared }) => prepared,
+  audit: null,
+});
+
+/**
+ * What the author has typed and not saved: its problems, its verification cases and the preview at the default
+ * inputs, for the editor to follow the typing. Nothing is stored; only the draft's author may ask.
+ */
+export const previewSource = defineUseCase({
+  name: "standards.draft.preview-text",
+  permission: "templates.write-draft",
+  input: saveDraftSchema,
+  prepare: async ({ source }): Promise<{ check: SourceCheck; preview: DraftPreviewData | null }> => {
+    const check = await checkSource(source);
+    return { check, preview: check.problems.length === 0 ? await previewOf(source, "text") : null };
+  },
+  run: async ({ draftId }, { actor, prepared }) => {
+    await ownEditableDraft(draftId, actor);
+    return prepared;
+  },
   audit: null,
 });
 

@@ -257,6 +257,7 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/standards/actions.ts#createStandardAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#startDraftAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#saveDraftAction": leadsOnlyAction(),
+  "app/(app)/standards/actions.ts#previewSourceAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#submitDraftAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#discardDraftAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#returnDraftAction": leadsOnlyAction(),

@@ -75,7 +75,15 @@ it(
 
     await appendToSource(author, "\nThe bending check governs for this member.\n");
     expect(await author.getByTestId("draft-save-state").textContent()).toBe("Unsaved changes");
+    // The preview follows the typing: a moment later it shows the new sentence, from the text not yet saved.
+    const live = author.getByTestId("live-preview");
+    await expect
+      .poll(() => live.getByTestId("live-preview-state").textContent(), { timeout: 20_000 })
+      .toBe("Up to date with the editor.");
+    expect(await live.textContent()).toContain("The bending check governs for this member.");
+    expect(await author.getByTestId("draft-preview").count()).toBe(0);
     await saveDraft(author);
+    await preview.waitFor();
     await submitDraft(author, "First version.");
 
     // The second lead finds it waiting and returns it with a comment on line 5 (the summary).

@@ -102,6 +102,7 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/standards/actions.ts#createStandardAction": LEADS_ONLY,
   "app/(app)/standards/actions.ts#startDraftAction": LEADS_ONLY,
   "app/(app)/standards/actions.ts#saveDraftAction": LEADS_ONLY,
+  "app/(app)/standards/actions.ts#previewSourceAction": LEADS_ONLY,
   "app/(app)/standards/actions.ts#submitDraftAction": LEADS_ONLY,
   "app/(app)/standards/actions.ts#discardDraftAction": LEADS_ONLY,
   "app/(app)/standards/actions.ts#returnDraftAction": LEADS_ONLY,

@@ -14,6 +14,7 @@ import {
   createStandard,
   discardDraft,
   listStandards,
+  previewSource,
   readDraft,
   readStandard,
   readVersion,
@@ -248,6 +249,38 @@ describe("a standard from first draft to withdrawal", () => {
       [2, "superseded"],
       [1, "superseded"],
     ]);
+  });
+});
+
+describe("the editor's preview of text not yet saved", () => {
+  it("answers the author with the text's problems, or its preview at the default inputs, and stores nothing", async () => {
+    const [alice, bruno] = await leads();
+    const { draftId } = await runUseCase(createStandard, {
+      actor: alice,
+      input: { slug: uniqueSlug("preview"), title: "Preview beam" },
+    });
+    const broken = starterSource("Preview beam").replace('expr: "0.9 * F_y * Z_x"', 'expr: "0.9 * F_y + Z_x"');
+
+    await expectNoChangeFrom(async () => {
+      const withProblems = await runUseCase(previewSource, { actor: alice, input: { draftId, source: broken } });
+      expect(withProblems.preview).toBeNull();
+      expect(withProblems.check.problems[0]).toMatchObject({ path: "derived.phi_M_n.expr", line: expect.any(Number) });
+
+      const retitled = starterSource("Preview beam, typed");
+      const good = await runUseCase(previewSource, { actor: alice, input: { draftId, source: retitled } });
+      expect(good.check.problems).toEqual([]);
+      expect(good.preview).toMatchObject({ ok: true, definition: { title: "Preview beam, typed" } });
+      if (!good.preview?.ok) throw new Error("no preview");
+      expect(Object.keys(good.preview.evaluation.checks).length).toBeGreaterThan(0);
+      expect(good.check.verification.length).toBeGreaterThan(0);
+    });
+
+    // Another lead may not use someone else's draft to preview text (and nothing changes either).
+    await expectNoChangeFrom(() =>
+      expect(
+        runUseCase(previewSource, { actor: bruno, input: { draftId, source: starterSource("Preview beam") } }),
+      ).rejects.toMatchObject({ code: "forbidden", message: expect.stringMatching(/Only the draft's author edits it/) }),
+    );
   });
 });
 

@@ -247,6 +247,17 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
       },
     };
   },
+  "app/(app)/standards/actions.ts#previewSourceAction": async () => {
+    const { draftId } = await otherLeadsDraft({ submit: false });
+    const before = await draftRow(draftId);
+    return {
+      input: { draftId, source: "previewed by someone else" },
+      succeeded: async (answer) => {
+        notTheAuthor(answer);
+        expect(await draftRow(draftId)).toEqual(before);
+      },
+    };
+  },
   "app/(app)/standards/actions.ts#submitDraftAction": async () => {
     const { draftId } = await otherLeadsDraft({ submit: false });
     return {

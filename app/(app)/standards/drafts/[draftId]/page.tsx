@@ -35,6 +35,8 @@ export default async function DraftPage({ params }: PageProps<"/standards/drafts
     if (error instanceof AppError) return { failure: error.message };
     throw error;
   });
+  const editing = draft.state === "editing" && mine;
+  const savedPreview = <DraftPreview actor={actor} draftId={draft.id} check={"failure" in check ? null : check} />;
   const state =
     draft.state === "in-review"
       ? "In review"
@@ -58,8 +60,9 @@ export default async function DraftPage({ params }: PageProps<"/standards/drafts
           </>
         }
       />
-      {draft.state === "editing" && mine ? (
+      {editing ? (
         <DraftEditor
+          savedPreview={savedPreview}
           draftId={draft.id}
           source={draft.source}
           problems={"failure" in check ? [] : check.problems}
@@ -89,7 +92,7 @@ export default async function DraftPage({ params }: PageProps<"/standards/drafts
         </section>
       ) : null}
       <ReviewHistory reviews={reviews} />
-      <DraftPreview actor={actor} draftId={draft.id} check={"failure" in check ? null : check} />
+      {editing ? null : savedPreview}
     </>
   );
 }

@@ -1,16 +1,26 @@
 "use client";
 // The author's editor: the source in CodeMirror with its problems at their lines, Save (always possible,
 // problems and all), then Submit with a changelog line once the saved source passes the gate. The preview
-// below the editor is rendered by the server from the saved source.
+// below follows the typing: a moment after the text stops changing, the server checks it and renders its
+// preview (previewSourceAction; nothing is stored), and the problems move to their lines in the editor. With
+// no unsaved changes it shows the saved draft's preview, rendered with the page.
 import dynamic from "next/dynamic";
-import { startTransition, useActionState, useState } from "react";
+import { startTransition, useActionState, useEffect, useRef, useState, type ReactNode } from "react";
 import type { SourceProblem } from "@/lib/standards/source";
 import type { VerificationResult } from "@/lib/standards/verify";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { FormError, Notice } from "@/components/ui/notice";
 import { actionErrors } from "@/components/action-errors";
-import { discardDraftAction, saveDraftAction, submitDraftAction } from "../../../actions";
+import { discardDraftAction, previewSourceAction, saveDraftAction, submitDraftAction } from "../../../actions";
+
+/** How long the text must rest before it is checked and previewed. */
+const PREVIEW_PAUSE_MS = 700;
+
+type LivePreview =
+  | { text: string; state: "checking" }
+  | { text: string; state: "ready"; problems: SourceProblem[]; preview: ReactNode }
+  | { text: string; state: "failed"; message: string };
 
 // CodeMirror stays out of the page's first load; the textarea-sized box holds its place.
 const SourceEditor = dynamic(() => import("@/components/standards/source-editor").then((m) => m.SourceEditor), {
@@ -25,7 +35,10 @@ export function DraftEditor({
   gate,
   verification,
   commentLines,
+  savedPreview,
 }: {
+  /** The saved draft's preview, rendered with the page. */
+  savedPreview: ReactNode;
   draftId: string;
   source: string;
   problems: SourceProblem[];
@@ -43,6 +56,9 @@ export function DraftEditor({
   const shownProblems = saveState?.ok ? saveState.data.check.problems : problems;
 
   const dirty = text !== saved;
+  const live = useLivePreview(draftId, text, dirty);
+  // While the text differs from the saved draft, its own problems once checked (none until then).
+  const editorProblems = dirty ? (live?.text === text && live.state === "ready" ? live.problems : []) : shownProblems;
   const failing = verification.filter((result) => !result.pass);
   const submitErrors = actionErrors(submitState, ["changelog"]);
   const ready = !dirty && shownProblems.length === 0 && gate.length === 0 && failing.length === 0 && verification.length > 0;
@@ -55,7 +71,7 @@ export function DraftEditor({
       <SourceEditor
         value={text}
         onChange={setText}
-        problems={dirty ? [] : shownProblems}
+        problems={editorProblems}
         highlightLines={commentLines}
         ariaLabel="The standard's source: definition and narrative"
       />
@@ -152,6 +168,58 @@ export function DraftEditor({
           </div>
         ) : null}
       </form>
+      {dirty && live ? (
+        <section
+          aria-labelledby="live-preview-heading"
+          className="mt-10"
+          data-testid="live-preview"
+          aria-busy={live.text !== text || live.state === "checking"}
+        >
+          <h2 id="live-preview-heading" className="mb-3 text-lg font-semibold text-ink-900">
+            Preview of the text in the editor (not saved), at the default inputs
+          </h2>
+          <p className="mb-3 text-sm text-ink-500" aria-live="polite" data-testid="live-preview-state">
+            {live.text !== text || live.state === "checking"
+              ? "Checking the latest changes…"
+              : live.state === "failed"
+                ? live.message
+                : live.problems.length > 0
+                  ? `${live.problems.length} problem${live.problems.length === 1 ? "" : "s"}, marked in the editor.`
+                  : "Up to date with the editor."}
+          </p>
+          {live.state === "ready" ? live.preview : null}
+        </section>
+      ) : (
+        savedPreview
+      )}
     </section>
   );
+}
+
+/**
+ * Checks and previews `text` on the server once it has rested for PREVIEW_PAUSE_MS; only the answer for the
+ * latest request is kept, so a slow answer never replaces a newer one.
+ */
+function useLivePreview(draftId: string, text: string, dirty: boolean): LivePreview | null {
+  const [live, setLive] = useState<LivePreview | null>(null);
+  const latest = useRef(0);
+  useEffect(() => {
+    if (!dirty) return;
+    const request = ++latest.current;
+    const timer = window.setTimeout(() => {
+      setLive((previous) => (previous?.state === "ready" ? previous : { text, state: "checking" }));
+      previewSourceAction(null, { draftId, source: text })
+        .then((answer) => {
+          if (request !== latest.current) return;
+          if (answer?.ok) setLive({ text, state: "ready", problems: answer.data.problems, preview: answer.data.preview });
+          else setLive({ text, state: "failed", message: answer?.error.message ?? "The preview could not be made." });
+        })
+        .catch(() => {
+          if (request === latest.current)
+            setLive({ text, state: "failed", message: "The preview could not be made: the server did not answer." });
+        });
+    }, PREVIEW_PAUSE_MS);
+    return () => window.clearTimeout(timer);
+  }, [draftId, text, dirty]);
+  return dirty ? live : null;
 }

@@ -1,11 +1,11 @@
 import "server-only";
-// The saved draft as its version page would show it, at the default inputs: the model, the narrative with
-// its equations, the checks and the verification cases. The evaluation runs in the evaluation pool
-// (previewDraft), so a runaway draft is stopped there.
+// A draft as its version page would show it, at the default inputs: the model, the narrative with its
+// equations, the checks and the verification cases. The evaluation runs in the evaluation pool (previewDraft
+// for the saved source, previewSource for the text being typed), so a runaway draft is stopped there.
 import type { Actor } from "@/lib/domain/actor";
 import type { SourceCheck } from "@/lib/use-cases/standard-gate";
 import { runUseCase } from "@/lib/use-cases/run";
-import { previewDraft } from "@/lib/use-cases/standards";
+import { previewDraft, type DraftPreviewData } from "@/lib/use-cases/standards";
 import { NarrativeView } from "@/components/standards/narrative-view";
 import { ModelDrawing } from "@/components/standards/model-drawing";
 import { CheckLine } from "@/components/standards/check-line";
@@ -13,22 +13,42 @@ import { Caution } from "@/components/standards/caution";
 import { Badge } from "@/components/ui/badge";
 
 export async function DraftPreview({ actor, draftId, check }: { actor: Actor; draftId: string; check: SourceCheck | null }) {
-  const body = await previewBody(actor, draftId, check);
+  const preview = check && check.problems.length === 0 ? await runUseCase(previewDraft, { actor, input: { draftId } }) : null;
   return (
-    <section aria-labelledby="preview-heading" className="mt-10" data-testid="draft-preview">
-      <h2 id="preview-heading" className="mb-3 text-lg font-semibold text-ink-900">
-        Preview of the saved draft, at the default inputs
+    <PreviewSection title="Preview of the saved draft, at the default inputs" testId="draft-preview">
+      <PreviewContent check={check} preview={preview} which="saved draft" />
+    </PreviewSection>
+  );
+}
+
+export function PreviewSection({ title, testId, children }: { title: string; testId: string; children: React.ReactNode }) {
+  return (
+    <section aria-labelledby={`${testId}-heading`} className="mt-10" data-testid={testId}>
+      <h2 id={`${testId}-heading`} className="mb-3 text-lg font-semibold text-ink-900">
+        {title}
       </h2>
-      {body}
+      {children}
     </section>
   );
 }
 
-async function previewBody(actor: Actor, draftId: string, check: SourceCheck | null) {
-  if (!check) return <p className="text-ink-700">The preview is not available: checking the draft took too long.</p>;
-  if (check.problems.length > 0)
-    return <p className="text-ink-700">The preview appears once the saved draft compiles (fix the problems listed above).</p>;
-  const preview = await runUseCase(previewDraft, { actor, input: { draftId } });
+/** The preview of a checked source: `check` null when checking it took too long, `preview` null while it has problems. */
+export function PreviewContent({
+  check,
+  preview,
+  which,
+}: {
+  check: SourceCheck | null;
+  preview: DraftPreviewData | null;
+  which: "saved draft" | "text";
+}) {
+  if (!check) return <p className="text-ink-700">The preview is not available: checking the {which} took too long.</p>;
+  if (check.problems.length > 0 || !preview)
+    return (
+      <p className="text-ink-700">
+        The preview appears once the {which} compiles (fix the problems listed {which === "text" ? "in the editor" : "above"}).
+      </p>
+    );
   if (!preview.ok) return <p className="text-ink-700">{preview.message}</p>;
   const { definition, narrative, evaluation } = preview;
   return (

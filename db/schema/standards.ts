@@ -10,6 +10,8 @@
 //                             number (append-only: the database refuses UPDATE and DELETE for everyone)
 //   standard_version_events   published, superseded, withdrawn (append-only); a version's status is its
 //                             latest event, so nothing published is ever updated
+//   standard_attachments      files a standard's verification cases cite (hand calculations), stored in S3
+//                             under their sha256 (append-only: a published version's evidence never goes)
 //
 // The append-only triggers are in drizzle/0005_standards.sql (custom part); scripts/lib/app-privileges.ts
 // gives the app's role only SELECT and INSERT on tables with such a trigger.
@@ -186,3 +188,33 @@ export const standardVersionEvents = pgTable(
   ],
 );
 export type StandardVersionEvent = typeof standardVersionEvents.$inferSelect;
+
+/** Accepted for hand calculations: what a checker scans or exports. */
+export const ATTACHMENT_TYPES = ["application/pdf", "image/png", "image/jpeg"] as const;
+export type AttachmentType = (typeof ATTACHMENT_TYPES)[number];
+
+export const standardAttachments = pgTable(
+  "standard_attachments",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    standardId: uuid("standard_id")
+      .notNull()
+      .references(() => standards.id),
+    /** sha256 (hex) of the file's bytes; its S3 key is standards/hand-calculations/<sha256>. */
+    sha256: text("sha256").notNull(),
+    fileName: text("file_name").notNull(),
+    contentType: text("content_type", { enum: ATTACHMENT_TYPES }).notNull(),
+    bytes: integer("bytes").notNull(),
+    uploadedById: text("uploaded_by_id")
+      .notNull()
+      .references(() => user.id),
+    uploadedAt: timestamp("uploaded_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    unique("standard_attachments_standard_sha256_unique").on(t.standardId, t.sha256),
+    check("standard_attachments_sha256_check", sql`${t.sha256} ~ '^[0-9a-f]{64}$'`),
+    check("standard_attachments_bytes_check", sql`${t.bytes} > 0`),
+    check("standard_attachments_content_type_check", sql`${t.contentType} in ('application/pdf', 'image/png', 'image/jpeg')`),
+  ],
+);
+export type StandardAttachment = typeof standardAttachments.$inferSelect;

@@ -5,6 +5,7 @@ import "server-only";
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import {
+  standardAttachments,
   standardDrafts,
   standardReviewComments,
   standardReviews,
@@ -12,6 +13,7 @@ import {
   standardVersionEvents,
   standardVersions,
   user,
+  type AttachmentType,
   type DraftState,
   type ReviewOutcome,
   type StandardDraft,
@@ -401,4 +403,59 @@ export async function listReviews(draftId: string): Promise<ReviewDto[]> {
       .filter((comment) => comment.reviewId === row.id)
       .map(({ reviewId: _, ...comment }) => ({ ...comment, createdAt: comment.createdAt.toISOString() })),
   }));
+}
+
+export type AttachmentDto = {
+  sha256: string;
+  fileName: string;
+  contentType: AttachmentType;
+  bytes: number;
+  uploadedByName: string;
+  uploadedAt: string;
+};
+
+/** The files attached to a standard (hand calculations its verification cases cite), oldest first. */
+export async function listAttachments(standardId: string): Promise<AttachmentDto[]> {
+  const rows = await currentDb()
+    .select({
+      sha256: standardAttachments.sha256,
+      fileName: standardAttachments.fileName,
+      contentType: standardAttachments.contentType,
+      bytes: standardAttachments.bytes,
+      uploadedByName: user.name,
+      uploadedAt: standardAttachments.uploadedAt,
+    })
+    .from(standardAttachments)
+    .innerJoin(user, eq(user.id, standardAttachments.uploadedById))
+    .where(eq(standardAttachments.standardId, standardId))
+    .orderBy(asc(standardAttachments.uploadedAt), asc(standardAttachments.sha256));
+  return rows.map((row) => ({ ...row, uploadedAt: row.uploadedAt.toISOString() }));
+}
+
+/** Attaches a file already stored under its sha256; attaching the same bytes again keeps the first row. */
+export async function insertAttachment(values: {
+  standardId: string;
+  sha256: string;
+  fileName: string;
+  contentType: AttachmentType;
+  bytes: number;
+  uploadedById: string;
+}): Promise<{ added: boolean }> {
+  const inserted = await currentDb()
+    .insert(standardAttachments)
+    .values(values)
+    .onConflictDoNothing({ target: [standardAttachments.standardId, standardAttachments.sha256] })
+    .returning({ id: standardAttachments.id });
+  return { added: inserted.length > 0 };
+}
+
+/** An attached file by its sha256 (any standard's: the bytes are the same), for download. */
+export async function getAttachment(sha256: string): Promise<{ fileName: string; contentType: AttachmentType } | null> {
+  const [row] = await currentDb()
+    .select({ fileName: standardAttachments.fileName, contentType: standardAttachments.contentType })
+    .from(standardAttachments)
+    .where(eq(standardAttachments.sha256, sha256))
+    .orderBy(asc(standardAttachments.uploadedAt))
+    .limit(1);
+  return row ?? null;
 }

@@ -33,6 +33,8 @@ export type AuditDetails = {
   "standards.draft.start": { slug: string; fromVersion: number };
   "standards.draft.save": { slug: string; hash: string | null; problems: number };
   "standards.draft.discard": { slug: string };
+  /** A hand calculation attached to a standard, for its verification cases to cite by sha256. */
+  "standards.attachment.add": { slug: string; sha256: string; fileName: string; bytes: number };
   "standards.draft.submit": { slug: string; round: number; changelog: string; hash: string };
   "standards.draft.return": { slug: string; round: number; comments: number; authorName: string };
   "standards.publish": {
@@ -73,6 +75,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "standards.draft.start": "Started a draft from a version",
   "standards.draft.save": "Saved a draft",
   "standards.draft.discard": "Discarded a draft",
+  "standards.attachment.add": "Attached a hand calculation",
   "standards.draft.submit": "Submitted a draft for review",
   "standards.draft.return": "Returned a draft with comments",
   "standards.publish": "Approved and published a version",

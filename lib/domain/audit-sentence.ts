@@ -166,6 +166,8 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
     }
     case "standards.draft.discard":
       return [actor, ` discarded a draft of ${text(d.slug) ?? "a standard"}`];
+    case "standards.attachment.add":
+      return [actor, ` attached the hand calculation ${text(d.fileName) ?? "a file"} to ${text(d.slug) ?? "a standard"}`];
     case "standards.draft.submit":
       return [actor, ` submitted ${text(d.slug) ?? "a standard"} for review: “${text(d.changelog) ?? ""}”`];
     case "standards.draft.return": {

@@ -209,6 +209,19 @@ export const VerificationSchema = z
     expect: z.record(z.string(), z.object({ value: expr, tolerance: z.number().positive().max(0.5) }).strict()),
     /** Where the expected values come from: title, edition, table or equation; "from memory" where recalled. */
     source: text,
+    /**
+     * Expected values worked out by hand: who checked them, and the calculation itself, attached to the standard as
+     * a file (PDF, PNG or JPEG) and cited by its sha256, which the draft page shows when the file is attached.
+     * Submitting and publishing need the file attached.
+     */
+    hand_calculation: z
+      .object({
+        checker: text,
+        file: text,
+        sha256: z.string().regex(/^[0-9a-f]{64}$/, "the file's sha256: 64 lowercase hex digits, as shown when it was attached"),
+      })
+      .strict()
+      .optional(),
   })
   .strict();
 export type VerificationCase = z.infer<typeof VerificationSchema>;

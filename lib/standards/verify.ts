@@ -21,6 +21,8 @@ export interface VerificationCheck {
 export interface VerificationResult {
   readonly name: string;
   readonly source: string;
+  /** The hand calculation the expected values come from, when they were worked out by hand. */
+  readonly handCalculation?: { readonly checker: string; readonly file: string; readonly sha256: string };
   readonly pass: boolean;
   readonly checks: ReadonlyArray<VerificationCheck>;
   /** Why the case could not be evaluated at all. */
@@ -35,6 +37,7 @@ function si(value: Value): number {
 
 export function runVerification(standard: CompiledStandard): VerificationResult[] {
   return standard.definition.verification.map((c) => {
+    const cited = { name: c.name, source: c.source, ...(c.hand_calculation ? { handCalculation: c.hand_calculation } : {}) };
     const out = standard.evaluate(c.inputs);
     if (!out.ok) {
       const failure =
@@ -43,7 +46,7 @@ export function runVerification(standard: CompiledStandard): VerificationResult[
           : out.stage === "engine"
             ? out.errors.map((e) => e.message).join("; ")
             : `${out.path}: ${out.message}`;
-      return { name: c.name, source: c.source, pass: false, checks: [], failure };
+      return { ...cited, pass: false, checks: [], failure };
     }
     const e = out.evaluation;
     const checks = Object.entries(c.expect).map(([target, { value, tolerance }]): VerificationCheck => {
@@ -82,6 +85,6 @@ export function runVerification(standard: CompiledStandard): VerificationResult[
             }),
       };
     });
-    return { name: c.name, source: c.source, pass: checks.every((k) => k.pass), checks };
+    return { ...cited, pass: checks.every((k) => k.pass), checks };
   });
 }

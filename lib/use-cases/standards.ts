@@ -49,6 +49,8 @@ import {
   type ReviewDto,
   type VersionDto,
   type VersionSummaryDto,
+  listAttachments,
+  type AttachmentDto,
 } from "@/lib/data/standards";
 import { getUserOrThrow } from "@/lib/data/users";
 import { starterSource } from "@/lib/standards/starter";
@@ -58,6 +60,8 @@ import { parseSource } from "@/lib/standards/source";
 import { evaluationPool } from "@/lib/evaluation/pool";
 import { checkSource, gateRefusals, VERIFIED_WITH, type SourceCheck } from "./standard-gate";
 import { defineUseCase } from "./use-case";
+import { ownEditableDraft } from "./draft-access";
+import { missingHandCalculations } from "./standard-attachments";
 
 const noInput = z.object({}).default({});
 
@@ -118,7 +122,7 @@ export const readVersion = defineUseCase({
   audit: null,
 });
 
-export type DraftView = { draft: DraftDto; reviews: ReviewDto[]; basedOn: VersionDto | null };
+export type DraftView = { draft: DraftDto; reviews: ReviewDto[]; basedOn: VersionDto | null; attachments: AttachmentDto[] };
 
 export const readDraft = defineUseCase({
   name: "standards.read-draft",
@@ -128,7 +132,7 @@ export const readDraft = defineUseCase({
     const draft = await getDraft(draftId);
     if (!draft) throw new AppError("not-found", "That draft does not exist.");
     const basedOn = draft.basedOnVersionId ? await getVersion({ id: draft.basedOnVersionId }) : null;
-    return { draft, reviews: await listReviews(draftId), basedOn };
+    return { draft, reviews: await listReviews(draftId), basedOn, attachments: await listAttachments(draft.standardId) };
   },
   audit: null,
 });
@@ -181,21 +185,6 @@ export const startDraft = defineUseCase({
     details: { slug: result.slug, fromVersion: result.fromVersion },
   }),
 });
-
-/** The draft, locked, if `actor` wrote it and it is still being edited; else a refusal that says why. */
-async function ownEditableDraft(draftId: string, actor: Actor) {
-  const draft = await lockDraftOrThrow(draftId);
-  if (draft.authorId !== actor.id)
-    throw new AppError("forbidden", "Only the draft's author edits it; start your own draft from the version instead.");
-  if (draft.state !== "editing")
-    throw new AppError(
-      "conflict",
-      draft.state === "in-review"
-        ? "This draft is in review; it can be edited again if the reviewer returns it."
-        : `This draft is ${draft.state} and can no longer be edited.`,
-    );
-  return draft;
-}
 
 async function slugOf(standardId: string, draftId: string): Promise<string> {
   return (await getDraft(draftId))?.slug ?? standardId;
@@ -261,7 +250,7 @@ export const submitDraft = defineUseCase({
     const draft = await ownEditableDraft(draftId, actor);
     if (draft.source !== prepared.source)
       throw new AppError("conflict", "The draft changed while it was being checked; submit it again.");
-    const refusals = gateRefusals(prepared.check);
+    const refusals = [...gateRefusals(prepared.check), ...(await missingHandCalculations(draft.standardId, prepared.check))];
     if (refusals.length > 0) throw new AppError("invalid-input", refusals.join(" "), { fieldErrors: { source: refusals } });
     const round = (await countReviews(draftId)) + 1;
     const review = await insertReview({ draftId, round, source: draft.source, changelog, submittedById: actor.id });
@@ -341,10 +330,10 @@ export const approveAndPublish = defineUseCase({
     const review = await reviewToDecide(reviewId, actor);
     if (review.source !== prepared.source)
       throw new AppError("conflict", "The submission changed while it was checked; try again.");
-    const refusals = gateRefusals(prepared.check);
-    if (refusals.length > 0) throw new AppError("invalid-input", `It cannot be published: ${refusals.join(" ")}`);
     const { check } = prepared;
     const draft = await lockDraftOrThrow(review.draftId);
+    const refusals = [...gateRefusals(check), ...(await missingHandCalculations(draft.standardId, check))];
+    if (refusals.length > 0) throw new AppError("invalid-input", `It cannot be published: ${refusals.join(" ")}`);
     await lockStandard(draft.standardId);
     const previous = (await listVersionsOf(draft.standardId)).filter((version) => version.status === "published");
     const number = await nextVersionNumber(draft.standardId);

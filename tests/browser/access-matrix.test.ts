@@ -141,6 +141,7 @@ function countedByBetterAuth(authPath: string): ExpectedChange[] {
 }
 
 const ALLOW_GET = "GET, HEAD, OPTIONS";
+const NO_SUCH_UUID = "00000000-0000-4000-8000-000000000000";
 const OPTIONS_ROW = (url: string, allow: string): ApiRow => ({
   path: url,
   expect: same<ApiOutcome>("ok"),
@@ -209,6 +210,37 @@ const API_ROUTES: Record<string, ApiRow> = {
     expect: same<ApiOutcome>("not-found"),
     ok: () => undefined,
   },
+  // Hand calculations. A lead may attach one (here with no file: refused for that, after the role check);
+  // everyone signed in may download one (here a sha256 nothing has: 404).
+  "POST /api/standards/drafts/[draftId]/hand-calculations/route": {
+    path: `/api/standards/drafts/${NO_SUCH_UUID}/hand-calculations`,
+    body: {},
+    expect: leadsOnlyAction(), // leads get past the role check
+    ok: (answer) => {
+      expect(answer.status).toBe(400);
+      expect(jsonOf(answer)).toMatchObject({
+        error: { code: "invalid-input", fieldErrors: { file: ["Choose the hand calculation's file (PDF, PNG or JPEG)."] } },
+      });
+    },
+  },
+  "OPTIONS /api/standards/drafts/[draftId]/hand-calculations/route": OPTIONS_ROW(
+    `/api/standards/drafts/${NO_SUCH_UUID}/hand-calculations`,
+    "OPTIONS, POST",
+  ),
+  "GET /api/standards/hand-calculations/[sha256]/route": {
+    path: `/api/standards/hand-calculations/${"0".repeat(64)}`,
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "not-found"),
+    ok: () => undefined,
+  },
+  "HEAD /api/standards/hand-calculations/[sha256]/route": {
+    path: `/api/standards/hand-calculations/${"0".repeat(64)}`,
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "not-found"),
+    ok: () => undefined,
+  },
+  "OPTIONS /api/standards/hand-calculations/[sha256]/route": OPTIONS_ROW(
+    `/api/standards/hand-calculations/${"0".repeat(64)}`,
+    ALLOW_GET,
+  ),
   "GET /icon.svg/route": {
     path: "/icon.svg",
     expect: same<ApiOutcome>("ok"),

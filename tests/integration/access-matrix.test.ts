@@ -7,6 +7,7 @@
 // answer and the rows it changes are checked); a refused cell must answer with the runner's code and
 // leave every row of every table, and the job queue, as it was (lib/use-cases/run.ts writes nothing
 // when it refuses).
+import { createHash } from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
@@ -17,6 +18,11 @@ import { DEFAULT_MESSAGES } from "@/lib/domain/errors";
 import { expectRowsUnchanged, refusalWrites, snapshotRows } from "../support/snapshot";
 import { ACTION_FIXTURES, type ActionAnswer } from "./helpers/action-fixtures";
 import { createTestUser, sessionCount, signInHeaders } from "./helpers/people";
+import { runUseCase } from "@/lib/use-cases/run";
+import { createStandard } from "@/lib/use-cases/standards";
+import { attachHandCalculation, handCalculationKey } from "@/lib/use-cases/standard-attachments";
+import { getDraft, listAttachments } from "@/lib/data/standards";
+import { getObject } from "@/lib/storage/s3";
 
 const request = vi.hoisted(() => ({ headers: new Headers() }));
 vi.mock("next/headers", () => ({
@@ -195,9 +201,13 @@ type RouteRow = {
   expected: Record<Who, Expected>;
   /** The session to send; the matrix session of the caller unless a row needs one of its own. */
   session?: (cell: Cell) => Promise<CellSession>;
+  /** What to ask for in this cell, when it needs rows of its own first (made before the snapshot is taken). */
+  request?: (cell: Cell) => Promise<CellRequest>;
   /** What an allowed call answers, and the rows it changed. */
-  succeeded: (response: Response, cell: Cell & CellSession) => Promise<void>;
+  succeeded: (response: Response, cell: Cell & CellSession & CellRequest) => Promise<void>;
 };
+/** The URL, the route's dynamic segments and the body of one cell's call. */
+type CellRequest = { path?: string; params?: Record<string, string>; body?: BodyInit; expectBytes?: Uint8Array };
 
 /**
  * One row per (route file, exported method). app/api/auth/[...all] is better-auth's own endpoint set
@@ -257,7 +267,63 @@ const ROUTES: RouteRow[] = [
       if (sessionOf) expect(await sessionCount(sessionOf)).toBe(0); // the session row is gone
     },
   },
+  // Hand calculations: a lead attaches one to the standard of their own draft; everyone signed in downloads one.
+  {
+    route: "app/api/standards/drafts/[draftId]/hand-calculations/route.ts",
+    method: "POST",
+    path: "/api/standards/drafts/:draftId/hand-calculations",
+    expected: LEADS_ONLY,
+    request: async ({ actor }) => {
+      const author = actor?.role === "lead" ? actor : (await createTestUser({ role: "lead", label: "matrix-author" })).actor;
+      const { draftId } = await runUseCase(createStandard, {
+        actor: author,
+        input: { slug: `matrix-hand-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}`, title: "Matrix beam" },
+      });
+      const body = new FormData();
+      const bytes = matrixPdf();
+      body.set("file", new File([bytes], "matrix-check.pdf", { type: "application/pdf" }));
+      return { path: `/api/standards/drafts/${draftId}/hand-calculations`, params: { draftId }, body, expectBytes: bytes };
+    },
+    succeeded: async (response, { params, expectBytes }) => {
+      const sha256 = createHash("sha256").update(expectBytes!).digest("hex");
+      expect(response.status).toBe(200);
+      expect(await response.json()).toMatchObject({
+        data: { sha256, fileName: "matrix-check.pdf", contentType: "application/pdf", bytes: expectBytes!.length, added: true },
+      });
+      const draft = (await getDraft(params!.draftId))!;
+      expect((await listAttachments(draft.standardId)).map((a) => a.sha256)).toEqual([sha256]);
+      expect((await getObject({ key: handCalculationKey(sha256) }))?.body).toEqual(expectBytes);
+    },
+  },
+  {
+    route: "app/api/standards/hand-calculations/[sha256]/route.ts",
+    method: "GET",
+    path: "/api/standards/hand-calculations/:sha256",
+    expected: SIGNED_IN,
+    request: async () => {
+      const { actor: author } = await createTestUser({ role: "lead", label: "matrix-author" });
+      const { draftId } = await runUseCase(createStandard, {
+        actor: author,
+        input: { slug: `matrix-hand-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}`, title: "Matrix beam" },
+      });
+      const bytes = matrixPdf();
+      const file = new File([bytes], "matrix-check.pdf", { type: "application/pdf" });
+      const { sha256 } = await runUseCase(attachHandCalculation, { actor: author, input: { draftId, file } });
+      return { path: `/api/standards/hand-calculations/${sha256}`, params: { sha256 }, expectBytes: bytes };
+    },
+    succeeded: async (response, { expectBytes }) => {
+      expect(response.status).toBe(200);
+      expect(response.headers.get("content-type")).toBe("application/pdf");
+      expect(response.headers.get("content-disposition")).toMatch(/^attachment; filename="matrix-check\.pdf"/);
+      expect(new Uint8Array(await response.arrayBuffer())).toEqual(expectBytes);
+    },
+  },
 ];
+
+/** A small PDF, different each call (so each cell stores its own file). */
+function matrixPdf(): Uint8Array<ArrayBuffer> {
+  return new TextEncoder().encode(`%PDF-1.4\n% hand calculation for the access matrix ${Date.now()} ${Math.random()}\n%%EOF\n`);
+}
 
 // Every route file; the methods each exports are the ones Next serves.
 const routeModules = import.meta.glob<Record<string, unknown>>("/app/**/route.ts");
@@ -279,12 +345,13 @@ async function loadHandler(row: RouteRow): Promise<RouteHandler> {
   return (await load())[row.method] as RouteHandler;
 }
 
-function makeRequest(row: RouteRow, headers: Headers): Request {
+function makeRequest(row: RouteRow, headers: Headers, asked: CellRequest = {}): Request {
   const withOrigin = new Headers(headers);
   withOrigin.set("origin", new URL(process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000").origin);
-  return new Request(`${process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000"}${row.path}`, {
+  return new Request(`${process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:3000"}${asked.path ?? row.path}`, {
     method: row.method,
     headers: withOrigin,
+    ...(asked.body !== undefined ? { body: asked.body } : {}),
   });
 }
 
@@ -308,13 +375,15 @@ describe("route handlers", () => {
       const cell = { who, actor: actorFor[who]! };
       const session = row.session ? await row.session(cell) : { headers: headersFor[who]! };
       const { headers } = session;
+      const asked = row.request ? await row.request(cell) : {};
+      const params = { params: Promise.resolve(asked.params ?? {}) };
       const expected = row.expected[who];
       if (expected === "allowed") {
-        await row.succeeded(await handler(makeRequest(row, headers), { params: Promise.resolve({}) }), { ...cell, ...session });
+        await row.succeeded(await handler(makeRequest(row, headers, asked), params), { ...cell, ...session, ...asked });
         return;
       }
       const before = await snapshotRows();
-      const response = await handler(makeRequest(row, headers), { params: Promise.resolve({}) });
+      const response = await handler(makeRequest(row, headers, asked), params);
       expect(response.status).toBe(expected === "unauthenticated" ? 401 : 403);
       expect(await response.json()).toEqual({ error: { code: expected, message: DEFAULT_MESSAGES[expected] } });
       await expectRowsUnchanged(before, { except: refusalWrites(expected, cell.actor) });

@@ -40,7 +40,7 @@ describe("migrations on an empty database", () => {
     expect(firstRun.status, firstRun.stderr).toBe(0);
     expect(firstRun.stdout).toMatch(
       new RegExp(
-        `privileges of ${appRole} set on \\d+ tables \\(\\d+ of the job queue; append-only: audit_events, standard_review_comments, standard_version_events, standard_versions\\)`,
+        `privileges of ${appRole} set on \\d+ tables \\(\\d+ of the job queue; append-only: audit_events, standard_attachments, standard_review_comments, standard_version_events, standard_versions\\)`,
       ),
     );
     const before = await accessLists();
@@ -74,6 +74,7 @@ describe("migrations on an empty database", () => {
       "projects",
       "rate_limit",
       "session",
+      "standard_attachments",
       "standard_drafts",
       "standard_review_comments",
       "standard_reviews",

@@ -2,6 +2,7 @@
 // superseded or withdrawn, the four-eyes rule, the publication gate (it compiles, it has verification cases,
 // every case passes on the current engine), numbering under concurrent publication, and what each role may
 // do. Every refusal is shown to change no row (tests/support/snapshot.ts).
+import { createHash } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { pool } from "@/db";
 import type { Actor } from "@/lib/domain/actor";
@@ -24,6 +25,8 @@ import {
   submitDraft,
   withdrawVersion,
 } from "@/lib/use-cases/standards";
+import { attachHandCalculation, handCalculationKey, readHandCalculation } from "@/lib/use-cases/standard-attachments";
+import { getObject } from "@/lib/storage/s3";
 import { expectNoChangeFrom, refusalAudited } from "../support/snapshot";
 import { auditEventsFor, createTestUser } from "./helpers/people";
 
@@ -281,6 +284,82 @@ describe("the editor's preview of text not yet saved", () => {
         runUseCase(previewSource, { actor: bruno, input: { draftId, source: starterSource("Preview beam") } }),
       ).rejects.toMatchObject({ code: "forbidden", message: expect.stringMatching(/Only the draft's author edits it/) }),
     );
+  });
+});
+
+describe("hand calculations", () => {
+  const pdf = (text: string) =>
+    new File([new TextEncoder().encode(`%PDF-1.4\n% ${text} ${Date.now()}\n%%EOF\n`)], "tip-check.pdf", {
+      type: "application/pdf",
+    });
+  const citing = (title: string, sha256: string) =>
+    starterSource(title).replace(
+      '    source: "AWC Design Aid No. 6 (2005), Fig. 1: M_max = wL²/8"',
+      `    source: "Hand calculation, M = wL²/8 worked by hand"\n    hand_calculation: { checker: \"Abena Harcastle\", file: tip-check.pdf, sha256: \"${sha256}\" }`,
+    );
+
+  it("are stored under their sha256 and must be attached before a case citing one is submitted or published", async () => {
+    const [alice, bruno] = await leads();
+    const { draftId } = await runUseCase(createStandard, {
+      actor: alice,
+      input: { slug: uniqueSlug("hand"), title: "Hand beam" },
+    });
+    const file = pdf("tip deflection, checked");
+    const sha256 = createHash("sha256")
+      .update(new Uint8Array(await file.arrayBuffer()))
+      .digest("hex");
+
+    // Cited before it is attached: saved, but not submitted, and the refusal says which case and file.
+    await runUseCase(saveDraft, { actor: alice, input: { draftId, source: citing("Hand beam", sha256) } });
+    await expectNoChangeFrom(() =>
+      expect(runUseCase(submitDraft, { actor: alice, input: { draftId, changelog: "First." } })).rejects.toMatchObject({
+        code: "invalid-input",
+        message: expect.stringMatching(
+          /cites the hand calculation tip-check\.pdf by Abena Harcastle .* no file with that sha256 is attached/,
+        ),
+      }),
+    );
+
+    // Another lead may not attach files to Alice's draft; nothing is recorded.
+    await expectNoChangeFrom(() =>
+      expect(runUseCase(attachHandCalculation, { actor: bruno, input: { draftId, file } })).rejects.toMatchObject({
+        code: "forbidden",
+      }),
+    );
+    // A renamed file of another kind is refused by its contents.
+    await expectNoChangeFrom(() =>
+      expect(
+        runUseCase(attachHandCalculation, {
+          actor: alice,
+          input: { draftId, file: new File(["not a pdf"], "fake.pdf", { type: "application/pdf" }) },
+        }),
+      ).rejects.toMatchObject({ code: "invalid-input", message: expect.stringMatching(/not a PDF file/) }),
+    );
+
+    const attached = await runUseCase(attachHandCalculation, { actor: alice, input: { draftId, file } });
+    expect(attached).toMatchObject({ sha256, fileName: "tip-check.pdf", added: true });
+    expect((await getObject({ key: handCalculationKey(sha256) }))?.body).toEqual(new Uint8Array(await file.arrayBuffer()));
+    // The same bytes again: one row, no second audit event.
+    expect(await runUseCase(attachHandCalculation, { actor: alice, input: { draftId, file } })).toMatchObject({ added: false });
+    expect(await auditEventsFor({ action: "standards.attachment.add", actorEmail: alice.email })).toHaveLength(1);
+
+    const { reviewId } = await runUseCase(submitDraft, { actor: alice, input: { draftId, changelog: "First." } });
+    const published = await runUseCase(approveAndPublish, { actor: bruno, input: { reviewId } });
+    const version = await runUseCase(readVersion, { actor: bruno, input: { slug: published.slug, number: 1 } });
+    expect(version.verification).toEqual([
+      expect.objectContaining({
+        pass: true,
+        handCalculation: { checker: "Abena Harcastle", file: "tip-check.pdf", sha256 },
+      }),
+    ]);
+    // Anyone who reads standards downloads it by its sha256.
+    const { actor: engineer } = await createTestUser({ role: "engineer", label: "hand-reader" });
+    const read = await runUseCase(readHandCalculation, { actor: engineer, input: { sha256 } });
+    expect(read).toMatchObject({ fileName: "tip-check.pdf", contentType: "application/pdf" });
+    expect(read.body).toEqual(new Uint8Array(await file.arrayBuffer()));
+    await expect(runUseCase(readHandCalculation, { actor: engineer, input: { sha256: "0".repeat(64) } })).rejects.toMatchObject({
+      code: "not-found",
+    });
   });
 });
 

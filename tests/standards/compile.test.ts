@@ -6,6 +6,7 @@
 import { describe, expect, it } from "vitest";
 import { compileStandard } from "@/lib/standards";
 import { checkExpression, ExpressionError } from "@/lib/standards/expressions";
+import { runVerification } from "@/lib/standards/verify";
 import { beamDefinition, compileOrThrow, problemsOf, sourceOf } from "./helpers";
 
 type Def = ReturnType<typeof beamDefinition> & Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
@@ -263,5 +264,38 @@ describe("compiling", () => {
     const first = compileStandard(source);
     expect(first.ok).toBe(true);
     expect(compileStandard(source)).toBe(first);
+  });
+});
+
+describe("a verification case worked out by hand", () => {
+  const sha256 = "9f2c".repeat(16);
+  const withHand = (hand: unknown) =>
+    withChange((d) => {
+      d.verification = [
+        {
+          name: "Uniform load, M = wL²/8 by hand",
+          inputs: { L: "6 m", w: "10 kN/m" },
+          expect: { M_max: { value: "10 kN/m * (6 m)^2 / 8", tolerance: 1e-9 } },
+          source: "Hand calculation (closed form wL²/8, common practice)",
+          hand_calculation: hand,
+        },
+      ];
+    });
+
+  it("names its checker and cites the attached file by sha256; the results carry them", () => {
+    const standard = compileOrThrow(withHand({ checker: "Abena Harcastle", file: "tip-check.pdf", sha256 }));
+    expect(runVerification(standard).map((r) => r.handCalculation)).toEqual([
+      { checker: "Abena Harcastle", file: "tip-check.pdf", sha256 },
+    ]);
+  });
+
+  it("is refused without a checker, or with a file named otherwise than by its sha256", () => {
+    expect(problemsOf(withHand({ file: "tip-check.pdf", sha256 }))[0]).toMatchObject({
+      path: "verification[0].hand_calculation.checker",
+    });
+    expect(problemsOf(withHand({ checker: "A. H.", file: "tip-check.pdf", sha256: "9F2C" }))[0]).toMatchObject({
+      path: "verification[0].hand_calculation.sha256",
+      message: expect.stringMatching(/64 lowercase hex digits/),
+    });
   });
 });

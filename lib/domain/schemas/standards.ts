@@ -40,6 +40,20 @@ export const submitDraftSchema = z.object({
   changelog: sentence("one line saying what changed (the changelog)", 300),
 });
 export const discardDraftSchema = z.object({ draftId: id("a draft") });
+
+/** Hand calculations: what a checker scans or exports (PDF, PNG, JPEG), up to 10 MB. */
+export const HAND_CALCULATION_MAX_BYTES = 10 * 1024 * 1024;
+export const attachHandCalculationSchema = z.object({
+  draftId: id("a draft"),
+  file: z
+    .file("Choose the hand calculation's file (PDF, PNG or JPEG).")
+    .min(1, "That file is empty.")
+    .max(HAND_CALCULATION_MAX_BYTES, "That file is over 10 MB; scan it at a lower resolution or split it.")
+    .mime(["application/pdf", "image/png", "image/jpeg"], "A hand calculation is a PDF, PNG or JPEG file."),
+});
+export const handCalculationRefSchema = z.object({
+  sha256: z.string().regex(/^[0-9a-f]{64}$/, "A file is named by its sha256: 64 lowercase hex digits."),
+});
 export const reviewCommentSchema = z.object({
   line: z.number().int().min(1).max(100_000).nullable(),
   body: sentence("the comment", 2000),

@@ -2,6 +2,7 @@
 // changelog and content hash, what it covers and does not, its inputs, the model drawn with its loads, the
 // narrative with its equations worked at the default inputs, the checks, the verification cases with their
 // results at publication, and the version history with links to each diff.
+import { HandCalculationCitation } from "@/components/standards/hand-calculation";
 import Link from "next/link";
 import type { Actor } from "@/lib/domain/actor";
 import { can } from "@/lib/domain/permissions";
@@ -256,6 +257,7 @@ function VerificationTable({ results }: { results: VerificationResult[] }) {
                 <>
                   <span className="font-medium text-ink-900">{result.name}</span>
                   <p className="max-w-sm text-xs text-ink-500">{result.source}</p>
+                  <HandCalculationCitation result={result} />
                 </>
               ) : null}
             </td>

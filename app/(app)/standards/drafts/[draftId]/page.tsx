@@ -14,6 +14,7 @@ import { DraftEditor } from "./_components/draft-editor";
 import { DraftPreview } from "./_components/draft-preview";
 import { ReviewPanel } from "./_components/review-panel";
 import { ReviewHistory } from "./_components/review-history";
+import { HandCalculations } from "./_components/hand-calculations";
 
 export const metadata: Metadata = { title: "Draft standard" };
 
@@ -27,7 +28,7 @@ export default async function DraftPage({ params }: PageProps<"/standards/drafts
     if (error instanceof AppError && (error.code === "not-found" || error.code === "invalid-input")) notFound();
     throw error;
   }
-  const { draft, reviews, basedOn } = view;
+  const { draft, reviews, basedOn, attachments } = view;
   const mine = draft.authorId === actor.id;
   const open = reviews.find((review) => review.outcome === null) ?? null;
   const lastReturned = [...reviews].reverse().find((review) => review.outcome === "returned") ?? null;
@@ -91,6 +92,7 @@ export default async function DraftPage({ params }: PageProps<"/standards/drafts
           />
         </section>
       ) : null}
+      <HandCalculations draftId={draft.id} attachments={attachments} canAttach={editing} />
       <ReviewHistory reviews={reviews} />
       {editing ? null : savedPreview}
     </>

@@ -11,6 +11,7 @@ import { ModelDrawing } from "@/components/standards/model-drawing";
 import { CheckLine } from "@/components/standards/check-line";
 import { Caution } from "@/components/standards/caution";
 import { Badge } from "@/components/ui/badge";
+import { HandCalculationCitation } from "@/components/standards/hand-calculation";
 
 export async function DraftPreview({ actor, draftId, check }: { actor: Actor; draftId: string; check: SourceCheck | null }) {
   const preview = check && check.problems.length === 0 ? await runUseCase(previewDraft, { actor, input: { draftId } }) : null;
@@ -68,6 +69,7 @@ export function PreviewContent({
             <Badge tone={result.pass ? "pass" : "fault"}>{result.pass ? "Pass" : "Fail"}</Badge>
             <span className="text-ink-900">{result.name}</span>
             <span className="text-ink-500">{result.source}</span>
+            <HandCalculationCitation result={result} />
             {!result.pass ? (
               <span className="text-fault-700">
                 {result.failure ??

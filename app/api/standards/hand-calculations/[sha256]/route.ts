@@ -1,0 +1,16 @@
+// GET an attached hand calculation by its sha256, as a download, for anyone who reads the firm's standards.
+import { routeHandler } from "@/lib/use-cases/next";
+import { readHandCalculation } from "@/lib/use-cases/standard-attachments";
+
+export const GET = routeHandler(readHandCalculation, {
+  respond: ({ body, contentType, fileName, sha256 }) =>
+    new Response(Buffer.from(body), {
+      headers: {
+        "Content-Type": contentType,
+        "Content-Length": String(body.length),
+        "Content-Disposition": `attachment; filename="${fileName.replace(/[^\x20-\x7e]/g, "_")}"; filename*=UTF-8''${encodeURIComponent(fileName)}`,
+        "Cache-Control": "private, no-store",
+        "X-Content-SHA256": sha256,
+      },
+    }),
+});

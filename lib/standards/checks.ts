@@ -127,8 +127,9 @@ export function runCheck(view: ResultsView | null, definition: CheckDefinition, 
           );
           dimensionsChecked = true;
         }
-        const demand = fixedDemand ?? numericValue(numericDemand, local, path, "demand");
-        const capacity = fixedCapacity ?? numericValue(numericCapacity, local, path, "capacity");
+        const demand = fixedDemand ?? numericDemand.evaluateNumber(local) ?? numericValue(numericDemand, local, path, "demand");
+        const capacity =
+          fixedCapacity ?? numericCapacity.evaluateNumber(local) ?? numericValue(numericCapacity, local, path, "capacity");
         const utilisation = utilisationOf(definition, demand, capacity, path);
         sections++;
         if (best === null || utilisation > best.utilisation) best = { utilisation, member, under, x, side };

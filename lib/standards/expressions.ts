@@ -9,6 +9,7 @@
  * `to` conversions, any other function) is refused with the expression named.
  */
 import type { MathNode } from "mathjs";
+import { fastNumeric } from "./numeric-fast";
 import { math, TRADE_UNITS, type Value } from "./units";
 
 export const MAX_EXPRESSION_LENGTH = 400;
@@ -277,6 +278,11 @@ export interface SiScope {
 export interface NumericExpression {
   readonly names: ReadonlyArray<string>;
   evaluate(scope: SiScope): SiValue;
+  /**
+   * The same on numbers only, through the closures of numeric-fast.ts: null when the expression or a value is
+   * not one those mirror exactly, or the result is not a finite number — then `evaluate` answers (and says why).
+   */
+  evaluateNumber(scope: SiScope): number | null;
 }
 
 const numericCache = new Map<string, NumericExpression>();
@@ -302,12 +308,26 @@ export function compileNumeric(source: string, known: KnownNames): NumericExpres
   // One map for the expression's names, refilled on each call (every name is set before the expression runs):
   // a check over every section of a large frame calls this tens of thousands of times.
   const own = new Map<string, unknown>();
+  // mathjs's tolerances for comparing numbers (its config; read, never changed here).
+  const { relTol = 1e-12, absTol = 1e-15 } = math.config({});
+  const fast = fastNumeric(numeric, names, { relTol, absTol });
+  const values = new Float64Array(names.length);
   const compiled: NumericExpression = {
     names,
     evaluate(scope) {
       const value = runCompiled(source, code, names, scope, own);
       if (math.isUnit(value)) throw new ExpressionError(source, "a unit was left in the numeric form");
       return value as SiValue;
+    },
+    evaluateNumber(scope) {
+      if (!fast) return null;
+      for (let k = 0; k < names.length; k++) {
+        const value = scope.get(names[k]);
+        if (typeof value !== "number") return null;
+        values[k] = value;
+      }
+      const result = fast(values);
+      return Number.isFinite(result) ? result : null;
     },
   };
   if (numericCache.size >= CACHE_LIMIT) numericCache.clear();

@@ -23,10 +23,37 @@ export class GenerateError extends Error {
 
 type Scope = ReadonlyMap<string, Value>;
 
+/** Values already worked out while one model is generated (generateModel sets it, and drops it when done). */
+let generation: { values: Map<string, Value>; ids: WeakMap<object, number> } | null = null;
+
+/** A key for a value: numbers, texts and conditions by what they are, quantities by which object they are. */
+function keyOf(value: Value | undefined): string {
+  if (typeof value !== "object" || value === null) return `${typeof value}:${String(value)}`;
+  const ids = generation!.ids;
+  let id = ids.get(value);
+  if (id === undefined) {
+    id = nextId++;
+    ids.set(value, id);
+  }
+  return `#${id}`;
+}
+let nextId = 0;
+
 /** Evaluate an expression in a scope; a refusal becomes a GenerateError at the given path. */
 export function evaluateAt(source: string, scope: Scope, path: ReadonlyArray<PropertyKey>): Value {
   try {
-    return compileExpression(source, scope).evaluate(scope);
+    const compiled = compileExpression(source, scope);
+    if (!generation) return compiled.evaluate(scope);
+    // While a model is generated, an expression met again with the same values (`E`, `-w_D`, `j - 1` for the
+    // same j) gives the value it gave; expressions have no side effects, so only the time is saved.
+    let key = source;
+    for (const name of compiled.names) key += `\u0000${keyOf(scope.get(name))}`;
+    let value = generation.values.get(key);
+    if (value === undefined) {
+      value = compiled.evaluate(scope);
+      generation.values.set(key, value);
+    }
+    return value;
   } catch (error) {
     if (error instanceof ExpressionError) throw new GenerateError(path, error.message);
     throw error;
@@ -159,6 +186,16 @@ function uniqueIds(ids: ReadonlyArray<{ id: string; path: PropertyKey[] }>, what
 }
 
 export function generateModel(template: ModelTemplate, scope: Scope): GeneratedModel {
+  const outer = generation;
+  generation = { values: new Map(), ids: new WeakMap() };
+  try {
+    return generateModelOnce(template, scope);
+  } finally {
+    generation = outer;
+  }
+}
+
+function generateModelOnce(template: ModelTemplate, scope: Scope): GeneratedModel {
   const root = ["model"];
   const nodes = expandList(template.nodes, scope, [...root, "nodes"]).map(({ item, scope: s, path }) => {
     const id = fillTemplate(item.id, s, [...path, "id"]);

@@ -142,6 +142,11 @@ function countedByBetterAuth(authPath: string): ExpectedChange[] {
 
 const ALLOW_GET = "GET, HEAD, OPTIONS";
 const NO_SUCH_UUID = "00000000-0000-4000-8000-000000000000";
+/** Those who read the firm's standards (leads, engineers, auditors) get `outcome`; the admin is refused. */
+const libraryReaders = (outcome: ApiOutcome) =>
+  Object.fromEntries(
+    EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "admin" ? "forbidden" : outcome]),
+  ) as Record<Who, ApiOutcome>;
 const OPTIONS_ROW = (url: string, allow: string): ApiRow => ({
   path: url,
   expect: same<ApiOutcome>("ok"),
@@ -229,12 +234,12 @@ const API_ROUTES: Record<string, ApiRow> = {
   ),
   "GET /api/standards/hand-calculations/[sha256]/route": {
     path: `/api/standards/hand-calculations/${"0".repeat(64)}`,
-    expect: anonymousElse<ApiOutcome>("unauthenticated", "not-found"),
+    expect: libraryReaders("not-found"),
     ok: () => undefined,
   },
   "HEAD /api/standards/hand-calculations/[sha256]/route": {
     path: `/api/standards/hand-calculations/${"0".repeat(64)}`,
-    expect: anonymousElse<ApiOutcome>("unauthenticated", "not-found"),
+    expect: libraryReaders("not-found"),
     ok: () => undefined,
   },
   "OPTIONS /api/standards/hand-calculations/[sha256]/route": OPTIONS_ROW(
@@ -519,7 +524,9 @@ describe("route handlers, every method", () => {
       const actual: Record<string, ApiOutcome | string> = {};
       for (const who of EVERYONE) {
         const refused = row.expect[who] !== "ok";
-        const answer = await unchangedBy(refused, () => askRoute(who, method, row), row.except);
+        // A signed-in person refused for their role: the runner's one write, the access.refused audit event.
+        const audited = row.expect[who] === "forbidden" ? refusalWrites("forbidden", actors[who]) : [];
+        const answer = await unchangedBy(refused, () => askRoute(who, method, row), [...(row.except ?? []), ...audited]);
         const outcome = apiOutcome(method, answer);
         if (outcome === "answered" && row.expect[who] === "ok") row.ok(answer, who);
         actual[who] = outcome === "answered" ? "ok" : outcome;

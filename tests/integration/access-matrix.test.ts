@@ -63,6 +63,14 @@ const LEADS_ONLY: Record<Who, Expected> = {
   engineer: "forbidden",
   auditor: "forbidden",
 };
+/** Those who read the firm's standards: everyone signed in but the admin, whose work is people. */
+const LIBRARY_READERS: Record<Who, Expected> = {
+  anonymous: "unauthenticated",
+  admin: "forbidden",
+  lead: "allowed",
+  engineer: "allowed",
+  auditor: "allowed",
+};
 const PUBLIC: Record<Who, Expected> = {
   anonymous: "allowed",
   admin: "allowed",
@@ -299,7 +307,7 @@ const ROUTES: RouteRow[] = [
     route: "app/api/standards/hand-calculations/[sha256]/route.ts",
     method: "GET",
     path: "/api/standards/hand-calculations/:sha256",
-    expected: SIGNED_IN,
+    expected: LIBRARY_READERS,
     request: async () => {
       const { actor: author } = await createTestUser({ role: "lead", label: "matrix-author" });
       const { draftId } = await runUseCase(createStandard, {

@@ -1,15 +1,18 @@
 // The firm's starting standards (content/standards/<slug>/<n>.mdx), imported into an empty standards
 // table as published versions: each written by one demo lead and approved by the other, passed through the
 // same gate as a lead's submission (it compiles, it has verification cases, every case passes on this
-// engine), numbered as its file, and the earlier versions of a standard superseded. Run by scripts/seed.ts
-// after the demo firm; a second run changes nothing.
+// engine), numbered as its file, and the earlier versions of a standard superseded. The hand calculations
+// its cases cite (content/standards/<slug>/hand-calculations/) are stored in S3 and attached, as a lead's
+// upload would be. Run by scripts/seed.ts after the demo firm; a second run changes nothing.
 import path from "node:path";
 import { count, eq } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as schema from "@/db/schema";
 import { DEMO_USERS } from "@/db/demo-users";
 import { checkSource, gateRefusals } from "@/lib/use-cases/standard-gate";
-import { startingStandardFiles } from "./starting-standards";
+import { handCalculationKey } from "@/lib/use-cases/standard-attachments";
+import { putObject } from "@/lib/storage/s3";
+import { citedHandCalculations, startingStandardFiles } from "./starting-standards";
 
 export type StandardsSeedResult = { seeded: false; reason: string } | { seeded: true; standards: number; versions: number };
 
@@ -22,9 +25,12 @@ export async function seedStartingStandards(database: NodePgDatabase<typeof sche
       const check = await checkSource(source, { inProcess: true });
       const refusals = gateRefusals(check);
       if (refusals.length > 0) throw new Error(`content/standards/${file} cannot be published: ${refusals.join(" ")}`);
-      return { slug, number, source, check };
+      return { slug, number, source, check, cited: citedHandCalculations(slug, check) };
     }),
   );
+  // Stored before the transaction, as an upload is (nothing slow inside one); stored again, the same bytes.
+  for (const { cited } of files)
+    for (const { sha256, body, contentType } of cited) await putObject({ key: handCalculationKey(sha256), body, contentType });
   return database.transaction(async (tx) => {
     await tx.execute("select pg_advisory_xact_lock(22911)");
     const [{ n }] = await tx.select({ n: count() }).from(schema.standards);
@@ -40,6 +46,20 @@ export async function seedStartingStandards(database: NodePgDatabase<typeof sche
     for (const slug of slugs) {
       const [standard] = await tx.insert(schema.standards).values({ slug, createdById: leads[0] }).returning();
       const versions = files.filter((f) => f.slug === slug).sort((a, b) => a.number - b.number);
+      const attached = new Set<string>();
+      for (const { cited } of versions)
+        for (const { file, sha256, body, contentType } of cited) {
+          if (attached.has(sha256)) continue;
+          attached.add(sha256);
+          await tx.insert(schema.standardAttachments).values({
+            standardId: standard.id,
+            sha256,
+            fileName: file,
+            contentType,
+            bytes: body.length,
+            uploadedById: leads[0],
+          });
+        }
       let previous: string | null = null;
       for (const [index, { number, source, check }] of versions.entries()) {
         if (number !== index + 1)

@@ -37,6 +37,8 @@ export async function prepareServices({ setup, env, registry, timer, fresh }) {
     });
     // Only the migrations get the owner's URL; the seed, the worker and the server run as the app's role.
     await timer.phase("migrate", () => migrate({ ...env, ...migrationEnv(profile) }));
+    // The seed stores the starting standards' hand calculations in S3: it waits for the fakes.
+    await fakesReady;
     await timer.phase("seed", () => seed(env));
   };
   const fakes = () =>
@@ -46,6 +48,7 @@ export async function prepareServices({ setup, env, registry, timer, fresh }) {
         ensureFakeS3({ ports, layout, profile, registry, bucket: env.S3_BUCKET }),
       ]),
     );
-  await allOrFirstError([databaseChain(), fakes()]);
+  const fakesReady = fakes();
+  await allOrFirstError([databaseChain(), fakesReady]);
   await timer.phase("worker", () => startWorkerProcess({ env, layout, profile, registry }));
 }

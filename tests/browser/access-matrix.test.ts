@@ -222,7 +222,7 @@ const API_ROUTES: Record<string, ApiRow> = {
     body: {},
     expect: leadsOnlyAction(), // leads get past the role check
     ok: (answer) => {
-      expect(answer.status).toBe(400);
+      expect(answer.status).toBe(422);
       expect(jsonOf(answer)).toMatchObject({
         error: { code: "invalid-input", fieldErrors: { file: ["Choose the hand calculation's file (PDF, PNG or JPEG)."] } },
       });

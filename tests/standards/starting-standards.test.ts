@@ -8,6 +8,7 @@ import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { compileStandard, definitionJsonSchema } from "@/lib/standards";
 import { runVerification } from "@/lib/standards/verify";
+import { citedHandCalculations } from "@/scripts/lib/starting-standards";
 
 const root = path.resolve(import.meta.dirname, "../../content/standards");
 const files = readdirSync(root, { recursive: true, encoding: "utf8" })
@@ -39,6 +40,13 @@ describe("the starting standards", () => {
           failed: [],
         });
       }
+    });
+
+    it("keeps every hand calculation its cases cite beside it, with the sha256 cited", () => {
+      if (!out.ok) throw new Error("does not compile");
+      const results = runVerification(out.standard);
+      const cited = citedHandCalculations(path.dirname(file), { verification: results });
+      expect(cited.map((c) => c.sha256)).toEqual(results.flatMap((r) => (r.handCalculation ? [r.handCalculation.sha256] : [])));
     });
 
     it("evaluates its defaults to a passing design with every check shown", () => {

@@ -296,6 +296,8 @@ export function samplePositions(L: number, breaks: Float64Array, points: number)
   const n = Math.max(2, Math.floor(points));
   const out: { x: number; side: "left" | "right" }[] = [];
   for (let i = 0; i < n; i++) out.push({ x: (L * i) / (n - 1), side: i === n - 1 ? "left" : "right" });
+  // With no load discontinuity inside the span (most members), the uniform points are already in order.
+  if (breaks.length <= 2) return out;
   for (let k = 1; k < breaks.length - 1; k++) out.push({ x: breaks[k], side: "left" }, { x: breaks[k], side: "right" });
   // Left before right at the same x, so a plotted step is vertical.
   return out.sort((a, b) => a.x - b.x || (a.side === "left" ? -1 : 1));

@@ -135,6 +135,13 @@ export async function getStandardBySlug(slug: string): Promise<{ id: string; slu
   return row ?? null;
 }
 
+/** A standard's short name by its id. */
+export async function getSlugOf(standardId: string): Promise<string> {
+  const [row] = await currentDb().select({ slug: standards.slug }).from(standards).where(eq(standards.id, standardId));
+  if (!row) throw new AppError("not-found", "That standard does not exist.");
+  return row.slug;
+}
+
 export async function slugTaken(slug: string): Promise<boolean> {
   return (await getStandardBySlug(slug)) !== null;
 }

@@ -8,7 +8,7 @@ import { createHash } from "node:crypto";
 import { AppError } from "@/lib/domain/errors";
 import { attachHandCalculationSchema, handCalculationRefSchema } from "@/lib/domain/schemas/standards";
 import type { AttachmentType } from "@/db/schema";
-import { getAttachment, getDraft, insertAttachment, listAttachments, type AttachmentDto } from "@/lib/data/standards";
+import { getAttachment, getDraft, getSlugOf, insertAttachment, listAttachments, type AttachmentDto } from "@/lib/data/standards";
 import { getObject, putObject } from "@/lib/storage/s3";
 import type { SourceCheck } from "./standard-gate";
 import { NOT_THE_AUTHOR, ownEditableDraft } from "./draft-access";
@@ -61,7 +61,7 @@ export const attachHandCalculation = defineUseCase({
   run: async ({ draftId }, { actor, prepared }) => {
     const draft = await ownEditableDraft(draftId, actor);
     const { added } = await insertAttachment({ standardId: draft.standardId, uploadedById: actor.id, ...prepared });
-    return { ...prepared, added, slug: (await getDraft(draftId))?.slug ?? draft.standardId };
+    return { ...prepared, added, slug: await getSlugOf(draft.standardId) };
   },
   audit: ({ result }) =>
     result.added

@@ -49,6 +49,7 @@ import {
   type ReviewDto,
   type VersionDto,
   type VersionSummaryDto,
+  getSlugOf,
   listAttachments,
   type AttachmentDto,
 } from "@/lib/data/standards";
@@ -186,10 +187,6 @@ export const startDraft = defineUseCase({
   }),
 });
 
-async function slugOf(standardId: string, draftId: string): Promise<string> {
-  return (await getDraft(draftId))?.slug ?? standardId;
-}
-
 /** Saves whatever the lead wrote, problems included; says what the problems are. */
 export const saveDraft = defineUseCase({
   name: "standards.draft.save",
@@ -211,7 +208,7 @@ export const saveDraft = defineUseCase({
   run: async ({ draftId, source }, { actor, prepared }): Promise<{ slug: string; check: SourceCheck }> => {
     const draft = await ownEditableDraft(draftId, actor);
     if (draft.source !== source) await updateDraft(draftId, { source });
-    return { slug: await slugOf(draft.standardId, draftId), check: prepared };
+    return { slug: await getSlugOf(draft.standardId), check: prepared };
   },
   audit: ({ result }) => ({
     action: "standards.draft.save",
@@ -227,7 +224,7 @@ export const discardDraft = defineUseCase({
   run: async ({ draftId }, { actor }) => {
     const draft = await ownEditableDraft(draftId, actor);
     await updateDraft(draftId, { state: "discarded" });
-    return { draftId, slug: await slugOf(draft.standardId, draftId) };
+    return { draftId, slug: await getSlugOf(draft.standardId) };
   },
   audit: ({ result }) => ({
     action: "standards.draft.discard",
@@ -261,7 +258,7 @@ export const submitDraft = defineUseCase({
       round,
       changelog,
       hash: prepared.check.hash!,
-      slug: await slugOf(draft.standardId, draftId),
+      slug: await getSlugOf(draft.standardId),
     };
   },
   audit: ({ result }) => ({
@@ -302,7 +299,7 @@ export const returnDraft = defineUseCase({
       round: review.round,
       comments: comments.length,
       authorName: author.name,
-      slug: await slugOf(draft.standardId, review.draftId),
+      slug: await getSlugOf(draft.standardId),
     };
   },
   audit: ({ result }) => ({
@@ -363,7 +360,7 @@ export const approveAndPublish = defineUseCase({
     const author = await getUserOrThrow(review.submittedById);
     return {
       versionId: version.id,
-      slug: await slugOf(draft.standardId, draft.id),
+      slug: await getSlugOf(draft.standardId),
       number,
       hash: version.contentHash,
       title: version.title,

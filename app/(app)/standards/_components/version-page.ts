@@ -9,7 +9,7 @@ import { readProfile } from "@/lib/use-cases/profile";
 import { readStandard, readVersion } from "@/lib/use-cases/standards";
 
 export async function loadVersionPage(actor: Actor, slug: string, number?: number) {
-  try {
+  return orNotFound(async () => {
     const standard = await runUseCase(readStandard, { actor, input: { slug } });
     if (standard.versions.length === 0) return { standard, version: null, timeZone: undefined };
     // The standard's page shows the version engineers run: the newest not withdrawn (else the newest).
@@ -17,6 +17,18 @@ export async function loadVersionPage(actor: Actor, slug: string, number?: numbe
     const version = await runUseCase(readVersion, { actor, input: { slug, number: chosen } });
     const timeZone = (await runUseCase(readProfile, { actor, input: {} })).timeZone ?? undefined;
     return { standard, version, timeZone };
+  });
+}
+
+/** One version only (the diff page needs no standard, history or time zone). */
+export async function loadVersion(actor: Actor, slug: string, number: number) {
+  return orNotFound(() => runUseCase(readVersion, { actor, input: { slug, number } }));
+}
+
+/** A standard or version that does not exist, or an address that cannot name one, is the 404 page. */
+async function orNotFound<T>(load: () => Promise<T>): Promise<T> {
+  try {
+    return await load();
   } catch (error) {
     if (error instanceof AppError && (error.code === "not-found" || error.code === "invalid-input")) notFound();
     throw error;

@@ -5,7 +5,7 @@ import { requirePageActor } from "@/lib/auth/session";
 import { diffStandards } from "@/lib/standards/diff";
 import { VersionDiff } from "@/components/standards/version-diff";
 import { PageHeader } from "@/components/ui/page-header";
-import { loadVersionPage } from "../../_components/version-page";
+import { loadVersion } from "../../_components/version-page";
 
 export const metadata: Metadata = { title: "Compare versions" };
 
@@ -21,13 +21,12 @@ export default async function DiffPage({ params, searchParams }: PageProps<"/sta
   const to = versionNumber(query.to);
   const from = versionNumber(query.from);
   if (to === null || from === null) notFound();
-  const [older, newer] = await Promise.all([loadVersionPage(actor, slug, from), loadVersionPage(actor, slug, to)]);
-  if (!older.version || !newer.version) notFound();
-  const diff = diffStandards(older.version.source, newer.version.source);
+  const [older, newer] = await Promise.all([loadVersion(actor, slug, from), loadVersion(actor, slug, to)]);
+  const diff = diffStandards(older.source, newer.source);
   return (
     <>
       <PageHeader
-        title={`${newer.version.title}: v${from} → v${to}`}
+        title={`${newer.title}: v${from} → v${to}`}
         lead={
           <>
             What changed between the two versions, part by part, then line by line.{" "}

@@ -295,7 +295,7 @@ describe("hand calculations", () => {
   const citing = (title: string, sha256: string) =>
     starterSource(title).replace(
       '    source: "AWC Design Aid No. 6 (2005), Fig. 1: M_max = wL²/8"',
-      `    source: "Hand calculation, M = wL²/8 worked by hand"\n    hand_calculation: { checker: \"Abena Harcastle\", file: tip-check.pdf, sha256: \"${sha256}\" }`,
+      `    source: "Hand calculation, M = wL²/8 worked by hand"\n    hand_calculation: { checker: "Abena Harcastle", file: tip-check.pdf, sha256: "${sha256}" }`,
     );
 
   it("are stored under their sha256 and must be attached before a case citing one is submitted or published", async () => {

@@ -27,6 +27,7 @@ import {
 } from "@/lib/use-cases/standards";
 import { attachHandCalculation, handCalculationKey, readHandCalculation } from "@/lib/use-cases/standard-attachments";
 import { getObject } from "@/lib/storage/s3";
+import { POST as postHandCalculation } from "@/app/api/standards/drafts/[draftId]/hand-calculations/route";
 import { expectNoChangeFrom, refusalAudited } from "../support/snapshot";
 import { auditEventsFor, createTestUser } from "./helpers/people";
 
@@ -360,6 +361,17 @@ describe("hand calculations", () => {
     await expect(runUseCase(readHandCalculation, { actor: engineer, input: { sha256: "0".repeat(64) } })).rejects.toMatchObject({
       code: "not-found",
     });
+    // A body announced as over the limit is refused before it is read, with the sentence beside the field.
+    const tooLarge = await postHandCalculation(
+      new Request(`http://127.0.0.1/api/standards/drafts/${draftId}/hand-calculations`, {
+        method: "POST",
+        headers: { "content-length": String(11 * 1024 * 1024) },
+        body: "x",
+      }),
+      { params: Promise.resolve({ draftId }) },
+    );
+    expect(tooLarge.status).toBe(422);
+    expect(await tooLarge.json()).toMatchObject({ error: { fieldErrors: { file: [expect.stringMatching(/over 10 MB/)] } } });
   });
 });
 

@@ -1,0 +1,18 @@
+// The firm's libraries, the pure part: the section builder, the catalogue import and the demo catalogue.
+export { buildSection, buildSectionOrThrow, rectangleTorsion } from "./sections";
+export type { BuildSectionResult, Section, SectionProblem, SectionProperties, SectionPropertiesByShape } from "./sections";
+export { DIMENSION_LABELS, SECTION_SHAPES, sectionInputSchema } from "./section-schema";
+export type { DimensionKey, SectionDimensions, SectionInput, SectionShape } from "./section-schema";
+export { importCatalogue, LISTED_PROPERTY_UNITS, unitFactor } from "./catalogue";
+export type {
+  CatalogueDifference,
+  CatalogueImport,
+  CatalogueMapping,
+  CatalogueOptions,
+  CatalogueProblem,
+  CatalogueRow,
+  ColumnSpec,
+  ListedProperty,
+} from "./catalogue";
+export { parseCsv } from "./csv";
+export { buildDemoCatalogue, DEMO_CATALOGUE_MAPPING, DEMO_SECTIONS, renderDemoCatalogueCsv } from "./demo-catalogue";

@@ -1,0 +1,172 @@
+/**
+ * The section builder's input: a shape and its dimensions in metres, checked with zod at the boundary so the
+ * builder never sees a dimension that would give a NaN or a section that cannot exist. Every refusal is a
+ * sentence that names the dimension and its value in millimetres, the unit a drawing states them in.
+ */
+import { z } from "@/lib/domain/zod";
+
+export const SECTION_SHAPES = ["i", "channel", "rectangular-hollow", "circular-hollow", "rectangle", "circle", "angle"] as const;
+export type SectionShape = (typeof SECTION_SHAPES)[number];
+
+/** What each shape calls its dimensions, for the sentences (and the screens). */
+export const DIMENSION_LABELS = {
+  i: { b: "flange width b", d: "depth d", tf: "flange thickness tf", tw: "web thickness tw", r: "root radius r" },
+  channel: { b: "flange width b", d: "depth d", tf: "flange thickness tf", tw: "web thickness tw", r: "root radius r" },
+  "rectangular-hollow": { b: "width b", d: "depth d", t: "wall thickness t", ro: "outer corner radius ro" },
+  "circular-hollow": { D: "outside diameter D", t: "wall thickness t" },
+  rectangle: { b: "width b", d: "depth d" },
+  circle: { D: "diameter D" },
+  angle: { b: "leg b", d: "leg d", t: "thickness t", r: "root radius r" },
+} as const satisfies Record<SectionShape, Record<string, string>>;
+
+/** Every dimension key any shape uses. */
+export type DimensionKey = { [S in SectionShape]: keyof (typeof DIMENSION_LABELS)[S] }[SectionShape];
+
+/** A length in millimetres for a sentence: six significant figures, no trailing zeros. */
+export function mm(metres: number): string {
+  return `${Number((metres * 1000).toPrecision(6))} mm`;
+}
+
+function length(label: string) {
+  return z
+    .number({
+      error: (issue) => (issue.input === undefined ? `Give the ${label}.` : `The ${label} must be a finite number (in metres).`),
+    })
+    .refine((v) => v > 0, { error: (issue) => `The ${label} must be greater than zero (it is ${mm(issue.input as number)}).` });
+}
+
+/** A radius may be zero (a sharp corner) and is zero when left out. */
+function radius(label: string) {
+  return z
+    .number({ error: `The ${label} must be a finite number (in metres), or left out for a sharp corner.` })
+    .refine((v) => v >= 0, { error: (issue) => `The ${label} must not be negative (it is ${mm(issue.input as number)}).` })
+    .default(0);
+}
+
+type Ctx = z.core.$RefinementCtx;
+const fail = (ctx: Ctx, path: string, message: string) => ctx.addIssue({ code: "custom", path: [path], message });
+
+/** I and channel sections share their dimensions; they differ in where the fillets and the web sit. */
+function flanged<S extends "i" | "channel">(shape: S) {
+  const n = DIMENSION_LABELS[shape];
+  return z
+    .object({
+      shape: z.literal(shape),
+      b: length(n.b),
+      d: length(n.d),
+      tf: length(n.tf),
+      tw: length(n.tw),
+      r: radius(n.r),
+    })
+    .superRefine((s, ctx) => {
+      if (2 * s.tf >= s.d) {
+        fail(
+          ctx,
+          "tf",
+          `The flange thickness tf = ${mm(s.tf)} leaves no web in a ${mm(s.d)} deep section: 2 tf must be less than d.`,
+        );
+        return;
+      }
+      if (s.tw >= s.b) {
+        fail(
+          ctx,
+          "tw",
+          `The web thickness tw = ${mm(s.tw)} leaves no flange outstand: it must be less than the flange width b = ${mm(s.b)}.`,
+        );
+        return;
+      }
+      const outstand = shape === "i" ? (s.b - s.tw) / 2 : s.b - s.tw;
+      if (s.r > outstand) {
+        fail(
+          ctx,
+          "r",
+          `The root radius r = ${mm(s.r)} does not fit beside the web: it must not exceed the flange outstand ${shape === "i" ? "(b − tw)/2" : "b − tw"} = ${mm(outstand)}.`,
+        );
+      }
+      if (2 * s.tf + 2 * s.r >= s.d) {
+        fail(
+          ctx,
+          "r",
+          `The root radius r = ${mm(s.r)} leaves no straight web: the flanges and fillets take 2 tf + 2 r = ${mm(2 * s.tf + 2 * s.r)} of the ${mm(s.d)} depth.`,
+        );
+      }
+    });
+}
+
+const n = DIMENSION_LABELS;
+export const sectionInputSchema = z.discriminatedUnion("shape", [
+  flanged("i"),
+  flanged("channel"),
+  z
+    .object({
+      shape: z.literal("rectangular-hollow"),
+      b: length(n["rectangular-hollow"].b),
+      d: length(n["rectangular-hollow"].d),
+      t: length(n["rectangular-hollow"].t),
+      ro: radius(n["rectangular-hollow"].ro),
+    })
+    .superRefine((s, ctx) => {
+      for (const [key, side, word] of [
+        ["b", s.b, "wide"],
+        ["d", s.d, "deep"],
+      ] as const) {
+        if (2 * s.t >= side) {
+          fail(
+            ctx,
+            "t",
+            `The wall thickness t = ${mm(s.t)} leaves no hole in a ${mm(side)} ${word} section: 2 t must be less than ${key}.`,
+          );
+          return;
+        }
+      }
+      const most = Math.min(s.b, s.d) / 2;
+      if (s.ro > most) {
+        fail(
+          ctx,
+          "ro",
+          `The outer corner radius ro = ${mm(s.ro)} does not fit: it must not exceed half the smaller side, ${mm(most)}.`,
+        );
+      }
+    }),
+  z
+    .object({ shape: z.literal("circular-hollow"), D: length(n["circular-hollow"].D), t: length(n["circular-hollow"].t) })
+    .superRefine((s, ctx) => {
+      if (2 * s.t >= s.D) {
+        fail(
+          ctx,
+          "t",
+          `The wall thickness t = ${mm(s.t)} leaves no hole in a ${mm(s.D)} diameter tube: t must be less than D/2 = ${mm(s.D / 2)}.`,
+        );
+      }
+    }),
+  z.object({ shape: z.literal("rectangle"), b: length(n.rectangle.b), d: length(n.rectangle.d) }),
+  z.object({ shape: z.literal("circle"), D: length(n.circle.D) }),
+  z
+    .object({ shape: z.literal("angle"), b: length(n.angle.b), d: length(n.angle.d), t: length(n.angle.t), r: radius(n.angle.r) })
+    .superRefine((s, ctx) => {
+      for (const [key, leg] of [
+        ["b", s.b],
+        ["d", s.d],
+      ] as const) {
+        if (s.t >= leg) {
+          fail(
+            ctx,
+            "t",
+            `The thickness t = ${mm(s.t)} leaves nothing of the ${mm(leg)} leg ${key}: it must be less than ${key}.`,
+          );
+          return;
+        }
+      }
+      const most = Math.min(s.b, s.d) - s.t;
+      if (s.r > most) {
+        fail(
+          ctx,
+          "r",
+          `The root radius r = ${mm(s.r)} does not fit between the legs: it must not exceed the shorter leg less t, ${mm(most)}.`,
+        );
+      }
+    }),
+]);
+
+export type SectionInput = z.input<typeof sectionInputSchema>;
+export type SectionDimensions = z.output<typeof sectionInputSchema>;

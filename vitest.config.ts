@@ -21,7 +21,12 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: "unit",
-          include: ["tests/unit/**/*.test.ts", "tests/engine/**/*.test.ts", "tests/standards/**/*.test.ts"],
+          include: [
+            "tests/unit/**/*.test.ts",
+            "tests/engine/**/*.test.ts",
+            "tests/standards/**/*.test.ts",
+            "tests/libraries/**/*.test.ts",
+          ],
           environment: "node",
           sequence: { groupOrder: 0 },
         },

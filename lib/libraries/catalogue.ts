@@ -10,7 +10,7 @@
 import { math, TRADE_UNITS, unitNamesIn } from "@/lib/standards/units";
 import { parseCsv } from "./csv";
 import { buildSection, type Section } from "./sections";
-import { DIMENSION_LABELS, SECTION_SHAPES, type DimensionKey, type SectionShape } from "./section-schema";
+import { DIMENSION_LABELS, SECTION_SHAPES, SHAPE_NAMES, type DimensionKey, type SectionShape } from "./section-schema";
 
 /** Every property a catalogue may list, with the SI unit it is compared in ("" for ratios). */
 export const LISTED_PROPERTY_UNITS = {
@@ -115,6 +115,17 @@ const KIND_OF: Record<string, string> = {
 
 const SUPERSCRIPTS: Record<string, string> = { "²": "^2", "³": "^3", "⁴": "^4", "⁶": "^6" };
 
+const unknownUnit = (unit: string) => `"${unit}" is not a unit this catalogue reads (write mm, cm, in, mm^2, cm4, in⁴…).`;
+
+/**
+ * A value times its unit's factor. A factor of 1/n for a whole n (mm, cm², cm⁴…) divides by n instead, so
+ * 160 mm becomes 160/1000 m, the double nearest 0.16, as a builder given 0.16 would have it.
+ */
+export function convertToSI(value: number, factor: number): number {
+  const n = Math.round(1 / factor);
+  return n > 1 && Math.abs(1 / factor - n) <= 1e-9 * n ? value / n : value * factor;
+}
+
 /** The factor from a stated unit to the SI unit, or a sentence saying why the unit cannot be used. */
 export function unitFactor(unit: string, si: string): { ok: true; factor: number } | { ok: false; message: string } {
   const text = unit
@@ -128,15 +139,14 @@ export function unitFactor(unit: string, si: string): { ok: true; factor: number
   }
   try {
     const u = math.unit(`1 ${text}`);
-    if (!unitNamesIn(u).every((name) => TRADE_UNITS.has(name)))
-      return { ok: false, message: `"${unit}" is not a unit this catalogue reads.` };
+    if (!unitNamesIn(u).every((name) => TRADE_UNITS.has(name))) return { ok: false, message: unknownUnit(unit) };
     if (!u.equalBase(math.unit(si))) return { ok: false, message: `"${unit}" is not a unit of ${KIND_OF[si] ?? si}.` };
     const factor = u.toNumber(si) as number;
     return Number.isFinite(factor) && factor > 0
       ? { ok: true, factor }
       : { ok: false, message: `"${unit}" cannot be converted.` };
   } catch {
-    return { ok: false, message: `"${unit}" is not a unit this catalogue reads (write mm, cm, in, mm^2, cm4, in⁴…).` };
+    return { ok: false, message: unknownUnit(unit) };
   }
 }
 
@@ -267,20 +277,30 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
       const mapped = dimensions.find((d) => d.key === key);
       if (!mapped) {
         if (!OPTIONAL_DIMENSIONS.has(key))
-          refuse(line, null, `Row ${line}: the mapping names no column for the ${labels[key]}, which a ${shape} section needs.`);
+          refuse(
+            line,
+            null,
+            `Row ${line}: the mapping names no column for the ${labels[key]}, which ${SHAPE_NAMES[shape]} needs.`,
+          );
         continue;
       }
       const cell = fields[mapped.index].trim();
       if (cell === "" && OPTIONAL_DIMENSIONS.has(key)) continue; // no radius: a sharp corner
       const value = readNumber(cell);
       if (value === null) refuse(line, mapped.spec.column, `Row ${line}: the ${labels[key]} "${cell}" is not a number.`);
-      else if (value < 0 || (value === 0 && !OPTIONAL_DIMENSIONS.has(key))) {
+      else if (value < 0 && OPTIONAL_DIMENSIONS.has(key)) {
+        refuse(
+          line,
+          mapped.spec.column,
+          `Row ${line}: the ${labels[key]} is ${cell} ${mapped.spec.unit}; it must not be negative.`,
+        );
+      } else if (value <= 0 && !OPTIONAL_DIMENSIONS.has(key)) {
         refuse(
           line,
           mapped.spec.column,
           `Row ${line}: the ${labels[key]} is ${cell} ${mapped.spec.unit}; it must be greater than zero.`,
         );
-      } else input[key] = value * mapped.factor;
+      } else input[key] = convertToSI(value, mapped.factor);
     }
 
     // Listed properties, in SI.
@@ -290,10 +310,10 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
       if (cell === "") continue; // not listed for this row
       const key = p.key as ListedProperty;
       const value = readNumber(cell);
-      if (value === null) refuse(line, p.spec.column, `Row ${line}: the ${key} "${cell}" is not a number.`);
+      if (value === null) refuse(line, p.spec.column, `Row ${line}: ${key} "${cell}" is not a number.`);
       else if (value <= 0 && !SIGNED.has(key))
-        refuse(line, p.spec.column, `Row ${line}: the ${key} is ${cell} ${p.spec.unit}; it must be greater than zero.`);
-      else listed[key] = value * p.factor;
+        refuse(line, p.spec.column, `Row ${line}: ${key} is ${cell} ${p.spec.unit}; it must be greater than zero.`);
+      else listed[key] = convertToSI(value, p.factor);
     }
     if (problems.length > before) continue;
 
@@ -313,7 +333,7 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
       const mine = computed[key];
       const column = mapping.properties[key]!.column;
       if (mine === undefined) {
-        refuse(line, column, `Row ${line} (${designation}): a ${shape} section has no ${key}; leave the cell empty.`);
+        refuse(line, column, `Row ${line} (${designation}): ${SHAPE_NAMES[shape]} has no ${key}; leave the cell empty.`);
         continue;
       }
       ordered[key] = value;

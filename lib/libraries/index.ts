@@ -1,9 +1,9 @@
 // The firm's libraries, the pure part: the section builder, the catalogue import and the demo catalogue.
 export { buildSection, buildSectionOrThrow, rectangleTorsion } from "./sections";
 export type { BuildSectionResult, Section, SectionProblem, SectionProperties, SectionPropertiesByShape } from "./sections";
-export { DIMENSION_LABELS, SECTION_SHAPES, sectionInputSchema } from "./section-schema";
+export { DIMENSION_LABELS, SECTION_SHAPES, SHAPE_NAMES, sectionInputSchema } from "./section-schema";
 export type { DimensionKey, SectionDimensions, SectionInput, SectionShape } from "./section-schema";
-export { importCatalogue, LISTED_PROPERTY_UNITS, unitFactor } from "./catalogue";
+export { convertToSI, importCatalogue, LISTED_PROPERTY_UNITS, unitFactor } from "./catalogue";
 export type {
   CatalogueDifference,
   CatalogueImport,

@@ -8,6 +8,17 @@ import { z } from "@/lib/domain/zod";
 export const SECTION_SHAPES = ["i", "channel", "rectangular-hollow", "circular-hollow", "rectangle", "circle", "angle"] as const;
 export type SectionShape = (typeof SECTION_SHAPES)[number];
 
+/** A shape's name in a sentence ("… which an I section needs"). */
+export const SHAPE_NAMES: Record<SectionShape, string> = {
+  i: "an I section",
+  channel: "a channel",
+  "rectangular-hollow": "a rectangular hollow section",
+  "circular-hollow": "a circular hollow section",
+  rectangle: "a solid rectangle",
+  circle: "a solid circle",
+  angle: "an angle",
+};
+
 /** What each shape calls its dimensions, for the sentences (and the screens). */
 export const DIMENSION_LABELS = {
   i: { b: "flange width b", d: "depth d", tf: "flange thickness tf", tw: "web thickness tw", r: "root radius r" },
@@ -43,6 +54,9 @@ function radius(label: string) {
     .default(0);
 }
 
+/** A radius "must not exceed" a limit worked out from other dimensions: equal within rounding is allowed. */
+const exceeds = (value: number, limit: number) => value > limit * (1 + 1e-12);
+
 type Ctx = z.core.$RefinementCtx;
 const fail = (ctx: Ctx, path: string, message: string) => ctx.addIssue({ code: "custom", path: [path], message });
 
@@ -76,7 +90,7 @@ function flanged<S extends "i" | "channel">(shape: S) {
         return;
       }
       const outstand = shape === "i" ? (s.b - s.tw) / 2 : s.b - s.tw;
-      if (s.r > outstand) {
+      if (exceeds(s.r, outstand)) {
         fail(
           ctx,
           "r",
@@ -120,7 +134,7 @@ export const sectionInputSchema = z.discriminatedUnion("shape", [
         }
       }
       const most = Math.min(s.b, s.d) / 2;
-      if (s.ro > most) {
+      if (exceeds(s.ro, most)) {
         fail(
           ctx,
           "ro",
@@ -158,7 +172,7 @@ export const sectionInputSchema = z.discriminatedUnion("shape", [
         }
       }
       const most = Math.min(s.b, s.d) - s.t;
-      if (s.r > most) {
+      if (exceeds(s.r, most)) {
         fail(
           ctx,
           "r",

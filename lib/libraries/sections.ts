@@ -159,6 +159,21 @@ function common(p: { A: number; Ix: number; Iy: number; Sx: number; Sy: number; 
   };
 }
 
+/** A section symmetric about both axes, its centre at the origin, b wide and d deep. */
+function doublySymmetric(parts: readonly Part[], b: number, d: number, J: number): Common {
+  const g = centroidalOf(parts);
+  return common({
+    A: g.A,
+    Ix: g.Ix,
+    Iy: g.Iy,
+    Sx: g.Ix / (d / 2),
+    Sy: g.Iy / (b / 2),
+    Zx: plasticModulus(parts, "y", { lo: -d / 2, hi: d / 2, symmetricAt: 0 }).Z,
+    Zy: plasticModulus(parts, "x", { lo: -b / 2, hi: b / 2, symmetricAt: 0 }).Z,
+    J,
+  });
+}
+
 /** Origin at the centre; flanges full width, web between them, four root fillets. */
 function iSection({ b, d, tf, tw, r }: Dims<"i">): SectionPropertiesByShape["i"] {
   const yi = d / 2 - tf;
@@ -166,7 +181,6 @@ function iSection({ b, d, tf, tw, r }: Dims<"i">): SectionPropertiesByShape["i"]
   if (r > 0)
     for (const sx of [1, -1] as const)
       for (const sy of [1, -1] as const) parts.push(spandrel((sx * tw) / 2, sy * yi, sx, -sy as 1 | -1, r));
-  const g = centroidalOf(parts);
   const plain = (2 * b * tf ** 3 + (d - 2 * tf) * tw ** 3) / 3;
   let J = plain;
   if (r > 0) {
@@ -176,16 +190,7 @@ function iSection({ b, d, tf, tw, r }: Dims<"i">): SectionPropertiesByShape["i"]
     if (corrected > 0) J = corrected;
   }
   return {
-    ...common({
-      A: g.A,
-      Ix: g.Ix,
-      Iy: g.Iy,
-      Sx: g.Ix / (d / 2),
-      Sy: g.Iy / (b / 2),
-      Zx: plasticModulus(parts, "y", { lo: -d / 2, hi: d / 2, symmetricAt: 0 }).Z,
-      Zy: plasticModulus(parts, "x", { lo: -b / 2, hi: b / 2, symmetricAt: 0 }).Z,
-      J,
-    }),
+    ...doublySymmetric(parts, b, d, J),
     b_2tf: b / (2 * tf),
     h_tw: (d - 2 * tf - 2 * r) / tw,
   };
@@ -229,22 +234,12 @@ function rectangularHollow({ b, d, t, ro }: Dims<"rectangular-hollow">): Section
       if (ri > 0) parts.push(spandrel(sx * bi, sy * di, ...inward, ri, 1));
     }
   }
-  const g = centroidalOf(parts);
   // Mid-line of the wall: a rectangle (b − t) × (d − t) with corners of radius rm.
   const rm = (ro + ri) / 2;
   const Am = (b - t) * (d - t) - (4 - Math.PI) * rm * rm;
   const pm = 2 * (b - t + (d - t)) - 2 * (4 - Math.PI) * rm;
   return {
-    ...common({
-      A: g.A,
-      Ix: g.Ix,
-      Iy: g.Iy,
-      Sx: g.Ix / (d / 2),
-      Sy: g.Iy / (b / 2),
-      Zx: plasticModulus(parts, "y", { lo: -d / 2, hi: d / 2, symmetricAt: 0 }).Z,
-      Zy: plasticModulus(parts, "x", { lo: -b / 2, hi: b / 2, symmetricAt: 0 }).Z,
-      J: (4 * Am * Am * t) / pm + (pm * t ** 3) / 3,
-    }),
+    ...doublySymmetric(parts, b, d, (4 * Am * Am * t) / pm + (pm * t ** 3) / 3),
     b_t: (b - 2 * t - 2 * ri) / t,
     h_t: (d - 2 * t - 2 * ri) / t,
   };

@@ -137,6 +137,24 @@ describe("importing a catalogue", () => {
     );
   });
 
+  it("a catalogue in US units, one shape for every row: inches and in⁴ converted exactly (1 in = 0.0254 m)", () => {
+    const mapping: CatalogueMapping = {
+      designation: "Size",
+      shape: { all: "rectangle" },
+      dimensions: { b: { column: "Width", unit: "in" }, d: { column: "Depth", unit: "in" } },
+      properties: { Ix: { column: "Ixx", unit: "in⁴" }, Sx: { column: "Sxx", unit: "in^3" } },
+    };
+    // 4 × 12 in: Ix = 4·12³/12 = 576 in⁴, Sx = 4·12²/6 = 96 in³; a 4 × 10 in listed with 12 in's values.
+    const out = importCatalogue("Size,Width,Depth,Ixx,Sxx\n4x12,4,12,576,96\n4x10,4,10,576,96\n", mapping);
+    expect(out.problems).toEqual([]);
+    expect(out.rows[0].section.dimensions).toEqual({ shape: "rectangle", b: 4 * 0.0254, d: 12 * 0.0254 });
+    expect(out.differences.map((d) => [d.designation, d.property])).toEqual([
+      ["4x10", "Ix"],
+      ["4x10", "Sx"],
+    ]);
+    expectClose(out.differences[0].relativeDifference, 576 / ((4 * 10 ** 3) / 12) - 1, 1e-12);
+  });
+
   it("the demo catalogue, written as a firm's CSV and read back: every row, no problem, no difference", () => {
     const out = importCatalogue(renderDemoCatalogueCsv(), DEMO_CATALOGUE_MAPPING);
     expect(out.problems).toEqual([]);

@@ -224,7 +224,7 @@ describe("angle: principal axes", () => {
     expectClose(p.Iv, p.Ix + p.Ixy, 1e-12);
   });
 
-  it("without root radius: A = (b + d − t)t and the centroid (Σ A x)/A, worked by hand; J = (b + d − t)t³/3", () => {
+  it("without root radius, worked by hand from the two legs: A, centroid, Ix, Iy, Ixy, Sx, Sy, and J = (b + d − t)t³/3", () => {
     // b = 75, d = 100, t = 8: the vertical leg 8 × 100 and the horizontal 67 × 8.
     const p = props({ shape: "angle", b: 75 * MM, d: 100 * MM, t: 8 * MM });
     const A = 800 + 536; // mm²
@@ -233,6 +233,16 @@ describe("angle: principal axes", () => {
     expectClose(p.yc, ((800 * 50 + 536 * 4) / A) * MM, 1e-13);
     expectClose(p.J, ((167 * 8 ** 3) / 3) * MM ** 4, 1e-13);
     expectClose(p.b_t, 75 / 8, 1e-15);
+    // Second moments about the heel's lines, less A times the centroid's distance squared; S to the far fibre.
+    const [xc, yc] = [(800 * 4 + 536 * 41.5) / A, (800 * 50 + 536 * 4) / A]; // 19.045, 31.549 mm
+    const Ix = (8 * 100 ** 3) / 3 + (67 * 8 ** 3) / 3 - A * yc ** 2;
+    const Iy = (100 * 8 ** 3) / 3 + (8 * (75 ** 3 - 8 ** 3)) / 3 - A * xc ** 2;
+    expectClose(p.Ix, Ix * MM ** 4, 1e-12);
+    expectClose(p.Iy, Iy * MM ** 4, 1e-12);
+    expectClose(p.Sx, (Ix / (100 - yc)) * MM ** 3, 1e-12);
+    expectClose(p.Sy, (Iy / (75 - xc)) * MM ** 3, 1e-12);
+    // Product of inertia: each leg's own is zero (rectangles), so Ixy = Σ A (x − xc)(y − yc).
+    expectClose(p.Ixy, (800 * (4 - xc) * (50 - yc) + 536 * (41.5 - xc) * (4 - yc)) * MM ** 4, 1e-12);
   });
 
   it("Su and Sv reach the outline's farthest point from each principal axis (outline sampled, fillet arc included)", () => {

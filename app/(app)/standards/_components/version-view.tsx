@@ -252,7 +252,7 @@ function VerificationTable({ results }: { results: VerificationResult[] }) {
             data-testid="verification-row"
             data-pass={result.pass ? "true" : "false"}
           >
-            <td className="px-4 py-2 align-top">
+            <td className="min-w-[14rem] px-4 py-2 align-top">
               {index === 0 ? (
                 <>
                   <span className="font-medium text-ink-900">{result.name}</span>

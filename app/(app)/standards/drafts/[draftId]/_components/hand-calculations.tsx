@@ -96,7 +96,7 @@ export function HandCalculations({
               id={inputId}
               type="file"
               accept="application/pdf,image/png,image/jpeg"
-              className="block text-sm text-ink-900"
+              className="block text-sm text-ink-900 file:mr-3 file:rounded-plate file:border-0 file:bg-paper-sunk file:px-3 file:py-1.5 file:text-sm file:font-medium file:text-ink-900 file:ring-1 file:ring-ink-300"
               data-testid="attach-file"
               onChange={(event) => setFile(event.target.files?.[0] ?? null)}
             />

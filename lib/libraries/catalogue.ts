@@ -160,7 +160,7 @@ function readNumber(cell: string): number | null {
   return Number.isFinite(value) ? value : null;
 }
 
-const OPTIONAL_DIMENSIONS: ReadonlySet<string> = new Set(["r", "ro"]);
+const OPTIONAL_DIMENSIONS: ReadonlySet<string> = new Set(["r", "ro", "r2"]);
 
 export function importCatalogue(text: string, mapping: CatalogueMapping, options: CatalogueOptions = {}): CatalogueImport {
   const tolerance = options.tolerance ?? 0.01;

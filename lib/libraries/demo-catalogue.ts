@@ -40,10 +40,10 @@ export const DEMO_SECTIONS: readonly DemoEntry[] = [
   { designation: "GT 114x5", mm: { shape: "circular-hollow", D: 114, t: 5 } },
   { designation: "GT 168x6", mm: { shape: "circular-hollow", D: 168, t: 6 } },
   { designation: "GT 273x8", mm: { shape: "circular-hollow", D: 273, t: 8 } },
-  { designation: "GL 60x60x6", mm: { shape: "angle", b: 60, d: 60, t: 6, r: 8 } },
-  { designation: "GL 100x100x10", mm: { shape: "angle", b: 100, d: 100, t: 10, r: 12 } },
-  { designation: "GL 100x75x8", mm: { shape: "angle", b: 75, d: 100, t: 8, r: 10 } },
-  { designation: "GL 150x90x10", mm: { shape: "angle", b: 90, d: 150, t: 10, r: 12 } },
+  { designation: "GL 60x60x6", mm: { shape: "angle", b: 60, d: 60, t: 6, r: 8, r2: 4 } },
+  { designation: "GL 100x100x10", mm: { shape: "angle", b: 100, d: 100, t: 10, r: 12, r2: 6 } },
+  { designation: "GL 100x75x8", mm: { shape: "angle", b: 75, d: 100, t: 8, r: 10, r2: 5 } },
+  { designation: "GL 150x90x10", mm: { shape: "angle", b: 90, d: 150, t: 10, r: 12, r2: 6 } },
 ];
 
 function inMetres(entry: DemoEntry): SectionInput {
@@ -70,6 +70,7 @@ export const DEMO_CATALOGUE_MAPPING: CatalogueMapping = {
     t: { column: "t", unit: "mm" },
     r: { column: "r", unit: "mm" },
     ro: { column: "ro", unit: "mm" },
+    r2: { column: "r2", unit: "mm" },
   },
   properties: {
     A: { column: "A", unit: "cm²" },
@@ -94,6 +95,7 @@ const COLUMNS = [
   "t",
   "r",
   "ro",
+  "r2",
   "A",
   "Ix",
   "Iy",

@@ -27,7 +27,7 @@ export const DIMENSION_LABELS = {
   "circular-hollow": { D: "outside diameter D", t: "wall thickness t" },
   rectangle: { b: "width b", d: "depth d" },
   circle: { D: "diameter D" },
-  angle: { b: "leg b", d: "leg d", t: "thickness t", r: "root radius r" },
+  angle: { b: "leg b", d: "leg d", t: "thickness t", r: "root radius r", r2: "toe radius r2" },
 } as const satisfies Record<SectionShape, Record<string, string>>;
 
 /** Every dimension key any shape uses. */
@@ -156,7 +156,14 @@ export const sectionInputSchema = z.discriminatedUnion("shape", [
   z.object({ shape: z.literal("rectangle"), b: length(n.rectangle.b), d: length(n.rectangle.d) }),
   z.object({ shape: z.literal("circle"), D: length(n.circle.D) }),
   z
-    .object({ shape: z.literal("angle"), b: length(n.angle.b), d: length(n.angle.d), t: length(n.angle.t), r: radius(n.angle.r) })
+    .object({
+      shape: z.literal("angle"),
+      b: length(n.angle.b),
+      d: length(n.angle.d),
+      t: length(n.angle.t),
+      r: radius(n.angle.r),
+      r2: radius(n.angle.r2),
+    })
     .superRefine((s, ctx) => {
       for (const [key, leg] of [
         ["b", s.b],
@@ -177,6 +184,16 @@ export const sectionInputSchema = z.discriminatedUnion("shape", [
           ctx,
           "r",
           `The root radius r = ${mm(s.r)} does not fit between the legs: it must not exceed the shorter leg less t, ${mm(most)}.`,
+        );
+        return;
+      }
+      if (exceeds(s.r2, s.t)) {
+        fail(ctx, "r2", `The toe radius r2 = ${mm(s.r2)} does not fit the thickness: it must not exceed t = ${mm(s.t)}.`);
+      } else if (exceeds(s.r + s.r2, most)) {
+        fail(
+          ctx,
+          "r2",
+          `The toe radius r2 = ${mm(s.r2)} meets the root fillet: r + r2 = ${mm(s.r + s.r2)} must not exceed the shorter leg less t, ${mm(most)}.`,
         );
       }
     }),

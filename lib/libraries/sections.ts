@@ -8,8 +8,9 @@
  * y axis and for both axes of an angle). r = √(I/A).
  *
  * Geometry assumed, as tables of rolled sections do: flanges of I sections and channels are parallel (no
- * taper); the root fillet is a quarter circle tangent to web and flange; toes and flange tips are square
- * (no toe radius). Hollow sections have concentric corners: inner radius ri = max(ro − t, 0).
+ * taper); the root fillet is a quarter circle tangent to web and flange; flange tips are square. An angle's
+ * toes may be rounded (toe radius r2, a quarter circle at the inner edge of each leg's tip, as angle tables
+ * draw them); the other shapes have none. Hollow sections have concentric corners: ri = max(ro − t, 0).
  *
  * St Venant torsion constant J, convention by shape:
  * - circle and circular hollow: exact (J = 2I, the polar moment).
@@ -286,9 +287,10 @@ function solidCircle({ D }: Dims<"circle">): SectionPropertiesByShape["circle"] 
 }
 
 /** Origin at the heel; leg d up the y axis (x from 0 to t), leg b along the x axis, the root fillet at (t, t). */
-function angle({ b, d, t, r }: Dims<"angle">): SectionPropertiesByShape["angle"] {
+function angle({ b, d, t, r, r2 }: Dims<"angle">): SectionPropertiesByShape["angle"] {
   const parts: Part[] = [rect(0, t, 0, d), rect(t, b, 0, t)];
   if (r > 0) parts.push(spandrel(t, t, 1, 1, r));
+  if (r2 > 0) parts.push(spandrel(b, t, -1, -1, r2, -1), spandrel(t, d, -1, -1, r2, -1));
   const g = centroidalOf(parts);
   const mean = (g.Ix + g.Iy) / 2;
   const radius = Math.hypot((g.Ix - g.Iy) / 2, g.Ixy);
@@ -296,17 +298,9 @@ function angle({ b, d, t, r }: Dims<"angle">): SectionPropertiesByShape["angle"]
   // Iv by the product IuIv = IxIy − Ixy² (no cancellation when the two are close to each other).
   const Iv = (g.Ix * g.Iy - g.Ixy * g.Ixy) / Iu;
   const alpha = g.Ixy === 0 && g.Ix >= g.Iy ? 0 : Math.atan2(-2 * g.Ixy, g.Ix - g.Iy) / 2;
-  // The outline's convex corners (the fillet sits inside their hull), relative to the centroid.
-  const corners = [
-    [0, 0],
-    [b, 0],
-    [b, t],
-    [t, d],
-    [0, d],
-  ].map(([x, y]) => [x - g.xc, y - g.yc]);
   const [c, s] = [Math.cos(alpha), Math.sin(alpha)];
-  const toU = Math.max(...corners.map(([x, y]) => Math.abs(-x * s + y * c)));
-  const toV = Math.max(...corners.map(([x, y]) => Math.abs(x * c + y * s)));
+  const outline = angleOutline(b, d, t, r2, g.xc, g.yc);
+  const [toU, toV] = [farthestFrom(outline, -s, c), farthestFrom(outline, c, s)];
   const A = g.A;
   return {
     ...common({
@@ -332,4 +326,29 @@ function angle({ b, d, t, r }: Dims<"angle">): SectionPropertiesByShape["angle"]
     b_t: b / t,
     d_t: d / t,
   };
+}
+
+/**
+ * An angle's outline where it can be farthest from an axis, relative to the centroid: its convex corners and
+ * the two toe arcs (centre and radius; each spans the quarter facing +x, +y). The root fillet lies inside
+ * the hull of these, so it is never an extreme fibre.
+ */
+function angleOutline(b: number, d: number, t: number, r2: number, xc: number, yc: number) {
+  const at = (x: number, y: number): [number, number] => [x - xc, y - yc];
+  return {
+    points: [at(0, 0), at(b, 0), at(b, t - r2), at(b - r2, t), at(t, d - r2), at(t - r2, d), at(0, d)],
+    arcs: [at(b - r2, t - r2), at(t - r2, d - r2)].map((centre) => ({ centre, radius: r2 })),
+  };
+}
+
+/** The largest distance of the outline from the axis through the centroid whose normal is (nx, ny). */
+function farthestFrom(outline: ReturnType<typeof angleOutline>, nx: number, ny: number): number {
+  let most = Math.max(...outline.points.map(([x, y]) => Math.abs(nx * x + ny * y)));
+  for (const { centre, radius } of outline.arcs) {
+    // Along ±n an arc reaches centre·n ± radius where ±n points into its quarter; otherwise an end (a point above) is farthest.
+    for (const sign of [1, -1]) {
+      if (sign * nx >= 0 && sign * ny >= 0) most = Math.max(most, Math.abs(nx * centre[0] + ny * centre[1] + sign * radius));
+    }
+  }
+  return most;
 }

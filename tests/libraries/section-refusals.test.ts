@@ -141,12 +141,28 @@ describe("thicknesses less than what they cut into, radii that fit", () => {
     expect(problemsOf(input)).toEqual([{ path, message }]);
   });
 
+  it.each([
+    [
+      "angle: a toe radius thicker than the leg",
+      { shape: "angle", b: 100 * MM, d: 100 * MM, t: 10 * MM, r: 12 * MM, r2: 11 * MM },
+      "The toe radius r2 = 11 mm does not fit the thickness: it must not exceed t = 10 mm.",
+    ],
+    [
+      "angle: a toe radius that meets the root fillet",
+      { shape: "angle", b: 40 * MM, d: 100 * MM, t: 10 * MM, r: 25 * MM, r2: 6 * MM },
+      "The toe radius r2 = 6 mm meets the root fillet: r + r2 = 31 mm must not exceed the shorter leg less t, 30 mm.",
+    ],
+  ])("%s", (_, input, message) => {
+    expect(problemsOf(input)).toEqual([{ path: "r2", message }]);
+  });
+
   it("at the limits that still leave a section, the builder answers with finite numbers", () => {
     for (const input of [
       { ...I, r: 71.5 * MM },
       { shape: "rectangular-hollow", b: 100 * MM, d: 100 * MM, t: 49.9 * MM, ro: 50 * MM },
       { shape: "circular-hollow", D: 100 * MM, t: 49.99 * MM },
       { shape: "angle", b: 100 * MM, d: 60 * MM, t: 8 * MM, r: 52 * MM },
+      { shape: "angle", b: 100 * MM, d: 60 * MM, t: 8 * MM, r: 44 * MM, r2: 8 * MM },
       { shape: "angle", b: 100 * MM, d: 100 * MM, t: 99.9 * MM },
     ]) {
       const out = buildSection(input);

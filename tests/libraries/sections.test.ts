@@ -171,6 +171,15 @@ describe("rolled sections with root radius: table values of SCI P363 (the 'Blue 
     expectRoundsTo(p.Iy / 1e-8, 404, 1);
     expectRoundsTo(p.xc / 1e-2, 2.6, 0.01);
   });
+
+  it("L 100×100×10 (EN 10056-1 dimensions: r1 12, r2 6 mm): A, I, Iu, Iv and the centroid from the heel", () => {
+    const p = props({ shape: "angle", b: 100 * MM, d: 100 * MM, t: 10 * MM, r: 12 * MM, r2: 6 * MM });
+    expectRoundsTo(p.A / 1e-4, 19.2, 0.1);
+    expectRoundsTo(p.Ix / 1e-8, 177, 1);
+    expectRoundsTo(p.Iu / 1e-8, 280, 1);
+    expectRoundsTo(p.Iv / 1e-8, 73.0, 0.1);
+    expectRoundsTo(p.yc / 1e-2, 2.82, 0.01);
+  });
 });
 
 describe("rectangular hollow section", () => {
@@ -245,28 +254,34 @@ describe("angle: principal axes", () => {
     expectClose(p.Ixy, (800 * (4 - xc) * (50 - yc) + 536 * (41.5 - xc) * (4 - yc)) * MM ** 4, 1e-12);
   });
 
-  it("Su and Sv reach the outline's farthest point from each principal axis (outline sampled, fillet arc included)", () => {
-    const [b, d, t, r] = [0.09, 0.15, 0.01, 0.012];
-    const p = props({ shape: "angle", b, d, t, r });
+  it("Su and Sv reach the outline's farthest point from each principal axis (outline sampled, fillet and toe arcs included)", () => {
+    const [b, d, t, r, r2] = [0.09, 0.15, 0.01, 0.012, 0.006];
+    const p = props({ shape: "angle", b, d, t, r, r2 });
     const outline: [number, number][] = [];
     const edge = (x0: number, y0: number, x1: number, y1: number) => {
       for (let i = 0; i <= 1000; i++) outline.push([x0 + ((x1 - x0) * i) / 1000, y0 + ((y1 - y0) * i) / 1000]);
     };
+    const arc = (cx: number, cy: number, radius: number, from: number) => {
+      for (let i = 0; i <= 20_000; i++) {
+        const a = from + (Math.PI / 2) * (i / 20_000);
+        outline.push([cx + radius * Math.cos(a), cy + radius * Math.sin(a)]);
+      }
+    };
     edge(0, 0, b, 0);
-    edge(b, 0, b, t);
-    edge(b, t, t + r, t);
-    for (let i = 0; i <= 1000; i++) {
-      const a = (Math.PI / 2) * (i / 1000);
-      outline.push([t + r - r * Math.cos(a), t + r - r * Math.sin(a)]);
-    }
-    edge(t, t + r, t, d);
-    edge(t, d, 0, d);
+    edge(b, 0, b, t - r2);
+    arc(b - r2, t - r2, r2, 0);
+    edge(b - r2, t, t + r, t);
+    arc(t + r, t + r, r, Math.PI);
+    edge(t, t + r, t, d - r2);
+    arc(t - r2, d - r2, r2, 0);
+    edge(t - r2, d, 0, d);
     edge(0, d, 0, 0);
     const [c, s] = [Math.cos(p.alpha), Math.sin(p.alpha)];
     const toU = Math.max(...outline.map(([x, y]) => Math.abs(-(x - p.xc) * s + (y - p.yc) * c)));
     const toV = Math.max(...outline.map(([x, y]) => Math.abs((x - p.xc) * c + (y - p.yc) * s)));
-    expectClose(p.Su, p.Iu / toU, 1e-12);
-    expectClose(p.Sv, p.Iv / toV, 1e-12);
+    // A sampled arc falls short of its farthest point by at most r(1 − cos(Δθ/2)) ≈ 8e-10 r.
+    expectClose(p.Su, p.Iu / toU, 1e-9);
+    expectClose(p.Sv, p.Iv / toV, 1e-9);
   });
 });
 
@@ -331,10 +346,13 @@ function stripsOf(section: Section): StripPair {
     case "rectangle":
       return { y: { width: () => s.b, breaks: sym([s.d / 2]) }, x: { width: () => s.d, breaks: sym([s.b / 2]) } };
     case "angle": {
-      const { b, d, t, r } = s;
+      // Across leg b's tip the toe takes arcOffset(r2, ·) off in the top r2 of its thickness; likewise leg d's.
+      const { b, d, t, r, r2 } = s;
+      const across = (long: number, other: number) => (u: number) =>
+        u < t ? long - arcOffset(r2, u - (t - r2)) : t + arcOffset(r, t + r - u) - arcOffset(r2, u - (other - r2));
       return {
-        y: { width: (y) => (y < t ? b : t + arcOffset(r, t + r - y)), breaks: [0, t, t + r, d] },
-        x: { width: (x) => (x < t ? d : t + arcOffset(r, t + r - x)), breaks: [0, t, t + r, b] },
+        y: { width: across(b, d), breaks: [0, t - r2, t, t + r, d - r2, d] },
+        x: { width: across(d, b), breaks: [0, t - r2, t, t + r, b - r2, b] },
       };
     }
   }
@@ -375,8 +393,9 @@ function randomInput(shape: Section["shape"], rand: () => number): Record<string
       const b = between(30, 250);
       const d = between(30, 250);
       const t = between(0.04, 0.2) * Math.min(b, d);
-      const r = rand() < 0.2 ? 0 : between(0, 1.5) * t;
-      return { shape, b: b * MM, d: d * MM, t: t * MM, r: Math.min(r, Math.min(b, d) - t) * MM };
+      const r = Math.min(rand() < 0.2 ? 0 : between(0, 1.5) * t, Math.min(b, d) - t);
+      const r2 = rand() < 0.2 ? 0 : between(0, 1) * Math.min(t, Math.min(b, d) - t - r);
+      return { shape, b: b * MM, d: d * MM, t: t * MM, r: r * MM, r2: r2 * MM };
     }
   }
 }
@@ -461,6 +480,6 @@ describe("results as data", () => {
       ...["A", "Ix", "Iy", "Sx", "Sy", "Zx", "Zy", "rx", "ry", "J"],
       ...["xc", "yc", "Ixy", "Iu", "Iv", "alpha", "Su", "Sv", "ru", "rv", "b_t", "d_t"],
     ]);
-    expect(angle.dimensions).toEqual({ shape: "angle", b: 0.1, d: 0.1, t: 0.01, r: 0 });
+    expect(angle.dimensions).toEqual({ shape: "angle", b: 0.1, d: 0.1, t: 0.01, r: 0, r2: 0 });
   });
 });

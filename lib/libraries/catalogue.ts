@@ -4,6 +4,9 @@
  * unit, and every row is built again from its dimensions by the section builder; a listed property that
  * differs from the builder's by more than the tolerance (1 %) is listed, so a lead sees it before publishing.
  *
+ * Expect some listed J to differ where a table's convention is not the builder's (sections.ts says which it
+ * uses): rolled channels and angles are often tabulated with fillet corrections the builder does not make.
+ *
  * Nothing here reads files or writes anything: text and mapping in, a typed result out. A result with any
  * problem must import nothing (`ok` is false); its rows and differences are still given for the preview.
  */
@@ -41,6 +44,8 @@ export const LISTED_PROPERTY_UNITS = {
   b_t: "",
   h_t: "",
   d_t: "",
+  c_tf: "",
+  bd_2t: "",
   D_t: "",
 } as const;
 export type ListedProperty = keyof typeof LISTED_PROPERTY_UNITS;
@@ -241,7 +246,7 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
   );
   if (problems.length > 0) return done();
 
-  const firstRowOf = new Map<string, number>();
+  const firstRowOf = new Map<string, { line: number; text: string }>();
   for (const record of records) {
     const { line, fields } = record;
     const before = problems.length;
@@ -249,15 +254,19 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
       refuse(line, null, `Row ${line} has ${fields.length} fields; the header has ${header.fields.length}.`);
       continue;
     }
+    // Designations are compared without case and with runs of spaces as one: a picker would show
+    // "GI 300x150x10" and "gi  300x150x10" as the same section.
     const designation = fields[designationAt!].trim();
+    const same = designation.toLowerCase().replace(/\s+/g, " ");
+    const first = firstRowOf.get(same);
     if (designation === "") refuse(line, mapping.designation, `Row ${line} has no designation.`);
-    else if (firstRowOf.has(designation)) {
+    else if (first !== undefined) {
       refuse(
         line,
         mapping.designation,
-        `Row ${line} repeats the designation "${designation}" of row ${firstRowOf.get(designation)}.`,
+        `Row ${line} repeats the designation "${designation}" of row ${first.line} ("${first.text}").`,
       );
-    } else firstRowOf.set(designation, line);
+    } else firstRowOf.set(same, { line, text: designation });
 
     const shape = shapeOf(mapping, shapeAt === null ? "" : fields[shapeAt]);
     if (shape === null) {

@@ -33,6 +33,11 @@
  *   17 and 19; with t the thickness given — AISC's design thickness of 0.93 t for ERW tubes is not applied).
  * - circular hollow: D_t = D/t (case 20).
  * - angle: b_t = b/t and d_t = d/t, whole leg widths (Table B4.1a case 3).
+ * And as EN 1993-1-1:2005 Table 5.2 measures them (from memory), where they differ:
+ * - I section: c_tf = c/tf with c = (b − tw − 2r)/2, the outstand flange clear of the fillet (sheet 2); the
+ *   web's c/tw is h_tw above (c = d − 2tf − 2r, sheet 1).
+ * - channel: c_tf = (b − tw − r)/tf.
+ * - angle: bd_2t = (b + d)/(2t) (sheet 3; with h/t, which is d_t or b_t).
  */
 import { centroidalOf, plasticModulus, rect, spandrel, type Part } from "./section-geometry";
 import { SECTION_SHAPES, sectionInputSchema, type SectionDimensions, type SectionShape } from "./section-schema";
@@ -52,9 +57,9 @@ interface Common {
 
 /** Properties by shape, each in a fixed key order (the object is hashed as it is). */
 export interface SectionPropertiesByShape {
-  i: Common & { b_2tf: number; h_tw: number };
+  i: Common & { b_2tf: number; h_tw: number; c_tf: number };
   /** xc: centroid from the back of the web; xp: plastic neutral axis (y axis) from the back of the web. */
-  channel: Common & { xc: number; xp: number; b_tf: number; h_tw: number };
+  channel: Common & { xc: number; xp: number; b_tf: number; h_tw: number; c_tf: number };
   "rectangular-hollow": Common & { b_t: number; h_t: number };
   "circular-hollow": Common & { D_t: number };
   rectangle: Common;
@@ -78,6 +83,7 @@ export interface SectionPropertiesByShape {
     rv: number;
     b_t: number;
     d_t: number;
+    bd_2t: number;
   };
 }
 export type SectionProperties = SectionPropertiesByShape[SectionShape];
@@ -194,6 +200,7 @@ function iSection({ b, d, tf, tw, r }: Dims<"i">): SectionPropertiesByShape["i"]
     ...doublySymmetric(parts, b, d, J),
     b_2tf: b / (2 * tf),
     h_tw: (d - 2 * tf - 2 * r) / tw,
+    c_tf: (b - tw - 2 * r) / (2 * tf),
   };
 }
 
@@ -219,6 +226,7 @@ function channel({ b, d, tf, tw, r }: Dims<"channel">): SectionPropertiesByShape
     xp: zy.c,
     b_tf: b / tf,
     h_tw: (d - 2 * tf - 2 * r) / tw,
+    c_tf: (b - tw - r) / tf,
   };
 }
 
@@ -325,6 +333,7 @@ function angle({ b, d, t, r, r2 }: Dims<"angle">): SectionPropertiesByShape["ang
     rv: Math.sqrt(Iv / A),
     b_t: b / t,
     d_t: d / t,
+    bd_2t: (b + d) / (2 * t),
   };
 }
 

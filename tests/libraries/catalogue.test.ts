@@ -218,8 +218,17 @@ describe("refusals, each with its row and column; a file with any imports nothin
   });
 
   it("duplicate designations (naming the first row), a blank designation, an unknown shape, a short row", () => {
-    expect(only(csv(GOOD, "Q,UB,200,400,20,10,,,,", GOOD, ",UB,200,400,20,10,,,,", "T,Tee,1,1,1,1,,,,", "U,UB,1"))).toEqual([
-      { row: 4, column: "Name", message: 'Row 4 repeats the designation "X-400" of row 2.' },
+    const rows = [
+      GOOD,
+      "Q,UB,200,400,20,10,,,,",
+      GOOD,
+      ",UB,200,400,20,10,,,,",
+      "T,Tee,1,1,1,1,,,,",
+      "U,UB,1",
+      "x-400 ,UB,200,400,20,10,,,,",
+    ];
+    expect(only(csv(...rows))).toEqual([
+      { row: 4, column: "Name", message: 'Row 4 repeats the designation "X-400" of row 2 ("X-400").' },
       { row: 5, column: "Name", message: "Row 5 has no designation." },
       {
         row: 6,
@@ -228,6 +237,7 @@ describe("refusals, each with its row and column; a file with any imports nothin
           'Row 6: the shape "Tee" is not one the builder knows (i, channel, rectangular-hollow, circular-hollow, rectangle, circle, angle).',
       },
       { row: 7, column: null, message: "Row 7 has 3 fields; the header has 10." },
+      { row: 8, column: "Name", message: 'Row 8 repeats the designation "x-400" of row 2 ("X-400").' },
     ]);
   });
 

@@ -120,6 +120,13 @@ describe("I section without root radius: numbers worked by hand from the plate f
     expectClose(p.b_2tf, 200 / 40, 1e-15);
     expectClose(p.h_tw, 360 / 10, 1e-15);
   });
+
+  it("the flange outstand's c/tf as EN 1993-1-1 Table 5.2 measures it, c = (b − tw − 2r)/2 (from memory)", () => {
+    expectClose(p.c_tf, (200 - 10) / 2 / 20, 1e-15);
+    const rolled = props({ shape: "i", b: 200 * MM, d: 400 * MM, tf: 20 * MM, tw: 10 * MM, r: 15 * MM });
+    expectClose(rolled.c_tf, (200 - 10 - 30) / 2 / 20, 1e-14);
+    expectClose(rolled.h_tw, (400 - 40 - 30) / 10, 1e-14);
+  });
 });
 
 describe("channel without root radius: numbers worked by hand", () => {
@@ -139,6 +146,7 @@ describe("channel without root radius: numbers worked by hand", () => {
     expectClose(p.J, ((2 * 100 * 15 ** 3 + 270 * 10 ** 3) / 3) * MM ** 4, 1e-13);
     expectClose(p.b_tf, 100 / 15, 1e-15);
     expectClose(p.h_tw, 270 / 10, 1e-15);
+    expectClose(p.c_tf, 90 / 15, 1e-15);
   });
 
   it("Zy about the equal-area axis, 9.5 mm from the back (300 p = 5700/2 with p inside the web), not the centroid", () => {
@@ -242,6 +250,7 @@ describe("angle: principal axes", () => {
     expectClose(p.yc, ((800 * 50 + 536 * 4) / A) * MM, 1e-13);
     expectClose(p.J, ((167 * 8 ** 3) / 3) * MM ** 4, 1e-13);
     expectClose(p.b_t, 75 / 8, 1e-15);
+    expectClose(p.bd_2t, 175 / 16, 1e-15);
     // Second moments about the heel's lines, less A times the centroid's distance squared; S to the far fibre.
     const [xc, yc] = [(800 * 4 + 536 * 41.5) / A, (800 * 50 + 536 * 4) / A]; // 19.045, 31.549 mm
     const Ix = (8 * 100 ** 3) / 3 + (67 * 8 ** 3) / 3 - A * yc ** 2;
@@ -470,6 +479,7 @@ describe("results as data", () => {
       "xp",
       "b_tf",
       "h_tw",
+      "c_tf",
     ]);
     expect(Object.keys(a.dimensions)).toEqual(["shape", "b", "d", "tf", "tw", "r"]);
     expect(JSON.stringify(buildSectionOrThrow({ r: 0.012, tw: 0.009, tf: 0.0155, d: 0.3, b: 0.09, shape: "channel" }))).toBe(
@@ -478,7 +488,7 @@ describe("results as data", () => {
     const angle = buildSectionOrThrow({ shape: "angle", b: 0.1, d: 0.1, t: 0.01 });
     expect(Object.keys(angle.properties)).toEqual([
       ...["A", "Ix", "Iy", "Sx", "Sy", "Zx", "Zy", "rx", "ry", "J"],
-      ...["xc", "yc", "Ixy", "Iu", "Iv", "alpha", "Su", "Sv", "ru", "rv", "b_t", "d_t"],
+      ...["xc", "yc", "Ixy", "Iu", "Iv", "alpha", "Su", "Sv", "ru", "rv", "b_t", "d_t", "bd_2t"],
     ]);
     expect(angle.dimensions).toEqual({ shape: "angle", b: 0.1, d: 0.1, t: 0.01, r: 0, r2: 0 });
   });

@@ -38,12 +38,28 @@ export function mm(metres: number): string {
   return `${Number((metres * 1000).toPrecision(6))} mm`;
 }
 
+/** Bounds of any dimension: beyond them the input is a slip (mm typed as metres), and the integrals would underflow. */
+const SMALLEST = 1e-5;
+const LARGEST = 10;
+
 function length(label: string) {
   return z
     .number({
       error: (issue) => (issue.input === undefined ? `Give the ${label}.` : `The ${label} must be a finite number (in metres).`),
     })
-    .refine((v) => v > 0, { error: (issue) => `The ${label} must be greater than zero (it is ${mm(issue.input as number)}).` });
+    .refine((v) => v > 0, {
+      error: (issue) => `The ${label} must be greater than zero (it is ${mm(issue.input as number)}).`,
+      abort: true,
+    })
+    .refine((v) => v >= SMALLEST, {
+      error: (issue) => `The ${label} is ${mm(issue.input as number)}: no structural section is thinner than ${mm(SMALLEST)}.`,
+      abort: true,
+    })
+    .refine((v) => v <= LARGEST, {
+      // Millimetres given where metres are wanted are the likely cause.
+      error: (issue) =>
+        `The ${label} is ${mm(issue.input as number)}, more than ${LARGEST} m: give dimensions in metres (300 mm is 0.3).`,
+    });
 }
 
 /** A radius may be zero (a sharp corner) and is zero when left out. */

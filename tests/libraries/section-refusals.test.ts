@@ -39,6 +39,16 @@ describe("what any dimension must be", () => {
     ]);
   });
 
+  it("between 0.01 mm and 10 m: a depth in millimetres typed where metres are wanted is caught", () => {
+    expect(problemsOf({ ...I, d: 300 })).toEqual([
+      { path: "d", message: "The depth d is 300000 mm, more than 10 m: give dimensions in metres (300 mm is 0.3)." },
+    ]);
+    expect(problemsOf({ shape: "circular-hollow", D: 0.1, t: 1e-6 })).toEqual([
+      { path: "t", message: "The wall thickness t is 0.001 mm: no structural section is thinner than 0.01 mm." },
+    ]);
+    expect(buildSection({ shape: "rectangle", b: 10, d: 1e-5 }).ok).toBe(true);
+  });
+
   it("a radius may be zero or left out (a sharp corner), never negative", () => {
     expect(buildSection({ ...I, r: 0 }).ok).toBe(true);
     expect(buildSection({ ...I, r: undefined }).ok).toBe(true);

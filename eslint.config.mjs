@@ -22,6 +22,7 @@ const MODULES = [
   "lib/storage",
   "lib/engine",
   "lib/standards",
+  "lib/libraries",
   "lib/evaluation",
   "lib/server-env",
   "lib/domain",
@@ -41,6 +42,8 @@ export const LAYERS = {
   "lib/engine": { may: [] },
   // The standards' evaluation: pure like the engine, it runs on the server, in scripts and in the browser.
   "lib/standards": { may: ["lib/engine", "lib/domain"] },
+  // The firm's libraries (sections and their catalogue): pure, with the standards' units.
+  "lib/libraries": { may: ["lib/standards", "lib/domain"] },
   // The standards' evaluation on the server, in worker threads with a timeout, and the bundle they (and browsers) run.
   "lib/evaluation": { may: ["lib/standards", "lib/engine", "lib/domain", "lib/server-env"] },
   db: { may: ["lib/domain", "lib/server-env"] },
@@ -59,14 +62,18 @@ export const LAYERS = {
       "lib/storage",
       "lib/engine",
       "lib/standards",
+      "lib/libraries",
       "lib/evaluation",
       "lib/domain",
       "lib/server-env",
     ],
   },
-  components: { may: ["components", "lib/domain", "lib/engine", "lib/standards"], types: ["lib/data", "lib/use-cases"] },
+  components: {
+    may: ["components", "lib/domain", "lib/engine", "lib/standards", "lib/libraries"],
+    types: ["lib/data", "lib/use-cases"],
+  },
   app: {
-    may: ["app", "components", "lib/use-cases", "lib/auth", "lib/domain", "lib/engine", "lib/standards"],
+    may: ["app", "components", "lib/use-cases", "lib/auth", "lib/domain", "lib/engine", "lib/standards", "lib/libraries"],
     types: ["lib/data"],
   },
   // proxy.ts, before every request: security headers from the settings, and the database check.

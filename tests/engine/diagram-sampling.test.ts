@@ -99,9 +99,12 @@ describe("values along a member", () => {
     expect(f.forcesAt(L + 2)).toEqual(f.forcesAt(L));
     expectClose(f.forcesAt(a, "left").V, (P * b) / L);
     expectClose(f.forcesAt(a).V, (-P * a) / L);
+    // At the load itself, without a side: the value just beyond it.
+    expect(d.valueAt(a)).toEqual(d.valueAt(a, "right"));
+    expectClose(d.valueAt(a).V, (-P * a) / L);
   });
 
-  it("point loads and couples at the member's ends act on its end forces, not as steps inside the span", () => {
+  it("point loads at the member's ends (to within 1e-12·L) act on its end forces, not as steps inside the span", () => {
     // The loads sit on the supports: the beam itself carries nothing (statics), whatever it is told.
     const m = lineBeam(
       [L],
@@ -110,6 +113,8 @@ describe("values along a member", () => {
         { kind: "point", member: "m1", direction: "global-y", position: 0, value: -P },
         { kind: "point", member: "m1", direction: "global-y", position: L, value: -2 * P },
         { kind: "point", member: "m1", direction: "local-x", position: L, value: P },
+        // Within 1e-12·L of the end counts as at the end.
+        { kind: "point", member: "m1", direction: "global-y", position: L * (1 - 5e-13), value: -P },
       ],
     );
     m.nodes[1].support = { ux: "fixed", uy: "fixed" };
@@ -138,6 +143,63 @@ describe("values along a member", () => {
     expectClose(d.valueAt(a, "left").V, (P * b) / L);
     expectClose(d.valueAt(a, "right").V, (-P * a) / L);
     expectClose(d.valueAt(4).M, pointM(4));
+  });
+
+  it("a case with no load on the member: a cantilever under a tip load (AWC DA-6, Figure 13)", () => {
+    // Figure 13 (from memory), x from the fixed end: M = −P(L − x) (hogging), V = P, v = −Px²(3L − x)/(6EI).
+    const m = lineBeam([L], ["fixed", "free"], [{ kind: "nodal", node: "n1", fy: -P }]);
+    m.combinations = [{ id: "C", factors: { L: 1.5 } }];
+    const r = analyzeOrThrow(m);
+    const EI = m.members![0].E * m.members![0].I!;
+    for (const [id, f] of [
+      ["L", 1],
+      ["C", 1.5],
+    ] as const) {
+      const d = memberDiagram(r, "m1", id, { points: 3 });
+      expect(d.samples.x).toEqual([0, 3, 6]);
+      for (const x of [0, 2.5, L]) {
+        expectClose(d.valueAt(x).M, -f * P * (L - x), 1e-9, P * L);
+        expectClose(d.valueAt(x).V, f * P);
+        expectClose(d.valueAt(x).deflection, (-f * P * x * x * (3 * L - x)) / (6 * EI), 1e-9, (P * L ** 3) / EI);
+      }
+    }
+  });
+
+  it("a truss member stays straight: its deflection is the chord between its displaced ends", () => {
+    // A symmetric two-bar truss, apex C loaded by P: each bar carries N = P/(2 sin α) in compression and shortens
+    // by NL/(EA); C drops δ = NL/(EA sin α) (statics and virtual work, common practice). Here sin α = 4/5, L = 5 m.
+    const EA = 200e9 * 2e-3;
+    const r = analyzeOrThrow({
+      nodes: [
+        { id: "A", x: 0, y: 0, support: { ux: "fixed", uy: "fixed" } },
+        { id: "B", x: 6, y: 0, support: { ux: "fixed", uy: "fixed" } },
+        { id: "C", x: 3, y: 4 },
+      ],
+      members: [
+        { id: "AC", start: "A", end: "C", kind: "truss", E: 200e9, A: 2e-3 },
+        { id: "BC", start: "B", end: "C", kind: "truss", E: 200e9, A: 2e-3 },
+      ],
+      loadCases: [{ id: "P", loads: [{ kind: "nodal", node: "C", fy: -P }] }],
+    });
+    const delta = ((P / (2 * 0.8)) * 5) / (EA * 0.8);
+    const d = memberDiagram(r, "AC", "P");
+    expect(d.quantities).toEqual(["N", "V", "M", "deflection", "axialDisplacement"]);
+    // C moves (0, −δ); AC's local y axis is (−4/5, 3/5), so its end moves −0.6δ across the bar.
+    for (const f of [0, 0.25, 0.5, 1]) expectClose(d.valueAt(f * 5).deflection, -0.6 * delta * f, 1e-9, delta);
+    expectClose(d.valueAt(5).N, -P / 1.6);
+  });
+
+  it("stresses are given at the fibres whose distance is known, and relative deflection wherever I is", () => {
+    const quantities = (extra: Record<string, number>) => {
+      const m = lineBeam([L], ["pin", "roller"], [{ kind: "distributed", member: "m1", direction: "global-y", wStart: -w }]);
+      m.members = [{ ...m.members![0], ...extra }];
+      return memberDiagram(analyzeOrThrow(m), "m1", "L").quantities;
+    };
+    const always = ["N", "V", "M", "deflection", "relativeDeflection", "axialDisplacement"];
+    expect(quantities({})).toEqual(always);
+    expect(quantities({ cBottom: 0.2 })).toEqual([...always, "stressBottom"]);
+    expect(quantities({ cTop: 0.1 })).toEqual([...always, "stressTop"]);
+    expect(quantities({ cTop: 0.1, cBottom: 0.2 })).toEqual([...always, "stressTop", "stressBottom"]);
   });
 
   it("an unknown member is named, with the function asked", () => {

@@ -181,6 +181,11 @@ const CASES: [string, (s: Json) => void, string[]][] = [
     ['envelopes.E.of: expected ["G","C"], the model\'s envelope'],
   ],
   [
+    "an envelope with one of its results changed",
+    (s) => (s.envelopes.E.of = ["G", "Q"]),
+    ['envelopes.E.of: expected ["G","C"], the model\'s envelope'],
+  ],
+  [
     "an envelope of fewer results",
     (s) => (s.envelopes.E.of = ["G"]),
     ['envelopes.E.of: expected ["G","C"], the model\'s envelope'],

@@ -199,6 +199,8 @@ describe("members", () => {
     expect(errorsOf(model).map((e) => e.message)).toEqual(["members[0].A is 0; A must be greater than zero"]);
     model.members[0] = { id: "AB", start: "A", end: "B", kind: "truss", E: -E, A };
     expect(errorsOf(model).map((e) => e.message)).toEqual([`members[0].E is ${-E}; E must be greater than zero`]);
+    model.members[0] = { id: "AB", start: "A", end: "B", kind: "truss", E: 0, A };
+    expect(errorsOf(model).map((e) => e.message)).toEqual(["members[0].E is 0; E must be greater than zero"]);
   });
 
   it("zero length is judged against the size of the model: 1e-12 of the largest coordinate, negative ones included", () => {

@@ -16,3 +16,26 @@ export type {
 } from "./catalogue";
 export { parseCsv } from "./csv";
 export { buildDemoCatalogue, DEMO_CATALOGUE_MAPPING, DEMO_SECTIONS, renderDemoCatalogueCsv } from "./demo-catalogue";
+export {
+  checkLibraryDocument,
+  findEntry,
+  LIBRARY_KIND_NAMES,
+  LIBRARY_KINDS,
+  libraryContentHash,
+  libraryDocumentInputSchema,
+  libraryEntryHash,
+  MATERIAL_FAMILIES,
+  normaliseKey,
+} from "./document";
+export type {
+  CheckedLibraryDocument,
+  CombinationSetEntry,
+  LibraryDocument,
+  LibraryDocumentInput,
+  LibraryEntry,
+  LibraryKind,
+  LibraryProblem,
+  MaterialEntry,
+  SectionEntry,
+  SectionEntryInput,
+} from "./document";

@@ -15,7 +15,6 @@ import {
   memberMaterial,
   shearModulusFromPoisson,
   weightDensity,
-  type CombinationSetEntry,
   type LibraryDocument,
   type MaterialEntry,
 } from "@/lib/libraries";
@@ -32,11 +31,6 @@ const material = (key: string) => {
   const entry = findEntry(materials, key);
   if (!entry) throw new Error(`no material ${key}`);
   return entry as MaterialEntry;
-};
-const set = (key: string) => {
-  const entry = findEntry(sets, key);
-  if (!entry) throw new Error(`no set ${key}`);
-  return entry as CombinationSetEntry;
 };
 
 const MPa = 1e6;

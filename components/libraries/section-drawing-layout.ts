@@ -226,6 +226,21 @@ function circle(r: number): Step[] {
   ];
 }
 
+/** The extent, centroid and b and d dimensions of a section b wide and d deep, symmetric about both axes. */
+function centredBox(b: number, d: number): Omit<Geometry, "loops" | "callouts"> {
+  return {
+    x0: -b / 2,
+    x1: b / 2,
+    y0: -d / 2,
+    y1: d / 2,
+    centroid: p(0, 0),
+    dimensions: [
+      { key: "b", value: b, a: p(-b / 2, d / 2), b: p(b / 2, d / 2), side: "top" },
+      { key: "d", value: d, a: p(-b / 2, d / 2), b: p(-b / 2, -d / 2), side: "left" },
+    ],
+  };
+}
+
 function geometryOf(shape: Section["shape"], m: Record<string, number>, props: Record<string, number>): Geometry {
   switch (shape) {
     case "i":
@@ -297,19 +312,7 @@ function geometryOf(shape: Section["shape"], m: Record<string, number>, props: R
           text: `ri = ${formatMm(ri / 1000)} mm`,
         });
       }
-      return {
-        loops: [roundedRect(b / 2, d / 2, ro), roundedRect(b / 2 - t, d / 2 - t, ri)],
-        x0: -b / 2,
-        x1: b / 2,
-        y0: -d / 2,
-        y1: d / 2,
-        centroid: p(0, 0),
-        dimensions: [
-          { key: "b", value: b, a: p(-b / 2, d / 2), b: p(b / 2, d / 2), side: "top" },
-          { key: "d", value: d, a: p(-b / 2, d / 2), b: p(-b / 2, -d / 2), side: "left" },
-        ],
-        callouts,
-      };
+      return { loops: [roundedRect(b / 2, d / 2, ro), roundedRect(b / 2 - t, d / 2 - t, ri)], ...centredBox(b, d), callouts };
     }
     case "circular-hollow":
     case "circle": {
@@ -339,19 +342,7 @@ function geometryOf(shape: Section["shape"], m: Record<string, number>, props: R
     }
     case "rectangle": {
       const { b, d } = m;
-      return {
-        loops: [roundedRect(b / 2, d / 2, 0)],
-        x0: -b / 2,
-        x1: b / 2,
-        y0: -d / 2,
-        y1: d / 2,
-        centroid: p(0, 0),
-        dimensions: [
-          { key: "b", value: b, a: p(-b / 2, d / 2), b: p(b / 2, d / 2), side: "top" },
-          { key: "d", value: d, a: p(-b / 2, d / 2), b: p(-b / 2, -d / 2), side: "left" },
-        ],
-        callouts: [],
-      };
+      return { loops: [roundedRect(b / 2, d / 2, 0)], ...centredBox(b, d), callouts: [] };
     }
     case "angle": {
       const { b, d, t, r, r2 } = m;

@@ -184,7 +184,10 @@ export function expandCombinationSet(
         }
         const shown = alternativeKinds.filter((kind) => casesOf.get(kind.id)!.length > 1).map((kind) => pick[kind.id]);
         const id = [combination.id, ...shown, ...[...leftOut].map((kind) => `no-${kind}`)].join(":");
-        const words = [...shown, ...(leftOut.size > 0 ? [`without ${listInWords([...leftOut])}`] : [])];
+        const words = [
+          ...(shown.length > 0 ? [shown.join(", ")] : []),
+          ...(leftOut.size > 0 ? [`without ${listInWords([...leftOut])}`] : []),
+        ];
         const name = words.length > 0 ? `${combination.label} (${words.join("; ")})` : combination.label;
         if (Object.keys(factors).length === 0) {
           dropped.push({

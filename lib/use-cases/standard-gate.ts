@@ -11,6 +11,7 @@ import { compileTask, verifyTask } from "@/lib/evaluation/tasks";
 import { contentHash } from "@/lib/standards/content-hash";
 import { EVALUATION_VERSION } from "@/lib/standards/evaluate";
 import type { SourceProblem } from "@/lib/standards/source";
+import type { LibraryEntries } from "@/lib/standards/library-inputs";
 import type { VerificationResult } from "@/lib/standards/verify";
 
 export type SourceMetadata = { title: string; category: string; tags: string[]; summary: string };
@@ -34,16 +35,20 @@ function poolRefusal(failure: PoolFailure): AppError {
   return new AppError("invalid-input", failure.message, { fieldErrors: { source: [failure.message] } });
 }
 
-export async function checkSource(source: string, { inProcess = false }: { inProcess?: boolean } = {}): Promise<SourceCheck> {
+/** `libraries`: the entries the source's section and material inputs name, resolved from the firm's libraries. */
+export async function checkSource(
+  source: string,
+  { inProcess = false, libraries }: { inProcess?: boolean; libraries?: LibraryEntries } = {},
+): Promise<SourceCheck> {
   const hashed = await contentHash(source);
   const hash = hashed.ok ? hashed.hash : null;
   const pool = inProcess ? null : evaluationPool();
-  const compiled = pool ? await pool.compile(source) : { ok: true as const, result: compileTask(source) };
+  const compiled = pool ? await pool.compile(source, libraries) : { ok: true as const, result: compileTask(source, libraries) };
   if (!compiled.ok) throw poolRefusal(compiled);
   if (!compiled.result.ok)
     return { problems: [...compiled.result.problems], metadata: null, verification: [], hash, verifiedWith: VERIFIED_WITH };
   const { summary } = compiled.result;
-  const verified = pool ? await pool.verify(source) : { ok: true as const, result: verifyTask(source) };
+  const verified = pool ? await pool.verify(source, libraries) : { ok: true as const, result: verifyTask(source, libraries) };
   if (!verified.ok) throw poolRefusal(verified);
   if (!verified.result.ok)
     return { problems: [...verified.result.problems], metadata: null, verification: [], hash, verifiedWith: VERIFIED_WITH };

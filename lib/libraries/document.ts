@@ -97,23 +97,44 @@ const sourcedValue = (what: string) => z.object({ value: finite(what), source })
 const positiveSourced = (what: string) =>
   sourcedValue(what).refine((v) => v.value > 0, { error: `The ${what} must be greater than zero.`, path: ["value"] });
 
+/** The units a material's further values may be in: SI, so a run never converts. */
+export const MATERIAL_VALUE_UNITS = ["Pa", "kg/m³", "1/K", "1"] as const;
+/** A further value's symbol, written as a plain identifier: f_ck, f_m_k, E_0_05, rho_k. */
+const valueSymbol = z
+  .string()
+  .regex(/^[A-Za-z][A-Za-z0-9_]{0,23}$/, "A value's symbol is a short identifier: f_ck, f_m_k, E_0_05, rho_k…");
+
 const materialEntrySchema = z
   .object({
     key,
     family: z.enum(MATERIAL_FAMILIES),
-    /** Young's modulus, Pa. */
+    /** Young's modulus, Pa: the mean value where the standard gives a mean and a fractile (timber E0,mean). */
     E: positiveSourced("Young's modulus E"),
     /** Shear modulus, Pa. */
     G: positiveSourced("shear modulus G").optional(),
-    /** Density, kg/m³ (weight density is ρg, with g = 9.80665 m/s²). */
+    /** Poisson's ratio in the elastic range, where the standard gives one (EN 1993-1-1 3.2.6: 0.3). */
+    nu: sourcedValue("Poisson's ratio ν")
+      .refine((v) => v.value >= 0 && v.value < 0.5, {
+        error: "Poisson's ratio ν must be at least 0 and below 0.5.",
+        path: ["value"],
+      })
+      .optional(),
+    /** Mass density, kg/m³, for self-weight (weight density is ρg, with g = 9.80665 m/s²). */
     density: positiveSourced("density").optional(),
-    /** Yield (steel, aluminium) or characteristic (timber bending, concrete compressive) strength, Pa. */
+    /** Metals: yield strength (0.2 % proof strength fo for aluminium), Pa, for the thickness range in the note. */
     fy: positiveSourced("yield strength fy").optional(),
-    /** Ultimate tensile strength, Pa. */
+    /** Metals: ultimate tensile strength, Pa. */
     fu: positiveSourced("ultimate strength fu").optional(),
     /** Coefficient of thermal expansion, 1/K. */
     alpha: positiveSourced("thermal expansion coefficient").optional(),
-    /** What the strengths mean for this family and where they hold (thickness range, grade, moisture class). */
+    /**
+     * Further values the family's design uses, by symbol: timber's characteristic strengths and 5 % modulus
+     * (EN 338: f_m_k, f_c_0_k, E_0_05, rho_k), concrete's (EN 1992-1-1: f_ck, f_cm, f_ctm). SI units.
+     */
+    values: z
+      .record(valueSymbol, z.object({ value: finite("value"), unit: z.enum(MATERIAL_VALUE_UNITS), source }).strict())
+      .default({}),
+    /** What the values mean for this family and where they hold (thickness range, grade, moisture class). */
     note: z.string().max(500).optional(),
   })
   .strict()
@@ -127,13 +148,40 @@ export type MaterialEntry = z.output<typeof materialEntrySchema>;
 
 const loadKindId = z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,11}$/, "A load kind is a short symbol: D, L, Lr, S, W, E_h…");
 
+/**
+ * A load kind of a set. `action` is the kind's variation in time (EN 1990 4.1.1: permanent, variable,
+ * accidental): only a variable action is ever left out of a combination, and a combination keeps its
+ * permanent actions. `cases` says what several load cases of the kind in one model are: `add` (two dead-load
+ * cases, the frame's and the cladding's, act together) or `alternatives` (wind from the left or from the
+ * right, never both: each makes its own combination).
+ */
+const loadKindSchema = z
+  .object({
+    id: loadKindId,
+    name: z.string().trim().min(1).max(80),
+    action: z.enum(["permanent", "variable", "accidental"], {
+      error: "Say whether the load kind is a permanent, variable or accidental action.",
+    }),
+    cases: z.enum(["add", "alternatives"]).default("add"),
+  })
+  .strict();
+
 const combinationSchema = z
   .object({
     id: z.string().regex(/^[A-Za-z0-9][A-Za-z0-9_.-]{0,23}$/, "A combination's id is short: letters, digits, . _ -"),
     /** As the standard writes it: "1.2D + 1.6L + 0.5(Lr or S or R)". */
     label: z.string().trim().min(1).max(200),
     /** A factor per load kind; a kind left out takes no part. */
-    factors: z.record(loadKindId, finite("factor")),
+    factors: z.record(
+      loadKindId,
+      finite("factor").refine((f) => f !== 0, "A factor of zero takes no part: leave the load kind out instead."),
+    ),
+    /**
+     * The variable action the combination is written for — EN 1990's leading action, the principal load of
+     * ASCE 7's companion-action format. A model with no case of that kind leaves the combination out: what
+     * remains of it is a weaker copy of another combination.
+     */
+    leading: loadKindId.optional(),
   })
   .strict();
 
@@ -144,15 +192,13 @@ const combinationSetEntrySchema = z
     reference: source,
     /** What the combinations are for. */
     purpose: z.enum(["strength", "allowable-stress", "serviceability", "accidental", "seismic"]),
-    loadKinds: z
-      .array(z.object({ id: loadKindId, name: z.string().trim().min(1).max(80) }).strict())
-      .min(1, "Name the load kinds the set's factors apply to."),
+    loadKinds: z.array(loadKindSchema).min(1, "Name the load kinds the set's factors apply to."),
     combinations: z.array(combinationSchema).min(1, "A set needs at least one combination."),
-    note: z.string().max(1000).optional(),
+    note: z.string().max(2000).optional(),
   })
   .strict()
   .superRefine((set, ctx) => {
-    const kinds = new Set(set.loadKinds.map((k) => k.id));
+    const kinds = new Map(set.loadKinds.map((k) => [k.id, k]));
     if (kinds.size !== set.loadKinds.length)
       ctx.addIssue({ code: "custom", path: ["loadKinds"], message: "A load kind is named twice." });
     const ids = new Set<string>();
@@ -171,6 +217,13 @@ const combinationSetEntrySchema = z
             path: ["combinations", i, "factors", kind],
             message: `Combination “${combination.id}” has a factor on “${kind}”, which is not one of the set's load kinds.`,
           });
+      const leading = combination.leading;
+      if (leading !== undefined && (kinds.get(leading)?.action !== "variable" || !(leading in combination.factors)))
+        ctx.addIssue({
+          code: "custom",
+          path: ["combinations", i, "leading"],
+          message: `Combination “${combination.id}” is led by “${leading}”, which must be a variable load kind of the set with a factor in it.`,
+        });
     });
   });
 export type CombinationSetEntry = z.output<typeof combinationSetEntrySchema>;

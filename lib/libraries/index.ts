@@ -1,4 +1,5 @@
-// The firm's libraries, the pure part: the section builder, the catalogue import and the demo catalogue.
+// The firm's libraries, the pure part: the section builder, the catalogue import and the demo catalogue; the
+// library documents; a combination set's expansion into the engine's combinations; what a model takes from a material.
 export { buildSection, buildSectionOrThrow, rectangleTorsion } from "./sections";
 export type { BuildSectionResult, Section, SectionProblem, SectionProperties, SectionPropertiesByShape } from "./sections";
 export { DIMENSION_LABELS, SECTION_SHAPES, SHAPE_NAMES, sectionInputSchema } from "./section-schema";
@@ -25,6 +26,7 @@ export {
   libraryDocumentInputSchema,
   libraryEntryHash,
   MATERIAL_FAMILIES,
+  MATERIAL_VALUE_UNITS,
   normaliseKey,
 } from "./document";
 export type {
@@ -39,3 +41,13 @@ export type {
   SectionEntry,
   SectionEntryInput,
 } from "./document";
+export { expandCombinationSet, expandCombinationSetOrThrow, MAX_EXPANDED_COMBINATIONS } from "./combination-sets";
+export type {
+  CombinationOrigin,
+  DroppedCombination,
+  EngineCombination,
+  ExpandCombinationSetResult,
+  ExpandOptions,
+  ExpansionProblem,
+} from "./combination-sets";
+export { materialShearModulus, memberMaterial, shearModulusFromPoisson, STANDARD_GRAVITY, weightDensity } from "./materials";

@@ -2,3 +2,4 @@ export * from "./auth";
 export * from "./audit";
 export * from "./firm";
 export * from "./standards";
+export * from "./libraries";

@@ -19,6 +19,13 @@ export const ACTIONS = [
   "templates.review",
   "templates.publish",
   "templates.withdraw",
+  // the firm's libraries (sections, materials, load-combination sets): everyone reads them; admins and leads
+  // maintain them, a second of them reviewing each change (four eyes, kept by the use cases and the database)
+  "libraries.read",
+  "libraries.write-draft",
+  "libraries.review",
+  "libraries.publish",
+  "libraries.withdraw",
   // runs and sign-off
   "runs.read",
   "runs.create",
@@ -32,10 +39,19 @@ export const ACTIONS = [
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
+/** Maintaining the firm's libraries: admins and leads. */
+const LIBRARY_MAINTENANCE: readonly Action[] = [
+  "libraries.write-draft",
+  "libraries.review",
+  "libraries.publish",
+  "libraries.withdraw",
+];
+
 const ENGINEER: readonly Action[] = [
   "projects.read",
   "projects.create",
   "library.read",
+  "libraries.read",
   "runs.read",
   "runs.create",
   "runs.sign-prepared",
@@ -44,10 +60,35 @@ const ENGINEER: readonly Action[] = [
 ];
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
-  admin: ["users.read", "users.invite", "users.set-role", "users.deactivate", "mailbox.read", "audit.read"],
-  lead: [...ENGINEER, "templates.write-draft", "templates.review", "templates.publish", "templates.withdraw"],
+  admin: [
+    "users.read",
+    "users.invite",
+    "users.set-role",
+    "users.deactivate",
+    "mailbox.read",
+    "audit.read",
+    "libraries.read",
+    ...LIBRARY_MAINTENANCE,
+  ],
+  lead: [
+    ...ENGINEER,
+    "templates.write-draft",
+    "templates.review",
+    "templates.publish",
+    "templates.withdraw",
+    ...LIBRARY_MAINTENANCE,
+  ],
   engineer: ENGINEER,
-  auditor: ["projects.read", "library.read", "runs.read", "audit.read", "audit.trace", "audit.export", "users.read"],
+  auditor: [
+    "projects.read",
+    "library.read",
+    "libraries.read",
+    "runs.read",
+    "audit.read",
+    "audit.trace",
+    "audit.export",
+    "users.read",
+  ],
 };
 
 export function can(role: Role | null | undefined, action: Action): boolean {

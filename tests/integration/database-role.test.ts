@@ -188,7 +188,13 @@ describe("the app's database role", () => {
     );
     // The bigserial ids of the append-only tables: nextval, never setval.
     expect(sequences).toEqual(
-      ["audit_events_id_seq", "standard_review_comments_id_seq", "standard_version_events_id_seq"].map((name) => ({
+      [
+        "audit_events_id_seq",
+        "library_review_comments_id_seq",
+        "library_version_events_id_seq",
+        "standard_review_comments_id_seq",
+        "standard_version_events_id_seq",
+      ].map((name) => ({
         name,
         usage: true,
         setval: false,

@@ -6,6 +6,9 @@
 //   admin          invite users, set roles, deactivate accounts
 //   standards lead everything an engineer may; write drafts, review another lead's draft, publish,
 //                  withdraw, maintain the firm's libraries
+//
+// The libraries issue adds: the firm's libraries (sections, materials, combination sets) are read by
+// everyone, admins included, and edited by admins and leads, a second one of them reviewing each change.
 //   engineer       create jobs, run published versions, attach files, issue calc revisions as
 //                  preparer, check the revisions assigned to them, approve as a job's responsible engineer
 //   auditor        read everything, trace, reproduce, verify integrity, export evidence; change nothing
@@ -42,6 +45,16 @@ const EXPECTED: Record<Action, Record<Role, boolean>> = {
   "templates.publish": { admin: N, lead: Y, engineer: N, auditor: N },
   // lead: "withdraw".
   "templates.withdraw": { admin: N, lead: Y, engineer: N, auditor: N },
+  // libraries: "everyone reads" (engineers pick sections for runs; auditors "read everything"; admins maintain them).
+  "libraries.read": { admin: Y, lead: Y, engineer: Y, auditor: Y },
+  // libraries: "admin and leads edit"; lead: "maintain the firm's libraries".
+  "libraries.write-draft": { admin: Y, lead: Y, engineer: N, auditor: N },
+  // libraries: a second admin or lead reviews (four eyes between any two of them).
+  "libraries.review": { admin: Y, lead: Y, engineer: N, auditor: N },
+  // libraries: the reviewer's approval publishes.
+  "libraries.publish": { admin: Y, lead: Y, engineer: N, auditor: N },
+  // libraries: a wrong version or entry is withdrawn by an admin or a lead.
+  "libraries.withdraw": { admin: Y, lead: Y, engineer: N, auditor: N },
   // engineer: "run published versions", "check the revisions assigned to them"; lead: as an engineer; auditor: "read everything".
   "runs.read": { admin: N, lead: Y, engineer: Y, auditor: Y },
   // engineer: "run published versions"; lead: as an engineer; auditor: "change nothing".
@@ -70,6 +83,10 @@ const WRITES: readonly Action[] = [
   "templates.review",
   "templates.publish",
   "templates.withdraw",
+  "libraries.write-draft",
+  "libraries.review",
+  "libraries.publish",
+  "libraries.withdraw",
   "runs.create",
   "runs.sign-prepared",
   "runs.sign-checked",
@@ -141,5 +158,16 @@ describe("the product's role rules, checked on the expectation table and on can(
     for (const action of ["templates.write-draft", "templates.review", "templates.publish", "templates.withdraw"] as const) {
       for (const role of ROLES) expect(can(role, action), `${role} ${action}`).toBe(role === "lead");
     }
+  });
+
+  it("everyone reads the libraries; admins and leads write, review, publish and withdraw them", () => {
+    for (const role of ROLES) expect(can(role, "libraries.read"), role).toBe(true);
+    for (const action of ["libraries.write-draft", "libraries.review", "libraries.publish", "libraries.withdraw"] as const) {
+      for (const role of ROLES) expect(can(role, action), `${role} ${action}`).toBe(role === "admin" || role === "lead");
+    }
+  });
+
+  it("whoever may write a library draft may also review one, so any two of them make four eyes", () => {
+    for (const role of ROLES) expect(can(role, "libraries.review"), role).toBe(can(role, "libraries.write-draft"));
   });
 });

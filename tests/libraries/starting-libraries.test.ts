@@ -4,7 +4,8 @@
  * with it), and every value is checked against its published source, named beside the check.
  */
 import { describe, expect, it } from "vitest";
-import { readFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
 import path from "node:path";
 import {
   checkLibraryDocument,
@@ -174,5 +175,29 @@ describe("materials", () => {
     expect(materialShearModulus(noDensity)).toBeNull();
     expect(() => shearModulusFromPoisson(210e9, 0.5)).toThrow("Poisson's ratio must be at least 0 and below 0.5, not 0.5.");
     expect(() => shearModulusFromPoisson(Number.NaN, 0.3)).toThrow("Young's modulus must be a positive number, not NaN.");
+  });
+});
+
+describe("the loader", () => {
+  it("names each library by its file and refuses a faulty file, naming it and every problem", () => {
+    expect(libraries.map((l) => l.name)).toEqual(["load-combinations", "materials"]);
+    const dir = mkdtempSync(path.join(tmpdir(), "gusset-libraries-"));
+    try {
+      writeFileSync(path.join(dir, "a.json"), "{ not json");
+      expect(() => startingLibraries(dir)).toThrow(/^content\/libraries\/a\.json is not JSON: /);
+      writeFileSync(
+        path.join(dir, "a.json"),
+        JSON.stringify({
+          kind: "materials",
+          title: "Bad",
+          entries: [{ key: "X", family: "steel", E: { value: 0, source: "a source" } }],
+        }),
+      );
+      expect(() => startingLibraries(dir)).toThrow(
+        "content/libraries/a.json is not a library document:\n  entries.0.E.value (X): The Young's modulus E must be greater than zero.",
+      );
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

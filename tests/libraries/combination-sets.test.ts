@@ -382,3 +382,27 @@ describe("a beam through the engine with the expanded combinations", () => {
     expectClose(memberDiagram(result, "m1", "ab 6.10a").extremes.M!.max.value, (29.25e3 * span ** 2) / 8);
   });
 });
+
+describe("ids", () => {
+  it("a prefix lets two sets share a model; a load case with a combination's id is refused", () => {
+    const strength = expandCombinationSetOrThrow(ASCE_STRENGTH, { D: "D", L: "L" }, { idPrefix: "LRFD " });
+    const asd = expandCombinationSetOrThrow(ASCE_ASD, { D: "D", L: "L" }, { idPrefix: "ASD " });
+    expect([...strength.combinations, ...asd.combinations].map((c) => c.id)).toEqual(["LRFD 1", "LRFD 2-Lr", "ASD 1", "ASD 2"]);
+    expect(strength.origins.map((o) => o.combination)).toEqual(["1", "2-Lr"]);
+    expect(expandCombinationSet(ASCE_ASD, { "1": "D", L: "L" })).toEqual({
+      ok: false,
+      problems: [
+        {
+          loadCase: "1",
+          message:
+            "Load case “1” has the id of one of the set's combinations; rename the load case, or give the combinations a prefix.",
+        },
+      ],
+    });
+    // The same cases with a prefix are fine: ASCE/SEI 7-16 §2.4.1 combination 1, D
+    expectCombinations(expandCombinationSet(ASCE_ASD, { "1": "D", L: "L" }, { idPrefix: "ASD " }), [
+      ["ASD 1", { "1": 1 }],
+      ["ASD 2", { "1": 1, L: 1 }],
+    ]);
+  });
+});

@@ -58,6 +58,7 @@ export const APP_PAGES: AppPage[] = [
     visitors: ["lead"],
   },
   { name: "new standard", entry: "/(app)/standards/new/page", path: "/standards/new", visitors: ["lead"] },
+  { name: "section builder", entry: "/(app)/libraries/builder/page", path: "/libraries/builder", visitors: ["engineer", "admin"] },
   // A real draft is opened by the standards journey (tests/browser/standards-journey.test.ts), with axe.
   {
     name: "a draft that does not exist",

@@ -153,10 +153,10 @@ export function expandCombinationSet(
   for (const combination of set.combinations) {
     const inSet = Object.keys(combination.factors);
     const absent = inSet.filter((kind) => !casesOf.has(kind));
-    const present = set.loadKinds.filter((kind) => kind.id in combination.factors && casesOf.has(kind.id));
+    const present = set.loadKinds.filter((kind) => Object.hasOwn(combination.factors, kind.id) && casesOf.has(kind.id));
     if (combination.leading !== undefined && !casesOf.has(combination.leading)) {
       dropped.push({
-        id: combination.id,
+        id: (options.idPrefix ?? "") + combination.id,
         combination: combination.id,
         reason: "leading-absent",
         message: `${combination.id} (${combination.label}) is left out: it is led by ${combination.leading}, and the model has no ${combination.leading} case.`,
@@ -182,12 +182,15 @@ export function expandCombinationSet(
               },
             ],
           };
-        const factors: Record<string, number> = {};
-        for (const [loadCase, kind] of entries) {
-          if (!acting.some((k) => k.id === kind)) continue;
-          if (kinds.get(kind)!.cases === "alternatives" && pick[kind] !== loadCase) continue;
-          factors[loadCase] = combination.factors[kind];
-        }
+        // fromEntries, not assignment, so a case called "__proto__" is a case like any other.
+        const factors: Record<string, number> = Object.fromEntries(
+          entries
+            .filter(
+              ([loadCase, kind]) =>
+                acting.some((k) => k.id === kind) && (kinds.get(kind)!.cases === "add" || pick[kind] === loadCase),
+            )
+            .map(([loadCase, kind]) => [loadCase, combination.factors[kind]]),
+        );
         const shown = alternativeKinds.filter((kind) => casesOf.get(kind.id)!.length > 1).map((kind) => pick[kind.id]);
         const id = (options.idPrefix ?? "") + [combination.id, ...shown, ...[...leftOut].map((kind) => `no-${kind}`)].join(":");
         const words = [

@@ -218,7 +218,7 @@ const combinationSetEntrySchema = z
             message: `Combination “${combination.id}” has a factor on “${kind}”, which is not one of the set's load kinds.`,
           });
       const leading = combination.leading;
-      if (leading !== undefined && (kinds.get(leading)?.action !== "variable" || !(leading in combination.factors)))
+      if (leading !== undefined && (kinds.get(leading)?.action !== "variable" || !Object.hasOwn(combination.factors, leading)))
         ctx.addIssue({
           code: "custom",
           path: ["combinations", i, "leading"],

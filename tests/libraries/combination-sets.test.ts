@@ -291,6 +291,14 @@ describe("the rules on a set of our own", () => {
     });
   });
 
+  it("takes any load case id, even one an object would mistake for its prototype", () => {
+    const kinds = JSON.parse('{"__proto__": "D", "constructor": "L"}') as Record<string, string>;
+    expectCombinations(expandCombinationSet(ASCE_ASD, kinds), [
+      ["1", JSON.parse('{"__proto__": 1}') as Record<string, number>],
+      ["2", JSON.parse('{"__proto__": 1, "constructor": 1}') as Record<string, number>],
+    ]);
+  });
+
   it(`refuses more than ${MAX_EXPANDED_COMBINATIONS} combinations from one set`, () => {
     const own = customSet(
       [{ id: "x", label: "S + W + E", factors: { S: 1, W: 1, E: 1 } }],

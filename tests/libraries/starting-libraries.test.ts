@@ -201,3 +201,11 @@ describe("the loader", () => {
     }
   });
 });
+
+describe("content/libraries/README.md", () => {
+  it("names every entry of every starting library by its key", () => {
+    const readme = readFileSync(path.join(LIBRARIES_DIR, "README.md"), "utf8");
+    const keys = libraries.flatMap((l) => l.document.entries.map((e) => e.key));
+    expect(keys.filter((key) => !readme.includes(key))).toEqual([]);
+  });
+});

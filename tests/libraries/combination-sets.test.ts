@@ -366,6 +366,35 @@ describe("a beam through the engine with the expanded combinations", () => {
     expectClose(memberDiagram(result, "m1", "1").extremes.M!.max.value, (1.4 * wD * span ** 2) / 8);
   });
 
+  it("ASCE 7-16 allowable stress with wind up and down as alternatives: one engine combination per direction", () => {
+    // Roof beam: D = 10 kN/m down; wind W1 = 20 kN/m up (suction), W2 = 5 kN/m down (pressure).
+    const caseKinds = { D: "D", W1: "W", W2: "W" };
+    const { combinations } = expandCombinationSetOrThrow(ASCE_ASD, caseKinds);
+    expect(combinations.map((c) => c.id)).toEqual(["1", "5:W1", "5:W2", "6-Lr:W1", "6-Lr:W2", "7:W1", "7:W2"]);
+    const result = analyzeOrThrow({
+      nodes: [
+        { id: "n0", x: 0, y: 0, support: { ux: "fixed", uy: "fixed" } },
+        { id: "n1", x: span, y: 0, support: { uy: "fixed" } },
+      ],
+      members: [{ id: "m1", start: "n0", end: "n1", E, A, I }],
+      loadCases: [
+        { id: "D", loads: [udl(wD)] },
+        { id: "W1", loads: [udl(-20e3)] },
+        { id: "W2", loads: [udl(5e3)] },
+      ],
+      combinations,
+    });
+    const midspan = (id: string) => memberDiagram(result, "m1", id).valueAt(span / 2).M;
+    // ASCE/SEI 7-16 §2.4.1 combination 7, 0.6D + 0.6W (from memory), wind up: w = 0.6(10) − 0.6(20) = −6 kN/m, so
+    // M = wL²/8 = −27 kN·m, hogging (AISC Steel Construction Manual, 15th ed., Table 3-23 case 1)
+    expectClose(midspan("7:W1"), ((0.6 * wD - 0.6 * 20e3) * span ** 2) / 8);
+    expectClose(midspan("7:W1"), -27e3);
+    // combination 5, D + 0.6W, wind down: w = 10 + 0.6(5) = 13 kN/m, M = 58.5 kN·m
+    expectClose(midspan("5:W2"), ((wD + 0.6 * 5e3) * span ** 2) / 8);
+    // combination 6 without live or roof load: D + 0.75(0.6W), wind down: w = 10 + 0.45(5) = 12.25 kN/m
+    expectClose(midspan("6-Lr:W2"), ((wD + 0.45 * 5e3) * span ** 2) / 8);
+  });
+
   it("EN 1990: 6.10 gives 1.35G + 1.5Q = 36 kN/m too; by 6.10a/b, 6.10b-Q governs at 0.85·1.35G + 1.5Q", () => {
     const by610 = expandCombinationSetOrThrow(EN_610, { G: "G", Q: "Q" }).combinations;
     const by610ab = expandCombinationSetOrThrow(EN_610AB, { G: "G", Q: "Q" }).combinations;

@@ -249,6 +249,7 @@ export function CatalogueTable({
                         name={`${id}-pick`}
                         checked={isChosen}
                         onChange={() => pick(r.key)}
+                        onClick={(e) => e.stopPropagation()} // the row's click would pick it again
                         aria-label={`Choose ${r.key}`}
                         className="accent-plate-700"
                       />

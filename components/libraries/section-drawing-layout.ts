@@ -7,7 +7,7 @@ import { formatMm, formatNumber } from "./format";
 /** The box (viewBox units): the section fits inside the margins, which hold dimensions and callouts. */
 export const BOX = { width: 440, height: 330 };
 const MARGIN = { left: 58, right: 160, top: 46, bottom: 62 };
-export const FONT = 11;
+export const FONT = 12;
 
 type Point = { x: number; y: number };
 /** A step of an outline: a straight line to `to`, or a circular arc about `centre` (less than a half turn). */

@@ -4,6 +4,7 @@ import { drizzle } from "drizzle-orm/node-postgres";
 import { seedDemoFirm } from "../db/seed";
 import * as schema from "../db/schema";
 import { runDatabaseScript } from "./lib/database-script";
+import { seedStartingLibraries } from "./lib/seed-libraries";
 import { seedStartingStandards } from "./lib/seed-standards";
 
 runDatabaseScript("seed", async (pool) => {
@@ -19,6 +20,12 @@ runDatabaseScript("seed", async (pool) => {
     standards.seeded
       ? `seed: starting standards published (${standards.standards} standards, ${standards.versions} versions)`
       : `seed: starting standards not imported (${standards.reason}); nothing changed`,
+  );
+  const libraries = await seedStartingLibraries(database);
+  console.log(
+    libraries.seeded
+      ? `seed: starting libraries published (${libraries.libraries} libraries, ${libraries.entries} entries)`
+      : `seed: starting libraries not imported (${libraries.reason}); nothing changed`,
   );
   return 0;
 });

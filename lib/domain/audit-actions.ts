@@ -49,6 +49,29 @@ export type AuditDetails = {
   "standards.withdraw": { slug: string; number: number; reason: string };
   /** A standard imported from content/standards/ by the seed, as a published version. */
   "standards.import": { slug: string; number: number; hash: string };
+  // The libraries' lifecycle. `slug` names the library; `hash` is the content hash of the document concerned
+  // (null while a saved draft does not pass the check); `kind` is sections, materials or combinations.
+  "libraries.create": { slug: string; kind: string; title: string };
+  "libraries.draft.start": { slug: string; fromVersion: number };
+  "libraries.draft.save": { slug: string; hash: string | null; entries: number | null; problems: number };
+  "libraries.draft.discard": { slug: string };
+  "libraries.draft.submit": { slug: string; round: number; changelog: string; hash: string; entries: number };
+  "libraries.draft.return": { slug: string; round: number; comments: number; authorName: string };
+  "libraries.publish": {
+    slug: string;
+    kind: string;
+    number: number;
+    hash: string;
+    title: string;
+    entries: number;
+    authorName: string;
+    supersedes: number[];
+  };
+  "libraries.withdraw": { slug: string; number: number; reason: string };
+  /** One entry of a version withdrawn (a wrong value); the rest of the version stays in use. */
+  "libraries.entry.withdraw": { slug: string; number: number; entryKey: string; entryHash: string; reason: string };
+  /** A starting library published by the seed (the demo catalogue, content/libraries/). */
+  "libraries.import": { slug: string; kind: string; number: number; hash: string; entries: number };
 };
 
 export type AuditAction = keyof AuditDetails;
@@ -81,6 +104,16 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "standards.publish": "Approved and published a version",
   "standards.withdraw": "Withdrew a version",
   "standards.import": "Imported a starting standard",
+  "libraries.create": "Started a new library",
+  "libraries.draft.start": "Started a library draft from a version",
+  "libraries.draft.save": "Saved a library draft",
+  "libraries.draft.discard": "Discarded a library draft",
+  "libraries.draft.submit": "Submitted a library draft for review",
+  "libraries.draft.return": "Returned a library draft with comments",
+  "libraries.publish": "Approved and published a library version",
+  "libraries.withdraw": "Withdrew a library version",
+  "libraries.entry.withdraw": "Withdrew a library entry",
+  "libraries.import": "Imported a starting library",
 };
 
 export function isAuditAction(value: string): value is AuditAction {

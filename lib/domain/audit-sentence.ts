@@ -34,6 +34,12 @@ function roleLabel(value: unknown): string | null {
   return isRole(value) ? ROLE_LABELS[value] : text(value);
 }
 
+/** A library in a sentence: "the library firm-sections", or "a library" when the event does not say. */
+function libraryName(details: Record<string, unknown>): string {
+  const slug = text(details.slug);
+  return slug ? `the library ${slug}` : "a library";
+}
+
 function plural(n: number, one: string, many: string): string {
   return `${n} ${n === 1 ? one : many}`;
 }
@@ -194,6 +200,48 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
       ];
     case "standards.import":
       return [actor, ` imported ${text(d.slug) ?? "a standard"} version ${count(d.number) ?? "?"} from the starting library`];
+    case "libraries.create":
+      return [actor, ` started a new library, ${text(d.title) ?? text(d.slug) ?? "untitled"}`];
+    case "libraries.draft.start":
+      return [actor, ` started a draft of ${libraryName(d)} from version ${count(d.fromVersion) ?? "?"}`];
+    case "libraries.draft.save": {
+      const problems = count(d.problems) ?? 0;
+      return [
+        actor,
+        ` saved a draft of ${libraryName(d)}${problems > 0 ? ` (${plural(problems, "problem", "problems")} left)` : ""}`,
+      ];
+    }
+    case "libraries.draft.discard":
+      return [actor, ` discarded a draft of ${libraryName(d)}`];
+    case "libraries.draft.submit":
+      return [actor, ` submitted ${libraryName(d)} for review: “${text(d.changelog) ?? ""}”`];
+    case "libraries.draft.return": {
+      const comments = count(d.comments) ?? 0;
+      const author = text(d.authorName);
+      return [
+        actor,
+        ` returned ${author ? `${author}'s ` : "a "}draft of ${libraryName(d)}${comments > 0 ? ` with ${plural(comments, "comment", "comments")}` : ""}`,
+      ];
+    }
+    case "libraries.publish": {
+      const author = text(d.authorName);
+      const entries = count(d.entries);
+      const superseded =
+        Array.isArray(d.supersedes) && d.supersedes.length > 0 ? `, superseding version ${d.supersedes.join(", ")}` : "";
+      return [
+        actor,
+        ` approved and published ${text(d.title) ? `the library ${text(d.title)}` : libraryName(d)} version ${count(d.number) ?? "?"}${entries !== null ? ` (${plural(entries, "entry", "entries")})` : ""}${author ? ` by ${author}` : ""}${superseded}`,
+      ];
+    }
+    case "libraries.withdraw":
+      return [actor, ` withdrew ${libraryName(d)} version ${count(d.number) ?? "?"}: ${text(d.reason) ?? "no reason given"}`];
+    case "libraries.entry.withdraw":
+      return [
+        actor,
+        ` withdrew ${text(d.entryKey) ?? "an entry"} from ${libraryName(d)} version ${count(d.number) ?? "?"}: ${text(d.reason) ?? "no reason given"}`,
+      ];
+    case "libraries.import":
+      return [actor, ` imported ${libraryName(d)} version ${count(d.number) ?? "?"} from the starting library`];
     default:
       // A kind this version has no sentence for (a newer or retired one): who, and its label.
       return [actor, `: ${auditActionLabel(event.action)}`];

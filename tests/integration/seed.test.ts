@@ -3,6 +3,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_FIRM_NAME, DEMO_PROJECTS, DEMO_USERS } from "@/db/demo-users";
 import { auth } from "@/lib/auth/server";
+import { DEMO_SECTIONS } from "@/lib/libraries";
+import { libraryContentHash } from "@/lib/libraries/document";
 import { scratchDatabase, withClient } from "./helpers/scratch-database";
 
 const scratch = scratchDatabase("seed");
@@ -54,5 +56,36 @@ describe("demo users in the test database", () => {
   it.each(DEMO_USERS)("$role signs in with the printed password", async ({ email, password, role }) => {
     const result = await auth.api.signInEmail({ body: { email, password } });
     expect(result.user).toMatchObject({ email, role });
+  });
+});
+
+describe("starting libraries", () => {
+  it("publishes the demo catalogue and content/libraries as version 1 each, by two different leads, with an entry row per entry", async () => {
+    expect(firstSeed.stdout).toMatch(/starting libraries published \(3 libraries, \d+ entries\)/);
+    const libraries = await query(
+      freshUrl,
+      `select l.slug, l.kind, v.number, v.title, v.content_hash, v.document, v.author_id <> v.reviewer_id as four_eyes,
+              (select count(*)::int from library_version_entries e where e.version_id = v.id) as entries,
+              (select array_agg(kind order by id) from library_version_events ev where ev.version_id = v.id) as events
+         from libraries l join library_versions v on v.library_id = l.id order by l.slug`,
+    );
+    expect(libraries.map((l) => [l.slug, l.kind, l.number, l.four_eyes, l.events])).toEqual([
+      ["firm-sections", "sections", 1, true, ["published"]],
+      ["load-combinations", "combinations", 1, true, ["published"]],
+      ["materials", "materials", 1, true, ["published"]],
+    ]);
+    const sections = libraries[0];
+    expect(sections.title).toBe("Firm sections");
+    expect(sections.entries).toBe(DEMO_SECTIONS.length);
+    for (const library of libraries) {
+      expect(library.entries, library.slug).toBe(library.document.entries.length);
+      expect(library.content_hash, library.slug).toBe(await libraryContentHash(library.document));
+    }
+    // Every section is a row of the catalogue, listed values kept beside the builder's.
+    expect(sections.document.entries[0]).toMatchObject({
+      key: DEMO_SECTIONS[0].designation,
+      origin: { from: "catalogue", file: "demo-catalogue.csv", row: 2 },
+      listed: { A: expect.any(Number) },
+    });
   });
 });

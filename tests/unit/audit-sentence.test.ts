@@ -29,6 +29,36 @@ function event(overrides: Partial<AuditSentenceEvent>): AuditSentenceEvent {
 describe("auditSentence", () => {
   it.each<[string, Partial<AuditSentenceEvent>, string]>([
     [
+      "a library's publication names it, its version, its size and its author",
+      {
+        action: "libraries.publish",
+        ...ines,
+        details: {
+          slug: "firm-sections",
+          title: "Firm sections",
+          number: 2,
+          entries: 27,
+          authorName: "Sam Reed",
+          supersedes: [1],
+        },
+      },
+      "Ines Okafor-Lind approved and published the library Firm sections version 2 (27 entries) by Sam Reed, superseding version 1",
+    ],
+    [
+      "an entry's withdrawal names the entry, the library's version and why",
+      {
+        action: "libraries.entry.withdraw",
+        ...ines,
+        details: { slug: "firm-sections", number: 1, entryKey: "GI 200x100x8", reason: "tf is 8.5 mm" },
+      },
+      "Ines Okafor-Lind withdrew GI 200x100x8 from the library firm-sections version 1: tf is 8.5 mm",
+    ],
+    [
+      "a library event that names no library still reads",
+      { action: "libraries.withdraw", ...ines, details: {} },
+      "Ines Okafor-Lind withdrew a library version ?: no reason given",
+    ],
+    [
       "a deactivation names both people",
       { action: "users.deactivate", ...ines, ...sam, details: { email: sam.subjectEmail, sessionsEnded: 0 } },
       "Ines Okafor-Lind deactivated Sam Reed",

@@ -40,6 +40,8 @@ export interface Axis {
 export interface SectionScene {
   /** Box units per millimetre. */
   scale: number;
+  /** The part of the box the drawing needs: its full width, the height of what is drawn. */
+  viewBox: { x: number; y: number; width: number; height: number };
   /** The outline as an SVG path (even-odd fill: a hollow section's hole is its second sub-path). */
   outline: string;
   /** The outline's extent in box units: what tests compare with the dimensions. */
@@ -155,14 +157,19 @@ export function layoutSection(section: Pick<Section, "shape" | "dimensions" | "p
       return { key: c.key, anchor: c.anchor, across: c.across, label: { x: round(column), y: round(y), text: c.text } };
     });
 
+  // The box's height shrinks to what is drawn, so a wide flat section leaves no empty band above and below.
+  const ys = [...axes.flatMap((a) => [a.from.y, a.to.y, a.label.y]), ...callouts.map((c) => c.label.y)];
+  const top = Math.max(0, Math.min(extent.top - MARGIN.top, Math.min(...ys) - FONT - 4));
+  const bottom = Math.min(BOX.height, Math.max(extent.bottom + MARGIN.bottom, Math.max(...ys) + 2 * FONT + 16));
   const millimetres = barLength(scale, extent.right - extent.left);
   const scaleBar = {
     x: BOX.width - 16 - round(millimetres * scale),
-    y: BOX.height - 12,
+    y: round(bottom - 12),
     length: round(millimetres * scale),
     millimetres,
   };
-  return { scale, outline, extent, centroid, axes, dimensions, callouts, scaleBar };
+  const viewBox = { x: 0, y: round(top), width: BOX.width, height: round(bottom - top) };
+  return { scale, viewBox, outline, extent, centroid, axes, dimensions, callouts, scaleBar };
 }
 
 /** A closed sub-path; an arc's sweep comes from the turn between its ends about the centre (page coordinates). */

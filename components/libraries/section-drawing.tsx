@@ -3,7 +3,7 @@
 // drawing fills whatever width it is given. A pure function of its props: it renders on the server.
 import type { Section } from "@/lib/libraries";
 import { dimensionKeys, dimensionLabel, formatMm, SHAPE_TITLES } from "./format";
-import { BOX, FONT, layoutSection, type SectionScene } from "./section-drawing-layout";
+import { FONT, layoutSection, type SectionScene } from "./section-drawing-layout";
 
 export interface SectionDrawingProps {
   /** The builder's section (a library entry's: `sectionOfEntry(entry)`); dimensions in metres. */
@@ -34,7 +34,7 @@ export function SectionDrawing({ section, name, className }: SectionDrawingProps
       data-testid="section-drawing"
     >
       <svg
-        viewBox={`0 0 ${BOX.width} ${BOX.height}`}
+        viewBox={`${scene.viewBox.x} ${scene.viewBox.y} ${scene.viewBox.width} ${scene.viewBox.height}`}
         role="img"
         aria-label={label}
         className="mx-auto block h-auto w-full max-w-xl font-sans"

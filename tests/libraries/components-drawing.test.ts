@@ -48,12 +48,19 @@ describe("the section drawing", () => {
         if (dims[key] > 0) expect(html, `label of ${key}`).toContain(`>${key} = ${value}</text>`);
       }
       expect(html).toMatch(/data-scale-bar="\d+"/);
-      // The outline stays inside the box.
-      for (const [x, y] of pointsOf(outlineOf(html))) {
-        expect(x).toBeGreaterThanOrEqual(0);
-        expect(x).toBeLessThanOrEqual(BOX.width);
-        expect(y).toBeGreaterThanOrEqual(0);
-        expect(y).toBeLessThanOrEqual(BOX.height);
+      // The outline, the axes and the scale bar stay inside the part of the box shown.
+      const [vx, vy, vw, vh] = html
+        .match(/viewBox="([^"]+)"/)![1]
+        .split(" ")
+        .map(Number);
+      const scene = layoutSection(section);
+      const inside = [...pointsOf(outlineOf(html)), ...scene.axes.flatMap((a) => [a.from, a.to].map((p) => [p.x, p.y]))];
+      inside.push([scene.scaleBar.x, scene.scaleBar.y]);
+      for (const [x, y] of inside) {
+        expect(x).toBeGreaterThanOrEqual(vx);
+        expect(x).toBeLessThanOrEqual(vx + vw);
+        expect(y).toBeGreaterThanOrEqual(vy);
+        expect(y).toBeLessThanOrEqual(vy + vh);
       }
     },
   );
@@ -129,8 +136,9 @@ describe("the section drawing", () => {
     expect(new Set(arcRadii(bar.outline).map((r) => Math.round(r / bar.scale)))).toEqual(new Set([25]));
   });
 
-  it("a flat plate 1000 × 10 mm keeps its proportions", () => {
+  it("a flat plate 1000 × 10 mm keeps its proportions, in a box no taller than it needs", () => {
     const scene = layoutSection(buildSectionOrThrow({ shape: "rectangle", b: 1, d: 0.01 }));
     close((scene.extent.right - scene.extent.left) / (scene.extent.bottom - scene.extent.top), 100, 5e-3);
+    expect(scene.viewBox.height).toBeLessThan(BOX.height / 2);
   });
 });

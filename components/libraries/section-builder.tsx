@@ -4,15 +4,13 @@
 // beside the field it names; while any field is wrong nothing is drawn, so no half-built number appears.
 // Plain state: every keystroke is checked by buildSection itself, which a form library would only wrap.
 import { useMemo, useState } from "react";
-import { buildSection, SECTION_SHAPES, type BuildSectionResult, type Section, type SectionShape } from "@/lib/libraries";
+import { SECTION_SHAPES, type Section, type SectionShape } from "@/lib/libraries";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { dimensionKeys, dimensionLabel, formatMm, SHAPE_TITLES } from "./format";
+import { build, OPTIONAL, STARTING, type Typed } from "./section-builder-input";
 import { SectionDrawing } from "./section-drawing";
 import { SectionProperties } from "./section-properties";
-
-/** What the fields hold: text as typed, in mm, per shape (so switching shape and back keeps what was typed). */
-type Typed = Record<SectionShape, Record<string, string>>;
 
 export interface SectionBuilderProps {
   /** The section to start from (dimensions in metres); a 300 mm deep I section unless given. */
@@ -21,47 +19,6 @@ export interface SectionBuilderProps {
   onChange?: (section: Section | null) => void;
   /** A designation for the drawing's accessible name. */
   name?: string;
-}
-
-/** Starting values, in mm, for a shape not yet typed: a plausible section of each shape. */
-const STARTING: Typed = {
-  i: { b: "150", d: "300", tf: "10.5", tw: "7", r: "14" },
-  channel: { b: "75", d: "150", tf: "10", tw: "6", r: "10" },
-  "rectangular-hollow": { b: "100", d: "150", t: "6", ro: "12" },
-  "circular-hollow": { D: "168", t: "6" },
-  rectangle: { b: "100", d: "200" },
-  circle: { D: "50" },
-  angle: { b: "100", d: "100", t: "10", r: "12", r2: "6" },
-};
-
-const OPTIONAL = new Set(["r", "ro", "r2"]);
-const DECIMAL = /^[+-]?(\d+(\.\d*)?|\.\d+)$/;
-
-/** The builder's input in metres, and the fields whose text is not a number. */
-function readTyped(shape: SectionShape, typed: Record<string, string>) {
-  const input: Record<string, unknown> = { shape };
-  const unreadable: Record<string, string> = {};
-  for (const key of dimensionKeys(shape)) {
-    const text = (typed[key] ?? "").trim();
-    if (text === "" && OPTIONAL.has(key)) continue; // a sharp corner
-    if (text === "") {
-      input[key] = undefined;
-      continue;
-    }
-    if (!DECIMAL.test(text))
-      unreadable[key] = `Type the ${dimensionLabel(shape, key).name} as a number of millimetres, e.g. 10.5.`;
-    else input[key] = Number(text) / 1000;
-  }
-  return { input, unreadable };
-}
-
-function build(
-  shape: SectionShape,
-  typed: Record<string, string>,
-): { result: BuildSectionResult; unreadable: Record<string, string> } {
-  const { input, unreadable } = readTyped(shape, typed);
-  if (Object.keys(unreadable).length > 0) return { result: { ok: false, problems: [] }, unreadable };
-  return { result: buildSection(input), unreadable };
 }
 
 export function SectionBuilder({ initial, onChange, name }: SectionBuilderProps) {

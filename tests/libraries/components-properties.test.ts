@@ -12,6 +12,7 @@ import { SectionProperties } from "@/components/libraries/section-properties";
 import { SectionBuilder } from "@/components/libraries/section-builder";
 import { CatalogueTable, type CatalogueTableRow } from "@/components/libraries/catalogue-table";
 import { formatNumber, formatPercent } from "@/components/libraries/format";
+import { build } from "@/components/libraries/section-builder-input";
 
 /** The text of a property's row: symbol, name, unit and value(s), tags stripped. */
 function rowOf(html: string, key: string): string {
@@ -106,6 +107,34 @@ describe("the section builder", () => {
     expect(html).toContain('data-testid="section-builder-waiting"');
     expect(html).not.toContain('data-testid="section-drawing-svg"');
     expect(html).not.toMatch(/NaN/);
+  });
+});
+
+describe("the builder's fields read as its input", () => {
+  const I = { b: "150", d: "300", tf: "10.5", tw: "7", r: "14" };
+
+  it("millimetres become metres; an empty radius is a sharp corner", () => {
+    const out = build("i", { ...I, r: "" });
+    expect(out.result.ok).toBe(true);
+    if (!out.result.ok) return;
+    expect(out.result.section.dimensions).toEqual({ shape: "i", b: 0.15, d: 0.3, tf: 0.0105, tw: 0.007, r: 0 });
+  });
+
+  it.each([
+    ["tf", "1,5", "Type the flange thickness as a number of millimetres, e.g. 10.5."],
+    ["tw", "abc", "Type the web thickness as a number of millimetres, e.g. 10.5."],
+    ["d", "30000", "The depth is 30000 mm; no section is larger than 10 000 mm."],
+  ])("%s typed as %s: a sentence for that field, the builder not run", (key, typed, message) => {
+    const out = build("i", { ...I, [key]: typed });
+    expect(out.unreadable).toEqual({ [key]: message });
+    expect(out.result).toEqual({ ok: false, problems: [] });
+  });
+
+  it("an empty dimension that the shape needs: buildSection asks for it by name", () => {
+    const out = build("i", { ...I, d: " " });
+    expect(out.result.ok).toBe(false);
+    if (out.result.ok) return;
+    expect(out.result.problems).toContainEqual({ path: "d", message: "Give the depth d." });
   });
 });
 

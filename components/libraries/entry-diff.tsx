@@ -42,8 +42,9 @@ export function formatChangedValue(kind: LibraryDocument["kind"], path: string, 
   return String(Number(value.toPrecision(6)));
 }
 
-/** A path as a reader names it: "dimensions.tf" → "tf", "properties.Ix" → "Ix used by runs". */
+/** A path as a reader names it: "dimensions.tf" → "tf", "properties.Ix" → "Ix used by runs", "E.value" → "E". */
 function describePath(kind: LibraryDocument["kind"], path: string): string {
+  if (kind === "materials") return path.replace(/\.value$/, "").replace(/\.source$/, " source");
   if (kind !== "sections") return path;
   const [head, ...rest] = path.split(".");
   const name = rest.join(".");

@@ -148,3 +148,41 @@ describe("the entry diff", () => {
     expect(text(html)).toContain("3 added, 0 removed, 0 changed, 0 unchanged");
   });
 });
+
+describe("the entry diff of materials and load-combination sets", () => {
+  const checked = (input: unknown) => {
+    const out = checkLibraryDocument(input);
+    if (!out.ok) throw new Error(JSON.stringify(out.problems));
+    return out.document;
+  };
+  const source = "A steel standard, Table 1 (a made-up source for this test)";
+  const steel = (E: number) => ({ key: "S355", family: "steel", E: { value: E, source } });
+  const set = (L: number) => ({
+    key: "Strength",
+    reference: "A loading standard, clause 2 (made up for this test)",
+    purpose: "strength",
+    loadKinds: [
+      { id: "D", name: "Dead", action: "permanent" },
+      { id: "L", name: "Live", action: "variable" },
+    ],
+    combinations: [{ id: "ULS-1", label: `1.2D + ${L}L`, factors: { D: 1.2, L } }],
+  });
+
+  it("a material's modulus in MPa, old → new", () => {
+    const before = checked({ kind: "materials", title: "Materials", entries: [steel(200e9)] });
+    const after = checked({ kind: "materials", title: "Materials", entries: [steel(210e9)] });
+    const html = renderToStaticMarkup(createElement(EntryDiff, { before, after }));
+    const row = html.match(/<tr data-path="E.value">([\s\S]*?)<\/tr>/);
+    expect(text(row![1]).trim()).toBe("E 200000 MPa → 210000 MPa");
+  });
+
+  it("a combination's factor, named by the combination's id", () => {
+    const before = checked({ kind: "combinations", title: "Combinations", entries: [set(1.6)] });
+    const after = checked({ kind: "combinations", title: "Combinations", entries: [set(1.5)] });
+    const changes = diffLibraryDocuments(before, after).changed[0].changes;
+    expect(changes).toEqual([
+      { path: "combinations[ULS-1].label", before: "1.2D + 1.6L", after: "1.2D + 1.5L" },
+      { path: "combinations[ULS-1].factors.L", before: 1.6, after: 1.5 },
+    ]);
+  });
+});

@@ -35,15 +35,20 @@ function sectionValues(entry: SectionEntry): BoundEntry["values"] {
   return values;
 }
 
-// The thermal expansion coefficient (1/K) has no quantity in the standards' list yet; it is kept in the
-// library and its hash, but no expression reads it.
-const MATERIAL_QUANTITIES = { E: "stress", G: "stress", fy: "stress", fu: "stress", density: "density" } as const;
+const MATERIAL_QUANTITIES = { E: "stress", G: "stress", fy: "stress", fu: "stress", density: "density", nu: "dimensionless" } as const;
+// A further value's unit, as the library states it. 1/K (thermal expansion) has no quantity in the standards'
+// list yet: such a value is kept in the library and its hash, but no expression reads it.
+const QUANTITY_OF_MATERIAL_UNIT: Record<string, Quantity | undefined> = { Pa: "stress", "kg/m³": "density", "1": "dimensionless" };
 
 function materialValues(entry: MaterialEntry): BoundEntry["values"] {
   const values: Record<string, { si: number; quantity: Quantity }> = {};
   for (const [name, quantity] of Object.entries(MATERIAL_QUANTITIES)) {
     const value = entry[name as keyof typeof MATERIAL_QUANTITIES];
     if (value) values[name] = { si: value.value, quantity };
+  }
+  for (const [name, { value, unit }] of Object.entries(entry.values)) {
+    const quantity = QUANTITY_OF_MATERIAL_UNIT[unit];
+    if (quantity && !(name in values)) values[name] = { si: value, quantity };
   }
   return values;
 }

@@ -54,6 +54,10 @@ export interface CatalogueTableProps {
 
 const PROPERTY_COLUMNS = ["A", "Ix", "Iy", "Sx", "Zx", "J"] as const;
 
+/** On a phone the table scrolls sideways in its box; the designation stays put, as in the app's other tables. */
+const STICKY_DESIGNATION =
+  "[&_tr>*:first-child]:sticky [&_tr>*:first-child]:left-0 [&_tr>*:first-child]:z-[1] [&_tbody_tr>*:first-child]:bg-paper-raised [&_thead_tr>*:first-child]:bg-paper-sunk";
+
 const byDesignation: FilterFn<CatalogueTableRow> = (row, _column, search: string) =>
   normaliseKey(row.original.key).includes(normaliseKey(search));
 
@@ -184,7 +188,7 @@ export function CatalogueTable({
         role="region"
         aria-label={label ?? "Section catalogue"}
       >
-        <table className="w-full text-left text-sm" data-testid="catalogue-table-rows">
+        <table className={`w-full text-left text-sm ${picker ? "" : STICKY_DESIGNATION}`} data-testid="catalogue-table-rows">
           <thead className="border-b border-ink-200 bg-paper-sunk text-xs font-semibold tracking-wide text-ink-500">
             <tr>
               {picker && (

@@ -12,6 +12,7 @@ import { contentHash } from "@/lib/standards/content-hash";
 import { EVALUATION_VERSION } from "@/lib/standards/evaluate";
 import type { SourceProblem } from "@/lib/standards/source";
 import type { LibraryEntries } from "@/lib/standards/library-inputs";
+import { libraryEntriesFor } from "./library-resolution";
 import type { VerificationResult } from "@/lib/standards/verify";
 
 export type SourceMetadata = { title: string; category: string; tags: string[]; summary: string };
@@ -35,7 +36,7 @@ function poolRefusal(failure: PoolFailure): AppError {
   return new AppError("invalid-input", failure.message, { fieldErrors: { source: [failure.message] } });
 }
 
-/** `libraries`: the entries the source's section and material inputs name, resolved from the firm's libraries. */
+/** `libraries`: the entries the source's section and material inputs name; read from the firm's published libraries unless given. */
 export async function checkSource(
   source: string,
   { inProcess = false, libraries }: { inProcess?: boolean; libraries?: LibraryEntries } = {},
@@ -43,12 +44,13 @@ export async function checkSource(
   const hashed = await contentHash(source);
   const hash = hashed.ok ? hashed.hash : null;
   const pool = inProcess ? null : evaluationPool();
-  const compiled = pool ? await pool.compile(source, libraries) : { ok: true as const, result: compileTask(source, libraries) };
+  const entries = libraries ?? (await libraryEntriesFor(source));
+  const compiled = pool ? await pool.compile(source, entries) : { ok: true as const, result: compileTask(source, entries) };
   if (!compiled.ok) throw poolRefusal(compiled);
   if (!compiled.result.ok)
     return { problems: [...compiled.result.problems], metadata: null, verification: [], hash, verifiedWith: VERIFIED_WITH };
   const { summary } = compiled.result;
-  const verified = pool ? await pool.verify(source, libraries) : { ok: true as const, result: verifyTask(source, libraries) };
+  const verified = pool ? await pool.verify(source, entries) : { ok: true as const, result: verifyTask(source, entries) };
   if (!verified.ok) throw poolRefusal(verified);
   if (!verified.result.ok)
     return { problems: [...verified.result.problems], metadata: null, verification: [], hash, verifiedWith: VERIFIED_WITH };

@@ -101,7 +101,9 @@ export function formatMm(metres: number): string {
 export function formatPercent(fraction: number): string {
   if (!Number.isFinite(fraction)) return "—";
   const text = (fraction * 100).toFixed(2);
-  return `${fraction > 0 ? "+" : fraction < 0 ? "" : "±"}${text.replace("-", "−")} %`;
+  // A difference that rounds to nothing is shown as none, never as "−0.00 %".
+  if (Number(text) === 0) return "±0.00 %";
+  return `${fraction > 0 ? "+" : ""}${text.replace("-", "−")} %`;
 }
 
 /** A shape's name for a table cell or a heading ("I section"). */

@@ -59,10 +59,13 @@ function MaterialsTable({ entries }: { entries: readonly MaterialEntry[] }) {
     <TableFrame
       testId="materials-table"
       label="Materials"
-      headings={["Material", "Family", "E", "G", "fy", "fu", "Density", "Sources"]}
+      headings={["Material", "Family", "E", "G", "fy", "fu", "Density", "Further values", "Sources"]}
     >
       {entries.map((m) => {
-        const sources = [...new Set([m.E, m.G, m.fy, m.fu, m.density].flatMap((v) => (v ? [v.source] : [])))];
+        const further = Object.entries(m.values);
+        const sources = [
+          ...new Set([m.E, m.G, m.fy, m.fu, m.density, m.nu, ...further.map(([, v]) => v)].flatMap((v) => (v ? [v.source] : []))),
+        ];
         return (
           <tr key={m.key} data-testid="material-row" data-key={m.key} className="align-top">
             <td className="px-4 py-3 font-medium text-ink-900">
@@ -75,6 +78,19 @@ function MaterialsTable({ entries }: { entries: readonly MaterialEntry[] }) {
             <td className="px-4 py-3 whitespace-nowrap tabular">{materialValue(m.fy, 1e-6, "MPa")}</td>
             <td className="px-4 py-3 whitespace-nowrap tabular">{materialValue(m.fu, 1e-6, "MPa")}</td>
             <td className="px-4 py-3 whitespace-nowrap tabular">{materialValue(m.density, 1, "kg/m³")}</td>
+            <td className="px-4 py-3 text-xs whitespace-nowrap tabular" data-testid="material-further-values">
+              <ul className="space-y-1">
+                {m.nu ? <li>ν = {formatSignificant(m.nu.value, 3)}</li> : null}
+                {further.map(([symbol, { value, unit }]) => (
+                  <li key={symbol}>
+                    {symbol} ={" "}
+                    {unit === "Pa"
+                      ? `${formatSignificant(value * 1e-6, 4)} MPa`
+                      : `${formatSignificant(value, 4)}${unit === "1" ? "" : ` ${unit}`}`}
+                  </li>
+                ))}
+              </ul>
+            </td>
             <td className="px-4 py-3 text-xs text-ink-700">
               <ul className="max-w-sm space-y-1">
                 {sources.map((source) => (

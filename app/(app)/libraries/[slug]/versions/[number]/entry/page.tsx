@@ -49,9 +49,9 @@ export default async function LibraryEntryPage({ params, searchParams }: PagePro
           Withdrawn, not to be used in a new run: {withdrawn}.
         </Notice>
       ) : null}
-      <div className="grid gap-8 lg:grid-cols-[minmax(0,26rem)_1fr]">
+      <div className="grid items-start gap-8 lg:grid-cols-[minmax(0,26rem)_minmax(0,1fr)]">
         <SectionDrawing section={section} name={entry.key} />
-        <div>
+        <div className="min-w-0">
           <SectionProperties section={section} listed={listed ? entry.listed : undefined} label={`Properties of ${entry.key}`} />
           <p className="mt-4 text-xs text-ink-500">
             Entry hash{" "}

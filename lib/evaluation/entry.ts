@@ -5,6 +5,7 @@
  */
 import { READY_MESSAGE, type EvaluationRequest, type EvaluationResponse } from "./protocol";
 import { runTask } from "./tasks";
+import { libraryEntriesSchema } from "@/lib/standards/library-inputs";
 
 const TASKS: ReadonlySet<string> = new Set<EvaluationRequest["task"]>(["compile", "evaluate", "verify"]);
 
@@ -24,14 +25,16 @@ function isInputs(value: unknown): value is Record<string, string | number> {
 /** The answer to one message; null when it carries no id to answer to. */
 function handle(data: unknown, testHooks: boolean): EvaluationResponse | null {
   if (typeof data !== "object" || data === null) return null;
-  const { id, task, source, inputs } = data as Record<string, unknown>;
+  const { id, task, source, inputs, libraries } = data as Record<string, unknown>;
   if (typeof id !== "number") return null;
   try {
     if (testHooks && typeof task === "string" && task.startsWith("test-")) runTestHook(task);
     if (typeof task !== "string" || !TASKS.has(task)) return { id, ok: false, error: `unknown task ${JSON.stringify(task)}` };
     if (typeof source !== "string") return { id, ok: false, error: "the message has no source text" };
     if (inputs !== undefined && !isInputs(inputs)) return { id, ok: false, error: "inputs must map names to texts or numbers" };
-    return { id, ok: true, result: runTask({ id, task, source, inputs } as EvaluationRequest) };
+    const entries = libraries === undefined ? undefined : libraryEntriesSchema.safeParse(libraries);
+    if (entries && !entries.success) return { id, ok: false, error: "libraries must hold library entries in their checked form" };
+    return { id, ok: true, result: runTask({ id, task, source, inputs, libraries: entries?.data } as EvaluationRequest) };
   } catch (error) {
     return { id, ok: false, error: error instanceof Error ? error.message : String(error) };
   }

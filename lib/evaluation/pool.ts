@@ -22,6 +22,7 @@ import {
   type TaskResults,
   type TestHookRequest,
 } from "./protocol";
+import type { LibraryEntries } from "@/lib/standards/library-inputs";
 
 export interface EvaluationPoolOptions {
   /** Worker threads at most; default os.availableParallelism(), at most 2. */
@@ -74,16 +75,21 @@ export interface EvaluationPoolStats {
   readonly lastKillMs: number | null;
 }
 
-type Source = { readonly source: string };
+type Source = { readonly source: string; readonly libraries?: LibraryEntries };
 type TaskRequest =
   | ({ readonly task: "compile" } & Source)
   | ({ readonly task: "evaluate"; readonly inputs?: Readonly<Record<string, string | number>> } & Source)
   | ({ readonly task: "verify" } & Source);
 
 export interface EvaluationPool {
-  compile(source: string): Promise<PoolOutcome<TaskResults["compile"]>>;
-  evaluate(source: string, inputs?: Readonly<Record<string, string | number>>): Promise<PoolOutcome<TaskResults["evaluate"]>>;
-  verify(source: string): Promise<PoolOutcome<TaskResults["verify"]>>;
+  /** `libraries`: the entries a standard's section and material inputs may name, resolved by the caller. */
+  compile(source: string, libraries?: LibraryEntries): Promise<PoolOutcome<TaskResults["compile"]>>;
+  evaluate(
+    source: string,
+    inputs?: Readonly<Record<string, string | number>>,
+    libraries?: LibraryEntries,
+  ): Promise<PoolOutcome<TaskResults["evaluate"]>>;
+  verify(source: string, libraries?: LibraryEntries): Promise<PoolOutcome<TaskResults["verify"]>>;
   /** Tests only, and only with `testHooks`: a task that spins, fills the heap or ends the thread. */
   runTestHook(task: TestHookRequest["task"]): Promise<PoolOutcome<unknown>>;
   /** The bundle the workers run (read and checked against its sha256 on first use). */
@@ -284,9 +290,10 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     run(request) as Promise<PoolOutcome<TaskResults[T]>>;
 
   return {
-    compile: (source) => typed({ task: "compile", source }),
-    evaluate: (source, inputs) => typed({ task: "evaluate", source, ...(inputs ? { inputs } : {}) }),
-    verify: (source) => typed({ task: "verify", source }),
+    compile: (source, libraries) => typed({ task: "compile", source, ...(libraries ? { libraries } : {}) }),
+    evaluate: (source, inputs, libraries) =>
+      typed({ task: "evaluate", source, ...(inputs ? { inputs } : {}), ...(libraries ? { libraries } : {}) }),
+    verify: (source, libraries) => typed({ task: "verify", source, ...(libraries ? { libraries } : {}) }),
     runTestHook: (task) => {
       if (options.testHooks !== true) throw new Error("runTestHook needs a pool created with testHooks (tests only)");
       return run({ task });

@@ -3,17 +3,20 @@
  * (pool.ts) or a browser module Worker. Plain data only, so structured clone carries them unchanged.
  */
 import type { EvaluationOutcome, SourceProblem } from "@/lib/standards";
+import type { LibraryEntries } from "@/lib/standards/library-inputs";
 import type { VerificationResult } from "@/lib/standards/verify";
 
+/** `libraries`: the entries the standard's section and material inputs may name (library-inputs.ts). */
 export type EvaluationRequest =
-  | { readonly id: number; readonly task: "compile"; readonly source: string }
+  | { readonly id: number; readonly task: "compile"; readonly source: string; readonly libraries?: LibraryEntries }
   | {
       readonly id: number;
       readonly task: "evaluate";
       readonly source: string;
       readonly inputs?: Readonly<Record<string, string | number>>;
+      readonly libraries?: LibraryEntries;
     }
-  | { readonly id: number; readonly task: "verify"; readonly source: string };
+  | { readonly id: number; readonly task: "verify"; readonly source: string; readonly libraries?: LibraryEntries };
 
 export type EvaluationTask = EvaluationRequest["task"];
 

@@ -4,6 +4,7 @@
  */
 import { compileStandard, evaluationToCanonicalJson, type Definition } from "@/lib/standards";
 import { runVerification } from "@/lib/standards/verify";
+import type { LibraryEntries } from "@/lib/standards/library-inputs";
 import type { CompileResult, DefinitionSummary, EvaluateResult, EvaluationRequest, TaskResults, VerifyResult } from "./protocol";
 
 function summarise(d: Definition): DefinitionSummary {
@@ -25,22 +26,26 @@ function summarise(d: Definition): DefinitionSummary {
   };
 }
 
-export function compileTask(source: string): CompileResult {
-  const compiled = compileStandard(source);
+export function compileTask(source: string, libraries: LibraryEntries = {}): CompileResult {
+  const compiled = compileStandard(source, libraries);
   return compiled.ok
     ? { ok: true, summary: summarise(compiled.standard.definition) }
     : { ok: false, problems: compiled.problems };
 }
 
-export function evaluateTask(source: string, inputs: Readonly<Record<string, string | number>> = {}): EvaluateResult {
-  const compiled = compileStandard(source);
+export function evaluateTask(
+  source: string,
+  inputs: Readonly<Record<string, string | number>> = {},
+  libraries: LibraryEntries = {},
+): EvaluateResult {
+  const compiled = compileStandard(source, libraries);
   if (!compiled.ok) return { ok: false, problems: compiled.problems };
   const outcome = compiled.standard.evaluate(inputs);
   return { ok: true, outcome, canonicalJson: outcome.ok ? evaluationToCanonicalJson(outcome.evaluation) : null };
 }
 
-export function verifyTask(source: string): VerifyResult {
-  const compiled = compileStandard(source);
+export function verifyTask(source: string, libraries: LibraryEntries = {}): VerifyResult {
+  const compiled = compileStandard(source, libraries);
   if (!compiled.ok) return { ok: false, problems: compiled.problems };
   return { ok: true, results: runVerification(compiled.standard) };
 }
@@ -48,10 +53,10 @@ export function verifyTask(source: string): VerifyResult {
 export function runTask(request: EvaluationRequest): TaskResults[EvaluationRequest["task"]] {
   switch (request.task) {
     case "compile":
-      return compileTask(request.source);
+      return compileTask(request.source, request.libraries);
     case "evaluate":
-      return evaluateTask(request.source, request.inputs);
+      return evaluateTask(request.source, request.inputs, request.libraries);
     case "verify":
-      return verifyTask(request.source);
+      return verifyTask(request.source, request.libraries);
   }
 }

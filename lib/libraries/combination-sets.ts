@@ -16,7 +16,8 @@
  *                 permanent actions are never left out.
  *
  * Ids: the set's combination id, then `:case` for each alternatives kind with more than one case in the model,
- * then `:no-K` for each kind left out — "4-Lr:W2:no-L". Names: the set's label with the same in words.
+ * then `:no-K` for each kind left out — "4-Lr:W2:no-L" — after the prefix asked for, if any. Names: the set's
+ * label with the cases and the kinds left out in words.
  */
 import type { CombinationSetEntry } from "./document";
 
@@ -33,6 +34,11 @@ export const MAX_EXPANDED_COMBINATIONS = 2000;
 export interface ExpandOptions {
   /** Also give each combination without its accompanying variable actions (see the file's comment). */
   leaveOutAccompanying?: boolean;
+  /**
+   * Put before every id ("ULS " gives "ULS 2-Lr"), so two sets' combinations can sit in one model — ASCE's
+   * strength and allowable stress sets both have a combination "1" — and none takes a load case's id.
+   */
+  idPrefix?: string;
 }
 
 /** Where an engine combination came from. */
@@ -147,10 +153,10 @@ export function expandCombinationSet(
   for (const combination of set.combinations) {
     const inSet = Object.keys(combination.factors);
     const absent = inSet.filter((kind) => !casesOf.has(kind));
-    const present = set.loadKinds.filter((kind) => kind.id in combination.factors && casesOf.has(kind.id));
+    const present = set.loadKinds.filter((kind) => Object.hasOwn(combination.factors, kind.id) && casesOf.has(kind.id));
     if (combination.leading !== undefined && !casesOf.has(combination.leading)) {
       dropped.push({
-        id: combination.id,
+        id: (options.idPrefix ?? "") + combination.id,
         combination: combination.id,
         reason: "leading-absent",
         message: `${combination.id} (${combination.label}) is left out: it is led by ${combination.leading}, and the model has no ${combination.leading} case.`,
@@ -176,15 +182,21 @@ export function expandCombinationSet(
               },
             ],
           };
-        const factors: Record<string, number> = {};
-        for (const [loadCase, kind] of entries) {
-          if (!acting.some((k) => k.id === kind)) continue;
-          if (kinds.get(kind)!.cases === "alternatives" && pick[kind] !== loadCase) continue;
-          factors[loadCase] = combination.factors[kind];
-        }
+        // fromEntries, not assignment, so a case called "__proto__" is a case like any other.
+        const factors: Record<string, number> = Object.fromEntries(
+          entries
+            .filter(
+              ([loadCase, kind]) =>
+                acting.some((k) => k.id === kind) && (kinds.get(kind)!.cases === "add" || pick[kind] === loadCase),
+            )
+            .map(([loadCase, kind]) => [loadCase, combination.factors[kind]]),
+        );
         const shown = alternativeKinds.filter((kind) => casesOf.get(kind.id)!.length > 1).map((kind) => pick[kind.id]);
-        const id = [combination.id, ...shown, ...[...leftOut].map((kind) => `no-${kind}`)].join(":");
-        const words = [...shown, ...(leftOut.size > 0 ? [`without ${listInWords([...leftOut])}`] : [])];
+        const id = (options.idPrefix ?? "") + [combination.id, ...shown, ...[...leftOut].map((kind) => `no-${kind}`)].join(":");
+        const words = [
+          ...(shown.length > 0 ? [shown.join(", ")] : []),
+          ...(leftOut.size > 0 ? [`without ${listInWords([...leftOut])}`] : []),
+        ];
         const name = words.length > 0 ? `${combination.label} (${words.join("; ")})` : combination.label;
         if (Object.keys(factors).length === 0) {
           dropped.push({
@@ -213,6 +225,16 @@ export function expandCombinationSet(
       }
     }
   }
+  // The engine looks results up by id across cases and combinations, and refuses a model where they collide.
+  const clashes = combinations.filter((c) => Object.hasOwn(caseKinds, c.id));
+  if (clashes.length > 0)
+    return {
+      ok: false,
+      problems: clashes.map((c) => ({
+        loadCase: c.id,
+        message: `Load case “${c.id}” has the id of one of the set's combinations; rename the load case, or give the combinations a prefix.`,
+      })),
+    };
   if (combinations.length === 0)
     return {
       ok: false,

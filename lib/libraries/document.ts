@@ -177,9 +177,9 @@ const combinationSchema = z
       finite("factor").refine((f) => f !== 0, "A factor of zero takes no part: leave the load kind out instead."),
     ),
     /**
-     * The variable action the combination is written for — EN 1990's leading action, the principal load of
-     * ASCE 7's companion-action format. A model with no case of that kind leaves the combination out: what
-     * remains of it is a weaker copy of another combination.
+     * The variable action the combination is written for — EN 1990's leading action; in ASCE 7, the principal
+     * load of its companion-action format, or the roof load an "(Lr or S or R)" choice names. A model with no
+     * case of that kind leaves the combination out: what remains of it is a weaker copy of another.
      */
     leading: loadKindId.optional(),
   })
@@ -218,7 +218,7 @@ const combinationSetEntrySchema = z
             message: `Combination “${combination.id}” has a factor on “${kind}”, which is not one of the set's load kinds.`,
           });
       const leading = combination.leading;
-      if (leading !== undefined && (kinds.get(leading)?.action !== "variable" || !(leading in combination.factors)))
+      if (leading !== undefined && (kinds.get(leading)?.action !== "variable" || !Object.hasOwn(combination.factors, leading)))
         ctx.addIssue({
           code: "custom",
           path: ["combinations", i, "leading"],

@@ -7,7 +7,8 @@
  * A compiled standard is cached by its source text: a version's expressions are parsed and checked once.
  */
 import { DefinitionSchema, type Definition } from "./definition";
-import { checkExpression, ExpressionError, reservedNameReason } from "./expressions";
+import { checkExpression, ExpressionError, reservedNameReason, type KnownNames } from "./expressions";
+import { isLibraryInput, libraryValueNames, type LibraryEntries } from "./library-inputs";
 import { evaluateDefinition, type EvaluationOutcome } from "./evaluate";
 import { SECTION_NAMES } from "./checks";
 import { QUANTITY_OF } from "./extracts";
@@ -19,8 +20,11 @@ export interface CompiledStandard {
   readonly definition: Definition;
   readonly narrative: string;
   readonly narrativeLine: number;
-  /** Evaluate with the given inputs (the defaults for those left out). */
-  evaluate(inputs?: Readonly<Record<string, string | number>>): EvaluationOutcome;
+  /**
+   * Evaluate with the given inputs (the defaults for those left out), finding section and material inputs'
+   * entries in `libraries` (those it was compiled with unless others are given).
+   */
+  evaluate(inputs?: Readonly<Record<string, string | number>>, libraries?: LibraryEntries): EvaluationOutcome;
 }
 
 export type CompileOutcome = { ok: true; standard: CompiledStandard } | { ok: false; problems: SourceProblem[] };
@@ -30,7 +34,9 @@ function problemAt(parsed: ParsedSource, path: ReadonlyArray<PropertyKey>, messa
   return { path: formatPath(path), message, ...(position ? { line: position.line, column: position.column } : {}) };
 }
 
-function unitProblem(unit: string | undefined, quantity: Quantity): string | null {
+function unitProblem(unit: string | undefined, quantity: Quantity | "section" | "material"): string | null {
+  if (quantity === "section" || quantity === "material")
+    return unit ? `a ${quantity} has no unit; remove \`unit: ${unit}\`` : null;
   const si = QUANTITIES[quantity];
   if (si === "") return unit ? `a ${quantity} value has no unit; remove \`unit: ${unit}\`` : null;
   if (!unit) return `a ${quantity.replaceAll("-", " ")} needs a unit (e.g. ${si})`;
@@ -44,8 +50,11 @@ function staticProblems(parsed: ParsedSource, d: Definition): SourceProblem[] {
   const problems: SourceProblem[] = [];
   const add = (path: PropertyKey[], message: string) => problems.push(problemAt(parsed, path, message));
   const owner = new Map<string, string>();
+  const libraryValues = libraryValueNames(d);
   const claim = (kind: string, key: string) => {
     const reason = reservedNameReason(key);
+    if (libraryValues.has(key))
+      add([kind, key], `\`${key}\` reads like a value of a section or material input; choose another name`);
     if (reason) add([kind, key], `${reason}; choose another name (an input \`N = 3\` would turn \`5 N\` into 15)`);
     else if ((SECTION_NAMES as ReadonlyArray<string>).includes(key))
       add([kind, key], `\`${key}\` is kept for the section's forces and member in checks for each member; choose another name`);
@@ -53,9 +62,11 @@ function staticProblems(parsed: ParsedSource, d: Definition): SourceProblem[] {
     owner.set(key, `${kind}.${key}`);
   };
   const known = new Set<string>();
+  // Besides the names declared, `<input>_<value>` of a section or material input; its entry decides which exist.
   const expression = (path: PropertyKey[], source: string, names: ReadonlySet<string>) => {
+    const readable: KnownNames = { has: (name) => names.has(name) || libraryValues.has(name) };
     try {
-      checkExpression(source, names);
+      checkExpression(source, readable);
     } catch (error) {
       if (error instanceof ExpressionError) add(path, error.message);
       else throw error;
@@ -64,6 +75,22 @@ function staticProblems(parsed: ParsedSource, d: Definition): SourceProblem[] {
 
   for (const [key, input] of Object.entries(d.inputs)) {
     claim("inputs", key);
+    const libraryOnly = (["library", "version", "shapes", "families"] as const).filter((field) => input[field] !== undefined);
+    if (isLibraryInput(input)) {
+      if (!input.library) add(["inputs", key], `a ${input.quantity} input names its \`library\` (its short name)`);
+      if (typeof input.default !== "string")
+        add(["inputs", key, "default"], `the default is the name of a ${input.quantity} in the library`);
+      if (input.unit) add(["inputs", key, "unit"], `a ${input.quantity} has no unit`);
+      if (input.choices) add(["inputs", key, "choices"], "only a choice has `choices`");
+      if (input.min !== undefined || input.max !== undefined)
+        add(["inputs", key], `a ${input.quantity} has no \`min\` or \`max\``);
+      if (input.quantity === "section" && input.families)
+        add(["inputs", key, "families"], "a section has `shapes`, not `families`");
+      if (input.quantity === "material" && input.shapes)
+        add(["inputs", key, "shapes"], "a material has `families`, not `shapes`");
+      continue;
+    }
+    for (const field of libraryOnly) add(["inputs", key, field], `only a section or material input has \`${field}\``);
     if (input.quantity === "choice") {
       if (!input.choices) add(["inputs", key, "choices"], "a choice needs its `choices`");
       else if (!input.choices.includes(String(input.default)))
@@ -132,14 +159,14 @@ function staticProblems(parsed: ParsedSource, d: Definition): SourceProblem[] {
 }
 
 /** Evaluate at the defaults, then at each other alternative of each choice, to find dimension errors in every branch. */
-function probeProblems(parsed: ParsedSource, d: Definition): SourceProblem[] {
+function probeProblems(parsed: ParsedSource, d: Definition, libraries: LibraryEntries): SourceProblem[] {
   const variations: Record<string, string>[] = [{}];
   for (const [key, input] of Object.entries(d.inputs))
     if (input.quantity === "choice") for (const c of input.choices ?? []) if (c !== input.default) variations.push({ [key]: c });
   const problems: SourceProblem[] = [];
   const seen = new Set<string>();
   for (const inputs of variations) {
-    const out = evaluateDefinition(d, inputs);
+    const out = evaluateDefinition(d, inputs, libraries);
     if (out.ok) continue;
     const when =
       Object.keys(inputs).length === 0
@@ -172,16 +199,34 @@ function probeProblems(parsed: ParsedSource, d: Definition): SourceProblem[] {
 const cache = new Map<string, CompileOutcome>();
 const CACHE_LIMIT = 200;
 
-export function compileStandard(source: string): CompileOutcome {
-  const hit = cache.get(source);
+/**
+ * Compiles a source; `libraries` holds the entries its section and material inputs' defaults and verification
+ * cases name (none needed when it has no such input).
+ */
+export function compileStandard(source: string, libraries: LibraryEntries = {}): CompileOutcome {
+  const key = `${librariesDigest(libraries)}\u0000${source}`;
+  const hit = cache.get(key);
   if (hit) return hit;
-  const outcome = compileUncached(source);
+  const outcome = compileUncached(source, libraries);
   if (cache.size >= CACHE_LIMIT) cache.clear();
-  cache.set(source, outcome);
+  cache.set(key, outcome);
   return outcome;
 }
 
-function compileUncached(source: string): CompileOutcome {
+/** What tells two sets of handed-in entries apart: each library's version, content hash and entry hashes. */
+function librariesDigest(libraries: LibraryEntries): string {
+  const slugs = Object.keys(libraries).sort();
+  if (slugs.length === 0) return "";
+  return JSON.stringify(
+    slugs.map((slug) => {
+      const library = libraries[slug];
+      const entries = Object.keys(library.entries).sort();
+      return [slug, library.version, library.contentHash, entries.map((entry) => library.entries[entry].hash)];
+    }),
+  );
+}
+
+function compileUncached(source: string, libraries: LibraryEntries): CompileOutcome {
   const read = parseSource(source);
   if (!read.ok) return { ok: false, problems: read.problems };
   const parsed = read.parsed;
@@ -198,7 +243,7 @@ function compileUncached(source: string): CompileOutcome {
   const definition = valid.data;
   const problems = [...staticProblems(parsed, definition), ...checkNarrative(parsed.narrative, definition, parsed.narrativeLine)];
   if (problems.length > 0) return { ok: false, problems };
-  const probed = probeProblems(parsed, definition);
+  const probed = probeProblems(parsed, definition, libraries);
   if (probed.length > 0) return { ok: false, problems: probed };
   return {
     ok: true,
@@ -206,7 +251,7 @@ function compileUncached(source: string): CompileOutcome {
       definition,
       narrative: parsed.narrative,
       narrativeLine: parsed.narrativeLine,
-      evaluate: (inputs = {}) => evaluateDefinition(definition, inputs),
+      evaluate: (inputs = {}, entries = libraries) => evaluateDefinition(definition, inputs, entries),
     },
   };
 }

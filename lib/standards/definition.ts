@@ -26,13 +26,24 @@ export const InputSchema = z
   .object({
     label: text,
     symbol: z.string().min(1).optional(),
-    quantity: z.union([quantity, z.literal("choice")]),
+    /** `section` and `material` take an entry of a firm library by name (library-inputs.ts). */
+    quantity: z.union([quantity, z.literal("choice"), z.literal("section"), z.literal("material")]),
     /** The unit a value is shown in and a bare number is read in; required unless dimensionless, count or choice. */
     unit: z.string().optional(),
     default: z.union([z.string(), z.number()]),
     min: expr.optional(),
     max: expr.optional(),
     choices: z.array(text).min(2).optional(),
+    /** A library input's library (its short name) and version: a published number, or `latest` (pinned at publication). */
+    library: z
+      .string()
+      .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, "a library's short name is lower-case words joined by -")
+      .optional(),
+    version: z.union([z.number().int().min(1), z.literal("latest")]).optional(),
+    /** The section shapes a section input takes (i, channel, rectangular-hollow, circular-hollow, rectangle, circle, angle). */
+    shapes: z.array(text).min(1).optional(),
+    /** The material families a material input takes (steel, timber, concrete, aluminium, masonry, other). */
+    families: z.array(text).min(1).optional(),
     help: z.string().optional(),
   })
   .strict();

@@ -8,6 +8,7 @@ import type { MathNode } from "mathjs";
 import type { Definition } from "./definition";
 import type { Evaluation } from "./evaluate";
 import { checkExpression } from "./expressions";
+import { LIBRARY_DISPLAY_UNITS, valueName } from "./library-inputs";
 import { formatSignificant, trimZeros } from "./format";
 import { math, QUANTITIES, type Quantity } from "./units";
 
@@ -62,9 +63,15 @@ export function derivationLatex(definition: Definition, evaluation: Evaluation, 
   for (const [name, input] of Object.entries(definition.inputs)) {
     symbols.set(name, input.symbol ?? nameLatex(name));
     const e = evaluation.inputs[name];
-    if (input.quantity === "choice") values.set(name, `\\text{${String(e.si).replace(/[{}\\]/g, "")}}`);
+    if (input.quantity === "choice" || e.entry) values.set(name, `\\text{${String(e.si).replace(/[{}\\]/g, "")}}`);
     // Inputs read back as typed: 6 m, not 6.000 m.
-    else values.set(name, quantityLatex(e.si as number, input.quantity, input.unit, 6, true));
+    else values.set(name, quantityLatex(e.si as number, input.quantity as Quantity, input.unit, 6, true));
+    // A library entry's values (`beam_Ix`), in the units tables state them in.
+    for (const [value, { si, quantity }] of Object.entries(e.entry?.values ?? {})) {
+      const full = valueName(name, value);
+      symbols.set(full, nameLatex(full));
+      values.set(full, quantityLatex(si, quantity, LIBRARY_DISPLAY_UNITS[quantity], 4));
+    }
   }
   for (const [name, d] of Object.entries(definition.derived)) {
     symbols.set(name, d.symbol ?? nameLatex(name));

@@ -14,8 +14,9 @@ import { readExtract, resultsView, type Where } from "./extracts";
 import { displayUtilisation, runCheck } from "./checks";
 import { boundsProblem, readInput, type InputProblem } from "./inputs";
 import { formatQuantity, formatValue } from "./format";
-import { describeDimension, fromSI, hasDimensionOf, isUnit, toSI, type Value } from "./units";
+import { describeDimension, fromSI, hasDimensionOf, isUnit, toSI, type Quantity, type Value } from "./units";
 import { formatPath } from "./source";
+import { bindLibraryInput, isLibraryInput, type LibraryEntries, type UsedEntry } from "./library-inputs";
 
 /** The evaluation module's own version: part of the identity recorded with every run, beside the engine's. */
 // 0.2.0: a check for each member reads N, V and M without the displacements and does not count the sections
@@ -24,9 +25,11 @@ export const EVALUATION_VERSION = "0.2.0";
 
 export interface EvaluatedInput {
   readonly typed: string | number;
-  /** SI number, or the choice's text. */
+  /** SI number, or the choice's text, or a library entry's name. */
   readonly si: number | string;
   readonly display: string;
+  /** For a section or material input: the library entry used, with its library's version and the hashes. */
+  readonly entry?: UsedEntry;
 }
 
 export interface EvaluatedValue {
@@ -90,10 +93,14 @@ function fail(path: ReadonlyArray<PropertyKey>, message: string): EvaluationOutc
   return { ok: false, stage: "definition", path: formatPath(path), message };
 }
 
-/** Read, convert and bound-check the inputs; unknown keys are refused. */
+/**
+ * Read, convert and bound-check the inputs; unknown keys are refused. A section or material input's entry is
+ * found among `libraries` and its values join the scope as `<input>_<value>`.
+ */
 export function readInputs(
   definition: Definition,
   given: Readonly<Record<string, string | number>>,
+  libraries: LibraryEntries = {},
 ): { ok: true; scope: Scope; inputs: Record<string, EvaluatedInput> } | { ok: false; problems: InputProblem[] } {
   const problems: InputProblem[] = [];
   for (const key of Object.keys(given))
@@ -101,15 +108,27 @@ export function readInputs(
       problems.push({ input: key, message: `There is no input \`${key}\` in this standard` });
   const scope: Scope = new Map();
   const typed: Record<string, string | number> = {};
+  const used: Record<string, UsedEntry> = {};
   for (const [key, input] of Object.entries(definition.inputs)) {
     const raw = Object.hasOwn(given, key) ? given[key] : input.default;
     typed[key] = raw;
+    if (isLibraryInput(input)) {
+      const bound = bindLibraryInput(key, input, raw, libraries);
+      if (!bound.ok) problems.push({ input: key, message: bound.message });
+      else {
+        scope.set(key, bound.entry.key);
+        for (const [name, value] of bound.values) scope.set(name, value);
+        used[key] = bound.used;
+      }
+      continue;
+    }
     const value = readInput(key, input, raw);
     if (typeof value === "object" && "message" in value && !isUnit(value)) problems.push(value as InputProblem);
     else scope.set(key, value as Value);
   }
   if (problems.length > 0) return { ok: false, problems };
   for (const [key, input] of Object.entries(definition.inputs)) {
+    if (isLibraryInput(input)) continue;
     const problem = boundsProblem(key, input, scope.get(key)!, scope);
     if (problem) problems.push(problem);
   }
@@ -117,17 +136,25 @@ export function readInputs(
   const inputs: Record<string, EvaluatedInput> = {};
   for (const [key, input] of Object.entries(definition.inputs)) {
     const value = scope.get(key)!;
+    if (used[key]) {
+      inputs[key] = { typed: typed[key], si: used[key].key, display: used[key].key, entry: used[key] };
+      continue;
+    }
     inputs[key] = {
       typed: typed[key],
-      si: typeof value === "string" || input.quantity === "choice" ? String(value) : toSI(value, input.quantity),
+      si: typeof value === "string" || input.quantity === "choice" ? String(value) : toSI(value, input.quantity as Quantity),
       display: formatValue(value, input.unit, 4, true),
     };
   }
   return { ok: true, scope, inputs };
 }
 
-export function evaluateDefinition(definition: Definition, given: Readonly<Record<string, string | number>>): EvaluationOutcome {
-  const read = readInputs(definition, given);
+export function evaluateDefinition(
+  definition: Definition,
+  given: Readonly<Record<string, string | number>>,
+  libraries: LibraryEntries = {},
+): EvaluationOutcome {
+  const read = readInputs(definition, given, libraries);
   if (!read.ok) return { ok: false, stage: "inputs", problems: read.problems };
   const scope = read.scope;
   try {

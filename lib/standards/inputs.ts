@@ -19,6 +19,9 @@ export const MAX_INPUT_TEXT = 60;
 /** Read one typed value of an input; a text, or a number meaning "in the input's unit". */
 export function readInput(key: string, definition: InputDefinition, raw: string | number): Value | InputProblem {
   const label = definition.label;
+  // Sections and materials are found in a library (library-inputs.ts), never read as a number.
+  if (definition.quantity === "section" || definition.quantity === "material")
+    return { input: key, message: `${label}: choose a ${definition.quantity} from the library` };
   if (definition.quantity === "choice") {
     const text = String(raw).trim();
     if (!definition.choices?.includes(text))

@@ -11,6 +11,8 @@ import { compileTask, verifyTask } from "@/lib/evaluation/tasks";
 import { contentHash } from "@/lib/standards/content-hash";
 import { EVALUATION_VERSION } from "@/lib/standards/evaluate";
 import type { SourceProblem } from "@/lib/standards/source";
+import type { LibraryEntries } from "@/lib/standards/library-inputs";
+import { libraryEntriesFor } from "./library-resolution";
 import type { VerificationResult } from "@/lib/standards/verify";
 
 export type SourceMetadata = { title: string; category: string; tags: string[]; summary: string };
@@ -34,16 +36,21 @@ function poolRefusal(failure: PoolFailure): AppError {
   return new AppError("invalid-input", failure.message, { fieldErrors: { source: [failure.message] } });
 }
 
-export async function checkSource(source: string, { inProcess = false }: { inProcess?: boolean } = {}): Promise<SourceCheck> {
+/** `libraries`: the entries the source's section and material inputs name; read from the firm's published libraries unless given. */
+export async function checkSource(
+  source: string,
+  { inProcess = false, libraries }: { inProcess?: boolean; libraries?: LibraryEntries } = {},
+): Promise<SourceCheck> {
   const hashed = await contentHash(source);
   const hash = hashed.ok ? hashed.hash : null;
   const pool = inProcess ? null : evaluationPool();
-  const compiled = pool ? await pool.compile(source) : { ok: true as const, result: compileTask(source) };
+  const entries = libraries ?? (await libraryEntriesFor(source));
+  const compiled = pool ? await pool.compile(source, entries) : { ok: true as const, result: compileTask(source, entries) };
   if (!compiled.ok) throw poolRefusal(compiled);
   if (!compiled.result.ok)
     return { problems: [...compiled.result.problems], metadata: null, verification: [], hash, verifiedWith: VERIFIED_WITH };
   const { summary } = compiled.result;
-  const verified = pool ? await pool.verify(source) : { ok: true as const, result: verifyTask(source) };
+  const verified = pool ? await pool.verify(source, entries) : { ok: true as const, result: verifyTask(source, entries) };
   if (!verified.ok) throw poolRefusal(verified);
   if (!verified.result.ok)
     return { problems: [...verified.result.problems], metadata: null, verification: [], hash, verifiedWith: VERIFIED_WITH };

@@ -63,6 +63,8 @@ import { checkSource, gateRefusals, VERIFIED_WITH, type SourceCheck } from "./st
 import { defineUseCase } from "./use-case";
 import { ownEditableDraft } from "./draft-access";
 import { missingHandCalculations } from "./standard-attachments";
+import { libraryEntriesFor } from "./library-resolution";
+import type { LibraryEntries } from "@/lib/standards/library-inputs";
 
 const noInput = z.object({}).default({});
 
@@ -110,15 +112,18 @@ export const readStandard = defineUseCase({
   audit: null,
 });
 
+/** A version with the library entries its section and material inputs' defaults name, to evaluate it for its page. */
+export type VersionView = VersionDto & { libraries: LibraryEntries };
+
 export const readVersion = defineUseCase({
   name: "standards.read-version",
   permission: "library.read",
   input: versionRefSchema,
-  run: async ({ slug, number }): Promise<VersionDto> => {
+  run: async ({ slug, number }): Promise<VersionView> => {
     const standard = await getStandardBySlug(slug);
     const version = standard ? await getVersion({ standardId: standard.id, number }) : null;
     if (!version) throw new AppError("not-found", `“${slug}” has no version ${number}.`);
-    return version;
+    return { ...version, libraries: await libraryEntriesFor(version.source) };
   },
   audit: null,
 });
@@ -413,7 +418,7 @@ async function previewOf(source: string, which: "saved draft" | "text"): Promise
   const read = parseSource(source);
   const definition = read.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
   if (!read.ok || !definition?.success) return { ok: false, message: notYet };
-  const evaluated = await evaluationPool().evaluate(source);
+  const evaluated = await evaluationPool().evaluate(source, undefined, await libraryEntriesFor(source));
   if (!evaluated.ok) return { ok: false, message: evaluated.message };
   if (!evaluated.result.ok) return { ok: false, message: notYet };
   if (!evaluated.result.outcome.ok) return { ok: false, message: "The default inputs could not be evaluated." };

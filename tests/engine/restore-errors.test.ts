@@ -58,6 +58,16 @@ function wholeCaseMissing(path: string, kind: string): string[] {
   ];
 }
 
+/** Everything said about envelope E when it is not stored at all. */
+const ENVELOPE_E_MISSING = [
+  "envelopes.E: missing",
+  "envelopes.E: expected an object",
+  'envelopes.E.of: expected ["G","C"], the model\'s envelope',
+  "envelopes.E.displacements: expected an object",
+  "envelopes.E.reactions: expected an object",
+  "envelopes.E.endForces: expected an object",
+];
+
 const CASES: [string, (s: Json) => void, string[]][] = [
   [
     "the analysis of another kind",
@@ -92,6 +102,11 @@ const CASES: [string, (s: Json) => void, string[]][] = [
     "a combination missing",
     (s) => delete s.combinations.C,
     ["combinations.C: missing", ...wholeCaseMissing("combinations.C", "combination")],
+  ],
+  [
+    "the combinations not an object",
+    (s) => (s.combinations = null),
+    ["combinations: expected an object", "combinations.C: missing", ...wholeCaseMissing("combinations.C", "combination")],
   ],
   ["a combination the model does not have", (s) => (s.combinations.D = s.combinations.C), ["combinations.D: not in the model"]],
   ["a factor changed", (s) => (s.combinations.C.factors.Q = 1.6), ["combinations.C.factors.Q: stored 1.6, the model says 1.5"]],
@@ -195,19 +210,9 @@ const CASES: [string, (s: Json) => void, string[]][] = [
     (s) => (s.envelopes.E.of = "G,C"),
     ['envelopes.E.of: expected ["G","C"], the model\'s envelope'],
   ],
+  ["the envelopes an array", (s) => (s.envelopes = [s.envelopes.E]), ["envelopes: expected an object", ...ENVELOPE_E_MISSING]],
   ["an envelope the model does not have", (s) => (s.envelopes.F = s.envelopes.E), ["envelopes.F: not in the model"]],
-  [
-    "an envelope missing",
-    (s) => delete s.envelopes.E,
-    [
-      "envelopes.E: missing",
-      "envelopes.E: expected an object",
-      'envelopes.E.of: expected ["G","C"], the model\'s envelope',
-      "envelopes.E.displacements: expected an object",
-      "envelopes.E.reactions: expected an object",
-      "envelopes.E.endForces: expected an object",
-    ],
-  ],
+  ["an envelope missing", (s) => delete s.envelopes.E, ENVELOPE_E_MISSING],
   [
     "an envelope's governing result not one it envelopes",
     (s) => (s.envelopes.E.displacements.B.uy.maxFrom = "Q"),

@@ -14,6 +14,7 @@ const LOADING: Record<string, () => Promise<{ default: ComponentType }>> = {
   home: () => import("@/app/(app)/home/loading"),
   profile: () => import("@/app/(app)/profile/loading"),
   "standards/(list)": () => import("@/app/(app)/standards/(list)/loading"),
+  "libraries/(list)": () => import("@/app/(app)/libraries/(list)/loading"),
   jobs: () => import("@/app/(app)/jobs/loading"),
   runs: () => import("@/app/(app)/runs/loading"),
   audit: () => import("@/app/(app)/audit/loading"),
@@ -29,6 +30,12 @@ const NO_SKELETON: Record<string, string> = {
   "standards/[slug]/diff": "404 for versions that do not exist",
   "standards/new": "403 for roles that do not write standards",
   "standards/drafts/[draftId]": "403 for roles that do not write standards, 404 for a draft that does not exist",
+  "libraries/[slug]": "404 for a library that does not exist",
+  "libraries/[slug]/versions/[number]": "404 for a version that does not exist",
+  "libraries/[slug]/versions/[number]/entry": "404 for an entry that does not exist",
+  "libraries/[slug]/diff": "404 for versions that do not exist",
+  // Nothing to wait for: the builder works in the browser.
+  "libraries/builder": "nothing loads on the server but the access check",
 };
 /** Folders under app/(app) that hold a page.tsx: each is a section someone can click to. */
 function sectionsWithPages(dir = path.join(root, "app", "(app)"), prefix = ""): string[] {

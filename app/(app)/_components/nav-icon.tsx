@@ -4,6 +4,8 @@ import type { NavIcon as NavIconName } from "./nav-items";
 const PATHS: Record<NavIconName, string> = {
   home: "M3 9.5 10 4l7 5.5V16a1 1 0 0 1-1 1h-3.5v-4.5h-5V17H4a1 1 0 0 1-1-1z",
   standards: "M4 3.5h3v13H4zM8.5 3.5h3v13h-3zM13 4.2l2.8-.7 2.4 12.6-2.8.7z",
+  // an I section end-on: the firm's sections, materials and load-combination sets
+  libraries: "M4.5 3.5h11v2.5h-4.25v8h4.25v2.5h-11V14h4.25V6H4.5z",
   jobs: "M3 6.5h14v9.5H3zM7 6.5V4h6v2.5M3 10.5h14",
   // a calc sheet with a "run" arrowhead on it: a standard put through its steps
   runs: "M4.5 2.5h8l3 3v12h-11zM12.5 2.5v3h3M8 8.5l4.5 3-4.5 3z",

@@ -3,7 +3,7 @@
 // would answer 403. Hiding is a courtesy here — the page's own requirePageActor() is the check.
 import type { Action } from "@/lib/domain/permissions";
 
-export type NavIcon = "home" | "standards" | "jobs" | "runs" | "audit" | "people" | "mailbox";
+export type NavIcon = "home" | "standards" | "libraries" | "jobs" | "runs" | "audit" | "people" | "mailbox";
 
 export type NavItem = {
   href: string;
@@ -17,6 +17,7 @@ export type NavItem = {
 export const NAV_ITEMS: NavItem[] = [
   { href: "/home", label: "Home", icon: "home", permission: null, group: "work" },
   { href: "/standards", label: "Standards", icon: "standards", permission: "library.read", group: "work" },
+  { href: "/libraries", label: "Libraries", icon: "libraries", permission: "libraries.read", group: "work" },
   { href: "/jobs", label: "Jobs", icon: "jobs", permission: "projects.read", group: "work" },
   { href: "/runs", label: "Runs", icon: "runs", permission: "runs.read", group: "work" },
   { href: "/audit", label: "Audit trail", icon: "audit", permission: "audit.read", group: "work" },

@@ -1,9 +1,8 @@
 import "server-only";
 // What the standard page and a version's page both load: the version, its standard's history, and the
 // reader's time zone.
-import { notFound } from "next/navigation";
 import type { Actor } from "@/lib/domain/actor";
-import { AppError } from "@/lib/domain/errors";
+import { orNotFound } from "../../_components/or-not-found";
 import { runUseCase } from "@/lib/use-cases/run";
 import { readProfile } from "@/lib/use-cases/profile";
 import { readStandard, readVersion } from "@/lib/use-cases/standards";
@@ -23,14 +22,4 @@ export async function loadVersionPage(actor: Actor, slug: string, number?: numbe
 /** One version only (the diff page needs no standard, history or time zone). */
 export async function loadVersion(actor: Actor, slug: string, number: number) {
   return orNotFound(() => runUseCase(readVersion, { actor, input: { slug, number } }));
-}
-
-/** A standard or version that does not exist, or an address that cannot name one, is the 404 page. */
-async function orNotFound<T>(load: () => Promise<T>): Promise<T> {
-  try {
-    return await load();
-  } catch (error) {
-    if (error instanceof AppError && (error.code === "not-found" || error.code === "invalid-input")) notFound();
-    throw error;
-  }
 }

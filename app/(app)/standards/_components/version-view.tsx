@@ -7,6 +7,7 @@ import Link from "next/link";
 import type { Actor } from "@/lib/domain/actor";
 import { can } from "@/lib/domain/permissions";
 import type { VersionDto, VersionSummaryDto } from "@/lib/data/standards";
+import type { VersionView } from "@/lib/use-cases/standards";
 import { compileStandard } from "@/lib/standards/compile";
 import type { VerificationResult } from "@/lib/standards/verify";
 import { formatSignificant, trimZeros } from "@/lib/standards/format";
@@ -39,12 +40,12 @@ export function VersionView({
   actor,
   timeZone,
 }: {
-  version: VersionDto;
+  version: VersionView;
   history: VersionSummaryDto[];
   actor: Actor;
   timeZone?: string;
 }) {
-  const compiled = compileStandard(version.source);
+  const compiled = compileStandard(version.source, version.libraries);
   const leads = can(actor.role, "templates.write-draft");
   const previous = history.find((v) => v.number === version.number - 1);
   const base = `/standards/${version.slug}`;

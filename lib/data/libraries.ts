@@ -170,8 +170,10 @@ export async function listLibraryVersionsOf(libraryId: string): Promise<LibraryV
   return rows.map(toSummary);
 }
 
-/** The entries of a version in document order, each with its own withdrawal (the first, if any). */
-async function listEntryRows(versionId: string): Promise<LibraryEntryRowDto[]> {
+type EventDto = LibraryVersionDto["events"][number];
+
+/** The entries of a version in document order, each with its own withdrawal (the first, if any) from `events`. */
+async function listEntryRows(versionId: string, events: EventDto[]): Promise<LibraryEntryRowDto[]> {
   const entries = await currentDb()
     .select({
       id: libraryVersionEntries.id,
@@ -183,21 +185,10 @@ async function listEntryRows(versionId: string): Promise<LibraryEntryRowDto[]> {
     .from(libraryVersionEntries)
     .where(eq(libraryVersionEntries.versionId, versionId))
     .orderBy(asc(libraryVersionEntries.position));
-  const withdrawals = await currentDb()
-    .select({
-      entryKey: libraryVersionEvents.entryKey,
-      reason: libraryVersionEvents.reason,
-      actorName: user.name,
-      occurredAt: libraryVersionEvents.occurredAt,
-    })
-    .from(libraryVersionEvents)
-    .leftJoin(user, eq(user.id, libraryVersionEvents.actorId))
-    .where(and(eq(libraryVersionEvents.versionId, versionId), sql`${libraryVersionEvents.entryKey} is not null`))
-    .orderBy(asc(libraryVersionEvents.id));
   const byKey = new Map<string, WithdrawalDto>();
-  for (const w of withdrawals)
-    if (w.entryKey && !byKey.has(w.entryKey))
-      byKey.set(w.entryKey, { reason: w.reason ?? "", actorName: w.actorName, occurredAt: w.occurredAt.toISOString() });
+  for (const event of events)
+    if (event.kind === "withdrawn" && event.entryKey !== null && !byKey.has(event.entryKey))
+      byKey.set(event.entryKey, { reason: event.reason ?? "", actorName: event.actorName, occurredAt: event.occurredAt });
   return entries.map((entry) => ({ ...entry, withdrawn: byKey.get(entry.normalisedKey) ?? null }));
 }
 
@@ -226,12 +217,8 @@ export async function getLibraryVersion(
     .leftJoin(user, eq(user.id, libraryVersionEvents.actorId))
     .where(eq(libraryVersionEvents.versionId, summary.id))
     .orderBy(asc(libraryVersionEvents.id));
-  return {
-    ...toSummary(summary),
-    ...content,
-    events: events.map((event) => ({ ...event, occurredAt: event.occurredAt.toISOString() })),
-    entryRows: await listEntryRows(summary.id),
-  };
+  const eventDtos = events.map((event) => ({ ...event, occurredAt: event.occurredAt.toISOString() }));
+  return { ...toSummary(summary), ...content, events: eventDtos, entryRows: await listEntryRows(summary.id, eventDtos) };
 }
 
 export async function nextLibraryVersionNumber(libraryId: string): Promise<number> {

@@ -5,7 +5,6 @@ import "server-only";
 // wrote, so the use cases run them in `prepare`, before the transaction opens.
 import canonicalize from "canonicalize";
 import type { Actor } from "@/lib/domain/actor";
-import { AppError } from "@/lib/domain/errors";
 import { LIBRARY_KIND_NAMES, type LibraryKind } from "@/lib/libraries";
 import {
   checkLibraryDocument,
@@ -16,6 +15,7 @@ import {
   type LibraryProblem,
 } from "@/lib/libraries/document";
 import { lockLibraryDraftOrThrow } from "@/lib/data/library-drafts";
+import { refuseUnlessOwnEditable } from "./draft-access";
 
 export type LibraryCheck = {
   /** Everything that stops the document going forward, each with where it is and the entry it is in. */
@@ -67,20 +67,10 @@ export function libraryGateRefusals(check: LibraryCheck, basedOn: { number: numb
   return [];
 }
 
-/** Refused to anyone but the author: the words every such refusal uses. */
-export const NOT_THE_LIBRARY_AUTHOR = "Only the draft's author edits it; start your own draft from the version instead.";
-
-/** The draft, locked, if `actor` wrote it and it is still being edited; else a refusal that says why. */
+/** The library draft, locked, if `actor` wrote it and it is still being edited; else a refusal that says why. */
 export async function ownEditableLibraryDraft(draftId: string, actor: Actor) {
   const draft = await lockLibraryDraftOrThrow(draftId);
-  if (draft.authorId !== actor.id) throw new AppError("forbidden", NOT_THE_LIBRARY_AUTHOR);
-  if (draft.state !== "editing")
-    throw new AppError(
-      "conflict",
-      draft.state === "in-review"
-        ? "This draft is in review; it can be edited again if the reviewer returns it."
-        : `This draft is ${draft.state} and can no longer be edited.`,
-    );
+  refuseUnlessOwnEditable(draft, actor);
   return draft;
 }
 

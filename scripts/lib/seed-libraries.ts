@@ -3,7 +3,6 @@
 // document under content/libraries/ (materials, load-combination sets). Each is written by one demo lead and
 // approved by the other, passed through the same check and hashing as a submission, with a row and a hash per
 // entry. Run by scripts/seed.ts after the standards; a second run changes nothing.
-import path from "node:path";
 import { count, eq } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as schema from "@/db/schema";
@@ -45,9 +44,9 @@ async function startingDocuments(): Promise<Starting[]> {
   const found: Starting[] = [
     { slug: "firm-sections", document: sections, check: await checkLibraryDraftDocument(sections, "sections") },
   ];
-  for (const { file, document } of startingLibraries())
+  for (const { name, document } of startingLibraries())
     found.push({
-      slug: path.basename(file, ".json"),
+      slug: name,
       document,
       check: await checkLibraryDraftDocument(document, document.kind),
     });

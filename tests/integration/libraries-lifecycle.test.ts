@@ -405,6 +405,63 @@ describe("a library from first draft to withdrawal", () => {
   });
 });
 
+describe("publishing and the seeded libraries", () => {
+  it("gives two publications of one library at the same moment consecutive numbers, never the same one", async () => {
+    const [alice, bruno] = await editors(["lead", "admin"]);
+    const v1 = await publishedLibrary(alice, bruno);
+    const submissions = [];
+    for (const [author, t] of [
+      [alice, 0.007],
+      [bruno, 0.008],
+    ] as const) {
+      const { draftId } = await runUseCase(startLibraryDraft, { actor: author, input: { versionId: v1.versionId } });
+      await runUseCase(saveLibraryDraft, {
+        actor: author,
+        input: { draftId, document: sections("Tubes", [tube("GT 168x6", 0.1683, t)]) },
+      });
+      submissions.push({
+        author,
+        ...(await runUseCase(submitLibraryDraft, { actor: author, input: { draftId, changelog: `t = ${t} m.` } })),
+      });
+    }
+    const results = await Promise.all(
+      submissions.map(({ author, reviewId }) =>
+        runUseCase(approveAndPublishLibrary, { actor: author.id === alice.id ? bruno : alice, input: { reviewId } }),
+      ),
+    );
+    expect(results.map((r) => r.number).sort()).toEqual([2, 3]);
+    const versions = (await runUseCase(readLibrary, { actor: alice, input: { slug: v1.slug } })).versions;
+    expect(versions.map((v) => [v.number, v.status])).toEqual([
+      [3, "published"],
+      [2, "superseded"],
+      [1, "superseded"],
+    ]);
+  });
+
+  it("resolves entries of the seeded libraries for an engineer: a catalogue section with its listed values, a material", async () => {
+    const { actor: engineer } = await createTestUser({ role: "engineer", label: "seeded-reader" });
+    const section = await runUseCase(resolveLibraryReference, {
+      actor: engineer,
+      input: { library: "firm-sections", version: "latest", entry: "GI 200x100x8" },
+    });
+    expect(section).toMatchObject({
+      kind: "sections",
+      versionNumber: 1,
+      entryKey: "GI 200x100x8",
+      entry: { shape: "i", origin: { from: "catalogue", file: "demo-catalogue.csv" } },
+    });
+    if (!("properties" in section.entry) || !("listed" in section.entry)) throw new Error("not a section entry");
+    // The catalogue's listed value is the one a run uses, where it gives one.
+    expect(section.entry.properties.A).toBe(section.entry.listed.A);
+    expect(await libraryEntryHash(section.entry)).toBe(section.entryHash);
+    const material = await runUseCase(resolveLibraryReference, {
+      actor: engineer,
+      input: { library: "materials", version: 1, entry: "astm a992" },
+    });
+    expect(material).toMatchObject({ kind: "materials", entryKey: "ASTM A992", entry: { family: "steel" } });
+  });
+});
+
 describe("who may do what", () => {
   // From the issue, written out here rather than read from the permission table: everyone reads the libraries;
   // admins and leads write, review, publish and withdraw them.

@@ -35,10 +35,21 @@ function sectionValues(entry: SectionEntry): BoundEntry["values"] {
   return values;
 }
 
-const MATERIAL_QUANTITIES = { E: "stress", G: "stress", fy: "stress", fu: "stress", density: "density", nu: "dimensionless" } as const;
+const MATERIAL_QUANTITIES = {
+  E: "stress",
+  G: "stress",
+  fy: "stress",
+  fu: "stress",
+  density: "density",
+  nu: "dimensionless",
+} as const;
 // A further value's unit, as the library states it. 1/K (thermal expansion) has no quantity in the standards'
 // list yet: such a value is kept in the library and its hash, but no expression reads it.
-const QUANTITY_OF_MATERIAL_UNIT: Record<string, Quantity | undefined> = { Pa: "stress", "kg/m³": "density", "1": "dimensionless" };
+const QUANTITY_OF_MATERIAL_UNIT: Record<string, Quantity | undefined> = {
+  Pa: "stress",
+  "kg/m³": "density",
+  "1": "dimensionless",
+};
 
 function materialValues(entry: MaterialEntry): BoundEntry["values"] {
   const values: Record<string, { si: number; quantity: Quantity }> = {};

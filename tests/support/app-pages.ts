@@ -60,14 +60,24 @@ export const APP_PAGES: AppPage[] = [
   { name: "new standard", entry: "/(app)/standards/new/page", path: "/standards/new", visitors: ["lead"] },
   { name: "libraries", entry: "/(app)/libraries/(list)/page", path: "/libraries", visitors: SIGNED_IN },
   // The starting libraries the seed publishes (scripts/lib/seed-libraries.ts), each kind once.
-  { name: "a section library", entry: "/(app)/libraries/[slug]/page", path: "/libraries/firm-sections", visitors: ["engineer", "admin"] },
+  {
+    name: "a section library",
+    entry: "/(app)/libraries/[slug]/page",
+    path: "/libraries/firm-sections",
+    visitors: ["engineer", "admin"],
+  },
   {
     name: "a material library's version",
     entry: "/(app)/libraries/[slug]/versions/[number]/page",
     path: "/libraries/materials/versions/1",
     visitors: ["auditor"],
   },
-  { name: "a combination-set library", entry: "/(app)/libraries/[slug]/page", path: "/libraries/load-combinations", visitors: ["lead"] },
+  {
+    name: "a combination-set library",
+    entry: "/(app)/libraries/[slug]/page",
+    path: "/libraries/load-combinations",
+    visitors: ["lead"],
+  },
   {
     name: "a library section",
     entry: "/(app)/libraries/[slug]/versions/[number]/entry/page",
@@ -82,7 +92,12 @@ export const APP_PAGES: AppPage[] = [
     status: 404,
     visitors: ["lead"],
   },
-  { name: "section builder", entry: "/(app)/libraries/builder/page", path: "/libraries/builder", visitors: ["engineer", "admin"] },
+  {
+    name: "section builder",
+    entry: "/(app)/libraries/builder/page",
+    path: "/libraries/builder",
+    visitors: ["engineer", "admin"],
+  },
   // A real draft is opened by the standards journey (tests/browser/standards-journey.test.ts), with axe.
   {
     name: "a draft that does not exist",

@@ -9,12 +9,13 @@ import { ROLE_SUMMARIES } from "@/lib/domain/roles";
 import { inviteUserSchema } from "@/lib/domain/schemas/users";
 
 const root = path.resolve(import.meta.dirname, "..", "..");
-// "Library" stays only for the firm's libraries of sections and materials and in "library of calculation
-// standards" (the product's own description).
+// "Library" names the firm's libraries of sections, materials and load-combination sets, and appears in
+// "library of calculation standards" (the product's own description); standards themselves are never a
+// "template library", a "library of templates" or "the standards library".
 const NOT_YET: string[] = [];
 const WRONG = [
   /\bprojects?\b/i,
-  /\blibrary\b(?! of calculation standards)/i,
+  /\b(templates?|standards?) library\b|\blibrary of (templates|standards)\b/i,
   /\bwithdraw(n|ing|s)?\b.*\binvitation|\binvitation.*\bwithdraw/i,
   /\bset up\b/i,
 ];
@@ -53,6 +54,12 @@ describe("words on screen", () => {
         WRONG.some((w) => w.test(t)),
       ),
     ).toHaveLength(2);
+  });
+
+  it("finds standards called a library, and lets the firm's libraries of sections be", () => {
+    const wrong = (text: string) => WRONG.some((w) => w.test(text));
+    expect(["Open the template library", "the standards library", "A library of templates"].filter(wrong)).toHaveLength(3);
+    expect(["Firm sections library", "Back to the library", "Libraries"].filter(wrong)).toEqual([]);
   });
 
   it("the role summaries use them too", () => {

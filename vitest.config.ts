@@ -54,6 +54,10 @@ export default defineConfig({
           include: ["tests/browser/**/*.test.ts"],
           environment: "node",
           fileParallelism: false,
+          // How many of a file's concurrent tests run at once: the page walk's visits, which only read and
+          // spend part of their time waiting (the network going quiet, the server). On two busy cores two at
+          // once did as well as four, and five ran past the tests' time limits.
+          maxConcurrency: 2,
           testTimeout: 60_000,
           hookTimeout: 120_000,
           sequence: { groupOrder: 2 },

@@ -8,16 +8,22 @@ import fs from "node:fs";
 import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import type { Page } from "playwright-core";
-import { afterAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { useBrowser } from "../support/browser";
-import { APP_PAGES, measureWidth, NOT_PAGES, pageVisits, PHONE, visitorContexts } from "../support/app-pages";
+import { APP_PAGES, measureWidth, NOT_PAGES, pageVisits, PHONE, SIGNED_IN, visitorContexts } from "../support/app-pages";
 import { NONCE_POLICY, watchViolations } from "../support/csp";
-import { isFakeMailInUse, journeyTimeout } from "../support/pages";
+import { demoSession, isFakeMailInUse, journeyTimeout } from "../support/pages";
 
 const browser = useBrowser();
 const mailboxInUse = await isFakeMailInUse();
 const DESKTOP = { width: 1280, height: 900 };
 const visitors = visitorContexts(browser, DESKTOP);
+
+// The visits below run a few at once; the demo sessions are made first, one after another, so that
+// concurrent visits do not each sign in (and race to write the sessions' cache).
+beforeAll(async () => {
+  for (const role of SIGNED_IN) await demoSession(role);
+}, journeyTimeout(SIGNED_IN.length));
 
 afterAll(async () => {
   await visitors.closeAll();
@@ -53,9 +59,12 @@ describe("every page, for everyone who reaches it", () => {
     expect(built.filter((entry) => !listed.has(entry))).toEqual([]);
   });
 
-  it.each(pageVisits({ mailboxInUse }))(
+  // The visits only read, each in its own page, so a few run at once (see maxConcurrency in vitest.config.ts):
+  // most of a visit is waiting, for the network to go quiet and for the server.
+  it.concurrent.for(pageVisits({ mailboxInUse }))(
     "$label: no CSP refusal, nothing serious for axe, nothing sideways at 390 px",
-    async ({ page: { path: address, status = 200 }, visitor }) => {
+    { timeout: journeyTimeout(1) },
+    async ({ page: { path: address, status = 200 }, visitor }, { expect }) => {
       let violations!: Awaited<ReturnType<typeof watchViolations>>;
       const { page, response } = await visitors.visit(visitor, address, async (page) => {
         violations = await watchViolations(page);
@@ -72,7 +81,6 @@ describe("every page, for everyone who reaches it", () => {
       expect(clientWidth).toBe(PHONE.width);
       await page.close();
     },
-    journeyTimeout(1),
   );
 });
 

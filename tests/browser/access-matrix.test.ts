@@ -86,6 +86,37 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     path: "/standards/drafts/not-a-real-draft",
     expect: { ...signedInPage("lead"), lead: "not-found" },
   },
+  // The firm's libraries: everyone signed in reads them (admins too). The seed publishes each starting library once.
+  "/(app)/libraries/(list)/page": {
+    path: "/libraries",
+    title: "Libraries",
+    expect: signedInPage("admin", "lead", "engineer", "auditor"),
+  },
+  "/(app)/libraries/[slug]/page": {
+    path: "/libraries/firm-sections",
+    title: "Library",
+    expect: signedInPage("admin", "lead", "engineer", "auditor"),
+  },
+  "/(app)/libraries/[slug]/versions/[number]/page": {
+    path: "/libraries/materials/versions/1",
+    title: "Library version",
+    expect: signedInPage("admin", "lead", "engineer", "auditor"),
+  },
+  "/(app)/libraries/[slug]/versions/[number]/entry/page": {
+    path: "/libraries/firm-sections/versions/1/entry?key=GI%20300x150x10.5",
+    title: "Section",
+    expect: signedInPage("admin", "lead", "engineer", "auditor"),
+  },
+  // Each starting library has one version: a difference to version 2 is a 404 for those who may read it.
+  "/(app)/libraries/[slug]/diff/page": {
+    path: "/libraries/firm-sections/diff?from=1&to=2",
+    expect: { ...signedInPage(), admin: "not-found", lead: "not-found", engineer: "not-found", auditor: "not-found" },
+  },
+  "/(app)/libraries/builder/page": {
+    path: "/libraries/builder",
+    title: "Section builder",
+    expect: signedInPage("admin", "lead", "engineer", "auditor"),
+  },
   "/(app)/jobs/page": { path: "/jobs", title: "Jobs", expect: signedInPage("lead", "engineer", "auditor") },
   "/(app)/runs/page": { path: "/runs", title: "Runs", expect: signedInPage("lead", "engineer", "auditor") },
   "/(app)/audit/page": { path: "/audit", title: "Audit trail", expect: signedInPage("admin", "auditor") },

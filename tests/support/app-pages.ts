@@ -81,7 +81,7 @@ export const APP_PAGES: AppPage[] = [
   {
     name: "a library section",
     entry: "/(app)/libraries/[slug]/versions/[number]/entry/page",
-    path: "/libraries/firm-sections/versions/1/entry?key=GI%20300x150x10.5",
+    path: "/libraries/firm-sections/versions/1/entry?key=GI+300x150x10.5",
     visitors: ["engineer"],
   },
   // The starting libraries have one version each: a difference to a version that does not exist is a 404.

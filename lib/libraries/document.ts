@@ -18,6 +18,7 @@
  */
 import canonicalize from "canonicalize";
 import { z } from "@/lib/domain/zod";
+import { normaliseEntryKey } from "@/lib/standards/library-inputs";
 import { LISTED_PROPERTY_UNITS, type ListedProperty } from "./catalogue";
 import { buildSection, type Section } from "./sections";
 import { SECTION_SHAPES } from "./section-schema";
@@ -37,9 +38,8 @@ export const MAX_KEY_LENGTH = 80;
 export const MAX_ENTRIES = 5000;
 
 /** Keys that differ only in case or spacing name the same entry ("MF-I 310x165" and "mf-i  310X165"). */
-export function normaliseKey(key: string): string {
-  return key.trim().replace(/\s+/g, " ").toLowerCase();
-}
+// One rule, shared with the evaluation that looks entries up (lib/standards/library-inputs.ts).
+export const normaliseKey = normaliseEntryKey;
 
 const key = z
   .string({ error: "Give the entry a name." })

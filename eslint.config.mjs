@@ -70,7 +70,8 @@ export const LAYERS = {
   },
   components: {
     may: ["components", "lib/domain", "lib/engine", "lib/standards", "lib/libraries"],
-    types: ["lib/data", "lib/use-cases"],
+    // lib/evaluation's protocol: the messages the run form's preview Worker exchanges with the evaluation bundle.
+    types: ["lib/data", "lib/use-cases", "lib/evaluation"],
   },
   app: {
     may: ["app", "components", "lib/use-cases", "lib/auth", "lib/domain", "lib/engine", "lib/standards", "lib/libraries"],

@@ -13,7 +13,20 @@ export const DEMO_USERS: { name: string; email: string; password: string; role: 
   { name: "Hal Duckworth-Emery", email: "auditor@marrowby-fenn.example", password: "demo-auditor-2291", role: "auditor" },
 ];
 
-export const DEMO_PROJECTS = [
-  { jobNumber: "MF-2291", name: "Quarry Lane depot extension", client: "Brindlecote Logistics" },
-  { jobNumber: "MF-2304", name: "Saltmarsh footbridge refurbishment", client: "Pellworth Harbour Trust" },
+/** `responsible`: the demo person (by role) who approves the job's calcs. */
+export const DEMO_JOBS: { jobNumber: string; name: string; client: string; site: string; responsible: Role }[] = [
+  {
+    jobNumber: "MF-2291",
+    name: "Quarry Lane depot extension",
+    client: "Brindlecote Logistics",
+    site: "Quarry Lane, Brindlecote",
+    responsible: "lead",
+  },
+  {
+    jobNumber: "MF-2304",
+    name: "Saltmarsh footbridge refurbishment",
+    client: "Pellworth Harbour Trust",
+    site: "Saltmarsh Quay, Pellworth",
+    responsible: "lead",
+  },
 ];

@@ -1,12 +1,12 @@
-// The demo firm: one user per role and two projects. Seeds only an empty database (no users), so it
+// The demo firm: one user per role and two jobs. Seeds only an empty database (no users), so it
 // never touches a firm's real data. People are created the way an accepted invitation creates them.
 import { count } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import { createCredentialUser } from "./credentials";
-import { DEMO_FIRM_NAME, DEMO_PROJECTS, DEMO_USERS } from "./demo-users";
+import { DEMO_FIRM_NAME, DEMO_JOBS, DEMO_USERS } from "./demo-users";
 import * as schema from "./schema";
 
-export type SeedResult = { seeded: false } | { seeded: true; users: number; projects: number };
+export type SeedResult = { seeded: false } | { seeded: true; users: number; jobs: number };
 
 export async function seedDemoFirm(database: NodePgDatabase<typeof schema>): Promise<SeedResult> {
   return database.transaction(async (tx) => {
@@ -21,11 +21,17 @@ export async function seedDemoFirm(database: NodePgDatabase<typeof schema>): Pro
       const { id } = await createCredentialUser(tx, { ...demo, emailVerified: true });
       ids[demo.role] ??= id; // the first of each role (the demo has two leads)
     }
-    await tx.insert(schema.projects).values(DEMO_PROJECTS.map((p) => ({ ...p, createdById: ids.lead ?? ids.engineer ?? null })));
+    await tx.insert(schema.jobs).values(
+      DEMO_JOBS.map(({ responsible, ...job }) => ({
+        ...job,
+        responsibleEngineerId: ids[responsible] ?? null,
+        createdById: ids.lead ?? ids.engineer ?? null,
+      })),
+    );
     await tx.insert(schema.auditEvents).values({
       action: "system.seed",
-      details: { firm: DEMO_FIRM_NAME, users: DEMO_USERS.length, projects: DEMO_PROJECTS.length },
+      details: { firm: DEMO_FIRM_NAME, users: DEMO_USERS.length, jobs: DEMO_JOBS.length },
     });
-    return { seeded: true, users: DEMO_USERS.length, projects: DEMO_PROJECTS.length };
+    return { seeded: true, users: DEMO_USERS.length, jobs: DEMO_JOBS.length };
   });
 }

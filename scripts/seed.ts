@@ -12,7 +12,7 @@ runDatabaseScript("seed", async (pool) => {
   const result = await seedDemoFirm(database);
   console.log(
     result.seeded
-      ? `seed: demo firm created (${result.users} users, ${result.projects} projects)`
+      ? `seed: demo firm created (${result.users} users, ${result.jobs} jobs)`
       : "seed: already seeded (users exist); nothing changed",
   );
   const standards = await seedStartingStandards(database);

@@ -17,7 +17,8 @@ function whereText(check: EvaluatedCheck): string | null {
   return `${parts.filter(Boolean).join(", ")}${checked}`;
 }
 
-export function CheckLine({ name, check }: { name: string; check: EvaluatedCheck }) {
+/** `children`: what a page adds under the line (a run's page, the utilisation bar). */
+export function CheckLine({ name, check, children }: { name: string; check: EvaluatedCheck; children?: React.ReactNode }) {
   const where = whereText(check);
   return (
     <div
@@ -41,6 +42,7 @@ export function CheckLine({ name, check }: { name: string; check: EvaluatedCheck
       </p>
       {where ? <p className="text-xs text-ink-500">Governs at {where}</p> : null}
       {!check.pass && check.message ? <p className="mt-1 text-sm text-fault-700">{check.message}</p> : null}
+      {children}
     </div>
   );
 }

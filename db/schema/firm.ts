@@ -1,4 +1,4 @@
-// One firm runs one deployment: the firm's own details, its projects (jobs) and open invitations.
+// One firm runs one deployment: the firm's own details and open invitations (its jobs are in jobs.ts).
 import { sql } from "drizzle-orm";
 import { check, index, pgTable, text, timestamp, uuid } from "drizzle-orm/pg-core";
 import { user } from "./auth";
@@ -10,18 +10,6 @@ export const firm = pgTable("firm", {
 });
 export type Firm = typeof firm.$inferSelect;
 export type NewFirm = typeof firm.$inferInsert;
-
-export const projects = pgTable("projects", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  /** The firm's job number as written on drawings and calc sheets, e.g. "J2291". */
-  jobNumber: text("job_number").notNull().unique(),
-  name: text("name").notNull(),
-  client: text("client"),
-  createdById: text("created_by_id").references(() => user.id),
-  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
-});
-export type Project = typeof projects.$inferSelect;
-export type NewProject = typeof projects.$inferInsert;
 
 export const invitations = pgTable(
   "invitations",

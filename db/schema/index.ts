@@ -3,3 +3,4 @@ export * from "./audit";
 export * from "./firm";
 export * from "./standards";
 export * from "./libraries";
+export * from "./jobs";

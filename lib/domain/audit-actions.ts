@@ -5,7 +5,8 @@ import type { Role } from "./roles";
 type Nothing = Record<string, never>;
 
 export type AuditDetails = {
-  "system.seed": { firm: string; users: number; projects: number };
+  /** `projects` is how seeds before the jobs reshaping counted jobs; read either. */
+  "system.seed": { firm: string; users: number; jobs?: number; projects?: number };
   "auth.sign-in": Nothing;
   /** reason: better-auth's error code (INVALID_EMAIL_OR_PASSWORD, ACCOUNT_DEACTIVATED, …) or RATE_LIMITED. */
   "auth.sign-in.failed": { reason: string; knownUser: boolean };
@@ -72,6 +73,19 @@ export type AuditDetails = {
   "libraries.entry.withdraw": { slug: string; number: number; entryKey: string; entryHash: string; reason: string };
   /** A starting library published by the seed (the demo catalogue, content/libraries/). */
   "libraries.import": { slug: string; kind: string; number: number; hash: string; entries: number };
+  // Jobs and runs. `jobNumber` names the job; a run's subject is `run:<id>`.
+  "jobs.create": { jobNumber: string; name: string };
+  /** Only the fields that changed, each as [before, after]. */
+  "jobs.update": { jobNumber: string; changes: Record<string, [string | null, string | null]> };
+  "runs.create": {
+    jobNumber: string;
+    slug: string;
+    number: number;
+    outcome: "succeeded" | "failed";
+    pass: boolean | null;
+    sha256: string;
+    purpose: "design" | "remediation";
+  };
 };
 
 export type AuditAction = keyof AuditDetails;
@@ -114,6 +128,9 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "libraries.withdraw": "Withdrew a library version",
   "libraries.entry.withdraw": "Withdrew a library entry",
   "libraries.import": "Imported a starting library",
+  "jobs.create": "Created a job",
+  "jobs.update": "Changed a job",
+  "runs.create": "Ran a standard",
 };
 
 export function isAuditAction(value: string): value is AuditAction {

@@ -85,6 +85,15 @@ function reasonWords(details: Record<string, unknown>): string | null {
   return SIGN_IN_REASONS[reason] ?? `refused (${reason})`;
 }
 
+const JOB_FIELD_WORDS: Readonly<Record<string, string>> = {
+  jobNumber: "job number",
+  name: "name",
+  client: "client",
+  site: "site",
+  responsibleEngineerId: "responsible engineer",
+  status: "status",
+};
+
 /** The sentence as parts: plain text and the people in it (so a page can style names and show e-mails). */
 export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart[] {
   const actor = auditActorOf(event);
@@ -93,7 +102,7 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
     case "system.seed": {
       const firm = text(d.firm);
       const users = count(d.users);
-      const jobs = count(d.projects);
+      const jobs = count(d.jobs ?? d.projects);
       const sizes =
         users !== null && jobs !== null ? ` with ${plural(users, "person", "people")} and ${plural(jobs, "job", "jobs")}` : "";
       return [actor, ` set up the demo firm${firm ? ` ${firm}` : ""}${sizes}`];
@@ -242,6 +251,21 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
       ];
     case "libraries.import":
       return [actor, ` imported ${libraryName(d)} version ${count(d.number) ?? "?"} from the starting library`];
+    case "jobs.create":
+      return [actor, ` created job ${text(d.jobNumber) ?? "?"}${text(d.name) ? `, ${text(d.name)}` : ""}`];
+    case "jobs.update": {
+      const changes = d.changes && typeof d.changes === "object" ? Object.keys(d.changes) : [];
+      const what = changes.length > 0 ? `: ${changes.map((key) => JOB_FIELD_WORDS[key] ?? key).join(", ")}` : "";
+      return [actor, ` changed job ${text(d.jobNumber) ?? "?"}${what}`];
+    }
+    case "runs.create": {
+      const result =
+        d.outcome === "failed" ? "it failed in the engine" : d.pass === true ? "every check passes" : "a check fails";
+      return [
+        actor,
+        ` ran ${text(d.slug) ?? "a standard"} version ${count(d.number) ?? "?"} in job ${text(d.jobNumber) ?? "?"}${d.purpose === "remediation" ? " (a remediation re-run)" : ""}: ${result}`,
+      ];
+    }
     default:
       // A kind this version has no sentence for (a newer or retired one): who, and its label.
       return [actor, `: ${auditActionLabel(event.action)}`];

@@ -10,9 +10,10 @@ export const ACTIONS = [
   "users.set-role",
   "users.deactivate",
   "mailbox.read",
-  // projects
-  "projects.read",
-  "projects.create",
+  // jobs
+  "jobs.read",
+  "jobs.create",
+  "jobs.edit",
   // the template library
   "library.read",
   "templates.write-draft",
@@ -48,8 +49,9 @@ const LIBRARY_MAINTENANCE: readonly Action[] = [
 ];
 
 const ENGINEER: readonly Action[] = [
-  "projects.read",
-  "projects.create",
+  "jobs.read",
+  "jobs.create",
+  "jobs.edit",
   "library.read",
   "libraries.read",
   "runs.read",
@@ -80,7 +82,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
   ],
   engineer: ENGINEER,
   auditor: [
-    "projects.read",
+    "jobs.read",
     "library.read",
     "libraries.read",
     "runs.read",

@@ -24,6 +24,8 @@ export function contentSecurityPolicy({
   const directives: [string, ...string[]][] = [
     ["default-src", "'self'"],
     ["script-src", ...scripts],
+    // The run form's live preview: the evaluation bundle (public/evaluation) as a module Worker, from this origin.
+    ["worker-src", "'self'"],
     // The stylesheets Next builds (app/globals.css, KaTeX's), served from /_next/static. No inline
     // <style> element is rendered or allowed (Next's route announcer and CodeMirror, mounted in a shadow
     // root, style through the CSSOM, which CSP does not govern).

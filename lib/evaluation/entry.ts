@@ -7,7 +7,7 @@ import { READY_MESSAGE, type EvaluationRequest, type EvaluationResponse } from "
 import { runTask } from "./tasks";
 import { libraryEntriesSchema } from "@/lib/standards/library-inputs";
 
-const TASKS: ReadonlySet<string> = new Set<EvaluationRequest["task"]>(["compile", "evaluate", "verify"]);
+const TASKS: ReadonlySet<string> = new Set<EvaluationRequest["task"]>(["compile", "evaluate", "verify", "run"]);
 
 type NodeProcess = { versions?: { node?: string }; exit(code: number): never };
 

@@ -32,7 +32,7 @@ export interface EvaluationPoolOptions {
   /** Each worker's old-generation heap; default 256 MB. */
   readonly maxOldGenerationSizeMb?: number;
   /**
-   * Tasks that may wait while every worker is busy; default 8. Beyond it a task is refused as "busy". A waiting
+   * Tasks that may wait while every worker is busy; default 32 (twenty people running at once wait, not fail). Beyond it a task is refused as "busy". A waiting
    * task's own timeout starts when a worker takes it, so the worst wait is about maxQueue ÷ size × timeoutMs.
    */
   readonly maxQueue?: number;
@@ -79,7 +79,8 @@ type Source = { readonly source: string; readonly libraries?: LibraryEntries };
 type TaskRequest =
   | ({ readonly task: "compile" } & Source)
   | ({ readonly task: "evaluate"; readonly inputs?: Readonly<Record<string, string | number>> } & Source)
-  | ({ readonly task: "verify" } & Source);
+  | ({ readonly task: "verify" } & Source)
+  | ({ readonly task: "run"; readonly inputs?: Readonly<Record<string, string | number>> } & Source);
 
 export interface EvaluationPool {
   /** `libraries`: the entries a standard's section and material inputs may name, resolved by the caller. */
@@ -90,6 +91,12 @@ export interface EvaluationPool {
     libraries?: LibraryEntries,
   ): Promise<PoolOutcome<TaskResults["evaluate"]>>;
   verify(source: string, libraries?: LibraryEntries): Promise<PoolOutcome<TaskResults["verify"]>>;
+  /** As evaluate, plus the engine's result as canonical JSON: what a stored run keeps. */
+  run(
+    source: string,
+    inputs?: Readonly<Record<string, string | number>>,
+    libraries?: LibraryEntries,
+  ): Promise<PoolOutcome<TaskResults["run"]>>;
   /** Tests only, and only with `testHooks`: a task that spins, fills the heap or ends the thread. */
   runTestHook(task: TestHookRequest["task"]): Promise<PoolOutcome<unknown>>;
   /** The bundle the workers run (read and checked against its sha256 on first use). */
@@ -155,7 +162,7 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
   const size = Math.max(1, options.size ?? Math.min(os.availableParallelism(), 2));
   const timeoutMs = options.timeoutMs ?? 5_000;
   const memoryMb = options.maxOldGenerationSizeMb ?? 256;
-  const maxQueue = options.maxQueue ?? 8;
+  const maxQueue = options.maxQueue ?? 32;
   const startupTimeoutMs = options.startupTimeoutMs ?? 30_000;
   // Read at run time from the server's folder; the ignore keeps Next's file tracing from copying the whole checkout.
   const bundleDir = path.resolve(/* turbopackIgnore: true */ process.cwd(), options.bundleDir ?? DEFAULT_EVALUATION_DIR);
@@ -294,6 +301,8 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
     evaluate: (source, inputs, libraries) =>
       typed({ task: "evaluate", source, ...(inputs ? { inputs } : {}), ...(libraries ? { libraries } : {}) }),
     verify: (source, libraries) => typed({ task: "verify", source, ...(libraries ? { libraries } : {}) }),
+    run: (source, inputs, libraries) =>
+      typed({ task: "run", source, ...(inputs ? { inputs } : {}), ...(libraries ? { libraries } : {}) }),
     runTestHook: (task) => {
       if (options.testHooks !== true) throw new Error("runTestHook needs a pool created with testHooks (tests only)");
       return run({ task });

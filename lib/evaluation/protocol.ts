@@ -16,7 +16,14 @@ export type EvaluationRequest =
       readonly inputs?: Readonly<Record<string, string | number>>;
       readonly libraries?: LibraryEntries;
     }
-  | { readonly id: number; readonly task: "verify"; readonly source: string; readonly libraries?: LibraryEntries };
+  | { readonly id: number; readonly task: "verify"; readonly source: string; readonly libraries?: LibraryEntries }
+  | {
+      readonly id: number;
+      readonly task: "run";
+      readonly source: string;
+      readonly inputs?: Readonly<Record<string, string | number>>;
+      readonly libraries?: LibraryEntries;
+    };
 
 export type EvaluationTask = EvaluationRequest["task"];
 
@@ -53,6 +60,19 @@ export type EvaluateResult =
   | { readonly ok: true; readonly outcome: EvaluationOutcome; readonly canonicalJson: string | null }
   | { readonly ok: false; readonly problems: SourceProblem[] };
 
+/**
+ * A run's evaluation, as a run's record keeps it: the evaluation's canonical text and the engine's result as
+ * canonical JSON (resultToJson), from which the run's diagrams are drawn again later (restoreResult).
+ */
+export type RunResult =
+  | {
+      readonly ok: true;
+      readonly outcome: EvaluationOutcome;
+      readonly evaluationJson: string | null;
+      readonly analysisJson: string | null;
+    }
+  | { readonly ok: false; readonly problems: SourceProblem[] };
+
 export type VerifyResult =
   | { readonly ok: true; readonly results: ReadonlyArray<VerificationResult> }
   | { readonly ok: false; readonly problems: SourceProblem[] };
@@ -61,6 +81,7 @@ export interface TaskResults {
   readonly compile: CompileResult;
   readonly evaluate: EvaluateResult;
   readonly verify: VerifyResult;
+  readonly run: RunResult;
 }
 
 /** The bundle's answer: `ok: false` only when the task itself threw (a bug, not a problem in the standard). */

@@ -5,7 +5,16 @@
 import { compileStandard, evaluationToCanonicalJson, type Definition } from "@/lib/standards";
 import { runVerification } from "@/lib/standards/verify";
 import type { LibraryEntries } from "@/lib/standards/library-inputs";
-import type { CompileResult, DefinitionSummary, EvaluateResult, EvaluationRequest, TaskResults, VerifyResult } from "./protocol";
+import { resultToCanonicalJson, type AnalysisResult } from "@/lib/engine";
+import type {
+  CompileResult,
+  DefinitionSummary,
+  EvaluateResult,
+  EvaluationRequest,
+  RunResult,
+  TaskResults,
+  VerifyResult,
+} from "./protocol";
 
 function summarise(d: Definition): DefinitionSummary {
   return {
@@ -44,6 +53,27 @@ export function evaluateTask(
   return { ok: true, outcome, canonicalJson: outcome.ok ? evaluationToCanonicalJson(outcome.evaluation) : null };
 }
 
+/** As evaluateTask, plus the engine's result as canonical JSON: what a stored run keeps. */
+export function runStandardTask(
+  source: string,
+  inputs: Readonly<Record<string, string | number>> = {},
+  libraries: LibraryEntries = {},
+): RunResult {
+  const compiled = compileStandard(source, libraries);
+  if (!compiled.ok) return { ok: false, problems: compiled.problems };
+  let analysis: AnalysisResult | null = null;
+  const outcome = compiled.standard.evaluate(inputs, libraries, (result) => {
+    analysis = result;
+  });
+  if (!outcome.ok) return { ok: true, outcome, evaluationJson: null, analysisJson: null };
+  return {
+    ok: true,
+    outcome,
+    evaluationJson: evaluationToCanonicalJson(outcome.evaluation),
+    analysisJson: analysis ? resultToCanonicalJson(analysis) : null,
+  };
+}
+
 export function verifyTask(source: string, libraries: LibraryEntries = {}): VerifyResult {
   const compiled = compileStandard(source, libraries);
   if (!compiled.ok) return { ok: false, problems: compiled.problems };
@@ -58,5 +88,7 @@ export function runTask(request: EvaluationRequest): TaskResults[EvaluationReque
       return evaluateTask(request.source, request.inputs, request.libraries);
     case "verify":
       return verifyTask(request.source, request.libraries);
+    case "run":
+      return runStandardTask(request.source, request.inputs, request.libraries);
   }
 }

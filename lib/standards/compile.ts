@@ -6,6 +6,7 @@
  *
  * A compiled standard is cached by its source text: a version's expressions are parsed and checked once.
  */
+import type { AnalysisResult } from "@/lib/engine";
 import { DefinitionSchema, type Definition } from "./definition";
 import { checkExpression, ExpressionError, reservedNameReason, type KnownNames } from "./expressions";
 import { isLibraryInput, libraryValueNames, type LibraryEntries } from "./library-inputs";
@@ -24,7 +25,11 @@ export interface CompiledStandard {
    * Evaluate with the given inputs (the defaults for those left out), finding section and material inputs'
    * entries in `libraries` (those it was compiled with unless others are given).
    */
-  evaluate(inputs?: Readonly<Record<string, string | number>>, libraries?: LibraryEntries): EvaluationOutcome;
+  evaluate(
+    inputs?: Readonly<Record<string, string | number>>,
+    libraries?: LibraryEntries,
+    analysed?: (result: AnalysisResult) => void,
+  ): EvaluationOutcome;
 }
 
 export type CompileOutcome = { ok: true; standard: CompiledStandard } | { ok: false; problems: SourceProblem[] };
@@ -251,7 +256,7 @@ function compileUncached(source: string, libraries: LibraryEntries): CompileOutc
       definition,
       narrative: parsed.narrative,
       narrativeLine: parsed.narrativeLine,
-      evaluate: (inputs = {}, entries = libraries) => evaluateDefinition(definition, inputs, entries),
+      evaluate: (inputs = {}, entries = libraries, analysed) => evaluateDefinition(definition, inputs, entries, analysed),
     },
   };
 }

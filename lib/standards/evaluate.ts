@@ -6,7 +6,7 @@
  * canonical output byte for byte (evaluationToCanonicalJson). Failures come back as data with what and where.
  */
 import canonicalize from "canonicalize";
-import { analyze, ENGINE_IDENTITY, type EngineError, type ModelInput } from "@/lib/engine";
+import { analyze, ENGINE_IDENTITY, type AnalysisResult, type EngineError, type ModelInput } from "@/lib/engine";
 import type { Definition } from "./definition";
 import { compileExpression, ExpressionError } from "./expressions";
 import { GenerateError, generateModel } from "./generate";
@@ -149,10 +149,15 @@ export function readInputs(
   return { ok: true, scope, inputs };
 }
 
+/**
+ * `analysed`, when given, is handed the engine's result (what a run stores so that its diagrams can be drawn again
+ * from the record alone); the outcome is the same with or without it.
+ */
 export function evaluateDefinition(
   definition: Definition,
   given: Readonly<Record<string, string | number>>,
   libraries: LibraryEntries = {},
+  analysed?: (result: AnalysisResult) => void,
 ): EvaluationOutcome {
   const read = readInputs(definition, given, libraries);
   if (!read.ok) return { ok: false, stage: "inputs", problems: read.problems };
@@ -180,6 +185,7 @@ export function evaluateDefinition(
     const { model, groups } = generateModel(definition.model, scope);
     const outcome = analyze(model);
     if (!outcome.ok) return { ok: false, stage: "engine", errors: outcome.errors };
+    analysed?.(outcome.result);
     const view = resultsView(model, outcome.result, groups);
 
     const extracts: Record<string, EvaluatedExtract> = {};

@@ -21,11 +21,12 @@ async function versionFor(slug: string, wanted: number | "latest"): Promise<Libr
 
 /**
  * The entries a source's library inputs need, by library slug. A source that does not parse, or has no library
- * input, needs none. `extra` adds names per library (the entries a run picked).
+ * input, needs none. `extra` adds names per library (the entries a run picked), or "all" for every entry not
+ * withdrawn (what a run form's picker and its preview offer).
  */
 export async function libraryEntriesFor(
   source: string,
-  extra: Readonly<Record<string, readonly string[]>> = {},
+  extra: Readonly<Record<string, readonly string[] | "all">> = {},
 ): Promise<LibraryEntries> {
   const read = parseSource(source);
   if (!read.ok) return {};
@@ -41,7 +42,8 @@ export async function libraryEntriesFor(
     const version = await versionFor(slug, wanted);
     if (!version || version.status === "withdrawn") continue;
     const withdrawn = new Set(version.entryRows.filter((row) => row.withdrawn).map((row) => row.normalisedKey));
-    const keys = [...(needed.get(slug) ?? []), ...(extra[slug] ?? [])].filter((key) => !withdrawn.has(normaliseEntryKey(key)));
+    const more = extra[slug] === "all" ? version.entryRows.map((row) => row.key) : (extra[slug] ?? []);
+    const keys = [...(needed.get(slug) ?? []), ...more].filter((key) => !withdrawn.has(normaliseEntryKey(key)));
     out[slug] = await bindLibrary(
       version.document as LibraryDocument,
       { number: version.number, contentHash: version.contentHash },

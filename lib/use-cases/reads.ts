@@ -11,7 +11,7 @@ import { listAuditEvents, listAuditPeople, type AuditEventDto } from "@/lib/data
 import { getFirmName } from "@/lib/data/firm";
 import { countPendingInvitations } from "@/lib/data/invitations";
 import { isMailboxEnabled, listCapturedMail } from "@/lib/data/mailbox";
-import { countProjects, listProjects, type ProjectDto } from "@/lib/data/projects";
+import { countJobs, listJobs, type JobDto } from "@/lib/data/jobs";
 import { countUsers } from "@/lib/data/users";
 import { defineUseCase } from "./use-case";
 
@@ -27,7 +27,7 @@ export const readShell = defineUseCase({
 });
 
 export type HomeSummary = {
-  projects?: { count: number; recent: ProjectDto[] };
+  jobs?: { count: number; recent: JobDto[] };
   people?: { active: number; deactivated: number; admins: number; pendingInvitations: number };
   audit?: { recent: AuditEventDto[] };
   mailboxEnabled: boolean;
@@ -41,8 +41,8 @@ export const readHome = defineUseCase({
   run: async (_input, { actor }): Promise<HomeSummary> => {
     // One after another: the queries share the transaction's one connection.
     const summary: HomeSummary = { mailboxEnabled: isMailboxEnabled() };
-    if (can(actor.role, "projects.read")) {
-      summary.projects = { count: await countProjects(), recent: await listProjects({ limit: 5 }) };
+    if (can(actor.role, "jobs.read")) {
+      summary.jobs = { count: await countJobs(), recent: await listJobs({ limit: 5 }) };
     }
     if (can(actor.role, "users.read")) {
       summary.people = { ...(await countUsers()), pendingInvitations: await countPendingInvitations() };
@@ -52,14 +52,6 @@ export const readHome = defineUseCase({
       summary.audit = { recent: (await listAuditEvents({ limit: 5, excludeActions: SIGN_IN_ACTIONS })).events };
     return summary;
   },
-  audit: null,
-});
-
-export const readProjects = defineUseCase({
-  name: "projects.list",
-  permission: "projects.read",
-  input: z.object({ limit: z.number().int().positive().optional() }).default({}),
-  run: async ({ limit }) => listProjects({ limit }),
   audit: null,
 });
 

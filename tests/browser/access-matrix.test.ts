@@ -118,8 +118,26 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     title: "Section builder",
     expect: signedInPage("admin", "lead", "engineer", "auditor"),
   },
-  "/(app)/jobs/page": { path: "/jobs", title: "Jobs", expect: signedInPage("lead", "engineer", "auditor") },
-  "/(app)/runs/page": { path: "/runs", title: "Runs", expect: signedInPage("lead", "engineer", "auditor") },
+  "/(app)/jobs/(list)/page": { path: "/jobs", title: "Jobs", expect: signedInPage("lead", "engineer", "auditor") },
+  "/(app)/runs/(list)/page": { path: "/runs", title: "Runs", expect: signedInPage("lead", "engineer", "auditor") },
+  // A demo job (the seed's) and a starting standard: engineers and leads create, change and run; auditors read.
+  "/(app)/jobs/new/page": { path: "/jobs/new", title: "New job", expect: signedInPage("lead", "engineer") },
+  "/(app)/jobs/[jobNumber]/page": { path: "/jobs/MF-2291", title: "Job", expect: signedInPage("lead", "engineer", "auditor") },
+  "/(app)/jobs/[jobNumber]/edit/page": {
+    path: "/jobs/MF-2291/edit",
+    title: "Edit job",
+    expect: signedInPage("lead", "engineer"),
+  },
+  "/(app)/jobs/[jobNumber]/run/[slug]/page": {
+    path: "/jobs/MF-2291/run/fixed-end-beam",
+    title: "Run a standard",
+    expect: signedInPage("lead", "engineer"),
+  },
+  // A run id nothing has: the 404 page for those who read runs.
+  "/(app)/runs/[id]/page": {
+    path: "/runs/00000000-0000-4000-8000-000000000000",
+    expect: { ...signedInPage("lead", "engineer", "auditor"), lead: "not-found", engineer: "not-found", auditor: "not-found" },
+  },
   "/(app)/audit/page": { path: "/audit", title: "Audit trail", expect: signedInPage("admin", "auditor") },
   "/(app)/admin/users/page": { path: "/admin/users", title: "People", expect: signedInPage("admin", "auditor") },
   "/(app)/admin/mailbox/page": {
@@ -278,6 +296,49 @@ const API_ROUTES: Record<string, ApiRow> = {
     `/api/standards/hand-calculations/${"0".repeat(64)}`,
     ALLOW_GET,
   ),
+  // Runs. Engineers and leads may post one (here with an empty body: refused for that, after the role check); everyone
+  // but admins reads them (here the list, and a run id nothing has: 404).
+  "POST /api/runs/route": {
+    path: "/api/runs",
+    body: {},
+    expect: runnersAction<ApiOutcome>(),
+    ok: (answer) => {
+      expect(answer.status).toBe(422);
+      expect(jsonOf(answer)).toMatchObject({
+        error: {
+          code: "invalid-input",
+          fieldErrors: { jobId: ["Choose the job to run in."], versionId: ["Choose a published version of a standard."] },
+        },
+      });
+    },
+  },
+  "GET /api/runs/route": {
+    path: "/api/runs?limit=1",
+    expect: libraryReaders("ok"),
+    ok: (answer) => {
+      expect(answer.status).toBe(200);
+      const body = jsonOf(answer) as { data: { runs: unknown[]; nextCursor: string | null } };
+      expect(Array.isArray(body.data.runs)).toBe(true);
+      expect(body.data.runs.length).toBeLessThanOrEqual(1);
+    },
+  },
+  "HEAD /api/runs/route": {
+    path: "/api/runs?limit=1",
+    expect: libraryReaders("ok"),
+    ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]),
+  },
+  "OPTIONS /api/runs/route": OPTIONS_ROW("/api/runs", "GET, HEAD, OPTIONS, POST"),
+  "GET /api/runs/[id]/route": {
+    path: `/api/runs/${NO_SUCH_UUID}`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "HEAD /api/runs/[id]/route": {
+    path: `/api/runs/${NO_SUCH_UUID}`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "OPTIONS /api/runs/[id]/route": OPTIONS_ROW(`/api/runs/${NO_SUCH_UUID}`, ALLOW_GET),
   "GET /icon.svg/route": {
     path: "/icon.svg",
     expect: same<ApiOutcome>("ok"),
@@ -299,6 +360,16 @@ function adminOnlyAction(): Record<Who, ActionOutcome> {
   return Object.fromEntries(
     EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "admin" ? "ok" : "forbidden"]),
   ) as Record<Who, ActionOutcome>;
+}
+
+/** Engineers and leads (who may do everything an engineer may) get `ok`; admins and auditors are refused. */
+function runnersAction<T extends string = ActionOutcome>(): Record<Who, T> {
+  return Object.fromEntries(
+    EVERYONE.map((who) => [
+      who,
+      who === "anonymous" ? "unauthenticated" : who === "lead" || who === "engineer" ? "ok" : "forbidden",
+    ]),
+  ) as Record<Who, T>;
 }
 
 function leadsOnlyAction(): Record<Who, ActionOutcome> {
@@ -332,6 +403,10 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/standards/actions.ts#returnDraftAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#approveAndPublishAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#withdrawVersionAction": leadsOnlyAction(),
+  // Jobs and runs: engineers and leads; auditors change nothing; admins manage people.
+  "app/(app)/jobs/actions.ts#createJobAction": runnersAction(),
+  "app/(app)/jobs/actions.ts#updateJobAction": runnersAction(),
+  "app/(app)/jobs/actions.ts#createRunAction": runnersAction(),
 };
 
 // ---- what the build contains -----------------------------------------------------------------
@@ -540,6 +615,11 @@ describe("signing in brings people back", () => {
       "/libraries/builder",
       "/jobs",
       "/runs",
+      "/jobs/new",
+      "/jobs/MF-2291",
+      "/jobs/MF-2291/edit",
+      "/jobs/MF-2291/run/fixed-end-beam",
+      "/runs/00000000-0000-4000-8000-000000000000",
       "/audit",
       "/admin/users",
       "/admin/mailbox",

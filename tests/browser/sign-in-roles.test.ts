@@ -22,7 +22,7 @@ const EXPECTED_NAV: Record<Role, string[]> = {
 const HOME_PANEL: Record<Role, string> = {
   admin: "home-invitations",
   lead: "home-library",
-  engineer: "home-projects",
+  engineer: "home-jobs",
   auditor: "home-integrity",
 };
 

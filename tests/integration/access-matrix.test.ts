@@ -16,7 +16,10 @@ import type { ActionState } from "@/lib/domain/action-state";
 import type { Role } from "@/lib/domain/roles";
 import { DEFAULT_MESSAGES } from "@/lib/domain/errors";
 import { expectRowsUnchanged, refusalWrites, snapshotRows } from "../support/snapshot";
-import { ACTION_FIXTURES, type ActionAnswer } from "./helpers/action-fixtures";
+import { ACTION_FIXTURES, matrixJob, matrixRun, seededVersionId, type ActionAnswer } from "./helpers/action-fixtures";
+import { db } from "@/db";
+import * as schema from "@/db/schema";
+import { eq } from "drizzle-orm";
 import { createTestUser, sessionCount, signInHeaders } from "./helpers/people";
 import { runUseCase } from "@/lib/use-cases/run";
 import { createStandard } from "@/lib/use-cases/standards";
@@ -71,6 +74,14 @@ const LIBRARY_READERS: Record<Who, Expected> = {
   engineer: "allowed",
   auditor: "allowed",
 };
+/** Engineers create jobs and run published versions in them; leads may do everything an engineer may (product.md). */
+const RUNNERS: Record<Who, Expected> = {
+  anonymous: "unauthenticated",
+  admin: "forbidden",
+  lead: "allowed",
+  engineer: "allowed",
+  auditor: "forbidden",
+};
 const PUBLIC: Record<Who, Expected> = {
   anonymous: "allowed",
   admin: "allowed",
@@ -122,6 +133,10 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/standards/actions.ts#returnDraftAction": LEADS_ONLY,
   "app/(app)/standards/actions.ts#approveAndPublishAction": LEADS_ONLY,
   "app/(app)/standards/actions.ts#withdrawVersionAction": LEADS_ONLY,
+  // Jobs and runs: engineers and leads; an auditor reads everything and changes nothing; admins manage people.
+  "app/(app)/jobs/actions.ts#createJobAction": RUNNERS,
+  "app/(app)/jobs/actions.ts#updateJobAction": RUNNERS,
+  "app/(app)/jobs/actions.ts#createRunAction": RUNNERS,
 };
 
 type ManifestEntry = { workers: Record<string, unknown>; filename?: string; exportedName?: string };
@@ -215,7 +230,14 @@ type RouteRow = {
   succeeded: (response: Response, cell: Cell & CellSession & CellRequest) => Promise<void>;
 };
 /** The URL, the route's dynamic segments and the body of one cell's call. */
-type CellRequest = { path?: string; params?: Record<string, string>; body?: BodyInit; expectBytes?: Uint8Array };
+type CellRequest = {
+  path?: string;
+  params?: Record<string, string>;
+  body?: BodyInit;
+  expectBytes?: Uint8Array;
+  /** What the check of an allowed call needs to know about the rows made for it (ids). */
+  made?: Record<string, string>;
+};
 
 /**
  * One row per (route file, exported method). app/api/auth/[...all] is better-auth's own endpoint set
@@ -324,6 +346,58 @@ const ROUTES: RouteRow[] = [
       expect(response.headers.get("content-type")).toBe("application/pdf");
       expect(response.headers.get("content-disposition")).toMatch(/^attachment; filename="matrix-check\.pdf"/);
       expect(new Uint8Array(await response.arrayBuffer())).toEqual(expectBytes);
+    },
+  },
+  // Runs: engineers and leads run; everyone but admins (whose work is people) reads them.
+  {
+    route: "app/api/runs/route.ts",
+    method: "POST",
+    path: "/api/runs",
+    expected: RUNNERS,
+    request: async () => {
+      const { jobId } = await matrixJob();
+      const versionId = await seededVersionId();
+      return { made: { jobId }, body: JSON.stringify({ jobId, versionId, inputs: { L: "6.5 m" } }) };
+    },
+    succeeded: async (response, { made }) => {
+      expect(response.status).toBe(201);
+      const body = (await response.json()) as { data: { id: string; outcome: string; pass: boolean; sha256: string } };
+      const rows = await db.select().from(schema.runs).where(eq(schema.runs.jobId, made!.jobId));
+      expect(rows.map((r) => r.id)).toEqual([body.data.id]);
+      expect(body.data).toMatchObject({ outcome: "succeeded", pass: true, sha256: rows[0].recordSha256 });
+      expect(response.headers.get("location")).toBe(`/api/runs/${body.data.id}`);
+    },
+  },
+  {
+    route: "app/api/runs/route.ts",
+    method: "GET",
+    path: "/api/runs",
+    expected: LIBRARY_READERS,
+    request: async () => {
+      const { jobNumber, run } = await matrixRun();
+      return { path: `/api/runs?job=${jobNumber}`, made: { id: run.id } };
+    },
+    succeeded: async (response, { made }) => {
+      expect(response.status).toBe(200);
+      const body = (await response.json()) as { data: { runs: { id: string }[]; nextCursor: string | null } };
+      expect(body.data.runs.map((r) => r.id)).toEqual([made!.id]);
+      expect(body.data.nextCursor).toBeNull();
+    },
+  },
+  {
+    route: "app/api/runs/[id]/route.ts",
+    method: "GET",
+    path: "/api/runs/:id",
+    expected: LIBRARY_READERS,
+    request: async () => {
+      const { run } = await matrixRun();
+      return { path: `/api/runs/${run.id}`, params: { id: run.id } };
+    },
+    succeeded: async (response, { params }) => {
+      expect(response.status).toBe(200);
+      const body = (await response.json()) as { data: { id: string; recordSha256: string; record: { id: string } } };
+      const [row] = await db.select().from(schema.runs).where(eq(schema.runs.id, params!.id));
+      expect(body.data).toMatchObject({ id: row.id, recordSha256: row.recordSha256, record: { id: row.id } });
     },
   },
 ];

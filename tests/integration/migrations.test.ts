@@ -40,7 +40,7 @@ describe("migrations on an empty database", () => {
     expect(firstRun.status, firstRun.stderr).toBe(0);
     expect(firstRun.stdout).toMatch(
       new RegExp(
-        `privileges of ${appRole} set on \\d+ tables \\(\\d+ of the job queue; append-only: audit_events, library_review_comments, library_version_entries, library_version_events, library_versions, standard_attachments, standard_review_comments, standard_version_events, standard_versions\\)`,
+        `privileges of ${appRole} set on \\d+ tables \\(\\d+ of the job queue; append-only: audit_events, library_review_comments, library_version_entries, library_version_events, library_versions, run_library_entries, runs, standard_attachments, standard_review_comments, standard_version_events, standard_versions\\)`,
       ),
     );
     const before = await accessLists();
@@ -71,6 +71,7 @@ describe("migrations on an empty database", () => {
       "ended_session",
       "firm",
       "invitations",
+      "jobs",
       "libraries",
       "library_drafts",
       "library_review_comments",
@@ -78,8 +79,9 @@ describe("migrations on an empty database", () => {
       "library_version_entries",
       "library_version_events",
       "library_versions",
-      "projects",
       "rate_limit",
+      "run_library_entries",
+      "runs",
       "session",
       "standard_attachments",
       "standard_drafts",

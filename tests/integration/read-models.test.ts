@@ -1,19 +1,20 @@
-// What each role may read: the shell, the home summary, projects, the audit trail and the demo mailbox.
+// What each role may read: the shell, the home summary, jobs, the audit trail and the demo mailbox.
 // Each read is a use case (lib/use-cases/reads.ts) whose permission the runner checks; a refused read
 // changes nothing. The queries under them (lib/data/) are checked directly for their content.
 import { describe, expect, it } from "vitest";
 import { db, pool } from "@/db";
 import * as schema from "@/db/schema";
-import { DEMO_FIRM_NAME, DEMO_PROJECTS, DEMO_USERS } from "@/db/demo-users";
+import { DEMO_FIRM_NAME, DEMO_JOBS, DEMO_USERS } from "@/db/demo-users";
 import type { Actor } from "@/lib/domain/actor";
 import { SIGN_IN_ACTIONS, type AuditAction } from "@/lib/domain/audit-actions";
 import { forgetServerEnv } from "@/lib/server-env";
 import { listAuditEvents, recordAuditEvent } from "@/lib/data/audit";
 import { getFirmName } from "@/lib/data/firm";
 import { isMailboxEnabled, listCapturedMail } from "@/lib/data/mailbox";
-import { listProjects } from "@/lib/data/projects";
+import { listJobs } from "@/lib/data/jobs";
 import { sendMail } from "@/lib/mail/send-mail";
-import { readAuditTrail, readDemoMailbox, readHome, readProjects, readShell } from "@/lib/use-cases/reads";
+import { readAuditTrail, readDemoMailbox, readHome, readShell } from "@/lib/use-cases/reads";
+import { readJobs } from "@/lib/use-cases/jobs";
 import { runUseCase } from "@/lib/use-cases/run";
 import type { UseCase } from "@/lib/use-cases/use-case";
 import type { Permission } from "@/lib/domain/permissions";
@@ -57,9 +58,9 @@ describe("home summary", () => {
   it("holds exactly the parts each role may read, with the numbers in the database", async () => {
     const expected = {
       admin: ["audit", "people"],
-      lead: ["projects"],
-      engineer: ["projects"],
-      auditor: ["audit", "people", "projects"],
+      lead: ["jobs"],
+      engineer: ["jobs"],
+      auditor: ["audit", "people", "jobs"],
     } as const;
     for (const role of ["admin", "lead", "engineer", "auditor"] as const) {
       const { actor } = await createTestUser({ role });
@@ -71,17 +72,10 @@ describe("home summary", () => {
       const parts: readonly string[] = expected[role];
       expect(Object.keys(summary).sort(), role).toEqual([...parts, "mailboxEnabled"].sort());
       expect(summary.mailboxEnabled, role).toBe(fakeMailInUse);
-      if (parts.includes("projects")) {
-        // No test makes projects: the demo jobs are all there are, seeded together, newest job number first.
-        expect(summary.projects?.count, role).toBe(DEMO_PROJECTS.length);
-        expect(
-          summary.projects?.recent.map((p) => p.jobNumber),
-          role,
-        ).toEqual(
-          DEMO_PROJECTS.map((p) => p.jobNumber)
-            .sort()
-            .reverse(),
-        );
+      if (parts.includes("jobs")) {
+        // Other tests make jobs too: the count is the table's, and the recent ones are the five newest.
+        expect(summary.jobs?.count, role).toBe(await countInDatabase("select count(*) as n from jobs"));
+        expect(summary.jobs?.recent, role).toEqual(await listJobs({ limit: 5 }));
       }
       if (parts.includes("people")) {
         expect(summary.people, role).toEqual({
@@ -112,25 +106,48 @@ describe("home summary", () => {
   });
 });
 
-describe("projects", () => {
+describe("jobs", () => {
   it("are read by engineers, leads and auditors, and include the demo jobs", async () => {
-    // The demo jobs were made by the demo standards lead.
+    // The demo jobs were made by the demo standards lead, who is their responsible engineer too. No other test
+    // makes a job numbered MF-….
     const lead = DEMO_USERS.find((u) => u.role === "lead")!;
-    const projects = await listProjects();
-    expect(projects.map((p) => p.jobNumber)).toEqual(["MF-2304", "MF-2291"]);
-    expect(projects.map(({ id: _id, createdAt: _createdAt, ...rest }) => rest)).toEqual(
-      [...DEMO_PROJECTS].reverse().map((p) => ({ ...p, createdByName: lead.name })),
+    const jobs = await listJobs({ search: "MF-" });
+    expect(jobs.map((p) => p.jobNumber)).toEqual(["MF-2304", "MF-2291"]);
+    expect(
+      jobs.map(
+        ({ id: _id, createdAt: _createdAt, updatedAt: _updatedAt, responsibleEngineerId: _r, runCount: _n, ...rest }) => rest,
+      ),
+    ).toEqual(
+      [...DEMO_JOBS].reverse().map(({ responsible: _role, ...p }) => ({
+        ...p,
+        status: "active",
+        responsibleEngineerName: lead.name,
+        createdByName: lead.name,
+      })),
     );
-    expect(Object.keys(projects[0]).sort()).toEqual(["client", "createdAt", "createdByName", "id", "jobNumber", "name"]);
-    expect((await listProjects({ limit: 1 })).map((p) => p.jobNumber)).toEqual(["MF-2304"]);
+    expect(Object.keys(jobs[0]).sort()).toEqual([
+      "client",
+      "createdAt",
+      "createdByName",
+      "id",
+      "jobNumber",
+      "name",
+      "responsibleEngineerId",
+      "responsibleEngineerName",
+      "runCount",
+      "site",
+      "status",
+      "updatedAt",
+    ]);
+    expect((await listJobs({ search: "mf-2291" })).map((p) => p.jobNumber)).toEqual(["MF-2291"]);
 
     for (const role of ["lead", "engineer", "auditor"] as const) {
       const { actor } = await createTestUser({ role });
-      expect(await runUseCase(readProjects, { actor, input: {} }), role).toEqual(projects);
+      expect(await runUseCase(readJobs, { actor, input: { q: "MF-" } }), role).toEqual(jobs);
     }
     const { actor: admin } = await createTestUser({ role: "admin" });
-    await expectReadRefused(readProjects, admin, "forbidden");
-    await expectReadRefused(readProjects, null, "unauthenticated");
+    await expectReadRefused(readJobs, admin, "forbidden");
+    await expectReadRefused(readJobs, null, "unauthenticated");
   });
 });
 

@@ -17,6 +17,8 @@ const policyWith = (scripts: string) =>
   [
     "default-src 'self'",
     `script-src ${scripts}`,
+    // The run form's preview runs the evaluation bundle as a module Worker from the app's own origin.
+    "worker-src 'self'",
     "style-src 'self'",
     "style-src-attr 'unsafe-inline'",
     "img-src 'self'",

@@ -1,7 +1,7 @@
-// The demo seed: fills an empty database once (firm, one user per role, two projects) and leaves a
+// The demo seed: fills an empty database once (firm, one user per role, two jobs) and leaves a
 // database with users alone; the demo users can sign in with the passwords the README prints.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_FIRM_NAME, DEMO_PROJECTS, DEMO_USERS } from "@/db/demo-users";
+import { DEMO_FIRM_NAME, DEMO_JOBS, DEMO_USERS } from "@/db/demo-users";
 import { auth } from "@/lib/auth/server";
 import { DEMO_SECTIONS } from "@/lib/libraries";
 import { libraryContentHash } from "@/lib/libraries/document";
@@ -29,13 +29,13 @@ afterAll(async () => {
 describe("demo seed", () => {
   it("seeds an empty database once, then says it is already seeded", () => {
     expect(firstSeed.status, firstSeed.stderr).toBe(0);
-    expect(firstSeed.stdout).toMatch(/demo firm created \(5 users, 2 projects\)/);
+    expect(firstSeed.stdout).toMatch(/demo firm created \(5 users, 2 jobs\)/);
     const second = runScript("scripts/seed.ts", ["--conditions=react-server"]);
     expect(second.status, second.stderr).toBe(0);
     expect(second.stdout).toMatch(/already seeded/);
   }, 60_000);
 
-  it("creates the firm, one user per role with a password login, and the two projects", async () => {
+  it("creates the firm, one user per role with a password login, and the two jobs", async () => {
     expect(await query(freshUrl, "select name from firm")).toEqual([{ name: DEMO_FIRM_NAME }]);
     const users = await query(
       freshUrl,
@@ -47,8 +47,8 @@ describe("demo seed", () => {
         .sort((a, b) => a.email.localeCompare(b.email))
         .map((u) => ({ email: u.email, role: u.role, provider_id: "credential", hashed: true })),
     );
-    const projects = await query(freshUrl, "select job_number from projects order by job_number");
-    expect(projects.map((p) => p.job_number)).toEqual(DEMO_PROJECTS.map((p) => p.jobNumber).sort());
+    const jobs = await query(freshUrl, "select job_number from jobs order by job_number");
+    expect(jobs.map((p) => p.job_number)).toEqual(DEMO_JOBS.map((p) => p.jobNumber).sort());
   });
 });
 

@@ -106,12 +106,30 @@ export const APP_PAGES: AppPage[] = [
     status: 404,
     visitors: ["lead"],
   },
-  { name: "jobs", entry: "/(app)/jobs/page", path: "/jobs", visitors: WORK },
-  { name: "runs", entry: "/(app)/runs/page", path: "/runs", visitors: WORK },
+  { name: "jobs", entry: "/(app)/jobs/(list)/page", path: "/jobs", visitors: WORK },
+  { name: "runs", entry: "/(app)/runs/(list)/page", path: "/runs", visitors: WORK },
+  // A demo job the seed makes, and a starting standard run in it. A real run's page is opened, with axe, by the
+  // run journey (tests/browser/run-journey.test.ts).
+  { name: "new job", entry: "/(app)/jobs/new/page", path: "/jobs/new", visitors: ["engineer"] },
+  { name: "a job", entry: "/(app)/jobs/[jobNumber]/page", path: "/jobs/MF-2291", visitors: WORK },
+  { name: "a job's details", entry: "/(app)/jobs/[jobNumber]/edit/page", path: "/jobs/MF-2291/edit", visitors: ["lead"] },
+  {
+    name: "the run form",
+    entry: "/(app)/jobs/[jobNumber]/run/[slug]/page",
+    path: "/jobs/MF-2291/run/fixed-end-beam",
+    visitors: ["engineer"],
+  },
+  {
+    name: "a run that does not exist",
+    entry: "/(app)/runs/[id]/page",
+    path: "/runs/00000000-0000-4000-8000-000000000000",
+    status: 404,
+    visitors: ["auditor"],
+  },
   { name: "audit trail", entry: "/(app)/audit/page", path: "/audit", visitors: ["admin", "auditor"] },
   { name: "people", entry: "/(app)/admin/users/page", path: "/admin/users", visitors: ["admin", "auditor"] },
   { name: "demo mailbox", entry: "/(app)/admin/mailbox/page", path: "/admin/mailbox", visitors: ["admin"], mailbox: true },
-  { name: "403, not part of the role", entry: "/(app)/runs/page", path: "/runs", status: 403, visitors: ["admin"] },
+  { name: "403, not part of the role", entry: "/(app)/runs/(list)/page", path: "/runs", status: 403, visitors: ["admin"] },
   { name: "403, not part of the role", entry: "/(app)/audit/page", path: "/audit", status: 403, visitors: ["lead"] },
   {
     name: "403, not part of the role",

@@ -15,7 +15,7 @@ const table = (fields: Partial<Relation>): Relation => ({
 
 describe("tablePrivileges", () => {
   it("gives reading and writing rows on a table without a refusing trigger", () => {
-    expect(tablePrivileges(table({ name: "projects" }))).toEqual(["SELECT", "INSERT", "UPDATE", "DELETE"]);
+    expect(tablePrivileges(table({ name: "jobs" }))).toEqual(["SELECT", "INSERT", "UPDATE", "DELETE"]);
   });
 
   it("takes away exactly what a gusset_refuse_ trigger refuses", () => {

@@ -15,8 +15,8 @@ const LOADING: Record<string, () => Promise<{ default: ComponentType }>> = {
   profile: () => import("@/app/(app)/profile/loading"),
   "standards/(list)": () => import("@/app/(app)/standards/(list)/loading"),
   "libraries/(list)": () => import("@/app/(app)/libraries/(list)/loading"),
-  jobs: () => import("@/app/(app)/jobs/loading"),
-  runs: () => import("@/app/(app)/runs/loading"),
+  "jobs/(list)": () => import("@/app/(app)/jobs/(list)/loading"),
+  "runs/(list)": () => import("@/app/(app)/runs/(list)/loading"),
   audit: () => import("@/app/(app)/audit/loading"),
   "admin/users": () => import("@/app/(app)/admin/users/loading"),
   "admin/mailbox": () => import("@/app/(app)/admin/mailbox/loading"),
@@ -34,6 +34,11 @@ const NO_SKELETON: Record<string, string> = {
   "libraries/[slug]/versions/[number]": "404 for a version that does not exist",
   "libraries/[slug]/versions/[number]/entry": "404 for an entry that does not exist",
   "libraries/[slug]/diff": "404 for versions that do not exist",
+  "jobs/new": "403 for roles that do not create jobs",
+  "jobs/[jobNumber]": "404 for a job that does not exist",
+  "jobs/[jobNumber]/edit": "403 for roles that do not change jobs, 404 for a job that does not exist",
+  "jobs/[jobNumber]/run/[slug]": "403 for roles that do not run, 404 for a job or standard that does not exist",
+  "runs/[id]": "404 for a run that does not exist",
   // Nothing to wait for: the builder works in the browser.
   "libraries/builder": "nothing loads on the server but the access check",
 };

@@ -32,9 +32,11 @@ const EXPECTED: Record<Action, Record<Role, boolean>> = {
   // admin: follows the invitation and reset links they send (the demo mailbox); links are credentials, so not "read everything".
   "mailbox.read": { admin: Y, lead: N, engineer: N, auditor: N },
   // engineer: "create jobs, run published versions" inside them; lead: "everything an engineer may"; auditor: "read everything".
-  "projects.read": { admin: N, lead: Y, engineer: Y, auditor: Y },
+  "jobs.read": { admin: N, lead: Y, engineer: Y, auditor: Y },
   // engineer: "create jobs"; lead: "everything an engineer may".
-  "projects.create": { admin: N, lead: Y, engineer: Y, auditor: N },
+  "jobs.create": { admin: N, lead: Y, engineer: Y, auditor: N },
+  // engineer: keeps the jobs they create (name, client, site, responsible engineer, status); lead: as an engineer.
+  "jobs.edit": { admin: N, lead: Y, engineer: Y, auditor: N },
   // engineer: "run published versions" (picked from the library); lead: writes it; auditor: "read everything".
   "library.read": { admin: N, lead: Y, engineer: Y, auditor: Y },
   // lead: "write drafts"; engineers only run published versions.
@@ -78,7 +80,8 @@ const WRITES: readonly Action[] = [
   "users.invite",
   "users.set-role",
   "users.deactivate",
-  "projects.create",
+  "jobs.create",
+  "jobs.edit",
   "templates.write-draft",
   "templates.review",
   "templates.publish",

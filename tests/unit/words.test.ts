@@ -25,7 +25,7 @@ function visibleText(source: string): string[] {
   const withoutImports = source.replace(/^import .*$/gm, "").replace(/\/\/.*$|\/\*[\s\S]*?\*\//gm, "");
   const jsxText = [...withoutImports.matchAll(/>([^<>{}]*[A-Za-z][^<>{}]*)</g)].map((m) => m[1]);
   const literals = [...withoutImports.matchAll(/"([^"\n]*)"|`([^`]*)`/g)].map((m) => m[1] ?? m[2]);
-  // A permission or a test id ("projects.read", "nav-projects") is not read by anyone.
+  // A permission or a test id ("jobs.read", "nav-projects") is not read by anyone.
   return [...jsxText, ...literals].filter((text) => !/^[a-z-]+\.[a-z-]+$/.test(text) && !/^[a-z0-9-]+$/.test(text));
 }
 

@@ -18,7 +18,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/home", label: "Home", icon: "home", permission: null, group: "work" },
   { href: "/standards", label: "Standards", icon: "standards", permission: "library.read", group: "work" },
   { href: "/libraries", label: "Libraries", icon: "libraries", permission: "libraries.read", group: "work" },
-  { href: "/jobs", label: "Jobs", icon: "jobs", permission: "projects.read", group: "work" },
+  { href: "/jobs", label: "Jobs", icon: "jobs", permission: "jobs.read", group: "work" },
   { href: "/runs", label: "Runs", icon: "runs", permission: "runs.read", group: "work" },
   { href: "/audit", label: "Audit trail", icon: "audit", permission: "audit.read", group: "work" },
   { href: "/admin/users", label: "People", icon: "people", permission: "users.read", group: "admin" },

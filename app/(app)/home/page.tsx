@@ -5,7 +5,7 @@ import { runUseCase } from "@/lib/use-cases/run";
 import { readProfile } from "@/lib/use-cases/profile";
 import { readHome, type HomeSummary } from "@/lib/use-cases/reads";
 import { HomeCard } from "./_components/home-card";
-import { RecentAuditEvents, RecentProjects } from "./_components/recent-lists";
+import { RecentAuditEvents, RecentJobs } from "./_components/recent-lists";
 
 export const metadata: Metadata = { title: "Home" };
 
@@ -47,7 +47,7 @@ function RoleCards({
   mailbox: boolean;
   timeZone?: string;
 }) {
-  const { people, projects: jobs, audit } = summary;
+  const { people, jobs, audit } = summary;
   const peopleCard = people ? (
     <HomeCard
       title="People"
@@ -77,13 +77,13 @@ function RoleCards({
   const jobsCard = jobs ? (
     <HomeCard
       title="Jobs"
-      testId="home-projects"
+      testId="home-jobs"
       figure={jobs.count}
       figureLabel={jobs.count === 1 ? "job on record" : "jobs on record"}
       href="/jobs"
       linkLabel="All jobs"
     >
-      <RecentProjects projects={jobs.recent} />
+      <RecentJobs jobs={jobs.recent} />
     </HomeCard>
   ) : null;
   const auditCard = audit ? (

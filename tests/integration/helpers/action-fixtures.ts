@@ -9,6 +9,49 @@ import { WRONG_CURRENT_PASSWORD_MESSAGE } from "@/lib/domain/schemas/profile";
 import { auditEventsFor, createTestUser, inviteWithToken, sessionCount, signInHeaders, uniqueEmail } from "./people";
 import { runUseCase } from "@/lib/use-cases/run";
 import { approveAndPublish, createStandard, readDraft, submitDraft } from "@/lib/use-cases/standards";
+import { createJob } from "@/lib/use-cases/jobs";
+import { createRun } from "@/lib/use-cases/runs";
+import { getStandardBySlug, listVersionsOf } from "@/lib/data/standards";
+
+let jobCounter = 0;
+/** A job number no other test uses. */
+export const matrixJobNumber = () => `AM-${Date.now().toString(36).toUpperCase()}-${(jobCounter++).toString(36).toUpperCase()}`;
+
+/** A job made for the call by an engineer of its own, with a lead as its responsible engineer. */
+export async function matrixJob() {
+  const [{ actor: engineer }, { actor: lead }] = await Promise.all([
+    createTestUser({ role: "engineer", label: "matrix-job" }),
+    createTestUser({ role: "lead", label: "matrix-responsible" }),
+  ]);
+  const jobNumber = matrixJobNumber();
+  const { jobId } = await runUseCase(createJob, {
+    actor: engineer,
+    input: { jobNumber, name: "Matrix job", responsibleEngineerId: lead.id },
+  });
+  return { jobId, jobNumber, engineer, lead };
+}
+
+/** The seeded fixed-end beam's newest version: a published standard every test database has. */
+export async function seededVersionId(): Promise<string> {
+  const standard = await getStandardBySlug("fixed-end-beam");
+  if (!standard) throw new Error("the seed's fixed-end-beam standard is missing");
+  return (await listVersionsOf(standard.id))[0].id;
+}
+
+/** A run stored in a job made for the call. */
+export async function matrixRun() {
+  const job = await matrixJob();
+  const versionId = await seededVersionId();
+  const run = await runUseCase(createRun, {
+    actor: job.engineer,
+    input: { jobId: job.jobId, versionId, inputs: { L: "5 m" }, unitSystem: "si" },
+  });
+  return { ...job, versionId, run };
+}
+
+async function runRows(jobId: string) {
+  return db.select().from(schema.runs).where(eq(schema.runs.jobId, jobId));
+}
 
 let standardCounter = 0;
 const matrixSlug = () => `matrix-${Date.now().toString(36)}-${(standardCounter++).toString(36)}`;
@@ -318,6 +361,48 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
           .from(schema.standardVersionEvents)
           .where(eq(schema.standardVersionEvents.versionId, versionId));
         expect(events.map((e) => e.kind)).toEqual(["published", "withdrawn"]);
+      },
+    };
+  },
+  "app/(app)/jobs/actions.ts#createJobAction": async () => {
+    const { actor: lead } = await createTestUser({ role: "lead", label: "matrix-responsible" });
+    const jobNumber = matrixJobNumber();
+    return {
+      input: { jobNumber, name: "Matrix depot", client: "Matrix client", site: "", responsibleEngineerId: lead.id },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({ redirect: `/jobs/${jobNumber}` });
+        const [row] = await db.select().from(schema.jobs).where(eq(schema.jobs.jobNumber, jobNumber));
+        expect(row).toMatchObject({ name: "Matrix depot", client: "Matrix client", site: null, responsibleEngineerId: lead.id });
+        expect(await auditEventsFor({ action: "jobs.create", subject: `job:${row.id}` })).toHaveLength(1);
+      },
+    };
+  },
+  "app/(app)/jobs/actions.ts#updateJobAction": async () => {
+    const { jobId, jobNumber, lead } = await matrixJob();
+    return {
+      input: { jobId, jobNumber, name: "Matrix job, renamed", responsibleEngineerId: lead.id, status: "on-hold" },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({ redirect: `/jobs/${jobNumber}` });
+        const [row] = await db.select().from(schema.jobs).where(eq(schema.jobs.id, jobId));
+        expect(row).toMatchObject({ name: "Matrix job, renamed", status: "on-hold" });
+        const [event] = await auditEventsFor({ action: "jobs.update", subject: `job:${jobId}` });
+        expect(event.details).toEqual({
+          jobNumber,
+          changes: { name: ["Matrix job", "Matrix job, renamed"], status: ["active", "on-hold"] },
+        });
+      },
+    };
+  },
+  "app/(app)/jobs/actions.ts#createRunAction": async () => {
+    const { jobId } = await matrixJob();
+    const versionId = await seededVersionId();
+    return {
+      input: { jobId, versionId, inputs: { L: "7 m", w_L: "12 kN/m" }, unitSystem: "si" },
+      succeeded: async (answer) => {
+        const [row] = await runRows(jobId);
+        expect(answer).toEqual({ redirect: `/runs/${row.id}` });
+        expect(row).toMatchObject({ versionId, outcome: "succeeded", pass: true });
+        expect(JSON.parse(row.record).typed).toEqual({ L: "7 m", w_L: "12 kN/m" });
       },
     };
   },

@@ -1,18 +1,18 @@
 import type { AuditEventDto } from "@/lib/data/audit";
-import type { ProjectDto } from "@/lib/data/projects";
+import type { JobDto } from "@/lib/data/jobs";
 import { AuditSentence } from "@/components/audit-sentence";
 import { LocalTime } from "@/components/local-time";
 
-export function RecentProjects({ projects }: { projects: ProjectDto[] }) {
-  if (projects.length === 0) return <p>No jobs yet.</p>;
+export function RecentJobs({ jobs }: { jobs: JobDto[] }) {
+  if (jobs.length === 0) return <p>No jobs yet.</p>;
   return (
-    <ul className="space-y-1.5" data-testid="home-recent-projects">
-      {projects.map((project) => (
-        <li key={project.id} className="flex gap-3">
+    <ul className="space-y-1.5" data-testid="home-recent-jobs">
+      {jobs.map((job) => (
+        <li key={job.id} className="flex gap-3">
           <span className="font-mono text-xs leading-5 font-medium whitespace-nowrap text-plate-800 tabular">
-            {project.jobNumber}
+            {job.jobNumber}
           </span>
-          <span className="text-ink-700">{project.name}</span>
+          <span className="text-ink-700">{job.name}</span>
         </li>
       ))}
     </ul>

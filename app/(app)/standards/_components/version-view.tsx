@@ -22,17 +22,7 @@ import { LocalTime } from "@/components/local-time";
 import { VersionStatusBadge } from "./version-status";
 import { StartDraftButton } from "./start-draft-button";
 import { WithdrawForm } from "./withdraw-form";
-
-function Section({ title, id, children }: { title: string; id: string; children: React.ReactNode }) {
-  return (
-    <section aria-labelledby={id} className="mt-10">
-      <h2 id={id} className="mb-3 text-lg font-semibold text-ink-900">
-        {title}
-      </h2>
-      {children}
-    </section>
-  );
-}
+import { Section } from "@/components/ui/section";
 
 export function VersionView({
   version,

@@ -1,0 +1,109 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { requirePageActor } from "@/lib/auth/session";
+import { can } from "@/lib/domain/permissions";
+import { runUseCase } from "@/lib/use-cases/run";
+import { readJob } from "@/lib/use-cases/jobs";
+import { readRuns } from "@/lib/use-cases/runs";
+import { listStandards } from "@/lib/use-cases/standards";
+import { PageHeader } from "@/components/ui/page-header";
+import { EmptyState } from "@/components/ui/empty-state";
+import { buttonClasses } from "@/components/ui/button";
+import { orNotFound } from "../../_components/or-not-found";
+import { JobStatusBadge } from "../_components/job-status";
+import { RunTable } from "../../runs/_components/run-table";
+
+export const metadata: Metadata = { title: "Job" };
+
+export default async function JobPage({ params }: PageProps<"/jobs/[jobNumber]">) {
+  const { jobNumber } = await params;
+  const number = decodeURIComponent(jobNumber);
+  const actor = await requirePageActor("jobs.read", { next: `/jobs/${encodeURIComponent(number)}` });
+  const job = await orNotFound(() => runUseCase(readJob, { actor, input: { jobNumber: number } }));
+  const { runs, nextCursor } = await runUseCase(readRuns, { actor, input: { job: job.jobNumber, limit: 50 } });
+  const runs_ = can(actor.role, "runs.create");
+  const standards = runs_ ? (await runUseCase(listStandards, { actor, input: {} })).standards : [];
+  const runnable = standards.filter((item) => item.current.status !== "withdrawn");
+  const base = `/jobs/${encodeURIComponent(job.jobNumber)}`;
+
+  return (
+    <>
+      <PageHeader
+        title={`${job.jobNumber} · ${job.name}`}
+        lead={[job.client, job.site].filter(Boolean).join(" · ") || undefined}
+        actions={
+          can(actor.role, "jobs.edit") ? (
+            <Link href={`${base}/edit`} className={buttonClasses("secondary")} data-testid="edit-job">
+              Edit job
+            </Link>
+          ) : null
+        }
+      />
+      <dl
+        className="grid gap-x-8 gap-y-2 rounded-plate bg-paper-raised p-4 text-sm shadow-sheet ring-1 ring-ink-200 sm:grid-cols-[auto_minmax(0,1fr)]"
+        data-testid="job-meta"
+      >
+        <dt className="text-ink-500">Status</dt>
+        <dd>
+          <JobStatusBadge status={job.status} />
+        </dd>
+        <dt className="text-ink-500">Responsible engineer</dt>
+        <dd data-testid="job-responsible-name">{job.responsibleEngineerName ?? "Not named yet: edit the job to name one."}</dd>
+        <dt className="text-ink-500">Created by</dt>
+        <dd>{job.createdByName ?? "—"}</dd>
+      </dl>
+
+      {runs_ ? (
+        <section aria-labelledby="run-heading" className="mt-10">
+          <h2 id="run-heading" className="mb-3 text-lg font-semibold text-ink-900">
+            Run a standard
+          </h2>
+          {job.status === "closed" ? (
+            <p className="rounded-plate bg-ink-100 p-4 text-ink-700" data-testid="job-closed">
+              This job is closed: it takes no new design runs. Reopen it (Edit job) to run in it.
+            </p>
+          ) : runnable.length === 0 ? (
+            <p className="text-ink-700">No standard is published yet.</p>
+          ) : (
+            <ul className="grid gap-2 sm:grid-cols-2" data-testid="runnable-standards">
+              {runnable.map(({ slug, current }) => (
+                <li key={slug}>
+                  <Link
+                    href={`${base}/run/${slug}`}
+                    className="block rounded-plate bg-paper-raised p-3 ring-1 ring-ink-200 hover:ring-plate-500"
+                    data-testid="run-standard-link"
+                    data-slug={slug}
+                  >
+                    <span className="font-medium text-plate-800">{current.title}</span>{" "}
+                    <span className="font-mono text-xs text-ink-500">v{current.number}</span>
+                    <span className="block text-xs text-ink-500">{current.summary}</span>
+                  </Link>
+                </li>
+              ))}
+            </ul>
+          )}
+        </section>
+      ) : null}
+
+      <section aria-labelledby="runs-heading" className="mt-10">
+        <h2 id="runs-heading" className="mb-3 text-lg font-semibold text-ink-900">
+          Runs in this job
+        </h2>
+        {runs.length === 0 ? (
+          <EmptyState title="No runs yet">
+            Each run of a standard in this job is kept here for good, with its calc sheet.
+          </EmptyState>
+        ) : (
+          <RunTable runs={runs} showJob={false} />
+        )}
+        {nextCursor ? (
+          <p className="mt-2 text-sm">
+            <Link href={`/runs?job=${encodeURIComponent(job.jobNumber)}`} className="text-plate-700 hover:underline">
+              All runs of this job
+            </Link>
+          </p>
+        ) : null}
+      </section>
+    </>
+  );
+}

@@ -1,0 +1,113 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { requirePageActor } from "@/lib/auth/session";
+import { can } from "@/lib/domain/permissions";
+import { runUseCase } from "@/lib/use-cases/run";
+import { readRun } from "@/lib/use-cases/runs";
+import { readRunRecord } from "@/lib/standards/run-record";
+import { PageHeader } from "@/components/ui/page-header";
+import { buttonClasses } from "@/components/ui/button";
+import { Caution } from "@/components/standards/caution";
+import { LocalTime } from "@/components/local-time";
+import { RunResults } from "@/components/runs/run-results";
+import { orNotFound } from "../../_components/or-not-found";
+import { RunOutcomeBadge } from "../_components/run-outcome";
+
+export const metadata: Metadata = { title: "Run" };
+
+export default async function RunPage({ params, searchParams }: PageProps<"/runs/[id]">) {
+  const { id } = await params;
+  const actor = await requirePageActor("runs.read", { next: `/runs/${encodeURIComponent(id)}` });
+  const run = await orNotFound(() => runUseCase(readRun, { actor, input: { id } }));
+  const record = readRunRecord(run.record);
+  const under = (await searchParams).under;
+  const jobHref = `/jobs/${encodeURIComponent(run.jobNumber)}`;
+  const rerun = can(actor.role, "runs.create") ? `${jobHref}/run/${run.slug}?from=${run.id}` : null;
+
+  return (
+    <>
+      <PageHeader
+        title={`${run.title} · ${run.jobNumber}`}
+        lead={`Run ${run.id.slice(0, 8)} of version ${run.number}, in job ${run.jobNumber} (${run.jobName}).`}
+        actions={
+          rerun ? (
+            <Link href={rerun} className={buttonClasses("secondary")} data-testid="rerun">
+              Re-run with changes
+            </Link>
+          ) : null
+        }
+      />
+      <Caution />
+      <dl
+        className="grid gap-x-8 gap-y-2 rounded-plate bg-paper-raised p-4 text-sm shadow-sheet ring-1 ring-ink-200 sm:grid-cols-[auto_minmax(0,1fr)]"
+        data-testid="run-meta"
+      >
+        <dt className="text-ink-500">Result</dt>
+        <dd data-testid="run-result">
+          <RunOutcomeBadge outcome={run.outcome} pass={run.pass} />
+        </dd>
+        <dt className="text-ink-500">Job</dt>
+        <dd>
+          <Link href={jobHref} className="text-plate-700 hover:underline">
+            {run.jobNumber} · {run.jobName}
+          </Link>
+        </dd>
+        <dt className="text-ink-500">Standard</dt>
+        <dd>
+          <Link
+            href={`/standards/${run.slug}/versions/${run.number}`}
+            className="text-plate-700 hover:underline"
+            data-testid="run-version"
+          >
+            {run.title} v{run.number}
+          </Link>{" "}
+          <span className="font-mono text-xs text-ink-500">sha256:{record.standard.contentHash.slice(0, 12)}</span>
+        </dd>
+        <dt className="text-ink-500">Run by</dt>
+        <dd>
+          {run.createdByName}, <LocalTime iso={run.createdAt} />
+        </dd>
+        {record.parentRunId ? (
+          <>
+            <dt className="text-ink-500">Re-run of</dt>
+            <dd>
+              <Link href={`/runs/${record.parentRunId}`} className="font-mono text-plate-700 hover:underline">
+                {record.parentRunId.slice(0, 8)}
+              </Link>
+            </dd>
+          </>
+        ) : null}
+        <dt className="text-ink-500">Engine</dt>
+        <dd className="font-mono text-xs text-ink-700" data-testid="run-identity">
+          frame engine {record.identity.engine} ({record.identity.engineSourceHash.slice(0, 12)}), evaluation{" "}
+          {record.identity.evaluation}, bundle {record.identity.bundleSha256.slice(0, 12)}
+        </dd>
+        {record.libraries.length > 0 ? (
+          <>
+            <dt className="text-ink-500">Library entries</dt>
+            <dd>
+              <ul data-testid="run-library-entries">
+                {record.libraries.map((entry) => (
+                  <li key={entry.input}>
+                    <span className="font-mono text-xs">{entry.input}</span>: {entry.key} ({entry.library} v{entry.version},{" "}
+                    <span className="font-mono text-xs">sha256:{entry.entryHash.slice(0, 12)}</span>)
+                  </li>
+                ))}
+              </ul>
+            </dd>
+          </>
+        ) : null}
+        <dt className="text-ink-500">Record</dt>
+        <dd className="font-mono text-xs break-all text-ink-700" data-testid="run-sha256">
+          sha256:{run.recordSha256} ({run.recordBytes.toLocaleString("en")} bytes)
+        </dd>
+      </dl>
+      <RunResults
+        record={record}
+        under={typeof under === "string" ? under : undefined}
+        underHref={(resultId) => `/runs/${run.id}?under=${encodeURIComponent(resultId)}#diagrams-heading`}
+      />
+      <Caution />
+    </>
+  );
+}

@@ -1,0 +1,117 @@
+// Jobs (the trade's word for a project, by job number) and the runs made inside them.
+//
+//   jobs                  one row per job; the only rows here that change (name, client, site, responsible
+//                         engineer, status), each change an audit event
+//   runs                  one published version evaluated with a person's inputs: the canonical record (RFC 8785
+//                         JSON, the bytes as written) and its sha256, with the columns lists filter on copied
+//                         from it. Append-only: the database refuses UPDATE and DELETE (drizzle/0009, custom part)
+//   run_library_entries   the library entries a run used (a section, a material), one row per input, pointing
+//                         at the published entry row and its hash: what a withdrawal's impact report joins on
+import { sql } from "drizzle-orm";
+import {
+  type AnyPgColumn,
+  boolean,
+  check,
+  doublePrecision,
+  index,
+  integer,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  uuid,
+} from "drizzle-orm/pg-core";
+import { user } from "./auth";
+import { standardVersions } from "./standards";
+import { libraryVersionEntries } from "./libraries";
+
+export const JOB_STATUSES = ["active", "on-hold", "closed"] as const;
+export type JobStatus = (typeof JOB_STATUSES)[number];
+
+export const jobs = pgTable(
+  "jobs",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    /** The firm's job number as written on drawings and calc sheets, e.g. "MF-2291". */
+    jobNumber: text("job_number").notNull().unique(),
+    name: text("name").notNull(),
+    client: text("client"),
+    site: text("site"),
+    /** Who approves the job's calcs. Null only for jobs made before the field existed. */
+    responsibleEngineerId: text("responsible_engineer_id").references(() => user.id),
+    status: text("status", { enum: JOB_STATUSES }).notNull().default("active"),
+    createdById: text("created_by_id").references(() => user.id),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [check("jobs_status_check", sql`${t.status} in ('active', 'on-hold', 'closed')`)],
+);
+export type Job = typeof jobs.$inferSelect;
+export type NewJob = typeof jobs.$inferInsert;
+
+export const RUN_OUTCOMES = ["succeeded", "failed"] as const;
+export type RunOutcome = (typeof RUN_OUTCOMES)[number];
+export const RUN_PURPOSES = ["design", "remediation"] as const;
+export type RunPurpose = (typeof RUN_PURPOSES)[number];
+export const UNIT_SYSTEMS = ["si", "us"] as const;
+export type UnitSystem = (typeof UNIT_SYSTEMS)[number];
+
+export const runs = pgTable(
+  "runs",
+  {
+    /** Made by the app before the record is written, since the record names it. */
+    id: uuid("id").primaryKey(),
+    jobId: uuid("job_id")
+      .notNull()
+      .references(() => jobs.id),
+    versionId: uuid("version_id")
+      .notNull()
+      .references(() => standardVersions.id),
+    outcome: text("outcome", { enum: RUN_OUTCOMES }).notNull(),
+    /** Every check passes and every guard holds; null for a failed run. */
+    pass: boolean("pass"),
+    /** The largest utilisation among the checks; null for a failed run or one without checks. */
+    maxUtilisation: doublePrecision("max_utilisation"),
+    purpose: text("purpose", { enum: RUN_PURPOSES }).notNull().default("design"),
+    /** The run this one re-ran with changes (the form pre-filled from it). */
+    parentRunId: uuid("parent_run_id").references((): AnyPgColumn => runs.id),
+    unitSystem: text("unit_system", { enum: UNIT_SYSTEMS }).notNull(),
+    /** The canonical record (RFC 8785), stored as the very text that was hashed. */
+    record: text("record").notNull(),
+    recordSha256: text("record_sha256").notNull(),
+    recordBytes: integer("record_bytes").notNull(),
+    createdById: text("created_by_id")
+      .notNull()
+      .references(() => user.id),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull(),
+  },
+  (t) => [
+    index("runs_job_created_idx").on(t.jobId, t.createdAt.desc(), t.id.desc()),
+    index("runs_version_idx").on(t.versionId, t.createdAt.desc()),
+    index("runs_created_idx").on(t.createdAt.desc(), t.id.desc()),
+    index("runs_person_idx").on(t.createdById, t.createdAt.desc()),
+    check("runs_outcome_check", sql`${t.outcome} in ('succeeded', 'failed')`),
+    check("runs_purpose_check", sql`${t.purpose} in ('design', 'remediation')`),
+    check("runs_unit_system_check", sql`${t.unitSystem} in ('si', 'us')`),
+    check("runs_pass_check", sql`(${t.outcome} = 'failed') = (${t.pass} is null)`),
+    check("runs_sha256_check", sql`${t.recordSha256} ~ '^[0-9a-f]{64}$'`),
+  ],
+);
+export type Run = typeof runs.$inferSelect;
+
+export const runLibraryEntries = pgTable(
+  "run_library_entries",
+  {
+    runId: uuid("run_id")
+      .notNull()
+      .references(() => runs.id),
+    /** The standard's input that took the entry (`beam`, `steel`). */
+    inputKey: text("input_key").notNull(),
+    entryId: uuid("entry_id")
+      .notNull()
+      .references(() => libraryVersionEntries.id),
+    /** The entry's hash as the run read it (equal to the entry row's; kept so the record stands alone). */
+    entryHash: text("entry_hash").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.runId, t.inputKey] }), index("run_library_entries_entry_idx").on(t.entryId)],
+);

@@ -1,0 +1,167 @@
+import "server-only";
+// Runs: the append-only rows a run use case writes (lib/use-cases/runs.ts) and what lists and the run page read.
+// A run's record is stored as the canonical text that was hashed; lists read only the columns copied from it.
+import { and, desc, eq, lt, or, sql, type SQL } from "drizzle-orm";
+import {
+  jobs,
+  libraries,
+  libraryVersionEntries,
+  libraryVersions,
+  runLibraryEntries,
+  runs,
+  standards,
+  standardVersions,
+  user,
+  type RunOutcome,
+  type RunPurpose,
+  type UnitSystem,
+} from "@/db/schema";
+import { currentDb } from "./transaction";
+
+export type RunSummaryDto = {
+  id: string;
+  jobId: string;
+  jobNumber: string;
+  jobName: string;
+  versionId: string;
+  slug: string;
+  title: string;
+  number: number;
+  outcome: RunOutcome;
+  pass: boolean | null;
+  maxUtilisation: number | null;
+  purpose: RunPurpose;
+  parentRunId: string | null;
+  unitSystem: UnitSystem;
+  recordSha256: string;
+  recordBytes: number;
+  createdById: string;
+  createdByName: string;
+  createdAt: string;
+};
+
+export type RunDto = RunSummaryDto & {
+  /** The canonical record as stored (the bytes that were hashed). */
+  record: string;
+};
+
+const summaryColumns = {
+  id: runs.id,
+  jobId: runs.jobId,
+  jobNumber: jobs.jobNumber,
+  jobName: jobs.name,
+  versionId: runs.versionId,
+  slug: standards.slug,
+  title: standardVersions.title,
+  number: standardVersions.number,
+  outcome: runs.outcome,
+  pass: runs.pass,
+  maxUtilisation: runs.maxUtilisation,
+  purpose: runs.purpose,
+  parentRunId: runs.parentRunId,
+  unitSystem: runs.unitSystem,
+  recordSha256: runs.recordSha256,
+  recordBytes: runs.recordBytes,
+  createdById: runs.createdById,
+  createdByName: user.name,
+  createdAt: runs.createdAt,
+};
+
+function selectRuns() {
+  return currentDb()
+    .select(summaryColumns)
+    .from(runs)
+    .innerJoin(jobs, eq(jobs.id, runs.jobId))
+    .innerJoin(standardVersions, eq(standardVersions.id, runs.versionId))
+    .innerJoin(standards, eq(standards.id, standardVersions.standardId))
+    .innerJoin(user, eq(user.id, runs.createdById));
+}
+
+function toSummary(row: Awaited<ReturnType<ReturnType<typeof selectRuns>["execute"]>>[number]): RunSummaryDto {
+  return { ...row, createdAt: row.createdAt.toISOString() };
+}
+
+export async function insertRun(values: typeof runs.$inferInsert): Promise<void> {
+  await currentDb().insert(runs).values(values);
+}
+
+export async function insertRunLibraryEntries(rows: (typeof runLibraryEntries.$inferInsert)[]): Promise<void> {
+  if (rows.length > 0) await currentDb().insert(runLibraryEntries).values(rows);
+}
+
+export async function getRun(id: string): Promise<RunDto | null> {
+  const [row] = await selectRuns().where(eq(runs.id, id));
+  if (!row) return null;
+  const [{ record }] = await currentDb().select({ record: runs.record }).from(runs).where(eq(runs.id, id));
+  return { ...toSummary(row), record };
+}
+
+export type RunFilter = {
+  jobId?: string;
+  jobNumber?: string;
+  slug?: string;
+  number?: number;
+  versionId?: string;
+  createdById?: string;
+  outcome?: RunOutcome;
+  pass?: boolean;
+  /** Keyset: rows strictly after this (createdAt, id) in newest-first order. */
+  after?: { createdAt: string; id: string };
+  limit: number;
+};
+
+/** Newest first, `limit` rows at most, after the cursor when one is given. */
+export async function listRuns(filter: RunFilter): Promise<RunSummaryDto[]> {
+  const where: SQL[] = [];
+  if (filter.jobId) where.push(eq(runs.jobId, filter.jobId));
+  if (filter.jobNumber) where.push(eq(jobs.jobNumber, filter.jobNumber));
+  if (filter.slug) where.push(eq(standards.slug, filter.slug));
+  if (filter.number) where.push(eq(standardVersions.number, filter.number));
+  if (filter.versionId) where.push(eq(runs.versionId, filter.versionId));
+  if (filter.createdById) where.push(eq(runs.createdById, filter.createdById));
+  if (filter.outcome) where.push(eq(runs.outcome, filter.outcome));
+  if (filter.pass !== undefined) where.push(eq(runs.pass, filter.pass));
+  if (filter.after) {
+    const at = new Date(filter.after.createdAt);
+    where.push(or(lt(runs.createdAt, at), and(eq(runs.createdAt, at), lt(runs.id, filter.after.id)))!);
+  }
+  const rows = await selectRuns()
+    .where(where.length > 0 ? and(...where) : undefined)
+    .orderBy(desc(runs.createdAt), desc(runs.id))
+    .limit(filter.limit);
+  return rows.map(toSummary);
+}
+
+export async function countRunsOfJob(jobId: string): Promise<number> {
+  const [row] = await currentDb()
+    .select({ n: sql<number>`count(*)`.mapWith(Number) })
+    .from(runs)
+    .where(eq(runs.jobId, jobId));
+  return row.n;
+}
+
+/** The published entry row a run used: by library slug, version number and the entry's normalised key. */
+export async function findLibraryEntryRow(
+  slug: string,
+  number: number,
+  normalisedKey: string,
+): Promise<{ id: string; entryHash: string } | null> {
+  const [row] = await currentDb()
+    .select({ id: libraryVersionEntries.id, entryHash: libraryVersionEntries.entryHash })
+    .from(libraryVersionEntries)
+    .innerJoin(libraryVersions, eq(libraryVersions.id, libraryVersionEntries.versionId))
+    .innerJoin(libraries, eq(libraries.id, libraryVersions.libraryId))
+    .where(
+      and(eq(libraries.slug, slug), eq(libraryVersions.number, number), eq(libraryVersionEntries.normalisedKey, normalisedKey)),
+    );
+  return row ?? null;
+}
+
+/** The library entries a run used, as stored beside it. */
+export async function listRunLibraryEntries(runId: string): Promise<{ inputKey: string; entryId: string; entryHash: string }[]> {
+  return currentDb()
+    .select({ inputKey: runLibraryEntries.inputKey, entryId: runLibraryEntries.entryId, entryHash: runLibraryEntries.entryHash })
+    .from(runLibraryEntries)
+    .where(eq(runLibraryEntries.runId, runId))
+    .orderBy(runLibraryEntries.inputKey);
+}

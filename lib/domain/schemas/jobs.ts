@@ -1,0 +1,93 @@
+// Jobs and runs: what an engineer types when creating or changing a job and when running a standard. The same
+// schemas validate the forms in the browser and the input on the server. A run's input values are checked
+// against the standard's own definition by the evaluation (units, bounds); here only their size and characters.
+import { z } from "../zod";
+import { plainText } from "./text";
+
+export const JOB_STATUS_IDS = ["active", "on-hold", "closed"] as const;
+export type JobStatusId = (typeof JOB_STATUS_IDS)[number];
+export const JOB_STATUS_LABELS: Record<JobStatusId, string> = { active: "Active", "on-hold": "On hold", closed: "Closed" };
+
+/** As drawings and calc sheets write it: letters, digits and single hyphens or dots (MF-2291, 24.017). */
+export const JOB_NUMBER_PATTERN = /^[A-Za-z0-9]+([-.][A-Za-z0-9]+)*$/;
+
+const optionalText = (what: string, max: number) =>
+  plainText()
+    .pipe(z.string().trim().max(max, `Keep the ${what} under ${max} characters.`))
+    .optional()
+    .transform((value) => (value ? value : null));
+
+export const jobFieldsSchema = z.object({
+  jobNumber: plainText().pipe(
+    z
+      .string()
+      .trim()
+      .min(1, "Give the job number, as the drawings write it.")
+      .max(30, "A job number is at most 30 characters.")
+      .regex(JOB_NUMBER_PATTERN, "Use letters and digits, joined by single hyphens or dots (e.g. MF-2291)."),
+  ),
+  name: plainText().pipe(z.string().trim().min(1, "Give the job a name.").max(120, "Keep the name under 120 characters.")),
+  client: optionalText("client's name", 120),
+  site: optionalText("site", 200),
+  responsibleEngineerId: z.string({ error: "Choose the responsible engineer." }).min(1, "Choose the responsible engineer."),
+});
+
+export const createJobSchema = jobFieldsSchema;
+export const updateJobSchema = jobFieldsSchema.extend({
+  jobId: z.uuid("Choose a job."),
+  status: z.enum(JOB_STATUS_IDS, { error: "Choose active, on hold or closed." }),
+});
+export const jobRefSchema = z.object({ jobNumber: z.string().trim().min(1).max(30) });
+export const listJobsSchema = z
+  .object({
+    q: plainText().pipe(z.string().trim().max(100, "Search with fewer than 100 characters.")).optional(),
+    status: z.enum(JOB_STATUS_IDS, { error: "Filter by active, on hold or closed." }).optional(),
+    limit: z.coerce.number().int().positive().max(500).optional(),
+  })
+  .default({});
+
+/** A standard may have at most this many inputs given in one run, each at most this long. */
+export const MAX_RUN_INPUTS = 200;
+export const MAX_INPUT_LENGTH = 200;
+
+export const runInputsSchema = z
+  .record(
+    z.string().max(64, "An input's name is at most 64 characters."),
+    z.union([
+      plainText().pipe(z.string().max(MAX_INPUT_LENGTH, `An input's value is at most ${MAX_INPUT_LENGTH} characters.`)),
+      z.number().refine(Number.isFinite, "A number must be finite."),
+    ]),
+  )
+  .refine((inputs) => Object.keys(inputs).length <= MAX_RUN_INPUTS, `A run takes at most ${MAX_RUN_INPUTS} inputs.`);
+
+export const UNIT_SYSTEM_IDS = ["si", "us"] as const;
+export type UnitSystemId = (typeof UNIT_SYSTEM_IDS)[number];
+
+export const createRunSchema = z.object({
+  jobId: z.uuid("Choose the job to run in."),
+  versionId: z.uuid("Choose a published version of a standard."),
+  inputs: runInputsSchema.default({}),
+  unitSystem: z.enum(UNIT_SYSTEM_IDS, { error: "Choose SI or US customary units." }).default("si"),
+  parentRunId: z.uuid("The run to re-run is not a run id.").optional(),
+});
+export type CreateRunInput = z.input<typeof createRunSchema>;
+
+export const runRefSchema = z.object({ id: z.uuid("That is not a run id.") });
+
+const RUN_PAGE_SIZE = 50;
+export const listRunsSchema = z
+  .object({
+    job: z.string().trim().max(30).optional(),
+    standard: z.string().trim().max(60).optional(),
+    version: z.coerce.number().int().min(1).optional(),
+    person: z.string().trim().max(100).optional(),
+    outcome: z.enum(["succeeded", "failed"], { error: "Filter by succeeded or failed." }).optional(),
+    pass: z.enum(["true", "false"], { error: "Filter by pass (true) or fail (false)." }).optional(),
+    /** The last row of the previous page: `<ISO time>_<id>`. */
+    cursor: z
+      .string()
+      .regex(/^\d{4}-\d\d-\d\dT[\d:.]+Z_[0-9a-f-]{36}$/, "That page cursor is not one Gusset gave.")
+      .optional(),
+    limit: z.coerce.number().int().min(1).max(200).default(RUN_PAGE_SIZE),
+  })
+  .default({ limit: RUN_PAGE_SIZE });

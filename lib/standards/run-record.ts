@@ -1,0 +1,123 @@
+/**
+ * A run's record: everything needed to trace, show and reproduce one evaluation of a published version, as one
+ * JSON document in its canonical form (RFC 8785), stored as the very text that was hashed. Who ran what, where
+ * and when; the version by id, number and content hash; the engine, evaluation and bundle that produced it;
+ * the inputs as typed and in SI; derived values, extracts, checks, assumptions and the equilibrium residual;
+ * the model and the engine's result (so diagrams are drawn again from the record alone, restoreResult); the
+ * library entries used with their hashes. A run that failed keeps its failure instead of results.
+ */
+import canonicalize from "canonicalize";
+import type { EngineError, Json } from "@/lib/engine";
+import type { Evaluation, EvaluationFailure } from "./evaluate";
+
+export const RUN_RECORD_FORMAT = "gusset-run/1";
+
+export interface RunRecordIdentity {
+  readonly engine: string;
+  readonly engineSourceHash: string;
+  readonly evaluation: string;
+  /** sha256 of the evaluation bundle that ran it: the bytes a reproduction "as issued" runs again. */
+  readonly bundleSha256: string;
+}
+
+export interface RunRecordEntry {
+  readonly input: string;
+  readonly library: string;
+  readonly version: number;
+  readonly contentHash: string;
+  readonly key: string;
+  readonly entryId: string;
+  readonly entryHash: string;
+}
+
+interface RunRecordBase {
+  readonly format: typeof RUN_RECORD_FORMAT;
+  readonly id: string;
+  readonly createdAt: string;
+  readonly createdBy: { readonly id: string; readonly name: string };
+  readonly job: { readonly id: string; readonly number: string; readonly name: string };
+  readonly standard: {
+    readonly slug: string;
+    readonly title: string;
+    readonly versionId: string;
+    readonly number: number;
+    readonly contentHash: string;
+  };
+  readonly purpose: "design" | "remediation";
+  readonly parentRunId: string | null;
+  readonly unitSystem: "si" | "us";
+  /** The inputs the person gave, as typed; the others took the version's defaults (see evaluation.inputs). */
+  readonly typed: Readonly<Record<string, string | number>>;
+  readonly identity: RunRecordIdentity;
+  readonly libraries: ReadonlyArray<RunRecordEntry>;
+  /** The order the version's definition lists them in (canonical JSON sorts object keys), for showing them. */
+  readonly order: {
+    readonly inputs: ReadonlyArray<string>;
+    readonly derived: ReadonlyArray<string>;
+    readonly extracts: ReadonlyArray<string>;
+    readonly checks: ReadonlyArray<string>;
+  };
+}
+
+export type RunRecord =
+  | (RunRecordBase & { readonly outcome: "succeeded"; readonly evaluation: Evaluation; readonly analysis: Json })
+  | (RunRecordBase & { readonly outcome: "failed"; readonly failure: RunFailure });
+
+/** A failure as a person reads it: which stage, one sentence, and the engine's or the definition's details. */
+export interface RunFailure {
+  readonly stage: "engine" | "definition";
+  readonly message: string;
+  /** The engine's errors as it gave them (an unstable node names its node and direction), or where in the definition. */
+  readonly details: ReadonlyArray<EngineError | { readonly kind: "definition"; readonly path: string; readonly message: string }>;
+}
+
+/** The failure of an evaluation that got past its inputs, in the record's words. */
+export function runFailureOf(failure: Exclude<EvaluationFailure, { stage: "inputs" }>): RunFailure {
+  if (failure.stage === "definition")
+    return {
+      stage: "definition",
+      message: `The standard could not be evaluated with these inputs: ${failure.message}`,
+      details: [{ kind: "definition", path: failure.path, message: failure.message }],
+    };
+  return {
+    stage: "engine",
+    message: `The frame engine could not analyse the model: ${failure.errors[0]?.message ?? "no reason given"}`,
+    details: failure.errors,
+  };
+}
+
+/** The record's canonical text (RFC 8785): the bytes stored and hashed. Refuses anything JSON cannot hold exactly. */
+export function runRecordText(record: RunRecord): string {
+  const text = canonicalize(record);
+  if (text === undefined) throw new Error("runRecordText: the record has no JSON form");
+  // canonicalize writes NaN and ±Infinity as null; a record must never carry one silently.
+  if (containsNonFinite(record)) throw new Error("runRecordText: the record holds a number that is not finite");
+  return text;
+}
+
+function containsNonFinite(value: unknown): boolean {
+  if (typeof value === "number") return !Number.isFinite(value);
+  if (Array.isArray(value)) return value.some(containsNonFinite);
+  if (value && typeof value === "object") return Object.values(value).some(containsNonFinite);
+  return false;
+}
+
+/** A stored record read back. Checks the format only; the text is what was hashed, so it is trusted as written. */
+export function readRunRecord(text: string): RunRecord {
+  const parsed = JSON.parse(text) as { format?: unknown };
+  if (parsed.format !== RUN_RECORD_FORMAT) throw new Error(`readRunRecord: not a ${RUN_RECORD_FORMAT} record`);
+  return parsed as RunRecord;
+}
+
+/** A record's entries in the definition's order (any the order does not name follow, as stored). */
+export function inOrder<T>(values: Readonly<Record<string, T>>, order: ReadonlyArray<string> | undefined): [string, T][] {
+  const keys = [...(order ?? []).filter((key) => Object.hasOwn(values, key))];
+  for (const key of Object.keys(values)) if (!keys.includes(key)) keys.push(key);
+  return keys.map((key) => [key, values[key]]);
+}
+
+/** The largest utilisation among the checks, or null when there are none. */
+export function maxUtilisationOf(evaluation: Evaluation): number | null {
+  const values = Object.values(evaluation.checks).map((check) => check.utilisation);
+  return values.length > 0 ? Math.max(...values) : null;
+}

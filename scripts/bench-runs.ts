@@ -1,0 +1,222 @@
+/**
+ * npm run bench:runs — what running standards costs on the production server `npm start` serves (start it first),
+ * measured in one run:
+ *   (a) the framework's floor: GET /api/me (signed in, trivial) from 20 concurrent clients, requests/s;
+ *   (b) POST /api/runs of the starting standards (each at its defaults, in turn) from 20 concurrent clients,
+ *       runs/s and latency p50/p95/p99;
+ *   (c) runs offered at a steady 20 per second (open loop), latency p50/p95/p99;
+ *   (d) the server's CPU per run (its process, all threads, from /proc), split into the evaluation (the same
+ *       standards evaluated in this process), the framework (CPU per request of (a)) and storage (the rest);
+ * then counts the runs stored against the 2xx answers: every acknowledged run stored, none twice.
+ * Also the run page's server render time. Runs go into a job of their own (BENCH-…), closed afterwards.
+ *
+ *   npm run bench:runs [-- --seconds 10]
+ */
+import { execFileSync } from "node:child_process";
+import fs from "node:fs";
+import { cpus, loadavg } from "node:os";
+import pg from "pg";
+import { databaseUrlFor, portsFor } from "./lib/env.mjs";
+import { DEMO_USERS } from "../db/demo-users";
+import { runStandardTask } from "../lib/evaluation/tasks";
+
+const seconds = Number(process.argv[process.argv.indexOf("--seconds") + 1]) || 10;
+const base = `http://127.0.0.1:${portsFor("start").app}`;
+const CLIENTS = 20;
+
+const percentile = (values: number[], p: number) => {
+  const sorted = [...values].sort((a, b) => a - b);
+  return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? NaN;
+};
+const ms = (value: number) => `${value.toFixed(1)} ms`;
+
+function serverPid(): number {
+  const out = execFileSync("ss", ["-ltnpH", `sport = :${portsFor("start").app}`], { encoding: "utf8" });
+  const match = /pid=(\d+)/.exec(out);
+  if (!match) throw new Error(`nothing listens on ${base}: start the app with \`npm start\` first`);
+  return Number(match[1]);
+}
+
+/** CPU seconds the process has used, all its threads (utime + stime). */
+function cpuSeconds(pid: number): number {
+  const fields = fs.readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1].split(" ");
+  const ticks = Number(execFileSync("getconf", ["CLK_TCK"], { encoding: "utf8" }).trim());
+  return (Number(fields[11]) + Number(fields[12])) / ticks;
+}
+
+async function signIn(): Promise<string> {
+  const engineer = DEMO_USERS.find((u) => u.role === "engineer")!;
+  const response = await fetch(`${base}/api/auth/sign-in/email`, {
+    method: "POST",
+    headers: { "content-type": "application/json", origin: base },
+    body: JSON.stringify({ email: engineer.email, password: engineer.password }),
+  });
+  if (!response.ok) throw new Error(`signing in as ${engineer.email} failed: ${response.status}`);
+  return response.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .join("; ");
+}
+
+/** `clients` loops each sending requests until the time is up; the latency of each answer and its status. */
+async function closedLoop(clients: number, durationS: number, send: (k: number) => Promise<Response>) {
+  const results: { ms: number; status: number; body: unknown }[] = [];
+  const end = performance.now() + durationS * 1000;
+  let k = 0;
+  await Promise.all(
+    Array.from({ length: clients }, async () => {
+      while (performance.now() < end) {
+        const t = performance.now();
+        const response = await send(k++);
+        const body = await response.json().catch(() => null);
+        results.push({ ms: performance.now() - t, status: response.status, body });
+      }
+    }),
+  );
+  return results;
+}
+
+/** Requests started at a steady rate whatever the answers do; the latency of each. */
+async function openLoop(rate: number, durationS: number, send: (k: number) => Promise<Response>) {
+  const results: { ms: number; status: number; body: unknown }[] = [];
+  const pending: Promise<void>[] = [];
+  const start = performance.now();
+  for (let k = 0; k < rate * durationS; k++) {
+    const due = start + (k * 1000) / rate;
+    const wait = due - performance.now();
+    if (wait > 0) await new Promise((resolve) => setTimeout(resolve, wait));
+    const t = performance.now();
+    pending.push(
+      send(k).then(async (response) => {
+        const body = await response.json().catch(() => null);
+        results.push({ ms: performance.now() - t, status: response.status, body });
+      }),
+    );
+  }
+  await Promise.all(pending);
+  return results;
+}
+
+async function main() {
+  const pid = serverPid();
+  const cookie = await signIn();
+  const db = new pg.Client({ connectionString: databaseUrlFor("start", "app") });
+  await db.connect();
+  const versions = (
+    await db.query<{ id: string; slug: string; source: string }>(
+      `select distinct on (s.slug) v.id, s.slug, v.source
+         from standard_versions v join standards s on s.id = v.standard_id
+        where not exists (select 1 from standard_version_events e where e.version_id = v.id and e.kind = 'withdrawn')
+        order by s.slug, v.number desc`,
+    )
+  ).rows;
+  const usesLibraries = (source: string) => /quantity:\s*(section|material)\b/.test(source);
+  const mix = versions.filter((v) => !usesLibraries(v.source));
+  const { rows: people } = await db.query<{ id: string }>(`select id from "user" where email = $1`, [
+    DEMO_USERS.find((u) => u.role === "engineer")!.email,
+  ]);
+  const jobNumber = `BENCH-${Date.now().toString(36).toUpperCase()}`;
+  const {
+    rows: [job],
+  } = await db.query<{ id: string }>(
+    `insert into jobs (job_number, name, responsible_engineer_id, created_by_id) values ($1, 'Benchmark runs (npm run bench:runs)', $2, $2) returning id`,
+    [jobNumber, people[0].id],
+  );
+  const headers = { cookie, origin: base, "content-type": "application/json" };
+  const postRun = (k: number) =>
+    fetch(`${base}/api/runs`, {
+      method: "POST",
+      headers,
+      body: JSON.stringify({ jobId: job.id, versionId: mix[k % mix.length].id, inputs: {} }),
+    });
+
+  console.log(`bench:runs against ${base} (server pid ${pid}), ${cpus().length} cores, load ${loadavg()[0].toFixed(2)}`);
+  console.log(`standards in the mix (at their defaults): ${mix.map((v) => v.slug).join(", ")}`);
+  // Warm-up: the pool's workers start and compile each standard once.
+  for (let k = 0; k < mix.length * 2; k++) await (await postRun(k)).json();
+
+  // (a) the framework's floor.
+  let cpu = cpuSeconds(pid);
+  const floor = await closedLoop(CLIENTS, seconds, () => fetch(`${base}/api/me`, { headers: { cookie } }));
+  const floorCpuMs = ((cpuSeconds(pid) - cpu) * 1000) / floor.length;
+  console.log(
+    `(a) GET /api/me, ${CLIENTS} clients: ${(floor.length / seconds).toFixed(0)} requests/s, p50 ${ms(
+      percentile(
+        floor.map((r) => r.ms),
+        50,
+      ),
+    )}, server CPU ${floorCpuMs.toFixed(2)} ms/request`,
+  );
+
+  // (b) closed loop of runs.
+  cpu = cpuSeconds(pid);
+  const closed = await closedLoop(CLIENTS, seconds, postRun);
+  const closedCpuMs = ((cpuSeconds(pid) - cpu) * 1000) / closed.length;
+  const lat = closed.map((r) => r.ms);
+  console.log(
+    `(b) POST /api/runs, ${CLIENTS} clients: ${(closed.length / seconds).toFixed(1)} runs/s, p50 ${ms(percentile(lat, 50))}, p95 ${ms(percentile(lat, 95))}, p99 ${ms(percentile(lat, 99))}; statuses ${JSON.stringify(countBy(closed.map((r) => r.status)))}`,
+  );
+
+  // (c) open loop at 20 runs/s.
+  const open = await openLoop(20, seconds, postRun);
+  const openLat = open.map((r) => r.ms);
+  console.log(
+    `(c) 20 runs/s offered (open loop): p50 ${ms(percentile(openLat, 50))}, p95 ${ms(percentile(openLat, 95))}, p99 ${ms(percentile(openLat, 99))}; statuses ${JSON.stringify(countBy(open.map((r) => r.status)))}`,
+  );
+
+  // (d) the CPU per run, split.
+  const evaluationMs = mix.map((v) => {
+    runStandardTask(v.source, {}, {});
+    const t = process.cpuUsage();
+    const n = 20;
+    for (let i = 0; i < n; i++) runStandardTask(v.source, {}, {});
+    const used = process.cpuUsage(t);
+    return (used.user + used.system) / 1000 / n;
+  });
+  const evaluation = evaluationMs.reduce((a, b) => a + b, 0) / evaluationMs.length;
+  const storage = closedCpuMs - evaluation - floorCpuMs;
+  console.log(
+    `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${evaluation.toFixed(2)} ms (${mix.map((v, i) => `${v.slug} ${evaluationMs[i].toFixed(2)}`).join(", ")}), framework ${floorCpuMs.toFixed(2)} ms, storage and the run's own handling ${storage.toFixed(2)} ms`,
+  );
+
+  // Every acknowledged run stored, none twice.
+  const acknowledged = [...closed, ...open]
+    .filter((r) => r.status === 201)
+    .map((r) => (r.body as { data: { id: string } }).data.id);
+  const { rows } = await db.query<{ id: string }>(`select id from runs where job_id = $1`, [job.id]);
+  const stored = new Set(rows.map((r) => r.id));
+  const missing = acknowledged.filter((id) => !stored.has(id));
+  console.log(
+    `stored: ${rows.length} runs in ${jobNumber} (${mix.length * 2} warm-up); acknowledged ${acknowledged.length}, of which missing ${missing.length}, duplicated ${acknowledged.length - new Set(acknowledged).size}`,
+  );
+  const { rows: sizes } = await db.query<{ slug: string; bytes: number }>(
+    `select s.slug, max(r.record_bytes) as bytes from runs r join standard_versions v on v.id = r.version_id
+       join standards s on s.id = v.standard_id where r.job_id = $1 group by s.slug order by s.slug`,
+    [job.id],
+  );
+  console.log(`record size per standard: ${sizes.map((s) => `${s.slug} ${(s.bytes / 1024).toFixed(1)} KiB`).join(", ")}`);
+
+  // The run page's server render time.
+  const runId = acknowledged[0];
+  const renders: number[] = [];
+  for (let i = 0; i < 20; i++) {
+    const t = performance.now();
+    const response = await fetch(`${base}/runs/${runId}`, { headers: { cookie } });
+    await response.text();
+    renders.push(performance.now() - t);
+  }
+  console.log(
+    `run page /runs/{id}: p50 ${ms(percentile(renders, 50))}, p95 ${ms(percentile(renders, 95))} (server render and transfer)`,
+  );
+
+  await db.query(`update jobs set status = 'closed' where id = $1`, [job.id]);
+  await db.end();
+}
+
+function countBy(values: number[]): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const v of values) out[v] = (out[v] ?? 0) + 1;
+  return out;
+}
+
+await main();

@@ -1,0 +1,75 @@
+// An engineer's day in Chromium: open a job, run the fixed-end beam, watch the live preview follow the typing
+// (computed by the evaluation bundle in a Web Worker), run it, and read the stored run: pass or fail, each check's
+// utilisation, the moment diagram. The results page passes axe. The preview's figures are the frame engine's:
+// a fixed-end beam under uniform load has end moments wL²/12 (AISC Steel Construction Manual, 15th ed.,
+// Table 3-23, case 15, from memory).
+import AxeBuilder from "@axe-core/playwright";
+import type { Page } from "playwright-core";
+import { afterAll, expect, it } from "vitest";
+import { useBrowser } from "../support/browser";
+import { appUrl } from "../support/env";
+import { demoSession, journeyTimeout, sessionPages } from "../support/pages";
+
+const pages = sessionPages(useBrowser());
+afterAll(() => pages.closeAll());
+const pageAs = pages.open;
+
+const utilisationOf = (page: Page, check: string) =>
+  page.locator(`[data-testid=preview-check][data-name=${check}]`).getAttribute("data-utilisation");
+
+it(
+  "an engineer runs the fixed-end beam in a job, the preview follows the typing, and the stored run shows its checks and diagrams",
+  async () => {
+    const page = await pageAs(await demoSession("engineer"));
+    const refused: string[] = [];
+    page.on("console", (message) => {
+      if (message.type() === "error") refused.push(message.text());
+    });
+
+    await page.goto(appUrl("/jobs/MF-2304"));
+    await page.locator("[data-testid=run-standard-link][data-slug=fixed-end-beam]").click();
+    await page.waitForURL(/\/jobs\/MF-2304\/run\/fixed-end-beam$/);
+
+    // The form is there before the worker: the preview says it is loading, then shows the defaults' result.
+    await page.getByTestId("field-L").waitFor();
+    const preview = page.getByTestId("run-preview");
+    await expect.poll(() => preview.getAttribute("data-status"), { timeout: 30_000 }).toBe("ready");
+    const atDefaults = await utilisationOf(page, "bending");
+
+    // A longer span in feet: the field shows it in metres, and the preview's bending utilisation grows with L².
+    await page.getByTestId("field-L").fill("29.5276 ft");
+    await expect.poll(() => page.getByText("= 9 m").count(), { timeout: 10_000 }).toBe(1);
+    await expect.poll(() => utilisationOf(page, "bending"), { timeout: 15_000 }).not.toBe(atDefaults);
+    const at9 = Number(await utilisationOf(page, "bending"));
+    expect(at9).toBeGreaterThan(Number(atDefaults));
+
+    // A wrong dimension is refused beside its field before anything is sent.
+    await page.getByTestId("field-w_D").fill("8 kN");
+    await page.getByTestId("run-submit").click();
+    await expect
+      .poll(() => page.getByRole("alert").allTextContents(), { timeout: 10_000 })
+      .toContainEqual(expect.stringMatching(/^Dead load: /));
+    expect(page.url()).toMatch(/\/run\/fixed-end-beam$/);
+    await page.getByTestId("field-w_D").fill("8 kN/m");
+
+    await page.getByTestId("run-submit").click();
+    await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/, { timeout: 30_000 });
+    expect(await page.getByTestId("caution").count()).toBe(2);
+    expect(await page.getByTestId("run-result").textContent()).toMatch(/^(Every check passes|A check fails)$/);
+    const bending = page.locator("[data-testid=run-checks] [data-testid=check][data-name=bending]");
+    expect(await bending.getByTestId("utilisation-bar").getAttribute("data-utilisation")).toBe(at9.toFixed(2));
+    expect(await page.locator("[data-testid=member-diagram-svg][data-quantity=M]").count()).toBeGreaterThan(0);
+    expect(await page.getByTestId("run-input").filter({ hasText: "29.5276 ft" }).count()).toBe(1);
+    expect(await page.getByTestId("run-sha256").textContent()).toMatch(/^sha256:[0-9a-f]{64} \(/);
+
+    const { violations } = await new AxeBuilder({ page: page as never }).analyze();
+    const serious = violations.filter((v) => v.impact === "serious" || v.impact === "critical");
+    expect(serious.map((v) => ({ rule: v.id, targets: v.nodes.map((node) => node.target.join(" ")) }))).toEqual([]);
+
+    // The job lists the run.
+    await page.goto(appUrl("/jobs/MF-2304"));
+    expect(await page.getByTestId("run-row").count()).toBeGreaterThan(0);
+    expect(refused.filter((text) => /Content Security Policy|Refused to/.test(text))).toEqual([]);
+  },
+  journeyTimeout(0, 120_000),
+);

@@ -4,3 +4,4 @@ export * from "./firm";
 export * from "./standards";
 export * from "./libraries";
 export * from "./jobs";
+export * from "./calcs";

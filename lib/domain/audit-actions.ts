@@ -86,6 +86,12 @@ export type AuditDetails = {
     sha256: string;
     purpose: "design" | "remediation";
   };
+  // The calc package. `calc` is the calc's number (C-012); `letter` the revision.
+  "calcs.create": { jobNumber: string; number: string; title: string };
+  "calcs.revision.prepare": { jobNumber: string; calc: string; letter: string; runId: string; checkerName: string };
+  "calcs.revision.check": { calc: string; letter: string; decision: "approve" | "return" };
+  /** reason: why a failing run, or one on a version no longer current, was approved. */
+  "calcs.revision.approve": { calc: string; letter: string; reason: string | null };
 };
 
 export type AuditAction = keyof AuditDetails;
@@ -131,6 +137,10 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "jobs.create": "Created a job",
   "jobs.update": "Changed a job",
   "runs.create": "Ran a standard",
+  "calcs.create": "Numbered a calc",
+  "calcs.revision.prepare": "Issued a calc revision for checking",
+  "calcs.revision.check": "Checked a calc revision",
+  "calcs.revision.approve": "Approved a calc revision",
 };
 
 export function isAuditAction(value: string): value is AuditAction {

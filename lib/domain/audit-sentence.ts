@@ -266,6 +266,25 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
         ` ran ${text(d.slug) ?? "a standard"} version ${count(d.number) ?? "?"} in job ${text(d.jobNumber) ?? "?"}${d.purpose === "remediation" ? " (a remediation re-run)" : ""}: ${result}`,
       ];
     }
+    case "calcs.create":
+      return [actor, ` numbered calc ${text(d.number) ?? "?"} in job ${text(d.jobNumber) ?? "?"}: ${text(d.title) ?? ""}`];
+    case "calcs.revision.prepare":
+      return [
+        actor,
+        ` issued ${text(d.calc) ?? "a calc"} rev ${text(d.letter) ?? "?"} for checking${text(d.checkerName) ? ` by ${text(d.checkerName)}` : ""}`,
+      ];
+    case "calcs.revision.check":
+      return [
+        actor,
+        d.decision === "return"
+          ? ` returned ${text(d.calc) ?? "a calc"} rev ${text(d.letter) ?? "?"} with comments`
+          : ` checked ${text(d.calc) ?? "a calc"} rev ${text(d.letter) ?? "?"}`,
+      ];
+    case "calcs.revision.approve":
+      return [
+        actor,
+        ` approved ${text(d.calc) ?? "a calc"} rev ${text(d.letter) ?? "?"}${text(d.reason) ? `, because ${text(d.reason)}` : ""}`,
+      ];
     default:
       // A kind this version has no sentence for (a newer or retired one): who, and its label.
       return [actor, `: ${auditActionLabel(event.action)}`];

@@ -32,6 +32,7 @@ export const ACTIONS = [
   "runs.create",
   "runs.sign-prepared",
   "runs.sign-checked",
+  "runs.sign-approved",
   "files.attach",
   // audit
   "audit.read",
@@ -58,6 +59,7 @@ const ENGINEER: readonly Action[] = [
   "runs.create",
   "runs.sign-prepared",
   "runs.sign-checked",
+  "runs.sign-approved",
   "files.attach",
 ];
 

@@ -407,6 +407,11 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/jobs/actions.ts#createJobAction": runnersAction(),
   "app/(app)/jobs/actions.ts#updateJobAction": runnersAction(),
   "app/(app)/jobs/actions.ts#createRunAction": runnersAction(),
+  // The calc package's sign-off: engineers and leads; each step then only by its own person.
+  "app/(app)/runs/actions.ts#createCalcAction": runnersAction(),
+  "app/(app)/runs/actions.ts#prepareRevisionAction": runnersAction(),
+  "app/(app)/runs/actions.ts#checkRevisionAction": runnersAction(),
+  "app/(app)/runs/actions.ts#approveRevisionAction": runnersAction(),
 };
 
 // ---- what the build contains -----------------------------------------------------------------

@@ -1,6 +1,7 @@
 // An engineer's day in Chromium: open a job, run the fixed-end beam, watch the live preview follow the typing
 // (computed by the evaluation bundle in a Web Worker), run it, and read the stored run: pass or fail, each check's
-// utilisation, the moment diagram. The results page passes axe. The preview's figures are the frame engine's:
+// utilisation, the moment diagram. The results page passes axe. Then the run is issued as revision A of a calc,
+// a second engineer (the demo reviewer, a lead) checks it, and the job's responsible engineer approves it. The preview's figures are the frame engine's:
 // a fixed-end beam under uniform load has end moments wL²/12 (AISC Steel Construction Manual, 15th ed.,
 // Table 3-23, case 15, from memory).
 import AxeBuilder from "@axe-core/playwright";
@@ -8,7 +9,8 @@ import type { Page } from "playwright-core";
 import { afterAll, expect, it } from "vitest";
 import { useBrowser } from "../support/browser";
 import { appUrl } from "../support/env";
-import { demoSession, journeyTimeout, sessionPages } from "../support/pages";
+import { DEMO_USERS } from "@/db/demo-users";
+import { demoSession, journeyTimeout, sessionPages, signInOverHttp } from "../support/pages";
 
 const pages = sessionPages(useBrowser());
 afterAll(() => pages.closeAll());
@@ -66,10 +68,38 @@ it(
     const serious = violations.filter((v) => v.impact === "serious" || v.impact === "critical");
     expect(serious.map((v) => ({ rule: v.id, targets: v.nodes.map((node) => node.target.join(" ")) }))).toEqual([]);
 
-    // The job lists the run.
+    // Issue it: number a calc, then issue the run as its revision A for the demo reviewer to check.
+    const runUrl = page.url();
+    const calcNumber = `C-${Date.now().toString(36).slice(-4).toUpperCase()}`;
+    await page.getByTestId("calc-number").fill(calcNumber);
+    await page.getByTestId("calc-title").fill("Floor beam, grid 3");
+    await page.getByTestId("calc-submit").click();
+    await page.getByTestId("issue-form").waitFor({ timeout: 15_000 });
+    const reviewer = DEMO_USERS.find((user) => user.email.startsWith("reviewer@"))!;
+    await page.getByTestId("issue-checker").selectOption({ label: reviewer.name });
+    await page.getByTestId("issue-submit").click();
+    expect(await page.getByTestId("issued").textContent({ timeout: 15_000 })).toBe(
+      `Issued as ${calcNumber} rev A, for ${reviewer.name} to check.`,
+    );
+
+    // The checker checks it; the job's responsible engineer (the demo lead) approves it.
+    const checker = await pageAs(await signInOverHttp(reviewer.email, reviewer.password));
+    await checker.goto(runUrl);
+    await checker.getByTestId("check-approve").click();
+    await checker.getByText("Recorded.").waitFor({ timeout: 15_000 });
+    const responsible = await pageAs(await demoSession("lead"));
+    await responsible.goto(runUrl);
+    await responsible.getByTestId("approve-submit").click();
+    await responsible.getByText("Approved.").waitFor({ timeout: 15_000 });
+    await responsible.reload();
+    expect(await responsible.getByTestId("calc-revision").getAttribute("data-state")).toBe("approved");
+    expect(await responsible.getByTestId("calc-revision-steps").locator("li").count()).toBe(3);
+
+    // The job lists the run and the calc, approved.
     await page.goto(appUrl("/jobs/MF-2304"));
     expect(await page.getByTestId("run-row").count()).toBeGreaterThan(0);
+    expect(await page.locator(`[data-testid=calc-row][data-number=${calcNumber}]`).textContent()).toMatch(/rev A/);
     expect(refused.filter((text) => /Content Security Policy|Refused to/.test(text))).toEqual([]);
   },
-  journeyTimeout(0, 120_000),
+  journeyTimeout(2, 150_000),
 );

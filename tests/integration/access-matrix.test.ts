@@ -137,6 +137,12 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/jobs/actions.ts#createJobAction": RUNNERS,
   "app/(app)/jobs/actions.ts#updateJobAction": RUNNERS,
   "app/(app)/jobs/actions.ts#createRunAction": RUNNERS,
+  // The calc package's sign-off: engineers and leads, each step then only by its own person (the fixtures check
+  // that a caller who is not that person is told who is).
+  "app/(app)/runs/actions.ts#createCalcAction": RUNNERS,
+  "app/(app)/runs/actions.ts#prepareRevisionAction": RUNNERS,
+  "app/(app)/runs/actions.ts#checkRevisionAction": RUNNERS,
+  "app/(app)/runs/actions.ts#approveRevisionAction": RUNNERS,
 };
 
 type ManifestEntry = { workers: Record<string, unknown>; filename?: string; exportedName?: string };

@@ -65,6 +65,8 @@ const EXPECTED: Record<Action, Record<Role, boolean>> = {
   "runs.sign-prepared": { admin: N, lead: Y, engineer: Y, auditor: N },
   // engineer: "check the revisions assigned to them"; lead: as an engineer.
   "runs.sign-checked": { admin: N, lead: Y, engineer: Y, auditor: N },
+  // engineer: "approve as a job's responsible engineer"; lead: as an engineer.
+  "runs.sign-approved": { admin: N, lead: Y, engineer: Y, auditor: N },
   // engineer: "attach files"; lead: as an engineer.
   "files.attach": { admin: N, lead: Y, engineer: Y, auditor: N },
   // auditor: "read everything"; admin: sees the trail of the account changes and sign-ins they answer for (people page, home).
@@ -93,6 +95,7 @@ const WRITES: readonly Action[] = [
   "runs.create",
   "runs.sign-prepared",
   "runs.sign-checked",
+  "runs.sign-approved",
   "files.attach",
 ];
 

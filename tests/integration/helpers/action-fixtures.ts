@@ -12,6 +12,7 @@ import { approveAndPublish, createStandard, readDraft, submitDraft } from "@/lib
 import { createJob } from "@/lib/use-cases/jobs";
 import { createRun } from "@/lib/use-cases/runs";
 import { getStandardBySlug, listVersionsOf } from "@/lib/data/standards";
+import { checkRevision, createCalc, prepareRevision } from "@/lib/use-cases/calcs";
 
 let jobCounter = 0;
 /** A job number no other test uses. */
@@ -47,6 +48,22 @@ export async function matrixRun() {
     input: { jobId: job.jobId, versionId, inputs: { L: "5 m" }, unitSystem: "si" },
   });
   return { ...job, versionId, run };
+}
+
+/** A run and a calc made for the call, the run issued as revision A (checked first when asked). */
+async function matrixRevision({ checked }: { checked: boolean }) {
+  const { run, engineer, lead, jobId } = await matrixRun();
+  const { calcId } = await runUseCase(createCalc, { actor: engineer, input: { jobId, number: "C-001", title: "Matrix calc" } });
+  const { revisionId } = await runUseCase(prepareRevision, {
+    actor: engineer,
+    input: { calcId, runId: run.id, checkerId: lead.id, issueStatus: "for-approval" },
+  });
+  if (checked) await runUseCase(checkRevision, { actor: lead, input: { revisionId, decision: "approve" } });
+  return { revisionId, calcId, run, engineer, lead, jobId };
+}
+
+async function revisionEvents(revisionId: string) {
+  return db.select().from(schema.calcRevisionEvents).where(eq(schema.calcRevisionEvents.revisionId, revisionId));
 }
 
 async function runRows(jobId: string) {
@@ -403,6 +420,65 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
         expect(answer).toEqual({ redirect: `/runs/${row.id}` });
         expect(row).toMatchObject({ versionId, outcome: "succeeded", pass: true });
         expect(JSON.parse(row.record).typed).toEqual({ L: "7 m", w_L: "12 kN/m" });
+      },
+    };
+  },
+  // Sign-off steps belong to one person each (who ran the run, the assigned checker, the job's responsible
+  // engineer): a caller whose role may take the step, but who is not that person, is told who is.
+  "app/(app)/runs/actions.ts#createCalcAction": async () => {
+    const { jobId } = await matrixJob();
+    return {
+      input: { jobId, number: "C-100", title: "Matrix calc" },
+      succeeded: async (answer) => {
+        expect(answer).toMatchObject({ state: { ok: true, data: { number: "C-100", title: "Matrix calc" } } });
+        const rows = await db.select().from(schema.calcs).where(eq(schema.calcs.jobId, jobId));
+        expect(rows.map((r) => [r.number, r.title])).toEqual([["C-100", "Matrix calc"]]);
+      },
+    };
+  },
+  "app/(app)/runs/actions.ts#prepareRevisionAction": async () => {
+    const { run, engineer, lead, jobId } = await matrixRun();
+    const { calcId } = await runUseCase(createCalc, { actor: engineer, input: { jobId, number: "C-002", title: "Matrix calc" } });
+    return {
+      input: { calcId, runId: run.id, checkerId: lead.id, issueStatus: "preliminary" },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({
+          state: {
+            ok: false,
+            error: { code: "forbidden", message: `Only ${engineer.name}, who ran it, may issue this run as a revision.` },
+          },
+        });
+        expect(await db.select().from(schema.calcRevisions).where(eq(schema.calcRevisions.calcId, calcId))).toEqual([]);
+      },
+    };
+  },
+  "app/(app)/runs/actions.ts#checkRevisionAction": async () => {
+    const { revisionId, lead } = await matrixRevision({ checked: false });
+    return {
+      input: { revisionId, decision: "approve" },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({
+          state: {
+            ok: false,
+            error: { code: "forbidden", message: `Only the assigned checker, ${lead.name}, checks this revision.` },
+          },
+        });
+        expect((await revisionEvents(revisionId)).map((e) => e.kind)).toEqual(["prepared"]);
+      },
+    };
+  },
+  "app/(app)/runs/actions.ts#approveRevisionAction": async () => {
+    const { revisionId, lead } = await matrixRevision({ checked: true });
+    return {
+      input: { revisionId },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({
+          state: {
+            ok: false,
+            error: { code: "forbidden", message: `Only the job's responsible engineer, ${lead.name}, approves its calcs.` },
+          },
+        });
+        expect((await revisionEvents(revisionId)).map((e) => e.kind)).toEqual(["prepared", "checked"]);
       },
     };
   },

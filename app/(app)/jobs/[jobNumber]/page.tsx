@@ -6,6 +6,9 @@ import { runUseCase } from "@/lib/use-cases/run";
 import { readJob } from "@/lib/use-cases/jobs";
 import { readRuns } from "@/lib/use-cases/runs";
 import { listStandards } from "@/lib/use-cases/standards";
+import { readCalcPackage } from "@/lib/use-cases/calcs";
+import { ISSUE_STATUS_LABELS, type IssueStatusId } from "@/lib/domain/schemas/calcs";
+import { TableFrame } from "@/components/ui/table";
 import { PageHeader } from "@/components/ui/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { buttonClasses } from "@/components/ui/button";
@@ -25,6 +28,7 @@ export default async function JobPage({ params }: PageProps<"/jobs/[jobNumber]">
   const standards = runs_ ? (await runUseCase(listStandards, { actor, input: {} })).standards : [];
   const runnable = standards.filter((item) => item.current.status !== "withdrawn");
   const base = `/jobs/${encodeURIComponent(job.jobNumber)}`;
+  const calcs = await runUseCase(readCalcPackage, { actor, input: { jobId: job.id } });
 
   return (
     <>
@@ -84,6 +88,60 @@ export default async function JobPage({ params }: PageProps<"/jobs/[jobNumber]">
           )}
         </section>
       ) : null}
+
+      <section aria-labelledby="calcs-heading" className="mt-10">
+        <h2 id="calcs-heading" className="mb-3 text-lg font-semibold text-ink-900">
+          Calc package
+        </h2>
+        {calcs.length === 0 ? (
+          <p className="text-sm text-ink-700">
+            No calcs yet. A calc is numbered and issued from the page of the run that is its design of record.
+          </p>
+        ) : (
+          <TableFrame
+            testId="calc-package"
+            label="Calc package"
+            headings={["Calc", "Current revision", "Issue status", "Prepared", "Checked", "Approved"]}
+          >
+            {calcs.map((calc) => {
+              const current = calc.revisions.at(-1);
+              const by = (kind: string) => current?.events.find((e) => e.kind === kind)?.actorName ?? "—";
+              return (
+                <tr key={calc.id} data-testid="calc-row" data-number={calc.number}>
+                  <td className="px-4 py-3">
+                    <span className="font-mono text-sm font-medium">{calc.number}</span>
+                    <span className="block text-xs text-ink-500">{calc.title}</span>
+                  </td>
+                  <td className="px-4 py-3">
+                    {current ? (
+                      <Link href={`/runs/${current.runId}`} className="text-plate-700 hover:underline">
+                        rev {current.letter}
+                      </Link>
+                    ) : (
+                      "—"
+                    )}
+                  </td>
+                  <td className="px-4 py-3 text-ink-700">
+                    {current?.issueStatus ? ISSUE_STATUS_LABELS[current.issueStatus as IssueStatusId] : "—"}
+                    {current && current.state !== "approved" ? (
+                      <span className="block text-xs text-ink-500">
+                        {current.state === "returned"
+                          ? "returned"
+                          : current.state === "awaiting-check"
+                            ? "being checked"
+                            : "awaiting approval"}
+                      </span>
+                    ) : null}
+                  </td>
+                  <td className="px-4 py-3 text-ink-700">{by("prepared")}</td>
+                  <td className="px-4 py-3 text-ink-700">{by("checked")}</td>
+                  <td className="px-4 py-3 text-ink-700">{by("approved")}</td>
+                </tr>
+              );
+            })}
+          </TableFrame>
+        )}
+      </section>
 
       <section aria-labelledby="runs-heading" className="mt-10">
         <h2 id="runs-heading" className="mb-3 text-lg font-semibold text-ink-900">

@@ -4,6 +4,9 @@ import { requirePageActor } from "@/lib/auth/session";
 import { can } from "@/lib/domain/permissions";
 import { runUseCase } from "@/lib/use-cases/run";
 import { readRun } from "@/lib/use-cases/runs";
+import { readJob, readJobPeople } from "@/lib/use-cases/jobs";
+import { readCalcPackage, readRunSignOff } from "@/lib/use-cases/calcs";
+import { Section } from "@/components/ui/section";
 import { readRunRecord } from "@/lib/standards/run-record";
 import { PageHeader } from "@/components/ui/page-header";
 import { buttonClasses } from "@/components/ui/button";
@@ -12,6 +15,7 @@ import { LocalTime } from "@/components/local-time";
 import { RunResults } from "@/components/runs/run-results";
 import { orNotFound } from "../../_components/or-not-found";
 import { RunOutcomeBadge } from "../_components/run-outcome";
+import { ApproveForm, CheckForm, IssueForm, RevisionSteps } from "../_components/sign-off";
 
 export const metadata: Metadata = { title: "Run" };
 
@@ -23,6 +27,12 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
   const under = (await searchParams).under;
   const jobHref = `/jobs/${encodeURIComponent(run.jobNumber)}`;
   const rerun = can(actor.role, "runs.create") ? `${jobHref}/run/${run.slug}?from=${run.id}` : null;
+  const job = await runUseCase(readJob, { actor, input: { jobNumber: run.jobNumber } });
+  const revisions = await runUseCase(readRunSignOff, { actor, input: { id: run.id } });
+  const mayIssue = run.createdById === actor.id && run.outcome === "succeeded" && can(actor.role, "runs.sign-prepared");
+  const calcs = mayIssue ? await runUseCase(readCalcPackage, { actor, input: { jobId: run.jobId } }) : [];
+  const people = mayIssue ? (await runUseCase(readJobPeople, { actor, input: {} })).filter((p) => p.id !== actor.id) : [];
+  const open = revisions.some((r) => r.state === "awaiting-check" || r.state === "awaiting-approval");
 
   return (
     <>
@@ -102,6 +112,27 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
           sha256:{run.recordSha256} ({run.recordBytes.toLocaleString("en")} bytes)
         </dd>
       </dl>
+      <Section title="Sign-off" id="sign-off-heading">
+        <div className="space-y-4" data-testid="sign-off">
+          {revisions.length === 0 ? (
+            <p className="text-sm text-ink-700">
+              Not issued as a calc revision yet. Re-running creates runs, not revisions, until one is issued.
+            </p>
+          ) : null}
+          {revisions.map((revision) => (
+            <div key={revision.id}>
+              <RevisionSteps revision={revision} />
+              {revision.state === "awaiting-check" && revision.checkerId === actor.id ? (
+                <CheckForm revisionId={revision.id} />
+              ) : null}
+              {revision.state === "awaiting-approval" && job.responsibleEngineerId === actor.id ? (
+                <ApproveForm revisionId={revision.id} needsReason={run.pass === false ? "its run fails a check" : null} />
+              ) : null}
+            </div>
+          ))}
+          {mayIssue && !open ? <IssueForm jobId={run.jobId} runId={run.id} calcs={calcs} people={people} /> : null}
+        </div>
+      </Section>
       <RunResults
         record={record}
         under={typeof under === "string" ? under : undefined}

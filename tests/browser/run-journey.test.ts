@@ -78,9 +78,11 @@ it(
     const reviewer = DEMO_USERS.find((user) => user.email.startsWith("reviewer@"))!;
     await page.getByTestId("issue-checker").selectOption({ label: reviewer.name });
     await page.getByTestId("issue-submit").click();
-    expect(await page.getByTestId("issued").textContent({ timeout: 15_000 })).toBe(
-      `Issued as ${calcNumber} rev A, for ${reviewer.name} to check.`,
-    );
+    // The page refreshes into the sign-off: revision A, waiting for its check.
+    const issued = page.locator("[data-testid=calc-revision][data-state=awaiting-check]");
+    await issued.waitFor({ timeout: 15_000 });
+    expect(await issued.textContent()).toContain(`${calcNumber} rev A · Floor beam, grid 3`);
+    expect(await issued.textContent()).toContain(`Checker: ${reviewer.name}.`);
 
     // The checker checks it; the job's responsible engineer (the demo lead) approves it.
     const checker = await pageAs(await signInOverHttp(reviewer.email, reviewer.password));

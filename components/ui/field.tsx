@@ -1,4 +1,4 @@
-import { forwardRef, useId, type InputHTMLAttributes, type SelectHTMLAttributes } from "react";
+import { forwardRef, useId, type InputHTMLAttributes, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
 
 // Labelled inputs with the error in plain words beneath, tied to the control by aria-describedby.
 type FieldShellProps = { label: string; error?: string; hint?: string; errorTestId?: string };
@@ -74,6 +74,20 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HT
             {children}
           </select>
         )}
+      />
+    );
+  },
+);
+
+/** Several lines of text: a pasted file, a JSON entry. */
+export const TextAreaField = forwardRef<HTMLTextAreaElement, TextareaHTMLAttributes<HTMLTextAreaElement> & FieldShellProps>(
+  function TextAreaField({ label, error, hint, errorTestId, id, className, ...rest }, ref) {
+    const autoId = useId();
+    return (
+      <FieldShell
+        id={id ?? autoId}
+        {...{ label, error, hint, errorTestId, className }}
+        render={(aria) => <textarea {...rest} {...aria} className={`${aria.className} font-mono`} ref={ref} />}
       />
     );
   },

@@ -63,6 +63,14 @@ const LEADS_ONLY: Record<Who, Expected> = {
   engineer: "forbidden",
   auditor: "forbidden",
 };
+// Admins and standards leads maintain the firm's libraries (product.md), four eyes between any two of them.
+const LIBRARY_EDITORS: Record<Who, Expected> = {
+  anonymous: "unauthenticated",
+  admin: "allowed",
+  lead: "allowed",
+  engineer: "forbidden",
+  auditor: "forbidden",
+};
 /** Those who read the firm's standards: everyone signed in but the admin, whose work is people. */
 const LIBRARY_READERS: Record<Who, Expected> = {
   anonymous: "unauthenticated",
@@ -122,6 +130,15 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/standards/actions.ts#returnDraftAction": LEADS_ONLY,
   "app/(app)/standards/actions.ts#approveAndPublishAction": LEADS_ONLY,
   "app/(app)/standards/actions.ts#withdrawVersionAction": LEADS_ONLY,
+  "app/(app)/libraries/actions.ts#createLibraryAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#startLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#saveLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#submitLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#discardLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#returnLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#approveAndPublishLibraryAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#withdrawLibraryVersionAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#withdrawLibraryEntryAction": LIBRARY_EDITORS,
 };
 
 type ManifestEntry = { workers: Record<string, unknown>; filename?: string; exportedName?: string };

@@ -34,6 +34,8 @@ const NO_SKELETON: Record<string, string> = {
   "libraries/[slug]/versions/[number]": "404 for a version that does not exist",
   "libraries/[slug]/versions/[number]/entry": "404 for an entry that does not exist",
   "libraries/[slug]/diff": "404 for versions that do not exist",
+  "libraries/new": "403 for roles that do not maintain the libraries",
+  "libraries/drafts/[draftId]": "403 for roles that do not maintain the libraries, 404 for a draft that does not exist",
   // Nothing to wait for: the builder works in the browser.
   "libraries/builder": "nothing loads on the server but the access check",
 };

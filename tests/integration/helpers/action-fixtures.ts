@@ -9,6 +9,7 @@ import { WRONG_CURRENT_PASSWORD_MESSAGE } from "@/lib/domain/schemas/profile";
 import { auditEventsFor, createTestUser, inviteWithToken, sessionCount, signInHeaders, uniqueEmail } from "./people";
 import { runUseCase } from "@/lib/use-cases/run";
 import { approveAndPublish, createStandard, readDraft, submitDraft } from "@/lib/use-cases/standards";
+import { LIBRARY_ACTION_FIXTURES } from "./library-action-fixtures";
 
 let standardCounter = 0;
 const matrixSlug = () => `matrix-${Date.now().toString(36)}-${(standardCounter++).toString(36)}`;
@@ -321,4 +322,5 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
       },
     };
   },
+  ...LIBRARY_ACTION_FIXTURES,
 };

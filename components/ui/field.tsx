@@ -79,19 +79,22 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HT
   },
 );
 
-/** Several lines of text: a pasted file, a JSON entry. */
-export const TextAreaField = forwardRef<HTMLTextAreaElement, TextareaHTMLAttributes<HTMLTextAreaElement> & FieldShellProps>(
-  function TextAreaField({ label, error, hint, errorTestId, id, className, ...rest }, ref) {
-    const autoId = useId();
-    return (
-      <FieldShell
-        id={id ?? autoId}
-        {...{ label, error, hint, errorTestId, className }}
-        render={(aria) => <textarea {...rest} {...aria} className={`${aria.className} font-mono`} ref={ref} />}
-      />
-    );
-  },
-);
+/** Several lines of text: a description; `monospace` for a pasted file or a JSON entry. */
+export const TextAreaField = forwardRef<
+  HTMLTextAreaElement,
+  TextareaHTMLAttributes<HTMLTextAreaElement> & FieldShellProps & { monospace?: boolean }
+>(function TextAreaField({ label, error, hint, errorTestId, id, className, monospace, ...rest }, ref) {
+  const autoId = useId();
+  return (
+    <FieldShell
+      id={id ?? autoId}
+      {...{ label, error, hint, errorTestId, className }}
+      render={(aria) => (
+        <textarea {...rest} {...aria} className={monospace ? `${aria.className} font-mono` : aria.className} ref={ref} />
+      )}
+    />
+  );
+});
 
 /** The e-mail input of the sign-in, password and invitation forms. */
 export const EmailField = forwardRef<

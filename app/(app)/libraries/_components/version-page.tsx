@@ -33,7 +33,7 @@ export function LibraryVersionPage({
         actions={
           <>
             {maintain ? <StartLibraryDraftButton versionId={version.id} number={version.number} /> : null}
-            <Link href="/libraries" className="text-sm font-medium text-plate-800 hover:underline">
+            <Link href="/libraries" className="self-center text-sm font-medium text-plate-800 hover:underline">
               All libraries
             </Link>
           </>

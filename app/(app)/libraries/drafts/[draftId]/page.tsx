@@ -7,6 +7,7 @@ import { readLibraryDraft, readLibraryVersion } from "@/lib/use-cases/library-re
 import { DraftHeader } from "@/components/drafts/draft-header";
 import { Notice } from "@/components/ui/notice";
 import { EntryDiff } from "@/components/libraries/entry-diff";
+import { diffLibraryDocuments } from "@/components/libraries/entry-changes";
 import { orNotFound } from "../../../_components/or-not-found";
 import { LibraryDraftEditor } from "./_components/library-draft-editor";
 import { LibraryReviewPanel } from "./_components/library-review-panel";
@@ -45,7 +46,7 @@ export default async function LibraryDraftPage({ params }: PageProps<"/libraries
         state={draft.state}
         reviews={reviews.length}
         actions={
-          <Link href={`/libraries/${draft.slug}`} className="text-sm font-medium text-plate-800 hover:underline">
+          <Link href={`/libraries/${draft.slug}`} className="self-center text-sm font-medium text-plate-800 hover:underline">
             The library
           </Link>
         }
@@ -73,7 +74,7 @@ export default async function LibraryDraftPage({ params }: PageProps<"/libraries
           round={open.round}
           changelog={open.changelog}
           authorName={open.submittedByName}
-          keys={shown.ok ? shown.document.entries.map((entry) => entry.key) : []}
+          keys={shown.ok ? keysChangedFirst(before, shown.document) : []}
           publishable={
             shown.ok
               ? null
@@ -106,4 +107,11 @@ export default async function LibraryDraftPage({ params }: PageProps<"/libraries
       <LibraryReviewHistory reviews={reviews} />
     </>
   );
+}
+
+/** The submission's keys for the reviewer's comments: those added or changed first, as the difference lists them. */
+function keysChangedFirst(before: LibraryDocument | null, after: LibraryDocument): string[] {
+  const diff = diffLibraryDocuments(before, after);
+  const first = [...diff.added.map((entry) => entry.key), ...diff.changed.map((entry) => entry.key)];
+  return [...first, ...after.entries.map((entry) => entry.key).filter((key) => !first.includes(key))];
 }

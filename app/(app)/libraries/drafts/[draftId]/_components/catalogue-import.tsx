@@ -71,6 +71,7 @@ export function CatalogueImport({
           rows={6}
           value={text}
           spellCheck={false}
+          monospace
           onChange={(event) => {
             setText(event.target.value);
             setFileName("");

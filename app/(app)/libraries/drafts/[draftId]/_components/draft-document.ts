@@ -30,18 +30,29 @@ export function readDraftDocument(stored: unknown, kind: LibraryKind): DraftDocu
 
 export type EntryProblems = { general: LibraryProblem[]; byEntry: Map<number, LibraryProblem[]> };
 
-/** The document's problems: those of one entry by its position, and those of the whole. */
+const entryIndex = (problem: LibraryProblem): number | null => {
+  const [head, index] = problem.path.split(".");
+  return head === "entries" && /^\d+$/.test(index ?? "") ? Number(index) : null;
+};
+
+/**
+ * The document's problems: those of one entry by its position, and those of the whole. The check names the form's
+ * problems before the builder's, so while only the library's own are wrong (a title too short) its entries are
+ * checked again under a stand-in title, and their problems named too.
+ */
 export function problemsOf(document: DraftDocument): EntryProblems {
   const checked = checkLibraryDocument(document);
-  const general: LibraryProblem[] = [];
   const byEntry = new Map<number, LibraryProblem[]>();
-  if (checked.ok) return { general, byEntry };
-  for (const problem of checked.problems) {
-    const [head, index] = problem.path.split(".");
-    if (head === "entries" && /^\d+$/.test(index ?? "")) {
-      const at = Number(index);
-      byEntry.set(at, [...(byEntry.get(at) ?? []), problem]);
-    } else general.push(problem);
+  if (checked.ok) return { general: [], byEntry };
+  const general = checked.problems.filter((problem) => entryIndex(problem) === null);
+  let inEntries = checked.problems.filter((problem) => entryIndex(problem) !== null);
+  if (inEntries.length === 0) {
+    const again = checkLibraryDocument({ kind: document.kind, title: "Untitled library", entries: document.entries });
+    inEntries = again.ok ? [] : again.problems.filter((problem) => entryIndex(problem) !== null);
+  }
+  for (const problem of inEntries) {
+    const at = entryIndex(problem)!;
+    byEntry.set(at, [...(byEntry.get(at) ?? []), problem]);
   }
   return { general, byEntry };
 }

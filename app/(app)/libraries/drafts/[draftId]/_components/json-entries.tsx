@@ -93,6 +93,7 @@ export function JsonEntries({
               value={text}
               rows={Math.min(24, Math.max(6, text.split("\n").length))}
               spellCheck={false}
+              monospace
               onChange={(event) => onChange(index, event.target.value)}
               error={notJson ? "This is not JSON yet: check the quotes, commas and braces." : undefined}
               data-testid="draft-entry-json"

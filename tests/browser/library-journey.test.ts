@@ -1,8 +1,8 @@
 // The libraries' lifecycle in Chromium, as two standards leads live it: the first starts a new draft of the Firm
 // sections library from its current version, builds a section in the section builder and adds it, saves and
 // submits it, and is told that they cannot review it themselves; the second reads the difference (the section
-// added), approves and publishes it, and the new version lists the section, drawn with its properties. The draft
-// page itself passes axe.
+// added), approves and publishes it, and the new version lists the section, drawn with its properties; then
+// withdraws that section alone, with a reason. The draft page itself passes axe.
 import AxeBuilder from "@axe-core/playwright";
 import type { BrowserContext, Page } from "playwright-core";
 import { afterAll, expect, it } from "vitest";
@@ -103,6 +103,13 @@ it(
     expect(await second.locator("h1").textContent()).toBe(designation);
     expect(await second.getByTestId("entry-hash").textContent()).toMatch(/^[0-9a-f]{64}$/);
     expect(await second.getByTestId("section-properties").count()).toBeGreaterThan(0);
+
+    // A wrong value found later: the second lead withdraws the section alone, with the reason, from its page.
+    await second.getByTestId("withdraw-entry-reason").fill("tf is 9.2 mm on the mill's sheet, not 9 mm.");
+    await second.getByTestId("withdraw-entry-submit").click();
+    const withdrawn = second.getByTestId("entry-withdrawn");
+    await withdrawn.waitFor();
+    expect(await withdrawn.textContent()).toContain("tf is 9.2 mm on the mill's sheet, not 9 mm.");
   },
   journeyTimeout(2, 120_000),
 );

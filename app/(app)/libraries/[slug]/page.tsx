@@ -15,7 +15,9 @@ export default async function LibraryPage({ params }: PageProps<"/libraries/[slu
   const actor = await requirePageActor("libraries.read", { next: `/libraries/${encodeURIComponent(slug)}` });
   const library = await orNotFound(() => runUseCase(readLibrary, { actor, input: { slug } }));
   const current = library.versions.find((version) => version.status !== "withdrawn") ?? library.versions[0];
-  const maintain = can(actor.role, "libraries.write-draft") ? { drafts: library.drafts } : null;
+  const maintain = can(actor.role, "libraries.write-draft")
+    ? { drafts: library.drafts, withdraw: can(actor.role, "libraries.withdraw") }
+    : null;
   if (!current)
     return (
       <>

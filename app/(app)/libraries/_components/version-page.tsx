@@ -20,8 +20,8 @@ export function LibraryVersionPage({
 }: {
   version: LibraryVersionView;
   history: LibraryVersionSummaryDto[];
-  /** For those who maintain the libraries: the library's open drafts. */
-  maintain: { drafts: LibraryDraftDto[] } | null;
+  /** For those who maintain the libraries: the library's open drafts, and whether they may withdraw. */
+  maintain: { drafts: LibraryDraftDto[]; withdraw: boolean } | null;
 }) {
   const withdrawal = version.events.findLast((event) => event.kind === "withdrawn" && event.entryKey === null);
   const usable = version.status === "withdrawn" ? [] : version.entryRows.filter((row) => row.withdrawn === null);
@@ -100,7 +100,7 @@ export function LibraryVersionPage({
           })}
         </TableFrame>
       </section>
-      {maintain && usable.length > 0 ? (
+      {maintain?.withdraw && usable.length > 0 ? (
         <section className="mt-10 space-y-4" aria-labelledby="library-withdraw" data-testid="library-withdraw">
           <h2 id="library-withdraw" className="text-base font-semibold text-ink-900">
             Withdraw

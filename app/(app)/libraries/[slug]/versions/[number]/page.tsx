@@ -20,6 +20,8 @@ export default async function LibraryVersionRoute({ params }: PageProps<"/librar
       runUseCase(readLibraryVersion, { actor, input: { slug, number } }),
     ]),
   );
-  const maintain = can(actor.role, "libraries.write-draft") ? { drafts: library.drafts } : null;
+  const maintain = can(actor.role, "libraries.write-draft")
+    ? { drafts: library.drafts, withdraw: can(actor.role, "libraries.withdraw") }
+    : null;
   return <LibraryVersionPage version={version} history={library.versions} maintain={maintain} />;
 }

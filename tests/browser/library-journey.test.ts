@@ -4,26 +4,15 @@
 // added), approves and publishes it, and the new version lists the section, drawn with its properties; then
 // withdraws that section alone, with a reason. The draft page itself passes axe.
 import AxeBuilder from "@axe-core/playwright";
-import type { BrowserContext, Page } from "playwright-core";
-import { afterAll, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { expect, it } from "vitest";
 import { DEMO_USERS } from "@/db/demo-users";
-import { useBrowser } from "../support/browser";
+import { useBrowser, usePagesAs } from "../support/browser";
 import { appUrl } from "../support/env";
-import { demoSession, journeyTimeout, signInOverHttp, toBrowserCookies } from "../support/pages";
+import { demoSession, journeyTimeout, signInOverHttp } from "../support/pages";
 
 const browser = useBrowser();
-const contexts: BrowserContext[] = [];
-
-afterAll(async () => {
-  for (const context of contexts) await context.close();
-});
-
-async function pageAs(cookie: string): Promise<Page> {
-  const context = await browser().newContext({ viewport: { width: 1280, height: 900 } });
-  contexts.push(context);
-  await context.addCookies(toBrowserCookies(cookie));
-  return context.newPage();
-}
+const pageAs = usePagesAs(browser);
 
 async function seriousViolations(page: Page) {
   const { violations } = await new AxeBuilder({ page: page as never }).analyze();

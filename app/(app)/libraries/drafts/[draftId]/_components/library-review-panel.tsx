@@ -41,7 +41,7 @@ export function LibraryReviewPanel({
         Review submission {round} by {authorName}
       </h2>
       <p className="text-ink-700">
-        Changelog: “{changelog}”. Read the changes below; comment on an entry, or on the whole submission, then return it or
+        Changelog: “{changelog}” — read the changes below, comment on an entry, or on the whole submission, then return it or
         approve and publish it.
       </p>
       <div className="flex flex-wrap items-end gap-3">

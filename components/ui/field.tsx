@@ -1,4 +1,4 @@
-import { forwardRef, useId, type InputHTMLAttributes, type SelectHTMLAttributes } from "react";
+import { forwardRef, useId, type InputHTMLAttributes, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
 
 // Labelled inputs with the error in plain words beneath, tied to the control by aria-describedby.
 type FieldShellProps = { label: string; error?: string; hint?: string; errorTestId?: string };
@@ -78,6 +78,23 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HT
     );
   },
 );
+
+/** Several lines of text: a description; `monospace` for a pasted file or a JSON entry. */
+export const TextAreaField = forwardRef<
+  HTMLTextAreaElement,
+  TextareaHTMLAttributes<HTMLTextAreaElement> & FieldShellProps & { monospace?: boolean }
+>(function TextAreaField({ label, error, hint, errorTestId, id, className, monospace, ...rest }, ref) {
+  const autoId = useId();
+  return (
+    <FieldShell
+      id={id ?? autoId}
+      {...{ label, error, hint, errorTestId, className }}
+      render={(aria) => (
+        <textarea {...rest} {...aria} className={monospace ? `${aria.className} font-mono` : aria.className} ref={ref} />
+      )}
+    />
+  );
+});
 
 /** The e-mail input of the sign-in, password and invitation forms. */
 export const EmailField = forwardRef<

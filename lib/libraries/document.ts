@@ -19,7 +19,7 @@
 import canonicalize from "canonicalize";
 import { z } from "@/lib/domain/zod";
 import { normaliseEntryKey } from "@/lib/standards/library-inputs";
-import { LISTED_PROPERTY_UNITS, type ListedProperty } from "./catalogue";
+import { LISTED_PROPERTY_UNITS, type CatalogueRow, type ListedProperty } from "./catalogue";
 import { buildSection, type Section } from "./sections";
 import { SECTION_SHAPES } from "./section-schema";
 
@@ -78,6 +78,20 @@ const sectionEntrySchema = z
   })
   .strict();
 export type SectionEntryInput = z.input<typeof sectionEntrySchema>;
+
+/** The rows a catalogue import built, as a document's entries: each row's dimensions and listed values, and where it came from. */
+export function catalogueSectionEntries(rows: readonly CatalogueRow[], file: string): SectionEntryInput[] {
+  return rows.map(({ row, designation, section, listed }) => {
+    const { shape: _shape, ...dimensions } = section.dimensions as Record<string, unknown>;
+    return {
+      key: designation,
+      origin: { from: "catalogue", file, row },
+      shape: section.shape,
+      dimensions: dimensions as Record<string, number>,
+      listed,
+    };
+  });
+}
 
 /** A section entry as kept: the builder's properties from its dimensions, and those a run uses. */
 export type SectionEntry = Omit<z.output<typeof sectionEntrySchema>, "dimensions"> & {

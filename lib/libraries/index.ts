@@ -18,6 +18,7 @@ export type {
 export { parseCsv } from "./csv";
 export { buildDemoCatalogue, DEMO_CATALOGUE_MAPPING, DEMO_SECTIONS, renderDemoCatalogueCsv } from "./demo-catalogue";
 export {
+  catalogueSectionEntries,
   checkLibraryDocument,
   findEntry,
   LIBRARY_KIND_NAMES,

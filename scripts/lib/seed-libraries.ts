@@ -7,7 +7,7 @@ import { count, eq } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as schema from "@/db/schema";
 import { DEMO_USERS } from "@/db/demo-users";
-import { DEMO_CATALOGUE_MAPPING, importCatalogue, renderDemoCatalogueCsv } from "@/lib/libraries";
+import { catalogueSectionEntries, DEMO_CATALOGUE_MAPPING, importCatalogue, renderDemoCatalogueCsv } from "@/lib/libraries";
 import { checkLibraryDraftDocument, type LibraryCheck } from "@/lib/use-cases/library-check";
 import { startingLibraries } from "./starting-libraries";
 
@@ -24,16 +24,7 @@ export function demoSectionsDocument(): unknown {
     kind: "sections",
     title: "Firm sections",
     description: "The firm's section catalogue (invented demo designations), imported from its CSV table.",
-    entries: imported.rows.map(({ row, designation, section, listed }) => {
-      const { shape: _shape, ...dimensions } = section.dimensions;
-      return {
-        key: designation,
-        origin: { from: "catalogue", file: DEMO_CATALOGUE_FILE, row },
-        shape: section.shape,
-        dimensions,
-        listed,
-      };
-    }),
+    entries: catalogueSectionEntries(imported.rows, DEMO_CATALOGUE_FILE),
   };
 }
 

@@ -108,15 +108,21 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     title: "Section",
     expect: signedInPage("admin", "lead", "engineer", "auditor"),
   },
-  // Each starting library has one version: a difference to version 2 is a 404 for those who may read it.
+  // No library reaches version 999: a difference to it is a 404 for those who may read it.
   "/(app)/libraries/[slug]/diff/page": {
-    path: "/libraries/firm-sections/diff?from=1&to=2",
+    path: "/libraries/firm-sections/diff?from=1&to=999",
     expect: { ...signedInPage(), admin: "not-found", lead: "not-found", engineer: "not-found", auditor: "not-found" },
   },
   "/(app)/libraries/builder/page": {
     path: "/libraries/builder",
     title: "Section builder",
     expect: signedInPage("admin", "lead", "engineer", "auditor"),
+  },
+  // Admins and leads maintain the libraries; an address that names no draft is a 404 for them.
+  "/(app)/libraries/new/page": { path: "/libraries/new", title: "New library", expect: signedInPage("admin", "lead") },
+  "/(app)/libraries/drafts/[draftId]/page": {
+    path: "/libraries/drafts/not-a-real-draft",
+    expect: { ...signedInPage(), admin: "not-found", lead: "not-found" },
   },
   "/(app)/jobs/(list)/page": { path: "/jobs", title: "Jobs", expect: signedInPage("lead", "engineer", "auditor") },
   "/(app)/runs/(list)/page": { path: "/runs", title: "Runs", expect: signedInPage("lead", "engineer", "auditor") },
@@ -372,6 +378,16 @@ function runnersAction<T extends string = ActionOutcome>(): Record<Who, T> {
   ) as Record<Who, T>;
 }
 
+/** The firm's libraries are maintained by admins and leads. */
+function libraryEditorsAction(): Record<Who, ActionOutcome> {
+  return Object.fromEntries(
+    EVERYONE.map((who) => [
+      who,
+      who === "anonymous" ? "unauthenticated" : who === "admin" || who === "lead" ? "ok" : "forbidden",
+    ]),
+  ) as Record<Who, ActionOutcome>;
+}
+
 function leadsOnlyAction(): Record<Who, ActionOutcome> {
   return Object.fromEntries(
     EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "lead" ? "ok" : "forbidden"]),
@@ -412,6 +428,16 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/runs/actions.ts#prepareRevisionAction": runnersAction(),
   "app/(app)/runs/actions.ts#checkRevisionAction": runnersAction(),
   "app/(app)/runs/actions.ts#approveRevisionAction": runnersAction(),
+  // Admins and standards leads maintain the firm's libraries, four eyes between any two of them.
+  "app/(app)/libraries/actions.ts#createLibraryAction": libraryEditorsAction(),
+  "app/(app)/libraries/actions.ts#startLibraryDraftAction": libraryEditorsAction(),
+  "app/(app)/libraries/actions.ts#saveLibraryDraftAction": libraryEditorsAction(),
+  "app/(app)/libraries/actions.ts#submitLibraryDraftAction": libraryEditorsAction(),
+  "app/(app)/libraries/actions.ts#discardLibraryDraftAction": libraryEditorsAction(),
+  "app/(app)/libraries/actions.ts#returnLibraryDraftAction": libraryEditorsAction(),
+  "app/(app)/libraries/actions.ts#approveAndPublishLibraryAction": libraryEditorsAction(),
+  "app/(app)/libraries/actions.ts#withdrawLibraryVersionAction": libraryEditorsAction(),
+  "app/(app)/libraries/actions.ts#withdrawLibraryEntryAction": libraryEditorsAction(),
 };
 
 // ---- what the build contains -----------------------------------------------------------------
@@ -616,8 +642,10 @@ describe("signing in brings people back", () => {
       "/libraries/firm-sections",
       "/libraries/materials/versions/1",
       "/libraries/firm-sections/versions/1/entry?key=GI+300x150x10.5",
-      "/libraries/firm-sections/diff?from=1&to=2",
+      "/libraries/firm-sections/diff?from=1&to=999",
       "/libraries/builder",
+      "/libraries/new",
+      "/libraries/drafts/not-a-real-draft",
       "/jobs",
       "/runs",
       "/jobs/new",

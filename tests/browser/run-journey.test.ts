@@ -6,15 +6,13 @@
 // Table 3-23, case 15, from memory).
 import AxeBuilder from "@axe-core/playwright";
 import type { Page } from "playwright-core";
-import { afterAll, expect, it } from "vitest";
-import { useBrowser } from "../support/browser";
+import { expect, it } from "vitest";
+import { useBrowser, usePagesAs } from "../support/browser";
 import { appUrl } from "../support/env";
 import { DEMO_USERS } from "@/db/demo-users";
-import { demoSession, journeyTimeout, sessionPages, signInOverHttp } from "../support/pages";
+import { demoSession, journeyTimeout, signInOverHttp } from "../support/pages";
 
-const pages = sessionPages(useBrowser());
-afterAll(() => pages.closeAll());
-const pageAs = pages.open;
+const pageAs = usePagesAs(useBrowser());
 
 const utilisationOf = (page: Page, check: string) =>
   page.locator(`[data-testid=preview-check][data-name=${check}]`).getAttribute("data-utilisation");

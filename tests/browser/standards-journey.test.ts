@@ -3,26 +3,15 @@
 // fixes it and submits again; the second approves it, and it is published as version 1 and listed under
 // Standards with its equations typeset. The editor page itself passes axe.
 import AxeBuilder from "@axe-core/playwright";
-import type { BrowserContext, Page } from "playwright-core";
-import { afterAll, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { expect, it } from "vitest";
 import { DEMO_USERS } from "@/db/demo-users";
-import { useBrowser } from "../support/browser";
+import { useBrowser, usePagesAs } from "../support/browser";
 import { appUrl } from "../support/env";
-import { demoSession, journeyTimeout, signInOverHttp, toBrowserCookies } from "../support/pages";
+import { demoSession, journeyTimeout, signInOverHttp } from "../support/pages";
 
 const browser = useBrowser();
-const contexts: BrowserContext[] = [];
-
-afterAll(async () => {
-  for (const context of contexts) await context.close();
-});
-
-async function pageAs(cookie: string): Promise<Page> {
-  const context = await browser().newContext({ viewport: { width: 1280, height: 900 } });
-  contexts.push(context);
-  await context.addCookies(toBrowserCookies(cookie));
-  return context.newPage();
-}
+const pageAs = usePagesAs(browser);
 
 /** Types at the end of the CodeMirror source (inside its shadow root; Playwright's CSS locators pierce it). */
 async function appendToSource(page: Page, text: string): Promise<void> {

@@ -66,6 +66,14 @@ const LEADS_ONLY: Record<Who, Expected> = {
   engineer: "forbidden",
   auditor: "forbidden",
 };
+// Admins and standards leads maintain the firm's libraries (product.md), four eyes between any two of them.
+const LIBRARY_EDITORS: Record<Who, Expected> = {
+  anonymous: "unauthenticated",
+  admin: "allowed",
+  lead: "allowed",
+  engineer: "forbidden",
+  auditor: "forbidden",
+};
 /** Those who read the firm's standards: everyone signed in but the admin, whose work is people. */
 const LIBRARY_READERS: Record<Who, Expected> = {
   anonymous: "unauthenticated",
@@ -143,6 +151,15 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/runs/actions.ts#prepareRevisionAction": RUNNERS,
   "app/(app)/runs/actions.ts#checkRevisionAction": RUNNERS,
   "app/(app)/runs/actions.ts#approveRevisionAction": RUNNERS,
+  "app/(app)/libraries/actions.ts#createLibraryAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#startLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#saveLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#submitLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#discardLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#returnLibraryDraftAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#approveAndPublishLibraryAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#withdrawLibraryVersionAction": LIBRARY_EDITORS,
+  "app/(app)/libraries/actions.ts#withdrawLibraryEntryAction": LIBRARY_EDITORS,
 };
 
 type ManifestEntry = { workers: Record<string, unknown>; filename?: string; exportedName?: string };

@@ -84,11 +84,11 @@ export const APP_PAGES: AppPage[] = [
     path: "/libraries/firm-sections/versions/1/entry?key=GI+300x150x10.5",
     visitors: ["engineer"],
   },
-  // The starting libraries have one version each: a difference to a version that does not exist is a 404.
+  // A difference to a version that does not exist is a 404 (the library journey publishes firm-sections' version 2).
   {
     name: "a library difference",
     entry: "/(app)/libraries/[slug]/diff/page",
-    path: "/libraries/firm-sections/diff?from=1&to=2",
+    path: "/libraries/firm-sections/diff?from=1&to=999",
     status: 404,
     visitors: ["lead"],
   },
@@ -97,6 +97,15 @@ export const APP_PAGES: AppPage[] = [
     entry: "/(app)/libraries/builder/page",
     path: "/libraries/builder",
     visitors: ["engineer", "admin"],
+  },
+  { name: "new library", entry: "/(app)/libraries/new/page", path: "/libraries/new", visitors: ["admin", "lead"] },
+  // A real library draft is opened by the library journey (tests/browser/library-journey.test.ts), with axe.
+  {
+    name: "a library draft that does not exist",
+    entry: "/(app)/libraries/drafts/[draftId]/page",
+    path: "/libraries/drafts/not-a-real-draft",
+    status: 404,
+    visitors: ["admin"],
   },
   // A real draft is opened by the standards journey (tests/browser/standards-journey.test.ts), with axe.
   {

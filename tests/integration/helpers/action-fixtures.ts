@@ -69,6 +69,7 @@ async function revisionEvents(revisionId: string) {
 async function runRows(jobId: string) {
   return db.select().from(schema.runs).where(eq(schema.runs.jobId, jobId));
 }
+import { LIBRARY_ACTION_FIXTURES } from "./library-action-fixtures";
 
 let standardCounter = 0;
 const matrixSlug = () => `matrix-${Date.now().toString(36)}-${(standardCounter++).toString(36)}`;
@@ -482,4 +483,5 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
       },
     };
   },
+  ...LIBRARY_ACTION_FIXTURES,
 };

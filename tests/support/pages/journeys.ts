@@ -6,22 +6,6 @@ import { InvitationPage } from "./invitation-page";
 import { PeoplePage } from "./people-page";
 import { demoSession, toBrowserCookies } from "./sessions";
 
-/** Desktop-sized pages, each in a context of its own carrying a session cookie; `closeAll` ends every context. */
-export function sessionPages(browser: () => Browser) {
-  const contexts: BrowserContext[] = [];
-  return {
-    open: async (cookie: string): Promise<Page> => {
-      const context = await browser().newContext({ viewport: { width: 1280, height: 900 } });
-      contexts.push(context);
-      await context.addCookies(toBrowserCookies(cookie));
-      return context.newPage();
-    },
-    closeAll: async () => {
-      for (const context of contexts.splice(0)) await context.close();
-    },
-  };
-}
-
 /** A browser context signed in as the demo admin, on the people page. */
 export async function openPeopleAsAdmin(browser: Browser): Promise<{ context: BrowserContext; people: PeoplePage }> {
   const context = await browser.newContext();

@@ -11,6 +11,7 @@ import { TableFrame } from "@/components/ui/table";
 import { buttonClasses } from "@/components/ui/button";
 import { formatDate } from "@/components/format-date";
 import { LibraryStatusBadge } from "../_components/version-status";
+import { OpenDrafts } from "../_components/version-page";
 
 export const metadata: Metadata = { title: "Libraries" };
 
@@ -31,28 +32,19 @@ export default async function LibrariesPage() {
         title="Libraries"
         lead="The firm's sections, materials and load-combination sets. Each is published in numbered versions after a second person's review, and every run records the entries it used with their hashes."
         actions={
-          <Link href="/libraries/builder" className={buttonClasses("secondary")} data-testid="open-section-builder">
-            Section builder
-          </Link>
+          <>
+            <Link href="/libraries/builder" className={buttonClasses("secondary")} data-testid="open-section-builder">
+              Section builder
+            </Link>
+            {edits ? (
+              <Link href="/libraries/new" className={buttonClasses()} data-testid="new-library">
+                New library
+              </Link>
+            ) : null}
+          </>
         }
       />
-      {edits && drafts.length > 0 ? (
-        <section className="mb-8" aria-labelledby="library-drafts">
-          <h2 id="library-drafts" className="mb-2 text-base font-semibold text-ink-900">
-            Drafts
-          </h2>
-          <ul className="space-y-1 text-sm" data-testid="library-drafts">
-            {drafts.map((draft) => (
-              <li key={draft.id} data-testid="library-draft">
-                <span className="font-medium text-ink-900">{draft.slug}</span>{" "}
-                <span className="text-ink-500">
-                  — {draft.state === "in-review" ? "in review" : "being edited"} by {draft.authorName}
-                </span>
-              </li>
-            ))}
-          </ul>
-        </section>
-      ) : null}
+      {edits && drafts.length > 0 ? <OpenDrafts drafts={drafts} /> : null}
       {libraries.length === 0 ? (
         <EmptyState title="No libraries yet">
           {edits

@@ -8,8 +8,7 @@ import { readDraft } from "@/lib/use-cases/standards";
 import { checkDraft } from "@/lib/use-cases/standards";
 import { diffStandards } from "@/lib/standards/diff";
 import { VersionDiff } from "@/components/standards/version-diff";
-import { PageHeader } from "@/components/ui/page-header";
-import { Badge } from "@/components/ui/badge";
+import { DraftHeader } from "@/components/drafts/draft-header";
 import { DraftEditor } from "./_components/draft-editor";
 import { DraftPreview } from "./_components/draft-preview";
 import { ReviewPanel } from "./_components/review-panel";
@@ -38,29 +37,12 @@ export default async function DraftPage({ params }: PageProps<"/standards/drafts
   });
   const editing = draft.state === "editing" && mine;
   const savedPreview = <DraftPreview actor={actor} draftId={draft.id} check={"failure" in check ? null : check} />;
-  const state =
-    draft.state === "in-review"
-      ? "In review"
-      : draft.state === "editing"
-        ? reviews.length > 0
-          ? "Returned for changes"
-          : "Draft"
-        : draft.state;
-
   return (
     <>
-      <PageHeader
-        title={`${draft.slug}: ${mine ? "your draft" : `${draft.authorName}'s draft`}`}
-        lead={
-          <>
-            <Badge tone={draft.state === "in-review" ? "warn" : "neutral"} testId="draft-state">
-              {state}
-            </Badge>{" "}
-            {basedOn ? `Started from v${basedOn.number} (${basedOn.title}).` : "A new standard."} Saved drafts are kept; a draft
-            is submitted once it compiles and its verification cases pass, and a second standards lead reviews it.
-          </>
-        }
-      />
+      <DraftHeader slug={draft.slug} mine={mine} authorName={draft.authorName} state={draft.state} reviews={reviews.length}>
+        {basedOn ? `Started from v${basedOn.number} (${basedOn.title}).` : "A new standard."} Saved drafts are kept; a draft is
+        submitted once it compiles and its verification cases pass, and a second standards lead reviews it.
+      </DraftHeader>
       {editing ? (
         <DraftEditor
           savedPreview={savedPreview}

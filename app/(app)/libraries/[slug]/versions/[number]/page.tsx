@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { requirePageActor } from "@/lib/auth/session";
 import { runUseCase } from "@/lib/use-cases/run";
+import { can } from "@/lib/domain/permissions";
 import { readLibrary, readLibraryVersion } from "@/lib/use-cases/library-reads";
 import { LibraryVersionPage } from "../../../_components/version-page";
 import { orNotFound } from "../../../../_components/or-not-found";
@@ -19,5 +20,8 @@ export default async function LibraryVersionRoute({ params }: PageProps<"/librar
       runUseCase(readLibraryVersion, { actor, input: { slug, number } }),
     ]),
   );
-  return <LibraryVersionPage version={version} history={library.versions} />;
+  const maintain = can(actor.role, "libraries.write-draft")
+    ? { drafts: library.drafts, withdraw: can(actor.role, "libraries.withdraw") }
+    : null;
+  return <LibraryVersionPage version={version} history={library.versions} maintain={maintain} />;
 }

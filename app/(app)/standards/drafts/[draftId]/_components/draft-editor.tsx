@@ -5,13 +5,12 @@
 // preview (previewSourceAction; nothing is stored), and the problems move to their lines in the editor. With
 // no unsaved changes it shows the saved draft's preview, rendered with the page.
 import dynamic from "next/dynamic";
-import { startTransition, useActionState, useEffect, useRef, useState, type ReactNode } from "react";
+import { useActionState, useEffect, useRef, useState, type ReactNode } from "react";
 import type { SourceProblem } from "@/lib/standards/source";
 import type { VerificationResult } from "@/lib/standards/verify";
-import { Button } from "@/components/ui/button";
-import { TextField } from "@/components/ui/field";
 import { FormError, Notice } from "@/components/ui/notice";
-import { actionErrors } from "@/components/action-errors";
+import { DraftSaveBar } from "@/components/drafts/draft-save-bar";
+import { SubmitForReview } from "@/components/drafts/submit-for-review";
 import { discardDraftAction, previewSourceAction, saveDraftAction, submitDraftAction } from "../../../actions";
 
 /** How long the text must rest before it is checked and previewed. */
@@ -51,7 +50,6 @@ export function DraftEditor({
   const [saveState, save, saving] = useActionState(saveDraftAction, null);
   const [submitState, submit, submitting] = useActionState(submitDraftAction, null);
   const [discardState, discard, discarding] = useActionState(discardDraftAction, null);
-  const [changelog, setChangelog] = useState("");
   // The problems of the last save, else those of the source the page was loaded with.
   const shownProblems = saveState?.ok ? saveState.data.check.problems : problems;
 
@@ -60,7 +58,6 @@ export function DraftEditor({
   // While the text differs from the saved draft, its own problems once checked (none until then).
   const editorProblems = dirty ? (live?.text === text && live.state === "ready" ? live.problems : []) : shownProblems;
   const failing = verification.filter((result) => !result.pass);
-  const submitErrors = actionErrors(submitState, ["changelog"]);
   const ready = !dirty && shownProblems.length === 0 && gate.length === 0 && failing.length === 0 && verification.length > 0;
 
   return (
@@ -75,39 +72,18 @@ export function DraftEditor({
         highlightLines={commentLines}
         ariaLabel="The standard's source: definition and narrative"
       />
-      <div className="flex flex-wrap items-center gap-3">
-        <Button
-          type="button"
-          pending={saving}
-          pendingLabel="Saving…"
-          data-testid="draft-save"
-          onClick={() =>
-            startTransition(() => {
-              save({ draftId, source: text });
-              setSaved(text);
-            })
-          }
-        >
-          Save draft
-        </Button>
-        <span className="text-sm text-ink-500" data-testid="draft-save-state" aria-live="polite">
-          {dirty ? "Unsaved changes" : saveState?.ok ? "Saved" : "No unsaved changes"}
-        </span>
-        <Button
-          type="button"
-          variant="danger"
-          size="sm"
-          pending={discarding}
-          pendingLabel="Discarding…"
-          onClick={() => {
-            if (window.confirm("Discard this draft? It cannot be recovered.")) startTransition(() => discard({ draftId }));
-          }}
-        >
-          Discard draft
-        </Button>
-      </div>
-      {saveState && !saveState.ok ? <FormError message={saveState.error.message} /> : null}
-      {discardState && !discardState.ok ? <FormError message={discardState.error.message} /> : null}
+      <DraftSaveBar
+        save={() => {
+          save({ draftId, source: text });
+          setSaved(text);
+        }}
+        saving={saving}
+        saveState={saveState}
+        dirty={dirty}
+        discard={() => discard({ draftId })}
+        discarding={discarding}
+        discardState={discardState}
+      />
       {!dirty && shownProblems.length > 0 ? (
         <Notice
           tone="fault"
@@ -125,49 +101,23 @@ export function DraftEditor({
         </Notice>
       ) : null}
       {!dirty && gate.length > 0 ? <FormError message={gate.join(" ")} /> : null}
-      <form
-        noValidate
-        className="grid items-end gap-3 rounded-plate bg-paper-raised p-4 ring-1 ring-ink-200 sm:grid-cols-[minmax(0,1fr)_auto]"
-        data-testid="submit-form"
-        onSubmit={(event) => {
-          event.preventDefault();
-          startTransition(() => submit({ draftId, changelog }));
-        }}
-      >
-        <TextField
-          label="What changed (one line for the changelog)"
-          value={changelog}
-          onChange={(event) => setChangelog(event.target.value)}
-          error={submitErrors.field.changelog}
-          data-testid="draft-changelog"
-        />
-        <Button type="submit" pending={submitting} pendingLabel="Submitting…" disabled={!ready} data-testid="draft-submit">
-          Submit for review
-        </Button>
-        {!ready ? (
-          <p className="text-sm text-ink-500 sm:col-span-2">
-            {dirty
+      <SubmitForReview
+        className="rounded-plate bg-paper-raised p-4 ring-1 ring-ink-200"
+        submit={(changelog) => submit({ draftId, changelog })}
+        state={submitState}
+        pending={submitting}
+        blocked={
+          ready
+            ? null
+            : dirty
               ? "Save your changes first: what is submitted is the saved source."
               : verification.length === 0
                 ? "Submitting needs a source that compiles and at least one verification case."
                 : failing.length > 0
                   ? `${failing.length} verification case${failing.length === 1 ? " fails" : "s fail"}; see the preview below.`
-                  : "Fix the problems above first."}
-          </p>
-        ) : null}
-        {submitErrors.form ? (
-          <div className="sm:col-span-2">
-            <FormError message={submitErrors.form} />
-          </div>
-        ) : null}
-        {submitState?.ok ? (
-          <div className="sm:col-span-2">
-            <Notice tone="pass" testId="draft-submitted">
-              Submitted for review.
-            </Notice>
-          </div>
-        ) : null}
-      </form>
+                  : "Fix the problems above first."
+        }
+      />
       {dirty && live ? (
         <section
           aria-labelledby="live-preview-heading"

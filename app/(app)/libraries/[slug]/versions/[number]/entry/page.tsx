@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageActor } from "@/lib/auth/session";
+import { can } from "@/lib/domain/permissions";
 import { findEntry, type LibraryDocument } from "@/lib/libraries";
 import { runUseCase } from "@/lib/use-cases/run";
 import { readLibraryVersion } from "@/lib/use-cases/library-reads";
@@ -11,6 +12,7 @@ import { SectionDrawing } from "@/components/libraries/section-drawing";
 import { SectionProperties } from "@/components/libraries/section-properties";
 import { sectionOfEntry } from "@/components/libraries/format";
 import { orNotFound } from "../../../../../_components/or-not-found";
+import { WithdrawLibraryForm } from "../../../../_components/maintain-library";
 
 export const metadata: Metadata = { title: "Section" };
 
@@ -63,6 +65,14 @@ export default async function LibraryEntryPage({ params, searchParams }: PagePro
           {entry.note ? <p className="mt-2 text-sm text-ink-700">{entry.note}</p> : null}
         </div>
       </div>
+      {!withdrawn && row && can(actor.role, "libraries.withdraw") ? (
+        <section className="mt-10 space-y-3" aria-labelledby="entry-withdraw">
+          <h2 id="entry-withdraw" className="text-base font-semibold text-ink-900">
+            Withdraw {entry.key} from version {version.number}
+          </h2>
+          <WithdrawLibraryForm versionId={version.id} number={version.number} entryKeys={[row.key]} />
+        </section>
+      ) : null}
     </>
   );
 }

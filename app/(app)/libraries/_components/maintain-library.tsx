@@ -1,0 +1,103 @@
+"use client";
+// What an admin or lead does from a published version: start a new draft from it, withdraw it (a reason is
+// required; it stays on record, with every run made with it), or withdraw one entry of it (a wrong value), which
+// leaves the rest of the version in use.
+import { startTransition, useActionState, useState } from "react";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextField } from "@/components/ui/field";
+import { FormError, Notice } from "@/components/ui/notice";
+import { actionErrors } from "@/components/action-errors";
+import { StartDraftButton } from "@/components/drafts/start-draft-button";
+import { startLibraryDraftAction, withdrawLibraryEntryAction, withdrawLibraryVersionAction } from "../actions";
+
+/** Starts a draft holding this version's entries; the draft opens in the editor. */
+export function StartLibraryDraftButton({ versionId, number }: { versionId: string; number: number }) {
+  return (
+    <StartDraftButton
+      action={startLibraryDraftAction}
+      versionId={versionId}
+      label={`Start a new draft from version ${number}`}
+      testId="start-library-draft"
+    />
+  );
+}
+
+/**
+ * Withdraws the version, or one of its entries: chosen from `entryKeys`, or the one `entryKeys` names when it
+ * holds one key only. No new run may use what is withdrawn; the impact report lists the runs that did.
+ */
+export function WithdrawLibraryForm({
+  versionId,
+  number,
+  entryKeys,
+}: {
+  versionId: string;
+  number: number;
+  /** Absent to withdraw the whole version. */
+  entryKeys?: string[];
+}) {
+  const [versionState, withdrawVersion, versionPending] = useActionState(withdrawLibraryVersionAction, null);
+  const [entryState, withdrawEntry, entryPending] = useActionState(withdrawLibraryEntryAction, null);
+  const [reason, setReason] = useState("");
+  const [entryKey, setEntryKey] = useState(entryKeys?.[0] ?? "");
+  const whole = entryKeys === undefined;
+  const state = whole ? versionState : entryState;
+  const server = actionErrors(state, ["reason", "entryKey"]);
+  const testId = whole ? "withdraw-version" : "withdraw-entry";
+  if (versionState?.ok) return <Notice tone="pass">Version {number} is withdrawn.</Notice>;
+  if (entryState?.ok)
+    return (
+      <Notice tone="pass" testId={`${testId}-done`}>
+        {entryState.data.entryKey} is withdrawn from version {number}.
+      </Notice>
+    );
+  return (
+    <form
+      noValidate
+      className="max-w-xl space-y-3"
+      data-testid={`${testId}-form`}
+      onSubmit={(event) => {
+        event.preventDefault();
+        startTransition(() => (whole ? withdrawVersion({ versionId, reason }) : withdrawEntry({ versionId, entryKey, reason })));
+      }}
+    >
+      <p className="text-sm text-ink-700">
+        {whole
+          ? "A withdrawn version can no longer be used in a new run. It stays on record, with every run made with it."
+          : "A withdrawn entry can no longer be used in a new run; the rest of the version stays in use."}
+      </p>
+      <FormError message={server.form} />
+      {entryKeys && entryKeys.length > 1 ? (
+        <SelectField
+          label="Entry to withdraw"
+          value={entryKey}
+          onChange={(event) => setEntryKey(event.target.value)}
+          error={server.field.entryKey}
+          data-testid={`${testId}-key`}
+        >
+          {entryKeys.map((key) => (
+            <option key={key} value={key}>
+              {key}
+            </option>
+          ))}
+        </SelectField>
+      ) : null}
+      <TextField
+        label={whole ? "Why is the version withdrawn?" : "Why is the entry withdrawn (which value is wrong)?"}
+        value={reason}
+        onChange={(event) => setReason(event.target.value)}
+        error={server.field.reason}
+        data-testid={`${testId}-reason`}
+      />
+      <Button
+        type="submit"
+        variant="danger"
+        pending={whole ? versionPending : entryPending}
+        pendingLabel="Withdrawing…"
+        data-testid={`${testId}-submit`}
+      >
+        {whole ? `Withdraw version ${number}` : entryKeys.length === 1 ? `Withdraw ${entryKey}` : "Withdraw the entry"}
+      </Button>
+    </form>
+  );
+}

@@ -86,13 +86,13 @@ it(
     const checker = await pageAs(await signInOverHttp(reviewer.email, reviewer.password));
     await checker.goto(runUrl);
     await checker.getByTestId("check-approve").click();
-    await checker.getByText("Recorded.").waitFor({ timeout: 15_000 });
+    // The page refreshes: the revision now waits for approval, and the checker's form is gone.
+    await checker.locator("[data-testid=calc-revision][data-state=awaiting-approval]").waitFor({ timeout: 15_000 });
+    expect(await checker.getByTestId("check-form").count()).toBe(0);
     const responsible = await pageAs(await demoSession("lead"));
     await responsible.goto(runUrl);
     await responsible.getByTestId("approve-submit").click();
-    await responsible.getByText("Approved.").waitFor({ timeout: 15_000 });
-    await responsible.reload();
-    expect(await responsible.getByTestId("calc-revision").getAttribute("data-state")).toBe("approved");
+    await responsible.locator("[data-testid=calc-revision][data-state=approved]").waitFor({ timeout: 15_000 });
     expect(await responsible.getByTestId("calc-revision-steps").locator("li").count()).toBe(3);
 
     // The job lists the run and the calc, approved.

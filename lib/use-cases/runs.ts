@@ -33,6 +33,7 @@ import {
   type RunDto,
   type RunSummaryDto,
 } from "@/lib/data/runs";
+import { getFirmName } from "@/lib/data/firm";
 import { libraryEntriesFor } from "./library-resolution";
 import { defineUseCase } from "./use-case";
 
@@ -270,6 +271,35 @@ export const readRun = defineUseCase({
     const run = await getRun(id);
     if (!run) throw new AppError("not-found", "There is no run with that id.");
     return run;
+  },
+  audit: null,
+});
+
+export type RunSheet = {
+  run: RunView;
+  firmName: string;
+  /** The version's definition and narrative, for the sheet's scope, limitations and worked narrative. */
+  definition: Definition | null;
+  narrative: string;
+};
+
+/** What a run's calc sheet prints: the run, the firm, and its version's definition and narrative. */
+export const readRunSheet = defineUseCase({
+  name: "runs.sheet",
+  permission: "runs.read",
+  input: runRefSchema,
+  run: async ({ id }): Promise<RunSheet> => {
+    const run = await getRun(id);
+    if (!run) throw new AppError("not-found", "There is no run with that id.");
+    const version = (await getVersion({ id: run.versionId }))!;
+    const read = parseSource(version.source);
+    const parsed = read.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
+    return {
+      run,
+      firmName: (await getFirmName()) ?? "",
+      definition: parsed?.success ? parsed.data : null,
+      narrative: read.ok ? read.parsed.narrative : "",
+    };
   },
   audit: null,
 });

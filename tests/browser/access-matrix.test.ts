@@ -139,7 +139,11 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     title: "Run a standard",
     expect: signedInPage("lead", "engineer"),
   },
-  // A run id nothing has: the 404 page for those who read runs.
+  // A run id nothing has: the 404 page for those who read runs (its calc sheet too).
+  "/(sheet)/runs/[id]/sheet/page": {
+    path: "/runs/00000000-0000-4000-8000-000000000000/sheet",
+    expect: { ...signedInPage("lead", "engineer", "auditor"), lead: "not-found", engineer: "not-found", auditor: "not-found" },
+  },
   "/(app)/runs/[id]/page": {
     path: "/runs/00000000-0000-4000-8000-000000000000",
     expect: { ...signedInPage("lead", "engineer", "auditor"), lead: "not-found", engineer: "not-found", auditor: "not-found" },
@@ -652,6 +656,7 @@ describe("signing in brings people back", () => {
       "/jobs/MF-2291",
       "/jobs/MF-2291/edit",
       "/jobs/MF-2291/run/fixed-end-beam",
+      "/runs/00000000-0000-4000-8000-000000000000/sheet",
       "/runs/00000000-0000-4000-8000-000000000000",
       "/audit",
       "/admin/users",

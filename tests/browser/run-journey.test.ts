@@ -95,6 +95,14 @@ it(
     await responsible.locator("[data-testid=calc-revision][data-state=approved]").waitFor({ timeout: 15_000 });
     expect(await responsible.getByTestId("calc-revision-steps").locator("li").count()).toBe(3);
 
+    // The calc sheet repeats the run id, the version and its hash, and carries the sign-off.
+    await responsible.getByTestId("open-sheet").click();
+    await responsible.getByTestId("calc-sheet").waitFor();
+    expect(await responsible.getByTestId("sheet-calc").textContent()).toBe(`Calc ${calcNumber} rev A · Floor beam, grid 3`);
+    expect(await responsible.getByTestId("sheet-run").textContent()).toContain(runUrl.split("/runs/")[1]);
+    expect(await responsible.getByTestId("sheet-sign-off").textContent()).toContain(reviewer.name);
+    expect(await responsible.getByTestId("caution").count()).toBe(2);
+
     // The job lists the run and the calc, approved.
     await page.goto(appUrl("/jobs/MF-2304"));
     expect(await page.getByTestId("run-row").count()).toBeGreaterThan(0);

@@ -129,6 +129,13 @@ export const APP_PAGES: AppPage[] = [
     visitors: ["engineer"],
   },
   {
+    name: "the calc sheet of a run that does not exist",
+    entry: "/(sheet)/runs/[id]/sheet/page",
+    path: "/runs/00000000-0000-4000-8000-000000000000/sheet",
+    status: 404,
+    visitors: ["engineer"],
+  },
+  {
     name: "a run that does not exist",
     entry: "/(app)/runs/[id]/page",
     path: "/runs/00000000-0000-4000-8000-000000000000",

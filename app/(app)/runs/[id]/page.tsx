@@ -40,11 +40,16 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
         title={`${run.title} · ${run.jobNumber}`}
         lead={`Run ${run.id.slice(0, 8)} of version ${run.number}, in job ${run.jobNumber} (${run.jobName}).`}
         actions={
-          rerun ? (
-            <Link href={rerun} className={buttonClasses("secondary")} data-testid="rerun">
-              Re-run with changes
+          <>
+            <Link href={`/runs/${run.id}/sheet`} className={buttonClasses("secondary")} data-testid="open-sheet">
+              Calc sheet
             </Link>
-          ) : null
+            {rerun ? (
+              <Link href={rerun} className={buttonClasses("secondary")} data-testid="rerun">
+                Re-run with changes
+              </Link>
+            ) : null}
+          </>
         }
       />
       <Caution />

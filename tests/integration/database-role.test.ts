@@ -190,6 +190,7 @@ describe("the app's database role", () => {
     expect(sequences).toEqual(
       [
         "audit_events_id_seq",
+        "calc_revision_events_id_seq",
         "library_review_comments_id_seq",
         "library_version_events_id_seq",
         "standard_review_comments_id_seq",

@@ -17,6 +17,8 @@ import { approveAndPublish, createStandard, saveDraft, submitDraft, withdrawVers
 import { createJob, readJob, updateJob } from "@/lib/use-cases/jobs";
 import { createRun, readRun, readRuns } from "@/lib/use-cases/runs";
 import { readRunForm } from "@/lib/use-cases/run-form";
+import { approveAndPublishLibrary, createLibrary, saveLibraryDraft, submitLibraryDraft } from "@/lib/use-cases/libraries";
+import { buildSectionOrThrow } from "@/lib/libraries";
 import { runStandardTask } from "@/lib/evaluation/tasks";
 import { readRunRecord } from "@/lib/standards/run-record";
 import { snapshotRows, expectRowsUnchanged } from "../support/snapshot";
@@ -380,5 +382,101 @@ describe("runs", () => {
     expect(readRunRecord((await runUseCase(readRun, { actor: engineer, input: { id: rerun.id } })).record).parentRunId).toBe(
       first.id,
     );
+  });
+
+  it("on a standard that takes a library section, store the entry used with its hash, and offer the library's sections", async () => {
+    const { lead, reviewer, engineer } = await people();
+    // A sections library of two invented I sections, published by two leads.
+    const library = unique("beams");
+    const I = (key: string, d: number) => ({
+      key,
+      origin: { from: "builder" },
+      shape: "i",
+      dimensions: { d, b: 0.15, tf: 0.012, tw: 0.008, r: 0.012 },
+    });
+    const { draftId } = await runUseCase(createLibrary, {
+      actor: lead,
+      input: { slug: library, kind: "sections", title: "Beams" },
+    });
+    await runUseCase(saveLibraryDraft, {
+      actor: lead,
+      input: { draftId, document: { kind: "sections", title: "Beams", entries: [I("TB 300", 0.3), I("TB 400", 0.4)] } },
+    });
+    const { reviewId } = await runUseCase(submitLibraryDraft, { actor: lead, input: { draftId, changelog: "First." } });
+    await runUseCase(approveAndPublishLibrary, { actor: reviewer, input: { reviewId } });
+    const Ix = buildSectionOrThrow({ shape: "i", d: 0.4, b: 0.15, tf: 0.012, tw: 0.008, r: 0.012 }).properties.Ix;
+
+    const definition = {
+      title: "Beam on a library section",
+      category: "beams",
+      summary: "A test beam.",
+      scope: "Tests only.",
+      inputs: {
+        L: { label: "Span", quantity: "length", unit: "m", default: "6 m" },
+        beam: { label: "Beam section", quantity: "section", library, shapes: ["i"], default: "TB 300" },
+      },
+      model: {
+        nodes: [
+          { id: "A", x: "0 m", y: "0 m", support: "pinned" },
+          { id: "B", x: "L", y: "0 m", support: "roller-x" },
+        ],
+        members: [{ id: "m", start: "A", end: "B", E: "200 GPa", A: "beam_A", I: "beam_Ix", group: "beams" }],
+        load_cases: [{ id: "W", loads: [{ member: "m", direction: "global-y", w: "-10 kN/m" }] }],
+      },
+      extracts: { delta: { max_abs: "relative_deflection", members: "beams", under: "W", unit: "mm" } },
+      verification: [
+        {
+          name: "Deflection of the 400 deep section",
+          inputs: { beam: "TB 400" },
+          expect: { delta: { value: `5 * 10 kN/m * (6 m)^4 / (384 * 200 GPa * ${Ix} m^4)`, tolerance: 1e-6 } },
+          source: "AWC Design Aid No. 6 (2005), Fig. 1: Δmax = 5wL⁴/384EI",
+        },
+      ],
+    };
+    const { versionId, slug } = await publish(`---\n${stringify(definition)}---\n# Beam\n`, lead, reviewer);
+    const job = await newJob(engineer, lead);
+
+    const form = await runUseCase(readRunForm, { actor: engineer, input: { jobNumber: job.number, slug } });
+    expect(form.fields.find((f) => f.key === "beam")).toMatchObject({
+      kind: "entry",
+      library,
+      libraryVersion: 1,
+      options: [
+        { key: "TB 300", type: "i" },
+        { key: "TB 400", type: "i" },
+      ],
+    });
+
+    const run = await runUseCase(createRun, {
+      actor: engineer,
+      input: { jobId: job.jobId, versionId, inputs: { beam: "tb 400" }, unitSystem: "si" },
+    });
+    const [row] = await db.select().from(schema.runs).where(eq(schema.runs.id, run.id));
+    const record = readRunRecord(row.record);
+    const [published] = await pool
+      .query<{ id: string; entry_hash: string }>(
+        `select e.id, e.entry_hash from library_version_entries e join library_versions v on v.id = e.version_id
+         join libraries l on l.id = v.library_id where l.slug = $1 and v.number = 1 and e.normalised_key = 'tb 400'`,
+        [library],
+      )
+      .then((r) => r.rows);
+    expect(record.libraries).toEqual([
+      {
+        input: "beam",
+        library,
+        version: 1,
+        contentHash: expect.stringMatching(/^[0-9a-f]{64}$/),
+        key: "TB 400",
+        entryId: published.id,
+        entryHash: published.entry_hash,
+      },
+    ]);
+    const { rows: used } = await pool.query(`select input_key, entry_id, entry_hash from run_library_entries where run_id = $1`, [
+      run.id,
+    ]);
+    expect(used).toEqual([{ input_key: "beam", entry_id: published.id, entry_hash: published.entry_hash }]);
+    // The value the standard read is the entry's: 5wL⁴/384EI with the 400 deep section's Ix (AWC DA-6, Fig. 1).
+    if (record.outcome !== "succeeded") throw new Error("expected a result");
+    expect(record.evaluation.extracts.delta.si / ((5 * 10e3 * 6 ** 4) / (384 * 200e9 * Ix))).toBeCloseTo(1, 6);
   });
 });

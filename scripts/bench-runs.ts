@@ -110,7 +110,7 @@ async function main() {
         order by s.slug, v.number desc`,
     )
   ).rows;
-  const usesLibraries = (source: string) => /quantity:\s*(section|material)\b/.test(source);
+  const usesLibraries = (source: string) => /quantity:\s*(section|material)\s*[,}\n]/.test(source);
   const mix = versions.filter((v) => !usesLibraries(v.source));
   const { rows: people } = await db.query<{ id: string }>(`select id from "user" where email = $1`, [
     DEMO_USERS.find((u) => u.role === "engineer")!.email,

@@ -11,7 +11,7 @@
 // for the sentence to show. Invitations are not here: they go through our own server actions.
 import { createAuthClient } from "better-auth/react";
 import { inferAdditionalFields } from "better-auth/client/plugins";
-import { ACCOUNT_LOCKED_MESSAGE } from "@/lib/domain/schemas/auth";
+import { ACCOUNT_LOCKED_MESSAGE } from "@/lib/domain/auth-messages";
 import type { Auth } from "./server";
 
 export const authClient = createAuthClient({

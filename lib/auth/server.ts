@@ -21,7 +21,7 @@ import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "@/lib/domain/password-
 import { renderPasswordResetMail } from "@/lib/mail/templates";
 import { enqueueJob } from "@/lib/jobs/enqueue";
 import { serverEnv } from "@/lib/server-env";
-import { ACCOUNT_LOCKED_MESSAGE } from "@/lib/domain/schemas/auth";
+import { ACCOUNT_LOCKED_MESSAGE } from "@/lib/domain/auth-messages";
 import { bodyHasControlCharacters } from "@/lib/domain/schemas/text";
 import { CLIENT_ADDRESS_HEADER, clientAddressFrom } from "./client-address";
 

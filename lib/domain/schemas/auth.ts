@@ -4,9 +4,7 @@ import { z } from "../zod";
 import { newPasswordField } from "../password-policy";
 import { plainText } from "./text";
 
-/** What a locked account's sign-in is told (lib/auth/server.ts ACCOUNT_SIGN_IN_LIMIT), on the server and the page. */
-export const ACCOUNT_LOCKED_MESSAGE =
-  "Too many failed sign-ins for this e-mail address. Wait 15 minutes, or set a new password with “Forgot your password?”.";
+export { ACCOUNT_LOCKED_MESSAGE } from "../auth-messages";
 
 /** The longest e-mail address SMTP can carry (RFC 5321's path limit less the angle brackets). */
 export const EMAIL_MAX_LENGTH = 254;

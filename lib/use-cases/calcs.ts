@@ -104,8 +104,10 @@ export const prepareRevision = defineUseCase({
       throw new AppError("invalid-input", "Choose an active engineer or lead as the checker.", {
         fieldErrors: { checkerId: ["Choose an active engineer or lead."] },
       });
+    // Under the calc's lock, read its revisions again: two issues at once must not both pass this check.
     await lockCalc(calcId);
-    const pending = calc.revisions.find((r) => r.state === "awaiting-check" || r.state === "awaiting-approval");
+    const revisions = (await getCalc(calcId))!.revisions;
+    const pending = revisions.find((r) => r.state === "awaiting-check" || r.state === "awaiting-approval");
     if (pending)
       throw new AppError(
         "conflict",

@@ -5,7 +5,7 @@ import { securityHeaders } from "./lib/domain/security-headers";
 const nextConfig: NextConfig = {
   // The engine and the server talk only over loopback here; keep the build reproducible and quiet.
   poweredByHeader: false,
-  serverExternalPackages: ["pg"],
+  serverExternalPackages: ["pg", "playwright-core"],
   typedRoutes: false,
   // forbidden() renders app/forbidden.tsx with a 403 status.
   experimental: { authInterrupts: true },

@@ -56,6 +56,13 @@ const envSchema = z.object({
   S3_BUCKET: z.string().min(1).optional(),
   S3_ACCESS_KEY_ID: z.string().min(1).optional(),
   S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  /** The Chromium that renders calc sheets to PDF (Debian's package). */
+  CHROMIUM_PATH: z.string().min(1).default("/usr/bin/chromium"),
+  /**
+   * Where the server's own Chromium loads a calc sheet from, when not the app's public address (behind a proxy
+   * that terminates TLS: the app's loopback address, e.g. http://localhost:3000).
+   */
+  GUSSET_RENDER_URL: optionalUrl,
   /** Sign-in attempts per account and client address per minute. */
   GUSSET_SIGN_IN_RATE_LIMIT_MAX: positiveInt(5),
   /** The load balancer's addresses: only from these is X-Forwarded-For believed (read by scripts/serve.mjs). */

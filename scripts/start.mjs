@@ -5,7 +5,7 @@
 import { authSecret, childEnv, gussetEnv, writeEnvLocal } from "./lib/env.mjs";
 import { ensureBuild } from "./lib/build.mjs";
 import { demoSignIns, printSignIns, verifyLiveStandards } from "./lib/database.mjs";
-import { POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
+import { CHROMIUM_PACKAGE, POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
 import { createLifecycle, profileSetup } from "./lib/lifecycle.mjs";
 import { say } from "./lib/processes.mjs";
 import { checkServerPort, startServer } from "./lib/server.mjs";
@@ -15,7 +15,7 @@ const { timer, registry, shutdown, main, isShuttingDown } = createLifecycle();
 
 await main(async () => {
   await timer.phase("npm dependencies", ensureNodeModules);
-  await timer.phase("system packages", () => ensureDebianPackages([POSTGRES_PACKAGE]));
+  await timer.phase("system packages", () => ensureDebianPackages([POSTGRES_PACKAGE, CHROMIUM_PACKAGE]));
 
   const setup = profileSetup("start");
   const { secret, created } = authSecret();

@@ -10,7 +10,7 @@ import os from "node:os";
 import path from "node:path";
 import { authSecret, childEnv, databaseUrlFor, gussetEnv, migrationEnv, portsFor, repoRoot } from "./lib/env.mjs";
 import { buildStaleness, ensureBuild } from "./lib/build.mjs";
-import { CHROMIUM_PACKAGE, POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
+import { CHROMIUM_PACKAGE, POPPLER_PACKAGE, POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
 import { createLifecycle, profileSetup } from "./lib/lifecycle.mjs";
 import { say } from "./lib/processes.mjs";
 import { checkServerPort, runningServerPid, startServer, stopServerByPid } from "./lib/server.mjs";
@@ -36,7 +36,7 @@ function onlyUnitTests(args) {
 async function prepareEverything(env) {
   const setup = profileSetup("test");
   const { ports, layout } = setup;
-  await timer.phase("system packages", () => ensureDebianPackages([POSTGRES_PACKAGE, CHROMIUM_PACKAGE]));
+  await timer.phase("system packages", () => ensureDebianPackages([POSTGRES_PACKAGE, CHROMIUM_PACKAGE, POPPLER_PACKAGE]));
   const stale = await checkServerPort(layout, ports.app); // fail early when a stranger holds the port
   if (stale !== null) {
     say(`stopping a test server left by an earlier run (pid ${stale})`);

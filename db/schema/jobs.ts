@@ -7,6 +7,10 @@
 //                         from it. Append-only: the database refuses UPDATE and DELETE (drizzle/0009, custom part)
 //   run_library_entries   the library entries a run used (a section, a material), one row per input, pointing
 //                         at the published entry row and its hash: what a withdrawal's impact report joins on
+//   job_attachments       files kept on a job or on one of its runs (sketches, site photos, PDFs): stored in S3 by
+//                         their sha256 before the row is written; append-only
+//   calc_sheet_pdfs       each state of a run's calc sheet rendered to PDF by Chromium and stored in S3: a new
+//                         sign-off or a withdrawal banner gives a new row, an old one is kept; append-only
 import { sql } from "drizzle-orm";
 import {
   type AnyPgColumn,
@@ -19,6 +23,7 @@ import {
   primaryKey,
   text,
   timestamp,
+  unique,
   uuid,
 } from "drizzle-orm/pg-core";
 import { user } from "./auth";
@@ -115,3 +120,68 @@ export const runLibraryEntries = pgTable(
   },
   (t) => [primaryKey({ columns: [t.runId, t.inputKey] }), index("run_library_entries_entry_idx").on(t.entryId)],
 );
+
+/** What a job or run takes as an attachment, told by the file's first bytes (never its name). */
+export const JOB_ATTACHMENT_TYPES = ["application/pdf", "image/png", "image/jpeg", "image/webp"] as const;
+export type JobAttachmentType = (typeof JOB_ATTACHMENT_TYPES)[number];
+
+export const jobAttachments = pgTable(
+  "job_attachments",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    jobId: uuid("job_id")
+      .notNull()
+      .references(() => jobs.id),
+    /** Null for a file on the job itself. */
+    runId: uuid("run_id").references(() => runs.id),
+    /** sha256 (hex) of the bytes; the S3 key is jobs/<job id>/attachments/<sha256>. */
+    sha256: text("sha256").notNull(),
+    fileName: text("file_name").notNull(),
+    contentType: text("content_type", { enum: JOB_ATTACHMENT_TYPES }).notNull(),
+    bytes: integer("bytes").notNull(),
+    /** What the file is, in the uploader's words ("site photo, north gable"). */
+    note: text("note"),
+    uploadedById: text("uploaded_by_id")
+      .notNull()
+      .references(() => user.id),
+    uploadedAt: timestamp("uploaded_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    unique("job_attachments_place_sha256_unique").on(t.jobId, t.runId, t.sha256).nullsNotDistinct(),
+    index("job_attachments_run_idx").on(t.runId),
+    check("job_attachments_sha256_check", sql`${t.sha256} ~ '^[0-9a-f]{64}$'`),
+    check("job_attachments_bytes_check", sql`${t.bytes} > 0`),
+    check(
+      "job_attachments_content_type_check",
+      sql`${t.contentType} in ('application/pdf', 'image/png', 'image/jpeg', 'image/webp')`,
+    ),
+  ],
+);
+export type JobAttachment = typeof jobAttachments.$inferSelect;
+
+export const calcSheetPdfs = pgTable(
+  "calc_sheet_pdfs",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    runId: uuid("run_id")
+      .notNull()
+      .references(() => runs.id),
+    /** sha256 of the sheet as Chromium laid it out (its markup): one PDF per state the sheet has shown. */
+    stateSha256: text("state_sha256").notNull(),
+    /** sha256 of the PDF's bytes; the S3 key is runs/<run id>/sheets/<sha256>.pdf. */
+    sha256: text("sha256").notNull(),
+    bytes: integer("bytes").notNull(),
+    pages: integer("pages").notNull(),
+    renderedById: text("rendered_by_id")
+      .notNull()
+      .references(() => user.id),
+    renderedAt: timestamp("rendered_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    unique("calc_sheet_pdfs_run_state_unique").on(t.runId, t.stateSha256),
+    index("calc_sheet_pdfs_run_idx").on(t.runId, t.renderedAt),
+    check("calc_sheet_pdfs_sha256_check", sql`${t.sha256} ~ '^[0-9a-f]{64}$' and ${t.stateSha256} ~ '^[0-9a-f]{64}$'`),
+    check("calc_sheet_pdfs_bytes_check", sql`${t.bytes} > 0 and ${t.pages} > 0`),
+  ],
+);
+export type CalcSheetPdf = typeof calcSheetPdfs.$inferSelect;

@@ -86,6 +86,10 @@ export type AuditDetails = {
     sha256: string;
     purpose: "design" | "remediation";
   };
+  /** A state of a run's calc sheet rendered to PDF and kept (its sha256, and the sheet state's). */
+  "runs.sheet.render": { runId: string; sha256: string; pages: number; stateSha256: string };
+  /** A file kept on a job, or on one of its runs (runId). */
+  "jobs.attachment.add": { jobNumber: string; runId: string | null; sha256: string; fileName: string; bytes: number };
   // The calc package. `calc` is the calc's number (C-012); `letter` the revision.
   "calcs.create": { jobNumber: string; number: string; title: string };
   "calcs.revision.prepare": { jobNumber: string; calc: string; letter: string; runId: string; checkerName: string };
@@ -137,6 +141,8 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "jobs.create": "Created a job",
   "jobs.update": "Changed a job",
   "runs.create": "Ran a standard",
+  "runs.sheet.render": "Kept a calc sheet PDF",
+  "jobs.attachment.add": "Attached a file to a job",
   "calcs.create": "Numbered a calc",
   "calcs.revision.prepare": "Issued a calc revision for checking",
   "calcs.revision.check": "Checked a calc revision",

@@ -266,6 +266,16 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
         ` ran ${text(d.slug) ?? "a standard"} version ${count(d.number) ?? "?"} in job ${text(d.jobNumber) ?? "?"}${d.purpose === "remediation" ? " (a remediation re-run)" : ""}: ${result}`,
       ];
     }
+    case "runs.sheet.render":
+      return [
+        actor,
+        ` kept the calc sheet of run ${text(d.runId) ?? "?"} as a PDF of ${count(d.pages) ?? "?"} page${d.pages === 1 ? "" : "s"} (sha256 ${text(d.sha256)?.slice(0, 12) ?? "?"}…)`,
+      ];
+    case "jobs.attachment.add":
+      return [
+        actor,
+        ` attached ${text(d.fileName) ?? "a file"} to ${text(d.runId) ? `run ${text(d.runId)} in ` : ""}job ${text(d.jobNumber) ?? "?"}`,
+      ];
     case "calcs.create":
       return [actor, ` numbered calc ${text(d.number) ?? "?"} in job ${text(d.jobNumber) ?? "?"}: ${text(d.title) ?? ""}`];
     case "calcs.revision.prepare":

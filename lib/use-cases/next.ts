@@ -120,7 +120,14 @@ async function readRequestInput(request: Request): Promise<Record<string, unknow
   }
   const contentType = request.headers.get("content-type") ?? "";
   if (contentType.includes("application/x-www-form-urlencoded") || contentType.includes("multipart/form-data")) {
-    return readFormData(await request.formData());
+    let form: FormData;
+    try {
+      form = await request.formData();
+    } catch {
+      // A body cut off on the way (a dropped connection) or not the form it says it is: nothing was stored.
+      throw new AppError("bad-request", "The form did not arrive whole; nothing was stored. Send it again.");
+    }
+    return readFormData(form);
   }
   const text = await request.text();
   if (text.trim() === "") return {};

@@ -7,12 +7,14 @@ import "server-only";
 // attempt is on record too. Runs are append-only; everyone but admins reads them.
 import { createHash, randomUUID } from "node:crypto";
 import { AppError } from "@/lib/domain/errors";
-import { createRunSchema, listRunsSchema, runRefSchema } from "@/lib/domain/schemas/jobs";
+import { compareRunsSchema, createRunSchema, listRunsSchema, runRefSchema } from "@/lib/domain/schemas/jobs";
+import { compareRuns as compareRecords, type RunComparison } from "@/lib/standards/compare-runs";
 import { parseSource } from "@/lib/standards/source";
 import { DefinitionSchema, type Definition } from "@/lib/standards/definition";
 import { isLibraryInput, normaliseEntryKey } from "@/lib/standards/library-inputs";
 import {
   maxUtilisationOf,
+  readRunRecord,
   RUN_RECORD_FORMAT,
   runFailureOf,
   runRecordText,
@@ -275,12 +277,21 @@ export const readRun = defineUseCase({
   audit: null,
 });
 
+/** The withdrawal of a version, when it has been withdrawn. */
+export function withdrawalOf(version: { status: string; events: VersionDto["events"] }): RunSheet["withdrawal"] {
+  if (version.status !== "withdrawn") return null;
+  const event = version.events.findLast((e) => e.kind === "withdrawn");
+  return { at: event?.occurredAt ?? "", by: event?.actorName ?? null, reason: event?.reason ?? null };
+}
+
 export type RunSheet = {
   run: RunView;
   firmName: string;
   /** The version's definition and narrative, for the sheet's scope, limitations and worked narrative. */
   definition: Definition | null;
   narrative: string;
+  /** Set when the run's version has been withdrawn since: the sheet and the run page say so in a banner. */
+  withdrawal: { at: string; by: string | null; reason: string | null } | null;
 };
 
 /** What a run's calc sheet prints: the run, the firm, and its version's definition and narrative. */
@@ -299,6 +310,7 @@ export const readRunSheet = defineUseCase({
       firmName: (await getFirmName()) ?? "",
       definition: parsed?.success ? parsed.data : null,
       narrative: read.ok ? read.parsed.narrative : "",
+      withdrawal: withdrawalOf(version),
     };
   },
   audit: null,
@@ -327,6 +339,48 @@ export const readRuns = defineUseCase({
     const page = rows.slice(0, limit);
     const last = page.at(-1);
     return { runs: page, nextCursor: rows.length > limit && last ? `${last.createdAt}_${last.id}` : null };
+  },
+  audit: null,
+});
+
+export type RunsCompared = {
+  a: RunSummaryDto;
+  b: RunSummaryDto;
+  comparison: RunComparison;
+  /** Labels from the runs' definitions (the first run's where both have one), by key. */
+  labels: Record<string, string>;
+};
+
+/** Two runs of the same standard side by side, from their records. Runs of different standards are refused. */
+export const compareRuns = defineUseCase({
+  name: "runs.compare",
+  permission: "runs.read",
+  input: compareRunsSchema,
+  run: async ({ a, b }): Promise<RunsCompared> => {
+    const [runA, runB] = await Promise.all([getRun(a), getRun(b)]);
+    if (!runA || !runB)
+      throw new AppError("not-found", "There is no run with that id.", {
+        fieldErrors: !runA ? { a: ["There is no run with that id."] } : { b: ["There is no run with that id."] },
+      });
+    if (runA.slug !== runB.slug)
+      throw new AppError(
+        "invalid-input",
+        `Only runs of the same standard compare: the first is ${runA.title} (${runA.slug}), the second ${runB.title} (${runB.slug}).`,
+        { fieldErrors: { b: [`Choose a run of ${runA.title}.`] } },
+      );
+    const labels: Record<string, string> = {};
+    for (const run of [runB, runA]) {
+      const version = await getVersion({ id: run.versionId });
+      const read = version ? parseSource(version.source) : null;
+      const parsed = read?.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
+      if (!parsed?.success) continue;
+      const { inputs, derived, extracts, checks } = parsed.data;
+      for (const group of [inputs, derived, extracts, checks] as Record<string, { label?: string }>[])
+        for (const [key, item] of Object.entries(group)) if (item.label) labels[key] = item.label;
+    }
+    const { record: recordA, ...a_ } = runA;
+    const { record: recordB, ...b_ } = runB;
+    return { a: a_, b: b_, comparison: compareRecords(readRunRecord(recordA), readRunRecord(recordB)), labels };
   },
   audit: null,
 });

@@ -6,6 +6,7 @@ import "server-only";
 // some standard has attached; nothing else in the bucket is reachable this way.
 import { createHash } from "node:crypto";
 import { AppError } from "@/lib/domain/errors";
+import { TYPE_EXTENSIONS, TYPE_WORDS, bytesAreOfType, cleanFileName } from "@/lib/domain/file-signatures";
 import { attachHandCalculationSchema, handCalculationRefSchema } from "@/lib/domain/schemas/standards";
 import type { AttachmentType } from "@/db/schema";
 import { getAttachment, getDraft, getSlugOf, insertAttachment, listAttachments, type AttachmentDto } from "@/lib/data/standards";
@@ -16,24 +17,6 @@ import { defineUseCase } from "./use-case";
 
 /** The S3 key of a hand calculation: content-addressed, so the same bytes are stored once. */
 export const handCalculationKey = (sha256: string) => `standards/hand-calculations/${sha256}`;
-
-/** What the first bytes of each accepted type are (a renamed file of another kind is refused). */
-const SIGNATURES: Record<AttachmentType, number[]> = {
-  "application/pdf": [0x25, 0x50, 0x44, 0x46, 0x2d], // %PDF-
-  "image/png": [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a],
-  "image/jpeg": [0xff, 0xd8, 0xff],
-};
-
-/** A file name a download can carry: no path, no control or quote characters, at most 120 characters. */
-function cleanFileName(name: string, type: AttachmentType): string {
-  const base = name.split(/[\\/]/).pop() ?? "";
-  const cleaned = base
-    // eslint-disable-next-line no-control-regex -- control characters are exactly what is removed here
-    .replace(/[\u0000-\u001f\u007f-\u009f"\u202a-\u202e\u2066-\u2069]/g, "")
-    .trim()
-    .slice(-120);
-  return cleaned || `hand-calculation.${type === "application/pdf" ? "pdf" : type === "image/png" ? "png" : "jpg"}`;
-}
 
 export const attachHandCalculation = defineUseCase({
   name: "standards.attachment.add",
@@ -46,17 +29,18 @@ export const attachHandCalculation = defineUseCase({
     if (draft.authorId !== actor.id) throw new AppError("forbidden", NOT_THE_AUTHOR);
     const contentType = file.type as AttachmentType;
     const body = new Uint8Array(await file.arrayBuffer());
-    if (!SIGNATURES[contentType].every((byte, i) => body[i] === byte))
-      throw new AppError(
-        "invalid-input",
-        `That file is not a ${contentType === "application/pdf" ? "PDF" : contentType === "image/png" ? "PNG" : "JPEG"} file, whatever its name says.`,
-        {
-          fieldErrors: { file: ["The file's contents do not match its type; export it again as PDF, PNG or JPEG."] },
-        },
-      );
+    if (!bytesAreOfType(body, contentType))
+      throw new AppError("invalid-input", `That file is not a ${TYPE_WORDS[contentType]} file, whatever its name says.`, {
+        fieldErrors: { file: ["The file's contents do not match its type; export it again as PDF, PNG or JPEG."] },
+      });
     const sha256 = createHash("sha256").update(body).digest("hex");
     await putObject({ key: handCalculationKey(sha256), body, contentType });
-    return { sha256, contentType, bytes: body.length, fileName: cleanFileName(file.name, contentType) };
+    return {
+      sha256,
+      contentType,
+      bytes: body.length,
+      fileName: cleanFileName(file.name, `hand-calculation.${TYPE_EXTENSIONS[contentType]}`),
+    };
   },
   run: async ({ draftId }, { actor, prepared }) => {
     const draft = await ownEditableDraft(draftId, actor);

@@ -1,4 +1,5 @@
-// Installs what a fresh machine lacks: npm dependencies, Debian's postgresql-15 and chromium.
+// Installs what a fresh machine lacks: npm dependencies, Debian's postgresql-15 and chromium (the server renders
+// calc sheets to PDF with it; the browser tests drive it), and for the tests poppler-utils (pdftotext).
 import crypto from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
@@ -78,3 +79,5 @@ function hasAptLists() {
 
 export const POSTGRES_PACKAGE = { name: "postgresql-15", marker: `${PG_BIN}/initdb` };
 export const CHROMIUM_PACKAGE = { name: "chromium", marker: CHROMIUM };
+/** pdftotext, which the tests read the calc sheet PDFs with. */
+export const POPPLER_PACKAGE = { name: "poppler-utils", marker: "/usr/bin/pdftotext" };

@@ -148,6 +148,11 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     path: "/runs/00000000-0000-4000-8000-000000000000",
     expect: { ...signedInPage("lead", "engineer", "auditor"), lead: "not-found", engineer: "not-found", auditor: "not-found" },
   },
+  "/(app)/runs/compare/page": {
+    path: "/runs/compare",
+    title: "Compare runs",
+    expect: signedInPage("lead", "engineer", "auditor"),
+  },
   "/(app)/audit/page": { path: "/audit", title: "Audit trail", expect: signedInPage("admin", "auditor") },
   "/(app)/admin/users/page": { path: "/admin/users", title: "People", expect: signedInPage("admin", "auditor") },
   "/(app)/admin/mailbox/page": {
@@ -349,6 +354,57 @@ const API_ROUTES: Record<string, ApiRow> = {
     ok: () => undefined,
   },
   "OPTIONS /api/runs/[id]/route": OPTIONS_ROW(`/api/runs/${NO_SUCH_UUID}`, ALLOW_GET),
+  // Calc sheet PDFs of a run id nothing has: 404 for those who read runs, before anything is rendered.
+  "GET /api/runs/[id]/sheet-pdf/route": {
+    path: `/api/runs/${NO_SUCH_UUID}/sheet-pdf`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "HEAD /api/runs/[id]/sheet-pdf/route": {
+    path: `/api/runs/${NO_SUCH_UUID}/sheet-pdf`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "OPTIONS /api/runs/[id]/sheet-pdf/route": OPTIONS_ROW(`/api/runs/${NO_SUCH_UUID}/sheet-pdf`, ALLOW_GET),
+  "GET /api/runs/[id]/sheet-pdfs/[pdfId]/route": {
+    path: `/api/runs/${NO_SUCH_UUID}/sheet-pdfs/${NO_SUCH_UUID}`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "HEAD /api/runs/[id]/sheet-pdfs/[pdfId]/route": {
+    path: `/api/runs/${NO_SUCH_UUID}/sheet-pdfs/${NO_SUCH_UUID}`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "OPTIONS /api/runs/[id]/sheet-pdfs/[pdfId]/route": OPTIONS_ROW(
+    `/api/runs/${NO_SUCH_UUID}/sheet-pdfs/${NO_SUCH_UUID}`,
+    ALLOW_GET,
+  ),
+  // Attachments: engineers and leads attach (here with no file: refused for that, after the role check); whoever
+  // reads jobs downloads (here an id nothing has: 404).
+  "POST /api/jobs/[jobNumber]/attachments/route": {
+    path: "/api/jobs/MF-2291/attachments",
+    body: {},
+    expect: runnersAction<ApiOutcome>(),
+    ok: (answer) => {
+      expect(answer.status).toBe(422);
+      expect(jsonOf(answer)).toMatchObject({
+        error: { code: "invalid-input", fieldErrors: { file: ["Choose a file to attach (PDF, PNG, JPEG or WebP)."] } },
+      });
+    },
+  },
+  "OPTIONS /api/jobs/[jobNumber]/attachments/route": OPTIONS_ROW("/api/jobs/MF-2291/attachments", "OPTIONS, POST"),
+  "GET /api/attachments/[attachmentId]/route": {
+    path: `/api/attachments/${NO_SUCH_UUID}`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "HEAD /api/attachments/[attachmentId]/route": {
+    path: `/api/attachments/${NO_SUCH_UUID}`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "OPTIONS /api/attachments/[attachmentId]/route": OPTIONS_ROW(`/api/attachments/${NO_SUCH_UUID}`, ALLOW_GET),
   "GET /icon.svg/route": {
     path: "/icon.svg",
     expect: same<ApiOutcome>("ok"),
@@ -658,6 +714,7 @@ describe("signing in brings people back", () => {
       "/jobs/MF-2291/run/fixed-end-beam",
       "/runs/00000000-0000-4000-8000-000000000000/sheet",
       "/runs/00000000-0000-4000-8000-000000000000",
+      "/runs/compare",
       "/audit",
       "/admin/users",
       "/admin/mailbox",

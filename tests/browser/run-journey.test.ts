@@ -1,16 +1,30 @@
 // An engineer's day in Chromium: open a job, run the fixed-end beam, watch the live preview follow the typing
 // (computed by the evaluation bundle in a Web Worker), run it, and read the stored run: pass or fail, each check's
-// utilisation, the moment diagram. The results page passes axe. Then the run is issued as revision A of a calc,
+// utilisation, the moment diagram. The results page passes axe. Its calc sheet downloads as a PDF rendered on the
+// server (pdftotext reads the run id, version and hash on every page). Then the run is issued as revision A of a calc,
 // a second engineer (the demo reviewer, a lead) checks it, and the job's responsible engineer approves it. The preview's figures are the frame engine's:
 // a fixed-end beam under uniform load has end moments wL²/12 (AISC Steel Construction Manual, 15th ed.,
 // Table 3-23, case 15, from memory).
 import AxeBuilder from "@axe-core/playwright";
-import type { Page } from "playwright-core";
+import { createHash } from "node:crypto";
+import fs from "node:fs";
+import type { Locator, Page } from "playwright-core";
 import { expect, it } from "vitest";
 import { useBrowser, usePagesAs } from "../support/browser";
 import { appUrl } from "../support/env";
 import { DEMO_USERS } from "@/db/demo-users";
 import { demoSession, journeyTimeout, signInOverHttp } from "../support/pages";
+import { pdfPages } from "../support/pdf";
+
+/** Clicks a link that downloads a PDF; the bytes' sha256 (checked against the server's header) and each page's text. */
+async function downloadPdf(page: Page, link: Locator): Promise<{ sha256: string; pages: string[] }> {
+  const [download] = await Promise.all([page.waitForEvent("download", { timeout: 60_000 }), link.click()]);
+  const body = new Uint8Array(fs.readFileSync((await download.path())!));
+  expect(download.suggestedFilename()).toMatch(/^calc-sheet-run-[0-9a-f]{8}-[0-9a-f]{12}\.pdf$/);
+  const sha256 = createHash("sha256").update(body).digest("hex");
+  expect(download.suggestedFilename()).toContain(sha256.slice(0, 12));
+  return { sha256, pages: pdfPages(body) };
+}
 
 const pageAs = usePagesAs(useBrowser());
 
@@ -66,8 +80,26 @@ it(
     const serious = violations.filter((v) => v.impact === "serious" || v.impact === "critical");
     expect(serious.map((v) => ({ rule: v.id, targets: v.nodes.map((node) => node.target.join(" ")) }))).toEqual([]);
 
-    // Issue it: number a calc, then issue the run as its revision A for the demo reviewer to check.
+    // The calc sheet as a PDF rendered on the server: every page carries the run id, the version and its hash.
     const runUrl = page.url();
+    const runId = runUrl.split("/runs/")[1];
+    await page.getByTestId("open-sheet").click();
+    await page.getByTestId("calc-sheet").waitFor();
+    const versionLine = (await page.getByTestId("sheet-header").locator("p").nth(3).textContent())!;
+    expect(versionLine).toMatch(/ v\d+ · sha256:[0-9a-f]{12}$/);
+    const unsigned = await downloadPdf(page, page.getByTestId("download-pdf"));
+    expect(unsigned.pages.length).toBeGreaterThan(1);
+    unsigned.pages.forEach((text, index) => {
+      expect(text, `page ${index + 1}`).toContain(`Run ${runId}`);
+      expect(text, `page ${index + 1}`).toContain(versionLine.slice(versionLine.lastIndexOf(" v")).trim());
+      expect(text, `page ${index + 1}`).toContain(`Page ${index + 1} of ${unsigned.pages.length}`);
+    });
+    expect(unsigned.pages.join("\n")).toContain("Not issued: no sign-off is recorded against this run.");
+    // The same state again gives the PDF kept for it, not a new one.
+    expect((await downloadPdf(page, page.getByTestId("download-pdf"))).sha256).toBe(unsigned.sha256);
+    await page.goto(runUrl);
+
+    // Issue it: number a calc, then issue the run as its revision A for the demo reviewer to check.
     const calcNumber = `C-${Date.now().toString(36).slice(-4).toUpperCase()}`;
     await page.getByTestId("calc-number").fill(calcNumber);
     await page.getByTestId("calc-title").fill("Floor beam, grid 3");
@@ -102,6 +134,18 @@ it(
     expect(await responsible.getByTestId("sheet-run").textContent()).toContain(runUrl.split("/runs/")[1]);
     expect(await responsible.getByTestId("sheet-sign-off").textContent()).toContain(reviewer.name);
     expect(await responsible.getByTestId("caution").count()).toBe(2);
+    // The signed sheet is a new state: a new PDF with the sign-off, and the unsigned one is still kept as it was.
+    const signed = await downloadPdf(responsible, responsible.getByTestId("download-pdf"));
+    expect(signed.sha256).not.toBe(unsigned.sha256);
+    expect(signed.pages.join("\n")).toContain(`Calc ${calcNumber} rev A`);
+    expect(signed.pages.join("\n")).toContain(reviewer.name);
+    await responsible.goto(runUrl);
+    const kept = responsible.getByTestId("sheet-pdf");
+    expect(await kept.evaluateAll((items) => items.map((item) => item.getAttribute("data-sha256")))).toEqual([
+      unsigned.sha256,
+      signed.sha256,
+    ]);
+    expect((await downloadPdf(responsible, kept.first().locator("a"))).sha256).toBe(unsigned.sha256);
 
     // The job lists the run and the calc, approved.
     await page.goto(appUrl("/jobs/MF-2304"));

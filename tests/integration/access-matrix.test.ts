@@ -25,7 +25,9 @@ import { runUseCase } from "@/lib/use-cases/run";
 import { createStandard } from "@/lib/use-cases/standards";
 import { attachHandCalculation, handCalculationKey } from "@/lib/use-cases/standard-attachments";
 import { getDraft, listAttachments } from "@/lib/data/standards";
-import { getObject } from "@/lib/storage/s3";
+import { getObject, putObject } from "@/lib/storage/s3";
+import { attachmentKey, sheetPdfKey } from "@/lib/data/files";
+import { attachFile } from "@/lib/use-cases/files";
 
 const request = vi.hoisted(() => ({ headers: new Headers() }));
 vi.mock("next/headers", () => ({
@@ -421,6 +423,96 @@ const ROUTES: RouteRow[] = [
       const body = (await response.json()) as { data: { id: string; recordSha256: string; record: { id: string } } };
       const [row] = await db.select().from(schema.runs).where(eq(schema.runs.id, params!.id));
       expect(body.data).toMatchObject({ id: row.id, recordSha256: row.recordSha256, record: { id: row.id } });
+    },
+  },
+  // Calc sheet PDFs: whoever reads runs gets the sheet rendered by the server's Chromium (as them) and kept.
+  {
+    route: "app/api/runs/[id]/sheet-pdf/route.ts",
+    method: "GET",
+    path: "/api/runs/:id/sheet-pdf",
+    expected: LIBRARY_READERS,
+    request: async () => {
+      const { run } = await matrixRun();
+      return { path: `/api/runs/${run.id}/sheet-pdf`, params: { id: run.id } };
+    },
+    succeeded: async (response, { params }) => {
+      expect(response.status).toBe(200);
+      expect(response.headers.get("content-type")).toBe("application/pdf");
+      const body = new Uint8Array(await response.arrayBuffer());
+      const sha256 = createHash("sha256").update(body).digest("hex");
+      expect(Buffer.from(body.subarray(0, 5)).toString("latin1")).toBe("%PDF-");
+      expect(response.headers.get("x-content-sha256")).toBe(sha256);
+      const kept = await db.select().from(schema.calcSheetPdfs).where(eq(schema.calcSheetPdfs.runId, params!.id));
+      expect(kept.map((row) => ({ sha256: row.sha256, bytes: row.bytes }))).toEqual([{ sha256, bytes: body.length }]);
+      expect((await getObject({ key: sheetPdfKey(params!.id, sha256) }))?.body).toEqual(body);
+    },
+  },
+  {
+    route: "app/api/runs/[id]/sheet-pdfs/[pdfId]/route.ts",
+    method: "GET",
+    path: "/api/runs/:id/sheet-pdfs/:pdfId",
+    expected: LIBRARY_READERS,
+    request: async () => {
+      const { run, engineer } = await matrixRun();
+      const bytes = matrixPdf();
+      const sha256 = createHash("sha256").update(bytes).digest("hex");
+      await putObject({ key: sheetPdfKey(run.id, sha256), body: bytes, contentType: "application/pdf" });
+      const [{ id: pdfId }] = await db
+        .insert(schema.calcSheetPdfs)
+        .values({ runId: run.id, stateSha256: sha256, sha256, bytes: bytes.length, pages: 1, renderedById: engineer.id })
+        .returning({ id: schema.calcSheetPdfs.id });
+      return { path: `/api/runs/${run.id}/sheet-pdfs/${pdfId}`, params: { id: run.id, pdfId }, expectBytes: bytes };
+    },
+    succeeded: async (response, { expectBytes }) => {
+      expect(response.status).toBe(200);
+      expect(response.headers.get("content-type")).toBe("application/pdf");
+      expect(new Uint8Array(await response.arrayBuffer())).toEqual(expectBytes);
+    },
+  },
+  // Attachments: engineers and leads attach files to jobs and runs; whoever reads jobs downloads them.
+  {
+    route: "app/api/jobs/[jobNumber]/attachments/route.ts",
+    method: "POST",
+    path: "/api/jobs/:jobNumber/attachments",
+    expected: RUNNERS,
+    request: async () => {
+      const { jobId, jobNumber } = await matrixJob();
+      const body = new FormData();
+      const bytes = matrixPdf();
+      body.set("file", new File([bytes], "site-sketch.pdf", { type: "application/pdf" }));
+      body.set("note", "Sketch of the north gable");
+      return { path: `/api/jobs/${jobNumber}/attachments`, params: { jobNumber }, body, expectBytes: bytes, made: { jobId } };
+    },
+    succeeded: async (response, { expectBytes, made }) => {
+      const sha256 = createHash("sha256").update(expectBytes!).digest("hex");
+      expect(response.status).toBe(200);
+      expect(await response.json()).toMatchObject({
+        data: { sha256, fileName: "site-sketch.pdf", contentType: "application/pdf", bytes: expectBytes!.length, added: true },
+      });
+      const rows = await db.select().from(schema.jobAttachments).where(eq(schema.jobAttachments.jobId, made!.jobId));
+      expect(rows.map((r) => ({ sha256: r.sha256, runId: r.runId, note: r.note }))).toEqual([
+        { sha256, runId: null, note: "Sketch of the north gable" },
+      ]);
+      expect((await getObject({ key: attachmentKey(made!.jobId, sha256) }))?.body).toEqual(expectBytes);
+    },
+  },
+  {
+    route: "app/api/attachments/[attachmentId]/route.ts",
+    method: "GET",
+    path: "/api/attachments/:attachmentId",
+    expected: LIBRARY_READERS,
+    request: async () => {
+      const { jobNumber, engineer } = await matrixJob();
+      const bytes = matrixPdf();
+      const file = new File([bytes], "site-photo-notes.pdf", { type: "application/pdf" });
+      const { id } = await runUseCase(attachFile, { actor: engineer, input: { jobNumber, file } });
+      return { path: `/api/attachments/${id}`, params: { attachmentId: id }, expectBytes: bytes };
+    },
+    succeeded: async (response, { expectBytes }) => {
+      expect(response.status).toBe(200);
+      expect(response.headers.get("content-type")).toBe("application/pdf");
+      expect(response.headers.get("x-content-sha256")).toBe(createHash("sha256").update(expectBytes!).digest("hex"));
+      expect(new Uint8Array(await response.arrayBuffer())).toEqual(expectBytes);
     },
   },
 ];

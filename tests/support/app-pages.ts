@@ -142,6 +142,8 @@ export const APP_PAGES: AppPage[] = [
     status: 404,
     visitors: ["auditor"],
   },
+  // Without two runs chosen, the comparison says what to do; two real runs are compared by the run journey.
+  { name: "compare runs, none chosen", entry: "/(app)/runs/compare/page", path: "/runs/compare", visitors: ["auditor"] },
   { name: "audit trail", entry: "/(app)/audit/page", path: "/audit", visitors: ["auditor"] },
   { name: "people", entry: "/(app)/admin/users/page", path: "/admin/users", visitors: ["admin", "auditor"] },
   { name: "demo mailbox", entry: "/(app)/admin/mailbox/page", path: "/admin/mailbox", visitors: ["admin"], mailbox: true },

@@ -91,3 +91,39 @@ export const listRunsSchema = z
     limit: z.coerce.number().int().min(1).max(200).default(RUN_PAGE_SIZE),
   })
   .default({ limit: RUN_PAGE_SIZE });
+
+/** A stored calc sheet PDF of a run. */
+export const sheetPdfRefSchema = z.object({
+  id: z.uuid("That is not a run id."),
+  pdfId: z.uuid("That is not a calc sheet PDF's id."),
+});
+
+export const ATTACHMENT_MAX_BYTES = 20 * 1024 * 1024;
+export const ATTACHMENT_TOO_LARGE = "That file is over 20 MB; scan or export it at a lower resolution, or split it.";
+/** Attach a file to a job (runId empty) or to one of its runs. The type is told again from the bytes. */
+export const attachFileSchema = z.object({
+  jobNumber: z.string().trim().min(1, "Choose a job.").max(30, "That is not a job number."),
+  runId: z.union([z.literal(""), z.uuid("That is not a run id.")]).default(""),
+  note: optionalText("note", 200),
+  file: z
+    .file("Choose a file to attach (PDF, PNG, JPEG or WebP).")
+    .min(1, "That file is empty.")
+    .max(ATTACHMENT_MAX_BYTES, ATTACHMENT_TOO_LARGE)
+    .mime(
+      ["application/pdf", "image/png", "image/jpeg", "image/webp"],
+      "A job takes PDF, PNG, JPEG or WebP files: sketches, site photos, scanned or exported documents.",
+    ),
+});
+export const attachmentRefSchema = z.object({ attachmentId: z.uuid("That is not an attachment's id.") });
+export const attachmentPlaceSchema = z.object({
+  jobId: z.uuid("That is not a job id."),
+  runId: z.uuid("That is not a run id.").nullable().default(null),
+});
+
+/** Two runs of the same standard to compare: `a` the earlier or reference run, `b` the other. */
+export const compareRunsSchema = z
+  .object({
+    a: z.uuid("Choose the first run to compare."),
+    b: z.uuid("Choose the run to compare it with."),
+  })
+  .refine((value) => value.a !== value.b, { message: "Choose two different runs to compare.", path: ["b"] });

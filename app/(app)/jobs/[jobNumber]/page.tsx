@@ -15,6 +15,9 @@ import { buttonClasses } from "@/components/ui/button";
 import { orNotFound } from "../../_components/or-not-found";
 import { JobStatusBadge } from "../_components/job-status";
 import { RunTable } from "../../runs/_components/run-table";
+import { Section } from "@/components/ui/section";
+import { Attachments } from "@/components/jobs/attachments";
+import { readAttachments } from "@/lib/use-cases/files";
 
 export const metadata: Metadata = { title: "Job" };
 
@@ -29,6 +32,7 @@ export default async function JobPage({ params }: PageProps<"/jobs/[jobNumber]">
   const runnable = standards.filter((item) => item.current.status !== "withdrawn");
   const base = `/jobs/${encodeURIComponent(job.jobNumber)}`;
   const calcs = await runUseCase(readCalcPackage, { actor, input: { jobId: job.id } });
+  const attachments = await runUseCase(readAttachments, { actor, input: { jobId: job.id, runId: null } });
 
   return (
     <>
@@ -162,6 +166,14 @@ export default async function JobPage({ params }: PageProps<"/jobs/[jobNumber]">
           </p>
         ) : null}
       </section>
+      <Section title="Attachments" id="attachments-heading">
+        <Attachments
+          jobNumber={job.jobNumber}
+          runId={null}
+          attachments={attachments}
+          canAttach={can(actor.role, "files.attach")}
+        />
+      </Section>
     </>
   );
 }

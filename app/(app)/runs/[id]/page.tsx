@@ -3,7 +3,7 @@ import Link from "next/link";
 import { requirePageActor } from "@/lib/auth/session";
 import { can } from "@/lib/domain/permissions";
 import { runUseCase } from "@/lib/use-cases/run";
-import { readRun } from "@/lib/use-cases/runs";
+import { readRun, readRuns } from "@/lib/use-cases/runs";
 import { readJob, readJobPeople } from "@/lib/use-cases/jobs";
 import { readCalcPackage, readRunSignOff } from "@/lib/use-cases/calcs";
 import { Section } from "@/components/ui/section";
@@ -13,6 +13,9 @@ import { buttonClasses } from "@/components/ui/button";
 import { Caution } from "@/components/standards/caution";
 import { LocalTime } from "@/components/local-time";
 import { RunResults } from "@/components/runs/run-results";
+import { SheetPdfs } from "@/components/runs/sheet-pdfs";
+import { Attachments } from "@/components/jobs/attachments";
+import { readAttachments, readSheetPdfs } from "@/lib/use-cases/files";
 import { orNotFound } from "../../_components/or-not-found";
 import { RunOutcomeBadge } from "../_components/run-outcome";
 import { ApproveForm, CheckForm, IssueForm, RevisionSteps } from "../_components/sign-off";
@@ -32,6 +35,12 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
   const mayIssue = run.createdById === actor.id && run.outcome === "succeeded" && can(actor.role, "runs.sign-prepared");
   const calcs = mayIssue ? await runUseCase(readCalcPackage, { actor, input: { jobId: run.jobId } }) : [];
   const people = mayIssue ? (await runUseCase(readJobPeople, { actor, input: {} })).filter((p) => p.id !== actor.id) : [];
+  const [pdfs, attachments, sameStandard] = await Promise.all([
+    runUseCase(readSheetPdfs, { actor, input: { id: run.id } }),
+    runUseCase(readAttachments, { actor, input: { jobId: run.jobId, runId: run.id } }),
+    runUseCase(readRuns, { actor, input: { job: run.jobNumber, standard: run.slug, limit: 30 } }),
+  ]);
+  const others = sameStandard.runs.filter((other) => other.id !== run.id);
   const open = revisions.some((r) => r.state === "awaiting-check" || r.state === "awaiting-approval");
 
   return (
@@ -88,6 +97,14 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
             <dd>
               <Link href={`/runs/${record.parentRunId}`} className="font-mono text-plate-700 hover:underline">
                 {record.parentRunId.slice(0, 8)}
+              </Link>{" "}
+              ·{" "}
+              <Link
+                href={`/runs/compare?a=${record.parentRunId}&b=${run.id}`}
+                className="text-plate-700 hover:underline"
+                data-testid="compare-parent"
+              >
+                compare with it
               </Link>
             </dd>
           </>
@@ -137,6 +154,46 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
           ))}
           {mayIssue && !open ? <IssueForm jobId={run.jobId} runId={run.id} calcs={calcs} people={people} /> : null}
         </div>
+      </Section>
+      {others.length > 0 ? (
+        <Section title="Compare with another run" id="compare-heading">
+          <form action="/runs/compare" method="get" className="flex flex-wrap items-end gap-3" data-testid="compare-form">
+            <input type="hidden" name="a" value={run.id} />
+            <div className="min-w-0">
+              <label htmlFor="compare-b" className="mb-1 block text-sm font-medium text-ink-700">
+                Another run of {run.title} in job {run.jobNumber}
+              </label>
+              <select
+                id="compare-b"
+                name="b"
+                className="max-w-full rounded-plate border border-ink-300 bg-white px-3 py-1.5 text-sm"
+                data-testid="compare-with"
+              >
+                {others.map((other) => (
+                  <option key={other.id} value={other.id}>
+                    {other.id.slice(0, 8)} · v{other.number} · {other.createdByName} ·{" "}
+                    {other.createdAt.slice(0, 16).replace("T", " ")} UTC
+                    {other.outcome === "failed" ? " · failed" : other.pass ? " · passes" : " · fails a check"}
+                  </option>
+                ))}
+              </select>
+            </div>
+            <button type="submit" className={buttonClasses("secondary")} data-testid="compare-submit">
+              Compare
+            </button>
+          </form>
+        </Section>
+      ) : null}
+      <Section title="Calc sheet PDFs" id="sheet-pdfs-heading">
+        <SheetPdfs runId={run.id} pdfs={pdfs} />
+      </Section>
+      <Section title="Attachments" id="attachments-heading">
+        <Attachments
+          jobNumber={run.jobNumber}
+          runId={run.id}
+          attachments={attachments}
+          canAttach={can(actor.role, "files.attach")}
+        />
       </Section>
       <RunResults
         record={record}

@@ -12,13 +12,15 @@ import { NarrativeView } from "@/components/standards/narrative-view";
 import { ModelDrawing } from "@/components/standards/model-drawing";
 import { RunChecks, RunDiagrams, RunInputs, RunReactions, resultIdsOf } from "@/components/runs/run-results";
 import { orNotFound } from "../../../../(app)/_components/or-not-found";
+import { WithdrawalBanner } from "@/components/runs/withdrawal-banner";
 import { PrintButton } from "./print-button";
 
 export const metadata: Metadata = { title: "Calc sheet" };
 
-function SheetPart({ title, children }: { title: string; children: React.ReactNode }) {
+/** A part of the sheet; kept on one page unless it is long (the worked narrative runs on across pages). */
+function SheetPart({ title, long = false, children }: { title: string; long?: boolean; children: React.ReactNode }) {
   return (
-    <section className="mt-6 break-inside-avoid-page">
+    <section className={long ? "mt-6" : "mt-6 break-inside-avoid-page"}>
       <h2 className="mb-2 border-b border-ink-300 pb-1 text-base font-semibold">{title}</h2>
       {children}
     </section>
@@ -35,7 +37,9 @@ const utc = (iso: string) => `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
 export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sheet">) {
   const { id } = await params;
   const actor = await requirePageActor("runs.read", { next: `/runs/${encodeURIComponent(id)}/sheet` });
-  const { run, firmName, definition, narrative } = await orNotFound(() => runUseCase(readRunSheet, { actor, input: { id } }));
+  const { run, firmName, definition, narrative, withdrawal } = await orNotFound(() =>
+    runUseCase(readRunSheet, { actor, input: { id } }),
+  );
   const revisions = await runUseCase(readRunSignOff, { actor, input: { id: run.id } });
   const record = readRunRecord(run.record);
   const issued = revisions.at(-1);
@@ -49,6 +53,9 @@ export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sh
           Back to the run
         </Link>
         <PrintButton />
+        <a href={`/api/runs/${run.id}/sheet-pdf`} className="text-sm text-plate-700 hover:underline" data-testid="download-pdf">
+          Download PDF
+        </a>
       </p>
       <table className="w-full border-collapse" data-testid="calc-sheet">
         <thead>
@@ -92,6 +99,7 @@ export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sh
               <p className="text-sm text-ink-700">
                 Prepared by {run.createdByName}. Record sha256:{run.recordSha256}.
               </p>
+              {withdrawal ? <WithdrawalBanner withdrawal={withdrawal} /> : null}
               <Caution />
               {definition ? (
                 <SheetPart title="Scope and limitations">
@@ -112,7 +120,7 @@ export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sh
               ) : (
                 <>
                   {definition ? (
-                    <SheetPart title="Calculation">
+                    <SheetPart title="Calculation" long>
                       <NarrativeView
                         definition={definition}
                         narrative={narrative}
@@ -121,7 +129,7 @@ export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sh
                       />
                     </SheetPart>
                   ) : null}
-                  <SheetPart title="Inputs">
+                  <SheetPart title="Inputs" long>
                     <RunInputs record={record} />
                   </SheetPart>
                   <SheetPart title="Model">

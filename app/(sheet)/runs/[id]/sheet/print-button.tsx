@@ -5,7 +5,7 @@ import { Button } from "@/components/ui/button";
 export function PrintButton() {
   return (
     <Button type="button" variant="secondary" onClick={() => window.print()} data-testid="print-sheet">
-      Print or save as PDF
+      Print
     </Button>
   );
 }

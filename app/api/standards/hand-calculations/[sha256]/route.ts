@@ -1,4 +1,5 @@
 // GET an attached hand calculation by its sha256, as a download, for anyone who reads the firm's standards.
+import { attachmentDisposition } from "@/lib/domain/file-signatures";
 import { routeHandler } from "@/lib/use-cases/next";
 import { readHandCalculation } from "@/lib/use-cases/standard-attachments";
 
@@ -8,7 +9,7 @@ export const GET = routeHandler(readHandCalculation, {
       headers: {
         "Content-Type": contentType,
         "Content-Length": String(body.length),
-        "Content-Disposition": `attachment; filename="${fileName.replace(/[^\x20-\x7e]/g, "_")}"; filename*=UTF-8''${encodeURIComponent(fileName)}`,
+        "Content-Disposition": attachmentDisposition(fileName),
         "Cache-Control": "private, no-store",
         "X-Content-SHA256": sha256,
       },

@@ -2,8 +2,9 @@
 // The hand calculations attached to the draft's standard, and (for the author) a way to attach another: the
 // file goes to the server, which stores it under its sha256 and answers with the line a verification case
 // cites it by. A published version's cases can only cite files attached here.
-import { useRouter } from "next/navigation";
-import { useId, useState } from "react";
+import { useState } from "react";
+import { useUpload } from "@/components/ui/use-upload";
+import { FileField } from "@/components/ui/file-field";
 import type { AttachmentDto } from "@/lib/data/standards";
 import { handCalculationUrl } from "@/components/standards/hand-calculation";
 import { Button } from "@/components/ui/button";
@@ -20,40 +21,24 @@ export function HandCalculations({
   attachments: AttachmentDto[];
   canAttach: boolean;
 }) {
-  const router = useRouter();
-  const inputId = useId();
   const [file, setFile] = useState<File | null>(null);
-  const [pending, setPending] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-  const [attached, setAttached] = useState<Attached | null>(null);
+  const {
+    pending,
+    error,
+    setError,
+    done: attached,
+    upload,
+  } = useUpload<Attached>({
+    fields: ["file"],
+    failed: "the file was not attached; try again.",
+  });
 
   async function attach(event: React.FormEvent) {
     event.preventDefault();
     if (!file) return setError("Choose the hand calculation's file (PDF, PNG or JPEG).");
-    setPending(true);
-    setError(null);
-    try {
-      const body = new FormData();
-      body.set("file", file);
-      const response = await fetch(`/api/standards/drafts/${encodeURIComponent(draftId)}/hand-calculations`, {
-        method: "POST",
-        body,
-      });
-      const answer = (await response.json().catch(() => null)) as {
-        data?: Attached;
-        error?: { message: string; fieldErrors?: Record<string, string[]> };
-      } | null;
-      if (!response.ok || !answer?.data)
-        setError(answer?.error?.fieldErrors?.file?.[0] ?? answer?.error?.message ?? "The file could not be attached; try again.");
-      else {
-        setAttached(answer.data);
-        router.refresh();
-      }
-    } catch {
-      setError("The server did not answer; the file was not attached. Try again.");
-    } finally {
-      setPending(false);
-    }
+    const body = new FormData();
+    body.set("file", file);
+    await upload(`/api/standards/drafts/${encodeURIComponent(draftId)}/hand-calculations`, body);
   }
 
   return (
@@ -88,19 +73,12 @@ export function HandCalculations({
       )}
       {canAttach ? (
         <form noValidate onSubmit={attach} className="mt-4 flex flex-wrap items-end gap-3" data-testid="attach-form">
-          <div>
-            <label htmlFor={inputId} className="mb-1 block text-sm font-medium text-ink-700">
-              Attach a hand calculation (PDF, PNG or JPEG, up to 10 MB)
-            </label>
-            <input
-              id={inputId}
-              type="file"
-              accept="application/pdf,image/png,image/jpeg"
-              className="block text-sm text-ink-900 file:mr-3 file:rounded-plate file:border-0 file:bg-paper-sunk file:px-3 file:py-1.5 file:text-sm file:font-medium file:text-ink-900 file:ring-1 file:ring-ink-300"
-              data-testid="attach-file"
-              onChange={(event) => setFile(event.target.files?.[0] ?? null)}
-            />
-          </div>
+          <FileField
+            label="Attach a hand calculation (PDF, PNG or JPEG, up to 10 MB)"
+            accept="application/pdf,image/png,image/jpeg"
+            testId="attach-file"
+            onFile={setFile}
+          />
           <Button type="submit" size="sm" pending={pending} pendingLabel="Attaching…" data-testid="attach-submit">
             Attach
           </Button>

@@ -209,6 +209,37 @@ async function main() {
     `run page /runs/{id}: p50 ${ms(percentile(renders, 50))}, p95 ${ms(percentile(renders, 95))} (server render and transfer)`,
   );
 
+  // The calc sheet page's server render time, and its PDF: rendered by the server's Chromium the first time a state
+  // of the sheet is asked for, then served as kept (from S3).
+  const sheetRenders: number[] = [];
+  for (let i = 0; i < 20; i++) {
+    const t = performance.now();
+    await (await fetch(`${base}/runs/${runId}/sheet`, { headers: { cookie } })).text();
+    sheetRenders.push(performance.now() - t);
+  }
+  console.log(
+    `calc sheet /runs/{id}/sheet: p50 ${ms(percentile(sheetRenders, 50))}, p95 ${ms(percentile(sheetRenders, 95))} (server render and transfer)`,
+  );
+  const { rows: perStandard } = await db.query<{ id: string; slug: string }>(
+    `select distinct on (s.slug) r.id, s.slug from runs r join standard_versions v on v.id = r.version_id
+       join standards s on s.id = v.standard_id where r.job_id = $1 and r.outcome = 'succeeded' order by s.slug, r.created_at`,
+    [job.id],
+  );
+  const pdfTimes: string[] = [];
+  for (const run of perStandard) {
+    const timed = async () => {
+      const t = performance.now();
+      const response = await fetch(`${base}/api/runs/${run.id}/sheet-pdf`, { headers: { cookie } });
+      const bytes = (await response.arrayBuffer()).byteLength;
+      if (response.status !== 200) throw new Error(`sheet PDF of ${run.slug}: status ${response.status}`);
+      return { ms: performance.now() - t, bytes };
+    };
+    const rendered = await timed();
+    const kept = await timed();
+    pdfTimes.push(`${run.slug} ${ms(rendered.ms)} new / ${ms(kept.ms)} kept (${(rendered.bytes / 1024).toFixed(0)} KiB)`);
+  }
+  console.log(`calc sheet PDF per standard: ${pdfTimes.join(", ")}`);
+
   await db.query(`update jobs set status = 'closed' where id = $1`, [job.id]);
   await db.end();
 }

@@ -13,6 +13,7 @@
 import type { CheckDefinition } from "./definition";
 import { compileNumeric, ExpressionError, type NumericExpression, type SiScope, type SiValue } from "./expressions";
 import { evaluateAt, GenerateError } from "./generate";
+import { displayUtilisation } from "./utilisation";
 import { membersOf, resultIds, type ResultsView, type Where } from "./extracts";
 import { describeDimension, hasDimensionOf, isUnit, math, type Value } from "./units";
 
@@ -32,11 +33,7 @@ export interface CheckOutcome {
 
 type Scope = ReadonlyMap<string, Value>;
 
-/** Utilisation rounded up to two decimals, for display. */
-export function displayUtilisation(u: number): string {
-  const up = Math.ceil(u * 100 - 1e-9) / 100;
-  return up.toFixed(2);
-}
+export { displayUtilisation };
 
 function utilisationOf(definition: CheckDefinition, demand: Value, capacity: Value, path: PropertyKey[]): number {
   if (typeof demand === "string" || typeof demand === "boolean" || typeof capacity === "string" || typeof capacity === "boolean")

@@ -14,7 +14,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { buttonClasses } from "@/components/ui/button";
 import { orNotFound } from "../../_components/or-not-found";
 import { JobStatusBadge } from "../_components/job-status";
-import { RunTable } from "../../runs/_components/run-table";
+import { RunList } from "../../runs/_components/run-list";
 import { Section } from "@/components/ui/section";
 import { Attachments } from "@/components/jobs/attachments";
 import { readAttachments } from "@/lib/use-cases/files";
@@ -156,15 +156,8 @@ export default async function JobPage({ params }: PageProps<"/jobs/[jobNumber]">
             Each run of a standard in this job is kept here for good, with its calc sheet.
           </EmptyState>
         ) : (
-          <RunTable runs={runs} showJob={false} />
+          <RunList first={{ runs, nextCursor }} filter={{ job: job.jobNumber }} showJob={false} />
         )}
-        {nextCursor ? (
-          <p className="mt-2 text-sm">
-            <Link href={`/runs?job=${encodeURIComponent(job.jobNumber)}`} className="text-plate-700 hover:underline">
-              All runs of this job
-            </Link>
-          </p>
-        ) : null}
       </section>
       <Section title="Attachments" id="attachments-heading">
         <Attachments

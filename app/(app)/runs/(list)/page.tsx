@@ -1,5 +1,4 @@
 import type { Metadata } from "next";
-import Link from "next/link";
 import { requirePageActor } from "@/lib/auth/session";
 import { runUseCase } from "@/lib/use-cases/run";
 import { readRuns } from "@/lib/use-cases/runs";
@@ -8,7 +7,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { orNotFound } from "../../_components/or-not-found";
-import { RunTable } from "../_components/run-table";
+import { RunList } from "../_components/run-list";
 
 export const metadata: Metadata = { title: "Runs" };
 
@@ -24,9 +23,6 @@ export default async function RunsPage({ searchParams }: PageProps<"/runs">) {
     cursor: one(params.cursor),
   };
   const { runs, nextCursor } = await orNotFound(() => runUseCase(readRuns, { actor, input: { ...filter, limit: 50 } }));
-  const next = new URLSearchParams(
-    Object.entries({ ...filter, cursor: nextCursor ?? undefined }).filter(([, v]) => v) as [string, string][],
-  );
   const filtered = Boolean(filter.job || filter.standard || filter.outcome || filter.pass);
 
   return (
@@ -63,15 +59,11 @@ export default async function RunsPage({ searchParams }: PageProps<"/runs">) {
           </EmptyState>
         )
       ) : (
-        <RunTable runs={runs} />
+        <RunList
+          first={{ runs, nextCursor }}
+          filter={{ job: filter.job, standard: filter.standard, outcome: filter.outcome, pass: filter.pass }}
+        />
       )}
-      {nextCursor ? (
-        <p className="mt-3 text-sm">
-          <Link href={`/runs?${next.toString()}`} className="text-plate-700 hover:underline" data-testid="runs-next">
-            Older runs
-          </Link>
-        </p>
-      ) : null}
     </>
   );
 }

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import type { RunSummaryDto } from "@/lib/data/runs";
-import { displayUtilisation } from "@/lib/standards/checks";
+import { displayUtilisation } from "@/lib/standards/utilisation";
 import { TableFrame } from "@/components/ui/table";
 import { LocalTime } from "@/components/local-time";
 import { RunOutcomeBadge } from "./run-outcome";

@@ -54,10 +54,10 @@ export class Frontier {
       throw new Error("Merkle Frontier.fromState: the state must be an object { size, hashes: string[] }");
     }
     sizeOrThrow("state.size", state.size);
-    const expected = bitCount(state.size);
-    if (state.hashes.length !== expected) {
+    const [expected, listed] = [bitCount(state.size), state.hashes.length];
+    if (listed !== expected) {
       throw new Error(
-        `Merkle Frontier.fromState: a tree of ${state.size} leaves has ${expected} perfect subtrees, the state lists ${state.hashes.length}`,
+        `Merkle Frontier.fromState: ${state.size} leaves make ${expected} perfect subtrees, the state lists ${listed}`,
       );
     }
     const frontier = new Frontier();

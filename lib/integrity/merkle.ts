@@ -186,11 +186,15 @@ export function consistencyProof(oldSize: number, newSize: number, leaves: LeafH
  */
 export function createSubtreeHasher(leafHashes: readonly Uint8Array[] | ((index: number) => Uint8Array)): SubtreeHashFn {
   const leafAt = typeof leafHashes === "function" ? leafHashes : (index: number) => leafHashes[index];
-  const limit = typeof leafHashes === "function" ? Number.MAX_SAFE_INTEGER : leafHashes.length;
+  // Read at each call: the caller's array may grow as the log does.
+  const limit = () => (typeof leafHashes === "function" ? Number.MAX_SAFE_INTEGER : leafHashes.length);
   const perfect = new Map<string, Uint8Array>();
   const subtree = (start: number, end: number): Uint8Array => {
     const size = end - start;
-    if (size === 1) return hashOrThrow(`leaf hash ${start}`, leafAt(start));
+    if (size === 1) {
+      const leaf = leafAt(start);
+      return isHash(leaf) ? leaf : hashOrThrow(`leaf hash ${start}`, leaf);
+    }
     const key = isPowerOfTwo(size) ? `${start}+${size}` : undefined;
     const known = key === undefined ? undefined : perfect.get(key);
     if (known) return known;
@@ -200,7 +204,7 @@ export function createSubtreeHasher(leafHashes: readonly Uint8Array[] | ((index:
     return result;
   };
   return (start, end) => {
-    checkRange(start, end, limit);
+    checkRange(start, end, limit());
     return subtree(start, end).slice();
   };
 }
@@ -338,14 +342,18 @@ export function hashFromHex(hex: string, name = "hash"): Uint8Array {
 }
 
 function subtreeOfArray(leafHashes: readonly Uint8Array[], start: number, end: number): Uint8Array {
-  if (end - start === 1) return hashOrThrow(`leafHashes[${start}]`, leafHashes[start]);
+  if (end - start === 1)
+    return isHash(leafHashes[start]) ? leafHashes[start] : hashOrThrow(`leafHashes[${start}]`, leafHashes[start]);
   const k = largestPowerOfTwoBelow(end - start);
   return node(subtreeOfArray(leafHashes, start, start + k), subtreeOfArray(leafHashes, start + k, end));
 }
 
 function subtreeSource(leaves: LeafHashSource, treeSize: number): SubtreeHashFn {
   if (typeof leaves === "function") {
-    return (start, end) => hashOrThrow(`the subtree hash of leaves [${start}, ${end})`, leaves(start, end));
+    return (start, end) => {
+      const subtree = leaves(start, end);
+      return isHash(subtree) ? subtree : hashOrThrow(`the subtree hash of leaves [${start}, ${end})`, subtree);
+    };
   }
   if (!Array.isArray(leaves)) throw new Error("Merkle: leaves must be an array of leaf hashes or a subtree hash function");
   if (leaves.length < treeSize) {
@@ -356,7 +364,7 @@ function subtreeSource(leaves: LeafHashSource, treeSize: number): SubtreeHashFn 
 
 /** `value` if it is a 32-byte hash, else an Error naming `name` and what it was instead. */
 export function hashOrThrow(name: string, value: unknown): Uint8Array {
-  if (!(value instanceof Uint8Array) || value.length !== HASH_BYTES) {
+  if (!isHash(value)) {
     throw new Error(`Merkle: ${name} must be a ${HASH_BYTES}-byte SHA-256 hash (Uint8Array), got ${describe(value)}`);
   }
   return value;
@@ -364,7 +372,7 @@ export function hashOrThrow(name: string, value: unknown): Uint8Array {
 
 function checkProof(proof: readonly Uint8Array[]): void {
   if (!Array.isArray(proof)) throw new Error(`Merkle: the proof must be an array of hashes, got ${describe(proof)}`);
-  proof.forEach((element, i) => hashOrThrow(`proof[${i}]`, element));
+  proof.forEach((element, i) => isHash(element) || hashOrThrow(`proof[${i}]`, element));
 }
 
 /** Throws unless `value` is a whole number from 0 to 2^53 - 1 (a tree size or leaf index). */
@@ -396,8 +404,13 @@ function checkRange(start: number, end: number, limit: number): void {
   sizeOrThrow("start", start);
   sizeOrThrow("end", end);
   if (start >= end || end > limit) {
-    throw new Error(`Merkle: [${start}, ${end}) is not a non-empty range of the ${limit} leaves`);
+    const of = limit === Number.MAX_SAFE_INTEGER ? "" : ` of the ${limit} leaves`;
+    throw new Error(`Merkle: [${start}, ${end}) is not a non-empty range${of}`);
   }
+}
+
+function isHash(value: unknown): value is Uint8Array {
+  return value instanceof Uint8Array && value.length === HASH_BYTES;
 }
 
 function describe(value: unknown): string {

@@ -20,6 +20,8 @@ const MODULES = [
   "lib/data",
   "lib/mail",
   "lib/storage",
+  "lib/pdf",
+  "lib/integrity",
   "lib/engine",
   "lib/standards",
   "lib/libraries",
@@ -49,6 +51,10 @@ export const LAYERS = {
   db: { may: ["lib/domain", "lib/server-env"] },
   "lib/mail": { may: ["lib/domain", "lib/server-env"] },
   "lib/storage": { may: ["lib/domain", "lib/server-env"] },
+  // Calc sheets printed to PDF by the server's Chromium, as the person asking.
+  "lib/pdf": { may: ["lib/domain", "lib/server-env"] },
+  // The verifiable log's hashing and proofs (RFC 9162): pure, node:crypto only.
+  "lib/integrity": { may: [] },
   "lib/data": { may: ["db", "lib/domain", "lib/server-env"], handle: true },
   "lib/jobs": { may: ["db", "lib/data", "lib/mail", "lib/domain", "lib/server-env"], handle: true },
   "lib/auth": { may: ["db", "lib/data", "lib/jobs", "lib/mail", "lib/domain", "lib/server-env"] },
@@ -60,6 +66,8 @@ export const LAYERS = {
       "lib/jobs",
       "lib/mail",
       "lib/storage",
+      "lib/pdf",
+      "lib/integrity",
       "lib/engine",
       "lib/standards",
       "lib/libraries",

@@ -6,6 +6,7 @@ import type { ModelInput, AnalysisResult } from "@/lib/engine";
 import { memberDiagram, memberEnvelope, restoreResult } from "@/lib/engine";
 import { inOrder, type RunRecord } from "@/lib/standards/run-record";
 import { formatSignificant, trimZeros } from "@/lib/standards/format";
+import { resultUnit, showValue, type DisplayUnits } from "@/lib/standards/display-units";
 import { ModelDrawing } from "@/components/standards/model-drawing";
 import { CheckLine } from "@/components/standards/check-line";
 import { MemberDiagram } from "@/components/standards/member-diagram";
@@ -32,12 +33,12 @@ export function resultIdsOf(model: ModelInput): { id: string; label: string; env
   ];
 }
 
-export function RunChecks({ record }: { record: Succeeded }) {
+export function RunChecks({ record, units = "si" }: { record: Succeeded; units?: DisplayUnits }) {
   const checks = inOrder(record.evaluation.checks, record.order?.checks);
   return (
     <div className="space-y-3" data-testid="run-checks">
       {checks.map(([key, check]) => (
-        <CheckLine key={key} name={key} check={check}>
+        <CheckLine key={key} name={key} check={check} units={units}>
           <div className="mt-2">
             <UtilisationBar utilisation={check.utilisation} shown={check.utilisationShown} pass={check.pass} />
           </div>
@@ -48,7 +49,7 @@ export function RunChecks({ record }: { record: Succeeded }) {
   );
 }
 
-export function RunInputs({ record }: { record: RunRecord }) {
+export function RunInputs({ record, units = "si" }: { record: RunRecord; units?: DisplayUnits }) {
   if (record.outcome !== "succeeded")
     return (
       <TableFrame testId="run-inputs" label="Inputs as typed" headings={["Input", "As typed"]}>
@@ -65,7 +66,9 @@ export function RunInputs({ record }: { record: RunRecord }) {
       {inOrder(record.evaluation.inputs, record.order?.inputs).map(([key, input]) => (
         <tr key={key} data-testid="run-input" data-key={key}>
           <td className="px-4 py-2 font-mono text-xs">{key}</td>
-          <td className="px-4 py-2 tabular">{input.display}</td>
+          <td className="px-4 py-2 tabular">
+            {typeof input.si === "number" ? showValue(input.si, input.display, units) : input.display}
+          </td>
           <td className="px-4 py-2 text-ink-700 tabular">
             {Object.hasOwn(record.typed, key) ? String(input.typed) : <span className="text-ink-500">default</span>}
           </td>
@@ -81,11 +84,13 @@ function ValuesTable({
   label,
   values,
   order,
+  units,
 }: {
   testId: string;
   label: string;
-  values: Readonly<Record<string, { display: string }>>;
+  values: Readonly<Record<string, { si: number; display: string }>>;
   order?: ReadonlyArray<string>;
+  units: DisplayUnits;
 }) {
   const entries = inOrder(values, order);
   if (entries.length === 0) return <p className="text-ink-700">None.</p>;
@@ -94,14 +99,24 @@ function ValuesTable({
       {entries.map(([key, value]) => (
         <tr key={key} data-testid={`${testId}-row`} data-key={key}>
           <td className="px-4 py-2 font-mono text-xs">{key}</td>
-          <td className="px-4 py-2 tabular">{value.display}</td>
+          <td className="px-4 py-2 tabular">{showValue(value.si, value.display, units)}</td>
         </tr>
       ))}
     </TableFrame>
   );
 }
 
-export function RunDiagrams({ record, result, under }: { record: Succeeded; result: AnalysisResult; under: string }) {
+export function RunDiagrams({
+  record,
+  result,
+  under,
+  units = "si",
+}: {
+  record: Succeeded;
+  result: AnalysisResult;
+  under: string;
+  units?: DisplayUnits;
+}) {
   const model = record.evaluation.model as { members: { id: string; start: string; end: string }[] };
   const envelope = Object.hasOwn(result.envelopes, under);
   return (
@@ -113,7 +128,7 @@ export function RunDiagrams({ record, result, under }: { record: Succeeded; resu
             <h3 className="mb-2 font-medium text-ink-900">Member {member.id}</h3>
             <div className="grid gap-3 lg:grid-cols-2">
               {(["M", "V", "N", "deflection"] as const).map((of) => (
-                <MemberDiagram key={of} diagram={diagram} of={of} startNode={member.start} endNode={member.end} />
+                <MemberDiagram key={of} diagram={diagram} of={of} startNode={member.start} endNode={member.end} units={units} />
               ))}
             </div>
           </div>
@@ -128,7 +143,12 @@ type CaseJson = {
   displacements: Record<string, { ux: number; uy: number; rz: number }>;
 };
 
-export function RunReactions({ record, under }: { record: Succeeded; under: string }) {
+export function RunReactions({ record, under, units = "si" }: { record: Succeeded; under: string; units?: DisplayUnits }) {
+  const [force, moment, displacement] = [
+    resultUnit("force", units),
+    resultUnit("moment", units),
+    resultUnit("displacement", units),
+  ];
   const analysis = record.analysis as { loadCases: Record<string, CaseJson>; combinations: Record<string, CaseJson> };
   const result = analysis.combinations[under] ?? analysis.loadCases[under];
   if (!result) return <p className="text-ink-700">Reactions are listed for each load case and combination; choose one above.</p>;
@@ -137,27 +157,27 @@ export function RunReactions({ record, under }: { record: Succeeded; under: stri
       <TableFrame
         testId="reactions-table"
         label={`Reactions under ${under}`}
-        headings={["Node", "Rx (kN)", "Ry (kN)", "Mz (kN·m)"]}
+        headings={["Node", `Rx (${force.unit})`, `Ry (${force.unit})`, `Mz (${moment.unit})`]}
       >
         {Object.entries(result.reactions).map(([node, r]) => (
           <tr key={node} data-testid="reaction-row" data-node={node}>
             <td className="px-4 py-2 font-mono text-xs">{node}</td>
-            <td className="px-4 py-2 tabular">{number(r.fx / 1e3)}</td>
-            <td className="px-4 py-2 tabular">{number(r.fy / 1e3)}</td>
-            <td className="px-4 py-2 tabular">{number(r.mz / 1e3)}</td>
+            <td className="px-4 py-2 tabular">{number(r.fx * force.factor)}</td>
+            <td className="px-4 py-2 tabular">{number(r.fy * force.factor)}</td>
+            <td className="px-4 py-2 tabular">{number(r.mz * moment.factor)}</td>
           </tr>
         ))}
       </TableFrame>
       <TableFrame
         testId="displacements-table"
         label={`Displacements under ${under}`}
-        headings={["Node", "ux (mm)", "uy (mm)", "θz (mrad)"]}
+        headings={["Node", `ux (${displacement.unit})`, `uy (${displacement.unit})`, "θz (mrad)"]}
       >
         {Object.entries(result.displacements).map(([node, d]) => (
           <tr key={node} data-testid="displacement-row" data-node={node}>
             <td className="px-4 py-2 font-mono text-xs">{node}</td>
-            <td className="px-4 py-2 tabular">{number(d.ux * 1e3)}</td>
-            <td className="px-4 py-2 tabular">{number(d.uy * 1e3)}</td>
+            <td className="px-4 py-2 tabular">{number(d.ux * displacement.factor)}</td>
+            <td className="px-4 py-2 tabular">{number(d.uy * displacement.factor)}</td>
             <td className="px-4 py-2 tabular">{number(d.rz * 1e3)}</td>
           </tr>
         ))}
@@ -171,10 +191,13 @@ export function RunResults({
   record,
   under,
   underHref,
+  units = "si",
 }: {
   record: RunRecord;
   under?: string;
   underHref: (id: string) => string;
+  /** The reader's choice: SI, or US customary (converted from the record's SI values; the record is unchanged). */
+  units?: DisplayUnits;
 }) {
   if (record.outcome === "failed")
     return (
@@ -193,7 +216,7 @@ export function RunResults({
           </p>
         </div>
         <Section title="Inputs" id="inputs-heading">
-          <RunInputs record={record} />
+          <RunInputs record={record} units={units} />
         </Section>
       </>
     );
@@ -206,7 +229,7 @@ export function RunResults({
   return (
     <>
       <Section title="Checks" id="checks-heading">
-        <RunChecks record={record} />
+        <RunChecks record={record} units={units} />
         {record.evaluation.assumptions.length > 0 ? (
           <ul className="mt-4 space-y-1 text-sm" data-testid="run-assumptions">
             {record.evaluation.assumptions.map((a) => (
@@ -230,12 +253,14 @@ export function RunResults({
             label="Derived values"
             values={record.evaluation.derived}
             order={record.order?.derived}
+            units={units}
           />
           <ValuesTable
             testId="run-extracts"
             label="Extracts"
             values={record.evaluation.extracts}
             order={record.order?.extracts}
+            units={units}
           />
         </div>
       </Section>
@@ -258,7 +283,7 @@ export function RunResults({
           </nav>
         ) : null}
         {restored.ok && diagramsUnder ? (
-          <RunDiagrams record={record} result={restored.result} under={diagramsUnder} />
+          <RunDiagrams record={record} result={restored.result} under={diagramsUnder} units={units} />
         ) : (
           <p className="text-fault-700">
             The stored result could not be read back: {restored.ok ? "no result to show" : restored.errors[0]?.message}
@@ -273,7 +298,7 @@ export function RunResults({
                 An envelope has no single set of reactions; these are under {tablesUnder}.
               </p>
             ) : null}
-            <RunReactions record={record} under={tablesUnder} />
+            <RunReactions record={record} under={tablesUnder} units={units} />
           </>
         ) : null}
       </Section>

@@ -1,6 +1,7 @@
 // One design check as a calc sheet prints it: what is checked, demand against capacity, the utilisation
 // (rounded up, so 1.004 shows as 1.01 and fails), pass or fail in words as well as colour, the firm's clause,
 // where it governs, and what to do when it fails.
+import { showValue, type DisplayUnits } from "@/lib/standards/display-units";
 import type { EvaluatedCheck } from "@/lib/standards/evaluate";
 import { Badge } from "@/components/ui/badge";
 
@@ -18,7 +19,18 @@ function whereText(check: EvaluatedCheck): string | null {
 }
 
 /** `children`: what a page adds under the line (a run's page, the utilisation bar). */
-export function CheckLine({ name, check, children }: { name: string; check: EvaluatedCheck; children?: React.ReactNode }) {
+export function CheckLine({
+  name,
+  check,
+  units = "si",
+  children,
+}: {
+  name: string;
+  check: EvaluatedCheck;
+  /** SI as the standard wrote it (the default), or the demand and capacity in US customary units. */
+  units?: DisplayUnits;
+  children?: React.ReactNode;
+}) {
   const where = whereText(check);
   return (
     <div
@@ -37,7 +49,8 @@ export function CheckLine({ name, check, children }: { name: string; check: Eval
         </span>
       </div>
       <p className="mt-1 text-sm text-ink-700 tabular">
-        {check.demand} {check.relation === "<=" ? "≤" : "≥"} {check.capacity}
+        {showValue(check.demandSI, check.demand, units)} {check.relation === "<=" ? "≤" : "≥"}{" "}
+        {showValue(check.capacitySI, check.capacity, units)}
         <span className="text-ink-500"> · {check.clause}</span>
       </p>
       {where ? <p className="text-xs text-ink-500">Governs at {where}</p> : null}

@@ -1,5 +1,6 @@
 import type { DiagramQuantity, MemberDiagram as EngineDiagram, MemberEnvelope } from "@/lib/engine";
-import { DIAGRAM_DISPLAY, FONT_SIZE, diagramData, layoutDiagram, type DiagramScene } from "@/lib/standards/drawing";
+import { FONT_SIZE, diagramData, diagramDisplay, layoutDiagram, type DiagramScene } from "@/lib/standards/drawing";
+import type { DisplayUnits } from "@/lib/standards/display-units";
 
 export interface MemberDiagramProps {
   /** From lib/engine's memberDiagram (one result) or memberEnvelope (max and min over several). */
@@ -10,6 +11,8 @@ export interface MemberDiagramProps {
   startNode?: string;
   endNode?: string;
   className?: string;
+  /** SI (the default) or US customary labels. */
+  units?: DisplayUnits;
 }
 
 /** Which side each quantity is drawn on, said in the caption (lib/engine/README.md has the conventions). */
@@ -26,9 +29,9 @@ const CONVENTION: Readonly<Record<DiagramQuantity, string>> = {
 };
 
 /** A diagram of N, V, M or deflection along one member, with its extremes labelled. Server-rendered SVG. */
-export function MemberDiagram({ diagram, of, startNode, endNode, className }: MemberDiagramProps) {
+export function MemberDiagram({ diagram, of, startNode, endNode, className, units = "si" }: MemberDiagramProps) {
   const data = diagramData(diagram, of);
-  const display = DIAGRAM_DISPLAY[of];
+  const display = diagramDisplay(of, units);
   const under = "resultId" in diagram ? diagram.resultId : `the envelope of ${diagram.of.join(", ")}`;
   const title = `${display.name} ${display.symbol} along member ${diagram.memberId} under ${under}`;
   if (!data)
@@ -37,8 +40,8 @@ export function MemberDiagram({ diagram, of, startNode, endNode, className }: Me
         {title}: not available for this member.
       </p>
     );
-  const wide = layoutDiagram(data, { startNode, endNode });
-  const narrow = layoutDiagram(data, { startNode, endNode, width: 300, height: 110 });
+  const wide = layoutDiagram(data, { startNode, endNode, units });
+  const narrow = layoutDiagram(data, { startNode, endNode, width: 300, height: 110, units });
   const extremes = wide.marks.map((m) => m.label.text).join("; ");
   const label = `${title}: ${extremes || `${display.symbol} = 0 along the member`}`;
   const ends = startNode && endNode ? ` x runs from node ${startNode} (left) to node ${endNode} (right).` : "";

@@ -21,10 +21,17 @@ export const user = pgTable(
     deactivatedAt: timestamp("deactivated_at", { withTimezone: true }),
     /** An IANA time zone the person chose on their profile; null: the browser's own. */
     timeZone: text("time_zone"),
+    /** How the person reads results: SI, or US customary converted from the stored SI values. */
+    displayUnits: text("display_units", { enum: ["si", "us"] })
+      .notNull()
+      .default("si"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [check("user_role_check", sql`${t.role} in ('admin', 'lead', 'engineer', 'auditor')`)],
+  (t) => [
+    check("user_role_check", sql`${t.role} in ('admin', 'lead', 'engineer', 'auditor')`),
+    check("user_display_units_check", sql`${t.displayUnits} in ('si', 'us')`),
+  ],
 );
 export type User = typeof user.$inferSelect;
 export type NewUser = typeof user.$inferInsert;

@@ -6,11 +6,25 @@ import { account, user } from "@/db/schema";
 import type { Role } from "@/lib/domain/roles";
 import { currentDb } from "./transaction";
 
-export type ProfileDto = { id: string; name: string; email: string; role: Role; timeZone: string | null };
+export type ProfileDto = {
+  id: string;
+  name: string;
+  email: string;
+  role: Role;
+  timeZone: string | null;
+  displayUnits: "si" | "us";
+};
 
 export async function getProfile(userId: string): Promise<ProfileDto | null> {
   const [row] = await currentDb()
-    .select({ id: user.id, name: user.name, email: user.email, role: user.role, timeZone: user.timeZone })
+    .select({
+      id: user.id,
+      name: user.name,
+      email: user.email,
+      role: user.role,
+      timeZone: user.timeZone,
+      displayUnits: user.displayUnits,
+    })
     .from(user)
     .where(eq(user.id, userId));
   return row ?? null;
@@ -35,4 +49,8 @@ export async function setPasswordHash(userId: string, hash: string): Promise<voi
 
 export async function setTimeZone(userId: string, timeZone: string | null): Promise<void> {
   await currentDb().update(user).set({ timeZone, updatedAt: new Date() }).where(eq(user.id, userId));
+}
+
+export async function setDisplayUnits(userId: string, displayUnits: "si" | "us"): Promise<void> {
+  await currentDb().update(user).set({ displayUnits, updatedAt: new Date() }).where(eq(user.id, userId));
 }

@@ -29,6 +29,7 @@ export type AuditDetails = {
   "profile.change-password.failed": { reason: string };
   /** null: the browser's own time zone. */
   "profile.set-time-zone": { from: string | null; to: string | null };
+  "profile.set-display-units": { from: "si" | "us"; to: "si" | "us" };
   // The standards' lifecycle. `slug` names the standard; `hash` is the content hash of the source concerned.
   "standards.create": { slug: string; title: string };
   "standards.draft.start": { slug: string; fromVersion: number };
@@ -118,6 +119,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "profile.change-password": "Changed their password",
   "profile.change-password.failed": "Failed to change their password",
   "profile.set-time-zone": "Set their time zone",
+  "profile.set-display-units": "Chose the units results are shown in",
   "standards.create": "Started a new standard",
   "standards.draft.start": "Started a draft from a version",
   "standards.draft.save": "Saved a draft",

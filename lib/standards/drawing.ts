@@ -4,6 +4,7 @@
  * arrows and text have fixed sizes in viewBox units; the model's own scale is one number for x and y alike, so
  * the geometry is never distorted, and the viewBox is the bounding box of everything drawn plus a margin.
  */
+import { resultUnit, type DisplayUnits, type ResultKind } from "./display-units";
 import type { DiagramQuantity, Extreme, LoadInput, MemberDiagram, MemberEnvelope, ModelInput, Restraint } from "@/lib/engine";
 import { formatSignificant } from "./format";
 
@@ -630,11 +631,33 @@ export interface DiagramScene {
   readonly points: ReadonlyArray<ReadonlyArray<Point>>;
 }
 
-/** "M max 144 kN·m at x = 3.00 m" from an SI value. */
-export function describeExtreme(quantity: DiagramQuantity, which: "max" | "min", e: Extreme & { from?: string }): string {
-  const d = DIAGRAM_DISPLAY[quantity];
+const RESULT_KIND: Readonly<Record<DiagramQuantity, ResultKind>> = {
+  N: "force",
+  V: "force",
+  M: "moment",
+  deflection: "displacement",
+  relativeDeflection: "displacement",
+  axialDisplacement: "displacement",
+  stressTop: "stress",
+  stressBottom: "stress",
+};
+
+/** How a quantity is printed in the reader's units (SI as DIAGRAM_DISPLAY, or US customary). */
+export function diagramDisplay(quantity: DiagramQuantity, units: DisplayUnits = "si") {
+  return { ...DIAGRAM_DISPLAY[quantity], ...resultUnit(RESULT_KIND[quantity], units) };
+}
+
+/** "M max 144 kN·m at x = 3.00 m" from an SI value (or "… kip·ft at x = 9.84 ft" in US customary units). */
+export function describeExtreme(
+  quantity: DiagramQuantity,
+  which: "max" | "min",
+  e: Extreme & { from?: string },
+  units: DisplayUnits = "si",
+): string {
+  const d = diagramDisplay(quantity, units);
+  const length = resultUnit("length", units);
   const from = e.from ? ` (${e.from})` : "";
-  return `${d.symbol} ${which} ${formatNumber(e.value * d.factor)} ${d.unit} at x = ${finite(e.x).toFixed(2)} m${from}`;
+  return `${d.symbol} ${which} ${formatNumber(e.value * d.factor)} ${d.unit} at x = ${(finite(e.x) * length.factor).toFixed(2)} ${length.unit}${from}`;
 }
 
 /** Below this (in display units: kN, kN·m, mm, MPa) a value is numerical noise and is drawn as zero. */
@@ -642,7 +665,7 @@ const NEGLIGIBLE = 1e-6;
 
 export function layoutDiagram(
   data: DiagramData,
-  options: { width?: number; height?: number; startNode?: string; endNode?: string } = {},
+  options: { width?: number; height?: number; startNode?: string; endNode?: string; units?: DisplayUnits } = {},
 ): DiagramScene {
   const width = options.width ?? 520;
   const height = options.height ?? 140;
@@ -684,7 +707,7 @@ export function layoutDiagram(
     const label: TextLabel = {
       x: p.x,
       y: p.y > base ? p.y + FONT_SIZE + 4 : p.y - 6,
-      text: describeExtreme(data.quantity, which, e),
+      text: describeExtreme(data.quantity, which, e, options.units),
       anchor,
     };
     b.text(label);

@@ -35,6 +35,9 @@ import { getJob } from "@/lib/data/jobs";
 import { getRun } from "@/lib/data/runs";
 import { getObject, putObject } from "@/lib/storage/s3";
 import { withOpenSheet } from "@/lib/pdf/sheet-renderer";
+
+/** For the sheet PDF's route: the asking request's session, handed to the renderer for the sheet page. */
+export { withRequestCookies } from "@/lib/pdf/sheet-renderer";
 import { defineUseCase } from "./use-case";
 
 const sha256Of = (body: Uint8Array) => createHash("sha256").update(body).digest("hex");

@@ -5,8 +5,13 @@ import "server-only";
 import { z } from "zod";
 import { hashPassword, verifyPassword } from "better-auth/crypto";
 import { AppError } from "@/lib/domain/errors";
-import { WRONG_CURRENT_PASSWORD_MESSAGE, changePasswordSchema, setTimeZoneSchema } from "@/lib/domain/schemas/profile";
-import { getProfile, lockPasswordHash, setPasswordHash, setTimeZone, type ProfileDto } from "@/lib/data/profile";
+import {
+  WRONG_CURRENT_PASSWORD_MESSAGE,
+  changePasswordSchema,
+  setDisplayUnitsSchema,
+  setTimeZoneSchema,
+} from "@/lib/domain/schemas/profile";
+import { getProfile, lockPasswordHash, setDisplayUnits, setPasswordHash, setTimeZone, type ProfileDto } from "@/lib/data/profile";
 import { clearRateLimit, consumeRateLimit } from "@/lib/data/rate-limit";
 import { endSessions } from "@/lib/data/sessions";
 import { outsideTransaction } from "@/lib/data/transaction";
@@ -97,4 +102,25 @@ export const setOwnTimeZone = defineUseCase({
     result.from === result.timeZone
       ? null
       : { action: "profile.set-time-zone", subject: `user:${actor.id}`, details: { from: result.from, to: result.timeZone } },
+});
+
+/** Sets how the person reads results (SI or US customary); choosing the one they have is not an event. */
+export const setOwnDisplayUnits = defineUseCase({
+  name: "profile.set-display-units",
+  permission: "signed-in",
+  input: setDisplayUnitsSchema,
+  run: async ({ displayUnits }, { actor }): Promise<{ userId: string; from: "si" | "us"; displayUnits: "si" | "us" }> => {
+    const profile = await getProfile(actor.id);
+    if (!profile) throw new AppError("not-found", "Your account no longer exists.");
+    if (profile.displayUnits !== displayUnits) await setDisplayUnits(actor.id, displayUnits);
+    return { userId: actor.id, from: profile.displayUnits, displayUnits };
+  },
+  audit: ({ result, actor }) =>
+    result.from === result.displayUnits
+      ? null
+      : {
+          action: "profile.set-display-units",
+          subject: `user:${actor.id}`,
+          details: { from: result.from, to: result.displayUnits },
+        },
 });

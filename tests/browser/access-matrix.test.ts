@@ -467,6 +467,7 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   // Every role has a profile, and each call acts on the caller only.
   "app/(app)/profile/actions.ts#changePasswordAction": anonymousElse<ActionOutcome>("unauthenticated", "ok"),
   "app/(app)/profile/actions.ts#setTimeZoneAction": anonymousElse<ActionOutcome>("unauthenticated", "ok"),
+  "app/(app)/profile/actions.ts#setDisplayUnitsAction": anonymousElse<ActionOutcome>("unauthenticated", "ok"),
   // The invitation link is the credential: anyone holding a real one may accept it, and lands home.
   "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": same<ActionOutcome>("ok"),
   // Standards leads write, review, publish and withdraw standards; nobody else.

@@ -1,6 +1,7 @@
 // A list of runs longer than a page: the first 50 come with the page, "Older runs" fetches the next page from
 // GET /api/runs in place (TanStack Query) without leaving the page, and the rows are newest first without a gap or a
-// repeat across the page boundary.
+// repeat across the page boundary. Then the oldest and newest runs compared side by side, and a run shown in US
+// customary units, remembered across a reload.
 import { desc, eq } from "drizzle-orm";
 import { expect, it } from "vitest";
 import { db } from "@/db";
@@ -60,4 +61,36 @@ it("loads older runs in place, newest first, with none missing or repeated", asy
   expect(new URL(page.url()).search).toBe(`?job=${jobNumber}`);
   expect(await rows.evaluateAll((items) => items.map((item) => item.getAttribute("data-run-id")))).toEqual(newestFirst);
   expect(await page.getByTestId("runs-next").count()).toBe(0);
+
+  // The oldest and the newest side by side: the span differs, and with it the bending utilisation.
+  await page.goto(appUrl(`/runs/${newestFirst.at(-1)}`));
+  await page.getByTestId("compare-with").selectOption(newestFirst[0]);
+  await page.getByTestId("compare-submit").click();
+  await page.waitForURL(/\/runs\/compare\?a=/);
+  const span = page.locator("[data-testid=compared-inputs] [data-testid=compared-row][data-key=L]");
+  expect(await span.getAttribute("data-changed")).toBe("yes");
+  expect(await span.getByTestId("compared-difference").textContent()).toMatch(/^\+\d+(\.\d+)? %$/);
+  const bending = page.locator("[data-testid=compared-utilisations] [data-testid=compared-row][data-key=bending]");
+  expect(await bending.getByTestId("compared-difference").textContent()).toMatch(/^\+\d+(\.\d+)? %$/);
+  expect(
+    await page.locator("[data-testid=compared-inputs] [data-testid=compared-row][data-key=E]").getAttribute("data-changed"),
+  ).toBe("no");
+  expect(await page.getByTestId("caution").count()).toBe(2);
+
+  // US customary display, remembered: the reactions and diagrams switch to kip and kip·ft, and stay so on reload.
+  await page.goto(appUrl(`/runs/${newestFirst[0]}`));
+  const reactionHeadings = () => page.locator("[data-testid=reactions-table] th").allTextContents();
+  expect(await reactionHeadings()).toContain("Ry (kN)");
+  try {
+    await page.getByTestId("display-units-us").click();
+    await expect.poll(reactionHeadings, { timeout: 15_000 }).toContain("Ry (kip)");
+    await page.reload();
+    expect(await reactionHeadings()).toContain("Mz (kip·ft)");
+    expect(await page.getByTestId("display-units-us").getAttribute("aria-pressed")).toBe("true");
+    const moment = await page.locator("[data-testid=member-diagram-svg][data-quantity=M]").first().getAttribute("aria-label");
+    expect(moment).toMatch(/kip·ft at x = \d+\.\d{2} ft/);
+  } finally {
+    await page.getByTestId("display-units-si").click();
+    await expect.poll(reactionHeadings, { timeout: 15_000 }).toContain("Ry (kN)");
+  }
 });

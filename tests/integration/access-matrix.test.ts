@@ -132,6 +132,7 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   // Every role has a profile, and each call acts on the caller only.
   "app/(app)/profile/actions.ts#changePasswordAction": SIGNED_IN,
   "app/(app)/profile/actions.ts#setTimeZoneAction": SIGNED_IN,
+  "app/(app)/profile/actions.ts#setDisplayUnitsAction": SIGNED_IN,
   // Public: the link is the credential; anyone holding a real one may accept it.
   "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": PUBLIC,
   "app/(app)/standards/actions.ts#createStandardAction": LEADS_ONLY,

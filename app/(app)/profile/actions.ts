@@ -3,8 +3,11 @@
 // person only.
 import { revalidatePath } from "next/cache";
 import { serverAction } from "@/lib/use-cases/next";
-import { changePassword, setOwnTimeZone } from "@/lib/use-cases/profile";
+import { changePassword, setOwnDisplayUnits, setOwnTimeZone } from "@/lib/use-cases/profile";
 
 export const changePasswordAction = serverAction(changePassword);
 
 export const setTimeZoneAction = serverAction(setOwnTimeZone, { then: () => revalidatePath("/profile") });
+
+/** Results everywhere (run pages, calc sheets) follow the choice: every page is drawn again. */
+export const setDisplayUnitsAction = serverAction(setOwnDisplayUnits, { then: () => revalidatePath("/", "layout") });

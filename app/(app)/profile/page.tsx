@@ -7,6 +7,7 @@ import { readProfile } from "@/lib/use-cases/profile";
 import { PageHeader } from "@/components/ui/page-header";
 import { ChangePasswordForm } from "./_components/change-password-form";
 import { TimeZoneForm } from "./_components/time-zone-form";
+import { DisplayUnitsForm } from "./_components/display-units-form";
 
 export const metadata: Metadata = { title: "Profile" };
 
@@ -74,6 +75,13 @@ export default async function ProfilePage() {
           testId="profile-time-zone"
         >
           <TimeZoneForm current={profile.timeZone} zones={supportedTimeZones()} />
+        </Section>
+        <Section
+          title="Units"
+          lead="Run results and calc sheets are shown in these units, converted from the SI values every run stores. The records themselves never change."
+          testId="profile-units"
+        >
+          <DisplayUnitsForm current={profile.displayUnits} />
         </Section>
       </div>
     </>

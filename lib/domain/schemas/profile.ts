@@ -36,3 +36,8 @@ export const setTimeZoneSchema = z.object({
     .refine((value) => value === null || supportedTimeZones().includes(value), "Choose a time zone from the list."),
 });
 export type SetTimeZoneInput = z.input<typeof setTimeZoneSchema>;
+
+/** How the person reads results: SI, or US customary (converted for display; records stay in SI). */
+export const setDisplayUnitsSchema = z.object({
+  displayUnits: z.enum(["si", "us"], "Choose SI or US customary units."),
+});

@@ -260,6 +260,16 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
       expect((await userRow(userId)).timeZone).toBeNull();
     },
   }),
+  // US customary, then back to SI by hand, so whoever called (a demo person in the browser matrix) keeps SI.
+  "app/(app)/profile/actions.ts#setDisplayUnitsAction": async () => ({
+    input: { displayUnits: "us" },
+    succeeded: async (answer) => {
+      expect(answer).toMatchObject({ state: { ok: true, data: { userId: expect.any(String), displayUnits: "us" } } });
+      const { userId } = (answer as { state: { data: { userId: string } } }).state.data;
+      expect((await userRow(userId)).displayUnits).toBe("us");
+      await db.update(schema.user).set({ displayUnits: "si" }).where(eq(schema.user.id, userId));
+    },
+  }),
   // A real link: the account is made, the person signed in and sent home.
   "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": async () => {
     const { invitation, token } = await inviteWithToken("lead");

@@ -16,6 +16,8 @@ import { RunResults } from "@/components/runs/run-results";
 import { SheetPdfs } from "@/components/runs/sheet-pdfs";
 import { Attachments } from "@/components/jobs/attachments";
 import { readAttachments, readSheetPdfs } from "@/lib/use-cases/files";
+import { readProfile } from "@/lib/use-cases/profile";
+import { DisplayUnitsForm } from "../../profile/_components/display-units-form";
 import { orNotFound } from "../../_components/or-not-found";
 import { RunOutcomeBadge } from "../_components/run-outcome";
 import { ApproveForm, CheckForm, IssueForm, RevisionSteps } from "../_components/sign-off";
@@ -35,10 +37,11 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
   const mayIssue = run.createdById === actor.id && run.outcome === "succeeded" && can(actor.role, "runs.sign-prepared");
   const calcs = mayIssue ? await runUseCase(readCalcPackage, { actor, input: { jobId: run.jobId } }) : [];
   const people = mayIssue ? (await runUseCase(readJobPeople, { actor, input: {} })).filter((p) => p.id !== actor.id) : [];
-  const [pdfs, attachments, sameStandard] = await Promise.all([
+  const [pdfs, attachments, sameStandard, profile] = await Promise.all([
     runUseCase(readSheetPdfs, { actor, input: { id: run.id } }),
     runUseCase(readAttachments, { actor, input: { jobId: run.jobId, runId: run.id } }),
     runUseCase(readRuns, { actor, input: { job: run.jobNumber, standard: run.slug, limit: 30 } }),
+    runUseCase(readProfile, { actor, input: {} }),
   ]);
   const others = sameStandard.runs.filter((other) => other.id !== run.id);
   const open = revisions.some((r) => r.state === "awaiting-check" || r.state === "awaiting-approval");
@@ -195,7 +198,11 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
           canAttach={can(actor.role, "files.attach")}
         />
       </Section>
+      <div className="mt-10 flex justify-end" data-testid="run-units">
+        <DisplayUnitsForm current={profile.displayUnits} compact />
+      </div>
       <RunResults
+        units={profile.displayUnits}
         record={record}
         under={typeof under === "string" ? under : undefined}
         underHref={(resultId) => `/runs/${run.id}?under=${encodeURIComponent(resultId)}#diagrams-heading`}

@@ -1,9 +1,8 @@
 // GET the PDF of a run's calc sheet as it shows now, rendered on the server by Chromium: the PDF kept for this
 // state of the sheet, or a new one rendered, stored in S3 and kept (a new sign-off or a withdrawal banner makes
 // a new state; the old PDFs stay, listed on the run's page). X-Content-SHA256 is the PDF's sha256.
-import { withRequestCookies } from "@/lib/pdf/sheet-renderer";
 import { sheetPdfResponse } from "@/lib/use-cases/file-responses";
-import { renderSheetPdf } from "@/lib/use-cases/files";
+import { renderSheetPdf, withRequestCookies } from "@/lib/use-cases/files";
 import { routeHandler } from "@/lib/use-cases/next";
 
 const render = routeHandler(renderSheetPdf, { respond: sheetPdfResponse });

@@ -1,0 +1,2 @@
+ALTER TABLE "user" ADD COLUMN "display_units" text DEFAULT 'si' NOT NULL;--> statement-breakpoint
+ALTER TABLE "user" ADD CONSTRAINT "user_display_units_check" CHECK ("user"."display_units" in ('si', 'us'));

@@ -170,6 +170,6 @@ export function deformedShape(model: ModelInput, result: AnalysisResult, resultI
     factor,
     members,
     largest,
-    caption: `Deformed shape under ${resultLabel} (dashed), displacements drawn ${formatFactor(factor)}; largest displacement ${millimetres(largest.value)} at ${where}.`,
+    caption: `Deformed shape (dashed) under ${resultLabel}, displacements drawn ${formatFactor(factor)}; largest displacement ${millimetres(largest.value)} at ${where}.`,
   };
 }

@@ -68,7 +68,7 @@ describe("the deformed shape", () => {
     close(shape.largest!.value, (P * L ** 3) / (3 * EI));
     expect(shape.largest!.node).toBe("B");
     expect(shape.caption).toMatch(
-      /^Deformed shape under load case P \(dashed\), displacements drawn × \d+; largest displacement [\d.]+ mm at node B\.$/,
+      /^Deformed shape \(dashed\) under load case P, displacements drawn × \d+; largest displacement [\d.]+ mm at node B\.$/,
     );
   });
 

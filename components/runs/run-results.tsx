@@ -43,14 +43,16 @@ export function RunModel({
   result,
   under,
   name,
+  units = "si",
 }: {
   record: Succeeded;
   result: AnalysisResult | undefined;
   under: string | undefined;
   name: string;
+  units?: DisplayUnits;
 }) {
   const model = record.evaluation.model;
-  const deformed = result && under ? deformedShape(model, result, under) : undefined;
+  const deformed = result && under ? deformedShape(model, result, under, units) : undefined;
   const loadCase = model.loadCases?.some((c) => c.id === under) ? under : undefined;
   return <ModelDrawing model={model} name={name} loadCase={loadCase} deformed={deformed} />;
 }
@@ -292,6 +294,7 @@ export function RunResults({
           result={restored.ok ? restored.result : undefined}
           under={tablesUnder}
           name={record.standard.title}
+          units={units}
         />
       </Section>
       <Section title="Diagrams" id="diagrams-heading">

@@ -15,6 +15,7 @@
 import { memberDiagram, type AnalysisResult, type ModelInput } from "@/lib/engine";
 import { formatFactor, type Point } from "./drawing";
 import { formatSignificant } from "./format";
+import { resultUnit, type DisplayUnits } from "./display-units";
 
 /** The largest displacement is drawn at most this fraction of the model's largest dimension. */
 export const DEFORMED_FRACTION = 0.08;
@@ -68,7 +69,11 @@ export function niceFactor(raw: number): number {
   return Number((step * power).toPrecision(1));
 }
 
-const millimetres = (m: number) => `${formatSignificant(m * 1000, 3)} mm`;
+/** A displacement or a length in the person's units: "4.07 mm", "0.160 in", "3.00 m", "9.84 ft". */
+function shown(si: number, kind: "displacement" | "length", units: DisplayUnits, digits: number): string {
+  const { unit, factor } = resultUnit(kind, units);
+  return `${kind === "length" ? (si * factor).toFixed(digits) : formatSignificant(si * factor, digits)} ${unit}`;
+}
 
 function labelOf(model: ModelInput, id: string, kind: "load-case" | "combination"): string {
   const list = kind === "load-case" ? model.loadCases : model.combinations;
@@ -77,17 +82,22 @@ function labelOf(model: ModelInput, id: string, kind: "load-case" | "combination
 }
 
 /** Where the largest displacement is, in words: "node B", "member m, 3.00 m from node A". */
-export function describeLocation(l: LargestDisplacement, model: ModelInput): string {
+export function describeLocation(l: LargestDisplacement, model: ModelInput, units: DisplayUnits = "si"): string {
   if (l.node !== undefined) return `node ${l.node}`;
   const start = model.members?.find((m) => m.id === l.member)?.start;
-  return `member ${l.member}, ${(l.x ?? 0).toFixed(2)} m from ${start !== undefined ? `node ${start}` : "its start"}`;
+  return `member ${l.member}, ${shown(l.x ?? 0, "length", units, 2)} from ${start !== undefined ? `node ${start}` : "its start"}`;
 }
 
 /**
  * The deformed shape under `resultId` (a load case or combination of `result`, which was analysed or restored
- * from `model`). An envelope has no single shape: it and unknown ids give undefined.
+ * from `model`). An envelope has no single shape: it and unknown ids give undefined. `units` only changes the caption.
  */
-export function deformedShape(model: ModelInput, result: AnalysisResult, resultId: string): DeformedShape | undefined {
+export function deformedShape(
+  model: ModelInput,
+  result: AnalysisResult,
+  resultId: string,
+  units: DisplayUnits = "si",
+): DeformedShape | undefined {
   const r = result.loadCases[resultId] ?? result.combinations[resultId];
   if (!r) return undefined;
   const resultLabel = labelOf(model, resultId, r.kind);
@@ -161,7 +171,7 @@ export function deformedShape(model: ModelInput, result: AnalysisResult, resultI
       y: m.from.y + x * m.s + factor * m.d[i].uy,
     })),
   }));
-  const where = describeLocation(largest, model);
+  const where = describeLocation(largest, model, units);
   return {
     resultId,
     kind: r.kind,
@@ -170,6 +180,6 @@ export function deformedShape(model: ModelInput, result: AnalysisResult, resultI
     factor,
     members,
     largest,
-    caption: `Deformed shape (dashed) under ${resultLabel}, displacements drawn ${formatFactor(factor)}; largest displacement ${millimetres(largest.value)} at ${where}.`,
+    caption: `Deformed shape (dashed) under ${resultLabel}, displacements drawn ${formatFactor(factor)}; largest displacement ${shown(largest.value, "displacement", units, 3)} at ${where}.`,
   };
 }

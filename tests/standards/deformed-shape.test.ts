@@ -108,6 +108,11 @@ describe("the deformed shape", () => {
     expect(shape.largest).toMatchObject({ member: "m" });
     close(shape.largest!.x!, L / 2);
     expect(shape.caption).toContain("at member m, 4.00 m from node A.");
+    // In US customary units the caption alone changes: inches (exactly 25.4 mm) and feet (exactly 0.3048 m).
+    const us = deformedShape(model, resultOf(model), "W", "us")!;
+    expect(us.members).toEqual(shape.members);
+    const inches = ((5 * w * L ** 4) / (384 * EI) / 0.0254).toPrecision(3);
+    expect(us.caption).toContain(`largest displacement ${inches} in at member m, ${(4 / 0.3048).toFixed(2)} ft from node A.`);
   });
 
   it("kinks at a hinge: a link pinned to a cantilever's tip stays straight while the cantilever curves", () => {

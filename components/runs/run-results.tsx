@@ -7,6 +7,7 @@ import { memberDiagram, memberEnvelope, restoreResult } from "@/lib/engine";
 import { inOrder, type RunRecord } from "@/lib/standards/run-record";
 import { formatSignificant, trimZeros } from "@/lib/standards/format";
 import { resultUnit, showValue, type DisplayUnits } from "@/lib/standards/display-units";
+import { deformedShape } from "@/lib/standards/deformed-shape";
 import { ModelDrawing } from "@/components/standards/model-drawing";
 import { CheckLine } from "@/components/standards/check-line";
 import { MemberDiagram } from "@/components/standards/member-diagram";
@@ -31,6 +32,29 @@ export function resultIdsOf(model: ModelInput): { id: string; label: string; env
     ...(m.combinations ?? []).map((c) => ({ id: c.id, label: `combination ${c.name ?? c.id}`, envelope: false })),
     ...(m.loadCases ?? []).map((c) => ({ id: c.id, label: `load case ${c.name ?? c.id}`, envelope: false })),
   ];
+}
+
+/**
+ * The model of a stored run with its deformed shape under one load case or combination (an envelope has none):
+ * the loads drawn are that load case's, or for a combination the first load case's, as the caption says.
+ */
+export function RunModel({
+  record,
+  result,
+  under,
+  name,
+  units = "si",
+}: {
+  record: Succeeded;
+  result: AnalysisResult | undefined;
+  under: string | undefined;
+  name: string;
+  units?: DisplayUnits;
+}) {
+  const model = record.evaluation.model;
+  const deformed = result && under ? deformedShape(model, result, under, units) : undefined;
+  const loadCase = model.loadCases?.some((c) => c.id === under) ? under : undefined;
+  return <ModelDrawing model={model} name={name} loadCase={loadCase} deformed={deformed} />;
 }
 
 export function RunChecks({ record, units = "si" }: { record: Succeeded; units?: DisplayUnits }) {
@@ -265,7 +289,13 @@ export function RunResults({
         </div>
       </Section>
       <Section title="Model" id="model-heading">
-        <ModelDrawing model={record.evaluation.model} name={record.standard.title} />
+        <RunModel
+          record={record}
+          result={restored.ok ? restored.result : undefined}
+          under={tablesUnder}
+          name={record.standard.title}
+          units={units}
+        />
       </Section>
       <Section title="Diagrams" id="diagrams-heading">
         {choices.length > 1 ? (

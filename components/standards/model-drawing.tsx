@@ -1,5 +1,6 @@
 import type { ModelInput } from "@/lib/engine";
 import { FONT_SIZE, layoutModel, type ModelScene, type TextLabel } from "@/lib/standards/drawing";
+import type { DeformedShape } from "@/lib/standards/deformed-shape";
 
 export interface ModelDrawingProps {
   /** The engine's model, as a standard's evaluation gives it (SI: m, N, N/m, N·m). */
@@ -13,6 +14,8 @@ export interface ModelDrawingProps {
   /** The box (viewBox units) the nodes are fitted into; the drawing always scales to its container's width. */
   width?: number;
   height?: number;
+  /** The deformed shape under one result (`deformedShape` in lib/standards/deformed-shape.ts), drawn dashed over the model. */
+  deformed?: DeformedShape;
   className?: string;
 }
 
@@ -38,9 +41,9 @@ function Label({ label, className }: { label: TextLabel; className: string }) {
 const NARROW = { width: 300, height: 340 };
 
 /** A structural model drawn to scale: members, hinges, supports and the loads of one load case. Server-rendered SVG. */
-export function ModelDrawing({ model, loadCase, name, labels, width, height, className }: ModelDrawingProps) {
-  const wide = layoutModel(model, { loadCase, name, labels, width, height });
-  const narrow = layoutModel(model, { loadCase, name, labels, ...NARROW });
+export function ModelDrawing({ model, loadCase, name, labels, width, height, deformed, className }: ModelDrawingProps) {
+  const wide = layoutModel(model, { loadCase, name, labels, width, height, deformed });
+  const narrow = layoutModel(model, { loadCase, name, labels, deformed, ...NARROW });
   return (
     <figure className={`rounded-plate border border-ink-200 bg-paper-raised p-3 ${className ?? ""}`} data-testid="model-drawing">
       <ModelSvg scene={wide} layout="wide" className="hidden max-h-[36rem] max-w-3xl sm:block" />
@@ -50,6 +53,11 @@ export function ModelDrawing({ model, loadCase, name, labels, width, height, cla
           ? `Loads of case ${wide.loadCase.id}${wide.loadCase.name ? ` (${wide.loadCase.name})` : ""}, in kN, kN/m and kN·m.`
           : "No loads shown."}
         {wide.hasTruss ? " Thin lines are truss members, pin-ended." : ""}
+        {deformed ? (
+          <span className="mt-1 block" data-testid="deformed-caption" data-factor={deformed.factor}>
+            {deformed.caption}
+          </span>
+        ) : null}
       </figcaption>
     </figure>
   );
@@ -67,6 +75,7 @@ function ModelSvg({ scene, layout, className }: { scene: ModelScene; layout: "wi
       data-layout={layout}
     >
       <title>{scene.summary}</title>
+      {scene.deformed ? <desc>{scene.deformed.caption}</desc> : null}
       <g fill="none" strokeLinecap="round">
         {scene.members.map((m) => (
           <line
@@ -87,6 +96,21 @@ function ModelSvg({ scene, layout, className }: { scene: ModelScene; layout: "wi
           <circle key={`${c.cx},${c.cy}`} cx={c.cx} cy={c.cy} r={c.r} data-hinge="" />
         ))}
       </g>
+      {scene.deformed?.members.length ? (
+        // Over the members and under the symbols and labels, so the model stays legible where the shape crosses it.
+        <g
+          fill="none"
+          className="stroke-plate-700"
+          strokeWidth={1.75}
+          strokeDasharray="6 4"
+          strokeLinejoin="round"
+          data-deformed=""
+        >
+          {scene.deformed.members.map((m) => (
+            <path key={m.id} d={m.d} data-member={m.id} />
+          ))}
+        </g>
+      ) : null}
       {scene.supports.map((s) => (
         <g key={s.node} data-support={s.kind} data-node={s.node} className="stroke-ink-700" strokeWidth={1.25}>
           <path d={s.strokes} fill="none" />

@@ -7,6 +7,7 @@
 import { resultUnit, type DisplayUnits, type ResultKind } from "./display-units";
 import type { DiagramQuantity, Extreme, LoadInput, MemberDiagram, MemberEnvelope, ModelInput, Restraint } from "@/lib/engine";
 import { formatSignificant } from "./format";
+import type { DeformedShape } from "./deformed-shape";
 
 export interface Point {
   readonly x: number;
@@ -108,6 +109,8 @@ export function overlaps(a: TextLabel, b: TextLabel): boolean {
 
 /** Three significant figures, as the drawings print every value. */
 export const formatNumber = (v: number) => formatSignificant(finite(v) + 0, 3).replace("-", "−");
+/** A deformed shape's magnification: "× 200", "× 0.5", "× 2×10⁶". */
+export const formatFactor = (factor: number) => `× ${formatSignificant(finite(factor), 1)}`;
 const magnitude = (si: number, unit: string) => `${formatNumber(Math.abs(si) / 1000)} ${unit}`;
 
 /** An arrow whose tip is at `tip`, pointing along the unit vector `dir`, `length` long. */
@@ -176,6 +179,11 @@ export interface ModelScene {
   readonly nodeLabels: ReadonlyArray<TextLabel>;
   readonly loadCase?: { readonly id: string; readonly name?: string };
   readonly hasTruss: boolean;
+  /** The deformed shape, one dashed path per member in viewBox units, and the sentence that states its scale. */
+  readonly deformed?: {
+    readonly members: ReadonlyArray<{ readonly id: string; readonly d: string; readonly points: ReadonlyArray<Point> }>;
+    readonly caption: string;
+  };
   /** One sentence for assistive technology: what is drawn. */
   readonly summary: string;
 }
@@ -189,6 +197,8 @@ export interface ModelDrawingOptions {
   readonly labels?: boolean;
   /** What the model is, for the summary: "Portal frame" → "Portal frame model: …". */
   readonly name?: string;
+  /** A deformed shape (lib/standards/deformed-shape.ts) to draw over the model, in the model's coordinates. */
+  readonly deformed?: DeformedShape;
 }
 
 /** Shortest member drawn at least this long per 640 units of width: a many-storey frame grows its viewBox rather than its clutter. */
@@ -545,6 +555,14 @@ export function layoutModel(model: ModelInput, options: ModelDrawingOptions = {}
       supports.push(drawSupport(n.id, nodes.get(n.id)!, n.support, unit, shown?.id, b));
   }
   const loads = shown ? drawLoads(model, shown.loads ?? [], nodes, geometry, scale, b, placed) : [];
+  const deformed = options.deformed && {
+    members: options.deformed.members.map((m) => {
+      const points = m.points.map((p) => ({ x: finite(p.x * scale), y: finite(-p.y * scale) }));
+      b.points(points);
+      return { id: m.id, d: polyline(points), points };
+    }),
+    caption: options.deformed.caption,
+  };
   const nodeLabels = labels
     ? raw.map((n) => {
         const at = nodes.get(n.id)!;
@@ -561,7 +579,14 @@ export function layoutModel(model: ModelInput, options: ModelDrawingOptions = {}
       })
     : [];
   const what = `${options.name ? `${options.name} model` : "Structural model"}: ${plural(raw.length, "node")}, ${plural(members.length, "member")}, ${plural(supports.length, "support")}`;
-  const summary = `${what}; ${shown ? `loads of case ${shown.id}${shown.name ? ` (${shown.name})` : ""}` : "no loads shown"}`;
+  const loadsShown = shown ? `loads of case ${shown.id}${shown.name ? ` (${shown.name})` : ""}` : "no loads shown";
+  const shape = options.deformed;
+  const deformedShown = !shape
+    ? ""
+    : shape.drawn
+      ? `; deformed shape under ${shape.resultLabel}, displacements drawn ${formatFactor(shape.factor)}`
+      : `; no deformed shape under ${shape.resultLabel}`;
+  const summary = `${what}; ${loadsShown}${deformedShown}`;
   return {
     viewBox: b.viewBox(SIZE.margin),
     scale,
@@ -572,6 +597,7 @@ export function layoutModel(model: ModelInput, options: ModelDrawingOptions = {}
     nodeLabels,
     loadCase: shown ? { id: shown.id, ...(shown.name ? { name: shown.name } : {}) } : undefined,
     hasTruss: members.some((m) => m.kind === "truss"),
+    ...(deformed ? { deformed } : {}),
     summary,
   };
 }

@@ -9,8 +9,7 @@ import { restoreResult } from "@/lib/engine";
 import { ISSUE_STATUS_LABELS, type IssueStatusId } from "@/lib/domain/schemas/calcs";
 import { Caution } from "@/components/standards/caution";
 import { NarrativeView } from "@/components/standards/narrative-view";
-import { ModelDrawing } from "@/components/standards/model-drawing";
-import { RunChecks, RunDiagrams, RunInputs, RunReactions, resultIdsOf } from "@/components/runs/run-results";
+import { RunChecks, RunDiagrams, RunInputs, RunModel, RunReactions, resultIdsOf } from "@/components/runs/run-results";
 import { orNotFound } from "../../../../(app)/_components/or-not-found";
 import { WithdrawalBanner } from "@/components/runs/withdrawal-banner";
 import { PrintButton } from "./print-button";
@@ -133,7 +132,12 @@ export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sh
                     <RunInputs record={record} />
                   </SheetPart>
                   <SheetPart title="Model">
-                    <ModelDrawing model={record.evaluation.model} name={run.title} />
+                    <RunModel
+                      record={record}
+                      result={restored?.ok ? restored.result : undefined}
+                      under={resultIdsOf(record.evaluation.model).find((r) => !r.envelope)?.id}
+                      name={run.title}
+                    />
                   </SheetPart>
                   <SheetPart title={`Checks: ${record.evaluation.pass ? "every check passes" : "a check fails"}`}>
                     <RunChecks record={record} />

@@ -177,6 +177,17 @@ export async function listVersionsOf(standardId: string): Promise<VersionSummary
   return rows.map(toSummary);
 }
 
+/** A version's status alone (published, superseded or withdrawn); null when there is no such version. */
+export async function getVersionStatus(id: string): Promise<VersionStatus | null> {
+  const latest = latestEvents();
+  const [row] = await currentDb()
+    .select({ status: sql<VersionStatus>`coalesce(${latest.kind}, 'published')` })
+    .from(standardVersions)
+    .leftJoin(latest, eq(latest.versionId, standardVersions.id))
+    .where(eq(standardVersions.id, id));
+  return row?.status ?? null;
+}
+
 export async function getVersion(where: { id: string } | { standardId: string; number: number }): Promise<VersionDto | null> {
   const condition =
     "id" in where

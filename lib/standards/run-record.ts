@@ -95,6 +95,26 @@ export function runRecordText(record: RunRecord): string {
   return text;
 }
 
+/**
+ * As runRecordText, for a record that succeeded whose engine result is already canonical JSON text (the evaluation
+ * bundle writes it so): the text is spliced into its place instead of being parsed and written again, which for a
+ * large frame is most of the record's bytes. Gives exactly runRecordText({ ...record, analysis: JSON.parse(text) }).
+ */
+export function runRecordTextWithAnalysis(
+  record: Omit<Extract<RunRecord, { outcome: "succeeded" }>, "analysis">,
+  analysisJson: string,
+): string {
+  // A placeholder no record can hold otherwise (a NUL can never come from a person's input through the schemas,
+  // and the nonce differs per call); canonicalize writes it as a JSON string, found once and replaced.
+  const placeholder = `\u0000analysis:${Math.random().toString(36).slice(2)}:${Date.now().toString(36)}`;
+  const text = runRecordText({ ...record, analysis: placeholder } as RunRecord);
+  const quoted = JSON.stringify(placeholder);
+  const at = text.indexOf(quoted);
+  if (at < 0 || text.indexOf(quoted, at + quoted.length) >= 0)
+    throw new Error("runRecordTextWithAnalysis: the placeholder was not found exactly once");
+  return `${text.slice(0, at)}${analysisJson}${text.slice(at + quoted.length)}`;
+}
+
 function containsNonFinite(value: unknown): boolean {
   if (typeof value === "number") return !Number.isFinite(value);
   if (Array.isArray(value)) return value.some(containsNonFinite);

@@ -4,8 +4,7 @@ import "server-only";
 // the version it asks for (a number, or "latest": the newest not withdrawn), with only the entries its defaults,
 // its verification cases and any extra names (a run's picks) name. What is withdrawn is left out, so the
 // evaluation refuses it by name. Reads only; called from a use case's `prepare`, before its transaction.
-import { parseSource } from "@/lib/standards/source";
-import { DefinitionSchema } from "@/lib/standards/definition";
+import { definitionOfSource } from "@/lib/standards/read-definition";
 import { entriesNeededBy, libraryReferencesOf, normaliseEntryKey, type LibraryEntries } from "@/lib/standards/library-inputs";
 import { bindLibrary } from "@/lib/libraries/bind";
 import type { LibraryDocument } from "@/lib/libraries/document";
@@ -28,11 +27,8 @@ export async function libraryEntriesFor(
   source: string,
   extra: Readonly<Record<string, readonly string[] | "all">> = {},
 ): Promise<LibraryEntries> {
-  const read = parseSource(source);
-  if (!read.ok) return {};
-  const parsed = DefinitionSchema.safeParse(read.parsed.data);
-  if (!parsed.success) return {};
-  const definition = parsed.data;
+  const definition = definitionOfSource(source);
+  if (!definition) return {};
   const needed = new Map(entriesNeededBy(definition).map(({ library, keys }) => [library, keys]));
   const out: Record<string, LibraryEntries[string]> = {};
   for (const { library: slug, version: wanted } of libraryReferencesOf(definition)) {

@@ -18,14 +18,16 @@ import {
   RUN_RECORD_FORMAT,
   runFailureOf,
   runRecordText,
+  runRecordTextWithAnalysis,
   type RunRecord,
   type RunRecordEntry,
 } from "@/lib/standards/run-record";
 import type { Evaluation } from "@/lib/standards/evaluate";
-import type { Json } from "@/lib/engine";
+
 import { evaluationPool } from "@/lib/evaluation/pool";
 import { getJob, lockJob, type JobDto } from "@/lib/data/jobs";
-import { getVersion, type VersionDto } from "@/lib/data/standards";
+import { getVersion, getVersionStatus, type VersionDto } from "@/lib/data/standards";
+import { definitionOfSource } from "@/lib/standards/read-definition";
 import {
   findLibraryEntryRow,
   getRun,
@@ -45,16 +47,15 @@ type Prepared = {
   order: RunRecord["order"];
   identity: { engine: string; engineSourceHash: string; evaluation: string; bundleSha256: string };
 } & (
-  | { outcome: "succeeded"; evaluation: Evaluation; analysis: Json }
+  | { outcome: "succeeded"; evaluation: Evaluation; analysisJson: string }
   | { outcome: "failed"; failure: ReturnType<typeof runFailureOf> }
 );
 
 function definitionOf(version: VersionDto): Definition {
-  const read = parseSource(version.source);
-  const parsed = read.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
-  if (!read.ok || !parsed?.success)
+  const definition = definitionOfSource(version.source);
+  if (!definition)
     throw new AppError("conflict", `Version ${version.number} of ${version.slug} no longer reads with this release of Gusset.`);
-  return parsed.data;
+  return definition;
 }
 
 /** The entries each library input was given, by library slug: what the evaluation needs bound besides defaults. */
@@ -145,7 +146,8 @@ export const createRun = defineUseCase({
       identity: { ...outcome.evaluation.identity, bundleSha256: manifest.sha256 },
       outcome: "succeeded",
       evaluation: JSON.parse(answer.result.evaluationJson) as Evaluation,
-      analysis: JSON.parse(answer.result.analysisJson) as Json,
+      // Already canonical: spliced into the record as it is (runRecordTextWithAnalysis), never parsed here.
+      analysisJson: answer.result.analysisJson,
     };
   },
   run: async ({ inputs, unitSystem, parentRunId }, { actor, prepared }) => {
@@ -155,8 +157,7 @@ export const createRun = defineUseCase({
     if (!locked) throw new AppError("not-found", "That job does not exist.");
     if (locked.status === "closed")
       throw new AppError("conflict", `Job ${locked.jobNumber} was closed while the run was evaluated.`);
-    const now = await getVersion({ id: version.id });
-    if (now?.status === "withdrawn")
+    if ((await getVersionStatus(version.id)) === "withdrawn")
       throw new AppError("conflict", `Version ${version.number} of ${version.title} was withdrawn while the run was evaluated.`);
     if (parentRunId) {
       const parent = await getRun(parentRunId);
@@ -211,11 +212,14 @@ export const createRun = defineUseCase({
       libraries: entries,
       order: prepared.order,
     } as const;
-    const record: RunRecord =
+    const record =
       prepared.outcome === "succeeded"
-        ? { ...base, outcome: "succeeded", evaluation: prepared.evaluation, analysis: prepared.analysis }
-        : { ...base, outcome: "failed", failure: prepared.failure };
-    const text = runRecordText(record);
+        ? ({ ...base, outcome: "succeeded", evaluation: prepared.evaluation } as const)
+        : ({ ...base, outcome: "failed", failure: prepared.failure } as const);
+    const text =
+      prepared.outcome === "succeeded" && record.outcome === "succeeded"
+        ? runRecordTextWithAnalysis(record, prepared.analysisJson)
+        : runRecordText(record as RunRecord);
     const sha256 = createHash("sha256").update(text, "utf8").digest("hex");
     const pass = record.outcome === "succeeded" ? record.evaluation.pass : null;
     await insertRun({
@@ -371,10 +375,9 @@ export const compareRuns = defineUseCase({
     const labels: Record<string, string> = {};
     for (const run of [runB, runA]) {
       const version = await getVersion({ id: run.versionId });
-      const read = version ? parseSource(version.source) : null;
-      const parsed = read?.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
-      if (!parsed?.success) continue;
-      const { inputs, derived, extracts, checks } = parsed.data;
+      const definition = version ? definitionOfSource(version.source) : null;
+      if (!definition) continue;
+      const { inputs, derived, extracts, checks } = definition;
       for (const group of [inputs, derived, extracts, checks] as Record<string, { label?: string }>[])
         for (const [key, item] of Object.entries(group)) if (item.label) labels[key] = item.label;
     }

@@ -1,0 +1,62 @@
+// A stored run's record text made the quick way (the engine result's canonical JSON spliced in as the bundle wrote
+// it) is byte for byte the text of the whole record canonicalised (RFC 8785), for every starting standard that
+// needs no library, and the splice never matches anything but its own placeholder.
+import fs from "node:fs";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import { runStandardTask } from "@/lib/evaluation/tasks";
+import {
+  readRunRecord,
+  runRecordText,
+  runRecordTextWithAnalysis,
+  RUN_RECORD_FORMAT,
+  type RunRecord,
+} from "@/lib/standards/run-record";
+import type { Evaluation } from "@/lib/standards/evaluate";
+
+const folder = path.resolve(import.meta.dirname, "../../content/standards");
+// The newest version of each starting standard (content/standards/<slug>/<number>.mdx).
+const sources = fs
+  .readdirSync(folder)
+  .map((slug) => {
+    const newest = fs
+      .readdirSync(path.join(folder, slug))
+      .filter((file) => /^\d+\.mdx$/.test(file))
+      .sort((a, b) => Number.parseInt(b, 10) - Number.parseInt(a, 10))[0];
+    return { name: slug, source: fs.readFileSync(path.join(folder, slug, newest), "utf8") };
+  })
+  .filter(({ source }) => !/quantity:\s*(section|material)\s*[,}\n]/.test(source));
+
+function baseOf(name: string) {
+  return {
+    format: RUN_RECORD_FORMAT,
+    id: "0b8e6f7a-4c1d-4f7e-9a51-7d2f0c3e9b10",
+    createdAt: "2026-12-02T23:30:00.000Z",
+    createdBy: { id: "u1", name: "A. Engineer \u201cquoted\u201d" },
+    job: { id: "j1", number: "MF-2291", name: 'Job with \\ backslash and "quotes"' },
+    standard: { slug: name, title: name, versionId: "v1", number: 1, contentHash: "0".repeat(64) },
+    purpose: "design",
+    parentRunId: null,
+    unitSystem: "si",
+    typed: { L: "6 m" },
+    identity: { engine: "e", engineSourceHash: "1".repeat(64), evaluation: "0.2.0", bundleSha256: "2".repeat(64) },
+    libraries: [],
+    order: { inputs: [], derived: [], extracts: [], checks: [] },
+  } as const;
+}
+
+describe("runRecordTextWithAnalysis", () => {
+  it("has starting standards to try", () => expect(sources.length).toBeGreaterThan(3));
+
+  it.each(sources.map((s) => [s.name, s.source]))("gives the canonical text of the whole record for %s", (name, source) => {
+    const result = runStandardTask(source);
+    if (!result.ok || !result.outcome.ok || !result.evaluationJson || !result.analysisJson)
+      throw new Error(`${name} did not run`);
+    const evaluation = JSON.parse(result.evaluationJson) as Evaluation;
+    const record = { ...baseOf(name), outcome: "succeeded", evaluation } as const;
+    const quick = runRecordTextWithAnalysis(record, result.analysisJson);
+    const whole = runRecordText({ ...record, analysis: JSON.parse(result.analysisJson) } as RunRecord);
+    expect(quick).toBe(whole);
+    expect(readRunRecord(quick)).toEqual(JSON.parse(whole));
+  });
+});

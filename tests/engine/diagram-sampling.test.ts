@@ -145,6 +145,29 @@ describe("values along a member", () => {
     expectClose(d.valueAt(4).M, pointM(4));
   });
 
+  it("on a short member, two loads 2e-12 m apart (more than 1e-12·L) keep their own breaks and steps", () => {
+    // L = 0.1 m, so 1e-12·L = 1e-13 m: loads 2e-12 m apart are two steps in V, and between them V is the start
+    // reaction less the first load only. Figure 8 superposed for the two loads: R = (P₁b₁ + P₂b₂)/L.
+    const Ls = 0.1;
+    const [a1, a2] = [0.04, 0.04 + 2e-12];
+    const [P1, P2] = [P, 2 * P];
+    const m = lineBeam(
+      [Ls],
+      ["pin", "roller"],
+      [
+        { kind: "point", member: "m1", direction: "global-y", position: a1, value: -P1 },
+        { kind: "point", member: "m1", direction: "global-y", position: a2, value: -P2 },
+      ],
+    );
+    const d = memberDiagram(analyzeOrThrow(m), "m1", "L", { points: 2 });
+    expect(d.samples.x).toEqual([0, a1, a1, a2, a2, Ls]);
+    const R = (P1 * (Ls - a1) + P2 * (Ls - a2)) / Ls;
+    expectClose(d.valueAt(a1, "left").V, R, 1e-9, P);
+    expectClose(d.valueAt(a1, "right").V, R - P1, 1e-9, P);
+    expectClose(d.valueAt(a2, "left").V, R - P1, 1e-9, P);
+    expectClose(d.valueAt(a2, "right").V, R - P1 - P2, 1e-9, P);
+  });
+
   it("a case with no load on the member: a cantilever under a tip load (AWC DA-6, Figure 13)", () => {
     // Figure 13 (from memory), x from the fixed end: M = −P(L − x) (hogging), V = P, v = −Px²(3L − x)/(6EI).
     const m = lineBeam([L], ["fixed", "free"], [{ kind: "nodal", node: "n1", fy: -P }]);

@@ -3,23 +3,15 @@
 // submits it, and is told that they cannot review it themselves; the second reads the difference (the section
 // added), approves and publishes it, and the new version lists the section, drawn with its properties; then
 // withdraws that section alone, with a reason. The draft page itself passes axe.
-import AxeBuilder from "@axe-core/playwright";
-import type { Page } from "playwright-core";
 import { expect, it } from "vitest";
 import { DEMO_USERS } from "@/db/demo-users";
+import { seriousViolations } from "../support/axe";
 import { useBrowser, usePagesAs } from "../support/browser";
 import { appUrl } from "../support/env";
 import { demoSession, journeyTimeout, signInOverHttp } from "../support/pages";
 
 const browser = useBrowser();
 const pageAs = usePagesAs(browser);
-
-async function seriousViolations(page: Page) {
-  const { violations } = await new AxeBuilder({ page: page as never }).analyze();
-  return violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map((v) => ({ rule: v.id, targets: v.nodes.map((node) => node.target.join(" ")) }));
-}
 
 it(
   "a lead builds a section in a new draft of the firm's sections, a second lead approves it, and the new version holds it",

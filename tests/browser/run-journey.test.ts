@@ -5,11 +5,11 @@
 // a second engineer (the demo reviewer, a lead) checks it, and the job's responsible engineer approves it. The preview's figures are the frame engine's:
 // a fixed-end beam under uniform load has end moments wL²/12 (AISC Steel Construction Manual, 15th ed.,
 // Table 3-23, case 15, from memory).
-import AxeBuilder from "@axe-core/playwright";
 import { createHash } from "node:crypto";
 import fs from "node:fs";
 import type { Locator, Page } from "playwright-core";
 import { expect, it } from "vitest";
+import { seriousViolations } from "../support/axe";
 import { useBrowser, usePagesAs } from "../support/browser";
 import { appUrl } from "../support/env";
 import { DEMO_USERS } from "@/db/demo-users";
@@ -76,9 +76,7 @@ it(
     expect(await page.getByTestId("run-input").filter({ hasText: "29.5276 ft" }).count()).toBe(1);
     expect(await page.getByTestId("run-sha256").textContent()).toMatch(/^sha256:[0-9a-f]{64} \(/);
 
-    const { violations } = await new AxeBuilder({ page: page as never }).analyze();
-    const serious = violations.filter((v) => v.impact === "serious" || v.impact === "critical");
-    expect(serious.map((v) => ({ rule: v.id, targets: v.nodes.map((node) => node.target.join(" ")) }))).toEqual([]);
+    expect(await seriousViolations(page)).toEqual([]);
 
     // The calc sheet as a PDF rendered on the server: every page carries the run id, the version and its hash.
     const runUrl = page.url();

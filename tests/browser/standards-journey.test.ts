@@ -2,10 +2,10 @@
 // the editor and sees its preview, submits it; the second returns it with a comment on a line; the first
 // fixes it and submits again; the second approves it, and it is published as version 1 and listed under
 // Standards with its equations typeset. The editor page itself passes axe.
-import AxeBuilder from "@axe-core/playwright";
 import type { Page } from "playwright-core";
 import { expect, it } from "vitest";
 import { DEMO_USERS } from "@/db/demo-users";
+import { seriousViolations } from "../support/axe";
 import { useBrowser, usePagesAs } from "../support/browser";
 import { appUrl } from "../support/env";
 import { demoSession, journeyTimeout, signInOverHttp } from "../support/pages";
@@ -58,9 +58,7 @@ it(
     expect(await preview.getByTestId("check").first().getAttribute("data-name")).toBe("bending");
 
     // The editor page has nothing serious for axe (CodeMirror's shadow root included).
-    const { violations } = await new AxeBuilder({ page: author as never }).analyze();
-    const serious = violations.filter((v) => v.impact === "serious" || v.impact === "critical");
-    expect(serious.map((v) => ({ rule: v.id, targets: v.nodes.map((node) => node.target.join(" ")) }))).toEqual([]);
+    expect(await seriousViolations(author)).toEqual([]);
 
     await appendToSource(author, "\nThe bending check governs for this member.\n");
     expect(await author.getByTestId("draft-save-state").textContent()).toBe("Unsaved changes");

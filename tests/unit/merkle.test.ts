@@ -1,5 +1,5 @@
 // Merkle trees of RFC 9162 (Certificate Transparency v2) §2.1: lib/integrity/merkle.ts and frontier.ts. The published
-// vectors are checked twice, against the module and against `reference` below, a literal transcription of the RFC's
+// vectors are checked twice, against the module and against `reference` below, a literal restatement of the RFC's
 // MTH, PATH and PROOF definitions hashing with node:crypto directly, so a misremembered vector or a shared mistake shows.
 import { createHash } from "node:crypto";
 import { describe, expect, it } from "vitest";
@@ -85,7 +85,7 @@ describe("the CT reference vectors", () => {
   const leaves = entries.map(leafHash);
   const referenceLeaves = entries.map(reference.leaf);
 
-  it("hashes leaves and nodes with their own prefixes, as the reference transcription does", () => {
+  it("hashes leaves and nodes with their own prefixes, as the RFC restated literally does", () => {
     expect(hexes(leaves)).toEqual(hexes(referenceLeaves));
     expect(toHex(nodeHash(leaves[0], leaves[1]))).toBe(toHex(reference.sha256(Uint8Array.of(1), leaves[0], leaves[1])));
   });
@@ -154,7 +154,7 @@ function chosen(n: number, turn: number, tamperings: Tampering[]): Tampering[] {
 }
 
 describe("brute force over every small tree", () => {
-  it("createSubtreeHasher gives the roots of the reference transcription", () => {
+  it("createSubtreeHasher gives the roots of the RFC restated literally", () => {
     const wrong: number[] = [];
     for (let n = 1; n <= 2 * REFERENCE_UP_TO; n++) {
       if (toHex(bruteRoots[n]) !== toHex(reference.mth(bruteLeaves.slice(0, n)))) wrong.push(n);

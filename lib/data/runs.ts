@@ -89,11 +89,17 @@ export async function insertRunLibraryEntries(rows: (typeof runLibraryEntries.$i
   if (rows.length > 0) await currentDb().insert(runLibraryEntries).values(rows);
 }
 
-export async function getRun(id: string): Promise<RunDto | null> {
+/** A run's summary, without its record (which may be hundreds of kB): for checks that it exists and where. */
+export async function getRunSummary(id: string): Promise<RunSummaryDto | null> {
   const [row] = await selectRuns().where(eq(runs.id, id));
+  return row ? toSummary(row) : null;
+}
+
+export async function getRun(id: string): Promise<RunDto | null> {
+  const row = await getRunSummary(id);
   if (!row) return null;
   const [{ record }] = await currentDb().select({ record: runs.record }).from(runs).where(eq(runs.id, id));
-  return { ...toSummary(row), record };
+  return { ...row, record };
 }
 
 export type RunFilter = {

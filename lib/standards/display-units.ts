@@ -53,7 +53,7 @@ const US_FOR: Readonly<Record<string, Customary>> = {
   GPa: { unit: "ksi", si: KIP / IN ** 2 },
   "N/mm²": { unit: "ksi", si: KIP / IN ** 2 },
   "kg/m³": { unit: "lb/ft³", si: LB / FT ** 3 },
-  "kN·m/rad": { unit: "kip·ft/rad", si: (KIP * FT) / 1 },
+  "kN·m/rad": { unit: "kip·ft/rad", si: KIP * FT },
   "kN/mm": { unit: "kip/in", si: KIP / IN },
 };
 

@@ -604,18 +604,17 @@ export function layoutModel(model: ModelInput, options: ModelDrawingOptions = {}
 
 // ————————————————————————————————————— a member diagram —————————————————————————————————————
 
-/** How each quantity is printed: symbol, display unit and the factor from SI. */
-export const DIAGRAM_DISPLAY: Readonly<Record<DiagramQuantity, { symbol: string; name: string; unit: string; factor: number }>> =
-  {
-    N: { symbol: "N", name: "Axial force", unit: "kN", factor: 1e-3 },
-    V: { symbol: "V", name: "Shear force", unit: "kN", factor: 1e-3 },
-    M: { symbol: "M", name: "Bending moment", unit: "kN·m", factor: 1e-3 },
-    deflection: { symbol: "δ", name: "Deflection", unit: "mm", factor: 1e3 },
-    relativeDeflection: { symbol: "δ", name: "Deflection from the chord", unit: "mm", factor: 1e3 },
-    axialDisplacement: { symbol: "u", name: "Axial displacement", unit: "mm", factor: 1e3 },
-    stressTop: { symbol: "σ", name: "Stress at the top fibre", unit: "MPa", factor: 1e-6 },
-    stressBottom: { symbol: "σ", name: "Stress at the bottom fibre", unit: "MPa", factor: 1e-6 },
-  };
+/** How each quantity is named, and the kind of value it is (its unit and factor follow the reader's units). */
+const DIAGRAM_QUANTITIES: Readonly<Record<DiagramQuantity, { symbol: string; name: string; kind: ResultKind }>> = {
+  N: { symbol: "N", name: "Axial force", kind: "force" },
+  V: { symbol: "V", name: "Shear force", kind: "force" },
+  M: { symbol: "M", name: "Bending moment", kind: "moment" },
+  deflection: { symbol: "δ", name: "Deflection", kind: "displacement" },
+  relativeDeflection: { symbol: "δ", name: "Deflection from the chord", kind: "displacement" },
+  axialDisplacement: { symbol: "u", name: "Axial displacement", kind: "displacement" },
+  stressTop: { symbol: "σ", name: "Stress at the top fibre", kind: "stress" },
+  stressBottom: { symbol: "σ", name: "Stress at the bottom fibre", kind: "stress" },
+};
 
 /** Values along a member: one curve, or the max and min curves of an envelope, with exact extremes. */
 export interface DiagramData {
@@ -657,20 +656,10 @@ export interface DiagramScene {
   readonly points: ReadonlyArray<ReadonlyArray<Point>>;
 }
 
-const RESULT_KIND: Readonly<Record<DiagramQuantity, ResultKind>> = {
-  N: "force",
-  V: "force",
-  M: "moment",
-  deflection: "displacement",
-  relativeDeflection: "displacement",
-  axialDisplacement: "displacement",
-  stressTop: "stress",
-  stressBottom: "stress",
-};
-
-/** How a quantity is printed in the reader's units (SI as DIAGRAM_DISPLAY, or US customary). */
+/** How a quantity is printed: symbol, name, and the display unit and factor from SI in the reader's units. */
 export function diagramDisplay(quantity: DiagramQuantity, units: DisplayUnits = "si") {
-  return { ...DIAGRAM_DISPLAY[quantity], ...resultUnit(RESULT_KIND[quantity], units) };
+  const { symbol, name, kind } = DIAGRAM_QUANTITIES[quantity];
+  return { symbol, name, ...resultUnit(kind, units) };
 }
 
 /** "M max 144 kN·m at x = 3.00 m" from an SI value (or "… kip·ft at x = 9.84 ft" in US customary units). */
@@ -695,7 +684,7 @@ export function layoutDiagram(
 ): DiagramScene {
   const width = options.width ?? 520;
   const height = options.height ?? 140;
-  const display = DIAGRAM_DISPLAY[data.quantity];
+  const display = diagramDisplay(data.quantity);
   const positiveBelow = data.quantity === "M";
   const shown = (v: number) => (Math.abs(v * display.factor) < NEGLIGIBLE ? 0 : finite(v));
   const all = [...data.curves.flat(), data.max.value, data.min.value].map(shown);

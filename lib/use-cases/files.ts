@@ -32,7 +32,7 @@ import {
   type SheetPdfDto,
 } from "@/lib/data/files";
 import { getJob } from "@/lib/data/jobs";
-import { getRun } from "@/lib/data/runs";
+import { getRunSummary } from "@/lib/data/runs";
 import { getObject, putObject } from "@/lib/storage/s3";
 import { withOpenSheet } from "@/lib/pdf/sheet-renderer";
 
@@ -60,7 +60,7 @@ export const renderSheetPdf = defineUseCase({
   permission: "runs.read",
   input: runRefSchema,
   prepare: async ({ id }): Promise<Rendered> => {
-    if (!(await getRun(id))) throw new AppError("not-found", "There is no run with that id.");
+    if (!(await getRunSummary(id))) throw new AppError("not-found", "There is no run with that id.");
     return withOpenSheet(id, async (sheet): Promise<Rendered> => {
       const kept = await findSheetPdf({ runId: id, stateSha256: sheet.stateSha256 });
       if (kept) return { kind: "kept", pdf: kept, body: await readStoredPdf(kept) };
@@ -131,7 +131,7 @@ export const attachFile = defineUseCase({
     const job = await getJob({ jobNumber });
     if (!job) throw new AppError("not-found", `There is no job ${jobNumber}.`);
     if (runId) {
-      const run = await getRun(runId);
+      const run = await getRunSummary(runId);
       if (!run || run.jobId !== job.id)
         throw new AppError("not-found", `Job ${job.jobNumber} has no run with that id.`, {
           fieldErrors: { runId: [`That run is not in job ${job.jobNumber}.`] },

@@ -31,6 +31,7 @@ import { definitionOfSource } from "@/lib/standards/read-definition";
 import {
   findLibraryEntryRow,
   getRun,
+  getRunSummary,
   insertRun,
   insertRunLibraryEntries,
   listRuns,
@@ -160,7 +161,7 @@ export const createRun = defineUseCase({
     if ((await getVersionStatus(version.id)) === "withdrawn")
       throw new AppError("conflict", `Version ${version.number} of ${version.title} was withdrawn while the run was evaluated.`);
     if (parentRunId) {
-      const parent = await getRun(parentRunId);
+      const parent = await getRunSummary(parentRunId);
       if (!parent || parent.jobId !== job.id)
         throw new AppError("invalid-input", "The run this one re-runs is not a run of this job.", {
           fieldErrors: { parentRunId: ["Re-run a run of the same job."] },
@@ -373,8 +374,9 @@ export const compareRuns = defineUseCase({
         { fieldErrors: { b: [`Choose a run of ${runA.title}.`] } },
       );
     const labels: Record<string, string> = {};
-    for (const run of [runB, runA]) {
-      const version = await getVersion({ id: run.versionId });
+    // The second run's version first, so the first run's labels win where both have one; one read when they share it.
+    const versionIds = [...new Set([runB.versionId, runA.versionId])];
+    for (const version of await Promise.all(versionIds.map((id) => getVersion({ id })))) {
       const definition = version ? definitionOfSource(version.source) : null;
       if (!definition) continue;
       const { inputs, derived, extracts, checks } = definition;

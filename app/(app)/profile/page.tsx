@@ -78,7 +78,7 @@ export default async function ProfilePage() {
         </Section>
         <Section
           title="Units"
-          lead="Run results and calc sheets are shown in these units, converted from the SI values every run stores. The records themselves never change."
+          lead="Run results are shown in these units, converted from the SI values every run stores; calc sheets print in the standard's own units. The records themselves never change."
           testId="profile-units"
         >
           <DisplayUnitsForm current={profile.displayUnits} />

@@ -12,9 +12,12 @@ import { RunTable } from "./run-table";
 type RunPage = { runs: RunSummaryDto[]; nextCursor: string | null };
 type Filter = Record<string, string | undefined>;
 
+/** The filter and cursor as a query string, leaving out what is not set. */
+const queryOf = (filter: Filter, cursor: string | undefined) =>
+  new URLSearchParams(Object.entries({ ...filter, cursor }).filter(([, v]) => v) as [string, string][]);
+
 async function fetchRuns(filter: Filter, cursor: string): Promise<RunPage> {
-  const query = new URLSearchParams(Object.entries({ ...filter, cursor }).filter(([, v]) => v) as [string, string][]);
-  const response = await fetch(`/api/runs?${query}`, { headers: { accept: "application/json" } });
+  const response = await fetch(`/api/runs?${queryOf(filter, cursor)}`, { headers: { accept: "application/json" } });
   const answer = (await response.json().catch(() => null)) as { data?: RunPage; error?: { message: string } } | null;
   if (!response.ok || !answer?.data) throw new Error(answer?.error?.message ?? "The older runs could not be loaded; try again.");
   return answer.data;
@@ -31,7 +34,7 @@ function Runs({ first, filter, showJob }: { first: RunPage; filter: Filter; show
   });
   const pages = query.data?.pages ?? [first];
   const next = pages.at(-1)?.nextCursor ?? null;
-  const href = `/runs?${new URLSearchParams(Object.entries({ ...filter, cursor: next ?? undefined }).filter(([, v]) => v) as [string, string][])}`;
+  const href = `/runs?${queryOf(filter, next ?? undefined)}`;
   return (
     <>
       <RunTable runs={pages.flatMap((page) => page.runs)} showJob={showJob} />

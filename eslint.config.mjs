@@ -56,7 +56,7 @@ export const LAYERS = {
   // The verifiable log's hashing and proofs (RFC 9162): pure, node:crypto only.
   "lib/integrity": { may: [] },
   "lib/data": { may: ["db", "lib/domain", "lib/server-env"], handle: true },
-  "lib/jobs": { may: ["db", "lib/data", "lib/mail", "lib/domain", "lib/server-env"], handle: true },
+  "lib/jobs": { may: ["db", "lib/data", "lib/mail", "lib/integrity", "lib/domain", "lib/server-env"], handle: true },
   "lib/auth": { may: ["db", "lib/data", "lib/jobs", "lib/mail", "lib/domain", "lib/server-env"] },
   "lib/use-cases": {
     may: [

@@ -63,6 +63,14 @@ const envSchema = z.object({
    * that terminates TLS: the app's loopback address, e.g. http://localhost:3000).
    */
   GUSSET_RENDER_URL: optionalUrl,
+  /** The log's Ed25519 private key, PKCS #8 DER in base64: only the worker, which seals tree heads, needs it. */
+  GUSSET_LOG_SIGNING_KEY: z.string().min(40).optional(),
+  /** The log's public key, SPKI DER in base64: every head is checked against it (derived from the private key if unset). */
+  GUSSET_LOG_PUBLIC_KEY: z.string().min(40).optional(),
+  /** The QA witness's address: each new tree head's digest is e-mailed there, so heads leave the server. */
+  GUSSET_WITNESS_EMAIL: z.email("must be an e-mail address").optional().or(z.literal("").transform(() => undefined)),
+  /** How often the sealer folds new leaves into the tree, in milliseconds. */
+  GUSSET_SEAL_INTERVAL_MS: positiveInt(3000),
   /** Sign-in attempts per account and client address per minute. */
   GUSSET_SIGN_IN_RATE_LIMIT_MAX: positiveInt(5),
   /** The load balancer's addresses: only from these is X-Forwarded-For believed (read by scripts/serve.mjs). */

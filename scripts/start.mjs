@@ -2,7 +2,7 @@
 // Installs what is missing (npm dependencies, postgresql-15), starts or reuses PostgreSQL and the fake
 // SMTP/S3, migrates and seeds the `gusset` database, builds when stale, serves. Ctrl-C stops what it started.
 // Plain Node: it runs before `npm ci` on a fresh machine.
-import { authSecret, childEnv, gussetEnv, writeEnvLocal } from "./lib/env.mjs";
+import { authSecret, childEnv, gussetEnv, logSigningKey, writeEnvLocal } from "./lib/env.mjs";
 import { ensureBuild } from "./lib/build.mjs";
 import { demoSignIns, printSignIns, verifyLiveStandards } from "./lib/database.mjs";
 import { CHROMIUM_PACKAGE, POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
@@ -19,9 +19,11 @@ await main(async () => {
 
   const setup = profileSetup("start");
   const { secret, created } = authSecret();
-  const env = gussetEnv("start", { secret });
+  const logKey = logSigningKey();
+  const env = gussetEnv("start", { secret, logKey: logKey.key });
   writeEnvLocal(env);
   if (created) say("created a local BETTER_AUTH_SECRET in .env.local (kept for later runs)");
+  if (logKey.created) say("created the log's Ed25519 signing key in .env.local (kept for later runs; back it up)");
   const processEnv = childEnv(env);
   const url = env.BETTER_AUTH_URL;
 

@@ -97,6 +97,8 @@ export type AuditDetails = {
   "calcs.revision.check": { calc: string; letter: string; decision: "approve" | "return" };
   /** reason: why a failing run, or one on a version no longer current, was approved. */
   "calcs.revision.approve": { calc: string; letter: string; reason: string | null };
+  /** The log's integrity check was run: what it covered and the first problem it found, if any. */
+  "integrity.check": { ok: boolean; leaves: number; heads: number; problems: number; first: string | null; durationMs: number };
 };
 
 export type AuditAction = keyof AuditDetails;
@@ -149,6 +151,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "calcs.revision.prepare": "Issued a calc revision for checking",
   "calcs.revision.check": "Checked a calc revision",
   "calcs.revision.approve": "Approved a calc revision",
+  "integrity.check": "Ran the integrity check",
 };
 
 export function isAuditAction(value: string): value is AuditAction {

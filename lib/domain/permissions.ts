@@ -38,6 +38,8 @@ export const ACTIONS = [
   "audit.read",
   "audit.trace",
   "audit.export",
+  "log.verify",
+  "integrity.check",
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
@@ -50,6 +52,7 @@ const LIBRARY_MAINTENANCE: readonly Action[] = [
 ];
 
 const ENGINEER: readonly Action[] = [
+  "log.verify",
   "jobs.read",
   "jobs.create",
   "jobs.edit",
@@ -71,6 +74,8 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "users.deactivate",
     "mailbox.read",
     "audit.read",
+    "log.verify",
+    "integrity.check",
     "libraries.read",
     ...LIBRARY_MAINTENANCE,
   ],
@@ -91,6 +96,8 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "audit.read",
     "audit.trace",
     "audit.export",
+    "log.verify",
+    "integrity.check",
     "users.read",
   ],
 };

@@ -22,11 +22,22 @@ export class Frontier {
     return this.#size;
   }
 
-  /** Folds in the next leaf's hash (`leafHash(entry)`); returns the new size. */
-  append(leafHashValue: Uint8Array): number {
+  /**
+   * Folds in the next leaf's hash (`leafHash(entry)`); returns the new size. `onNode`, when given, hears of every
+   * perfect subtree the leaf completes: level L, index i covers leaves [i·2^L, (i+1)·2^L) (level 0 is the leaf).
+   */
+  append(leafHashValue: Uint8Array, onNode?: (level: number, index: number, hash: Uint8Array) => void): number {
     let carry: Uint8Array = hashOrThrow("leafHash", leafHashValue).slice();
     if (this.#size === Number.MAX_SAFE_INTEGER) throw new Error("Merkle Frontier: the tree is full (2^53 - 1 leaves)");
-    for (let s = this.#size; isOdd(s); s = half(s)) carry = nodeHash(this.#hashes.pop()!, carry);
+    let index = this.#size;
+    let level = 0;
+    onNode?.(level, index, carry);
+    for (let s = this.#size; isOdd(s); s = half(s)) {
+      carry = nodeHash(this.#hashes.pop()!, carry);
+      index = half(index);
+      level += 1;
+      onNode?.(level, index, carry);
+    }
     this.#hashes.push(carry);
     this.#size += 1;
     return this.#size;

@@ -429,14 +429,14 @@ function equalBytes(a: Uint8Array, b: Uint8Array): boolean {
 export const isOdd = (x: number): boolean => x % 2 === 1;
 export const half = (x: number): number => Math.floor(x / 2);
 
-function isPowerOfTwo(x: number): boolean {
+export function isPowerOfTwo(x: number): boolean {
   if (x < 1) return false;
   while (x % 2 === 0) x /= 2;
   return x === 1;
 }
 
 /** k of RFC 9162 §2.1.1: the largest power of two smaller than n (n ≥ 2). */
-function largestPowerOfTwoBelow(n: number): number {
+export function largestPowerOfTwoBelow(n: number): number {
   let k = 1;
   while (k * 2 < n) k *= 2;
   return k;

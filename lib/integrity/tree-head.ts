@@ -1,8 +1,8 @@
 /**
  * The log's signed tree heads and its leaves' entries.
  *
- * A leaf's entry is the canonical JSON (RFC 8785) of what it seals: its kind (a run, a sign-off step, a version's
- * publication or withdrawal, an audit event), the row's id, the sha256 of the record as stored, and when it was
+ * A leaf's entry is the canonical JSON (RFC 8785) of what it seals: its kind (a run, a sign-off step, a standard's or
+ * a library's version event, an attachment, an audit event), the row's id, the sha256 of the record as stored, and when it was
  * made. Its leaf hash is RFC 9162's, SHA-256(0x00 || entry) (merkle.ts).
  *
  * A tree head says "the log had `size` leaves with root `rootHash` at `sealedAt`". What is signed is the head's
@@ -22,7 +22,8 @@ import { createHash, createPrivateKey, createPublicKey, generateKeyPairSync, sig
 
 export const TREE_HEAD_FORMAT = "gusset-tree-head/1";
 
-export const LEAF_KINDS = ["run", "sign-off", "version-published", "version-withdrawn", "audit-event"] as const;
+/** One per kind of evidence row (db/schema/log.ts LOG_LEAF_KINDS, which the migration's triggers write). */
+export const LEAF_KINDS = ["run", "sign-off", "version-event", "library-event", "attachment", "audit-event"] as const;
 export type LeafKind = (typeof LEAF_KINDS)[number];
 
 export interface LeafEntry {
@@ -101,4 +102,12 @@ export function verifyTreeHead(head: TreeHead, signature: string, publicKeyPem: 
 export function publicKeyFingerprint(publicKeyPem: string): string {
   const der = createPublicKey(publicKeyPem).export({ type: "spki", format: "der" });
   return createHash("sha256").update(der).digest("hex");
+}
+
+/** A key given as one line of base64 DER (PKCS #8 private, SPKI public; how settings carry it) as PEM. */
+export function pemFromBase64Der(base64: string, kind: "PRIVATE KEY" | "PUBLIC KEY"): string {
+  const body = base64.replace(/\s+/g, "");
+  if (!/^[A-Za-z0-9+/]+={0,2}$/.test(body)) throw new Error(`pemFromBase64Der: the ${kind.toLowerCase()} is not base64`);
+  const lines = body.match(/.{1,64}/g) ?? [];
+  return `-----BEGIN ${kind}-----\n${lines.join("\n")}\n-----END ${kind}-----\n`;
 }

@@ -3,6 +3,8 @@
 // several can run on several machines, pg-boss hands each job to one of them.
 import PgBoss from "pg-boss";
 import { sendMail } from "@/lib/mail/send-mail";
+import { serverEnv } from "@/lib/server-env";
+import { sealAll } from "./sealer";
 import { JOB_RETENTION, JOB_SCHEMA, QUEUE_NAMES, type JobPayloads, type QueueName } from "./queues";
 
 type Handlers = { [Q in QueueName]: (data: JobPayloads[Q]) => Promise<unknown> };
@@ -17,10 +19,13 @@ export type RunningWorker = { stop(): Promise<void> };
 export async function startWorker({
   connectionString,
   pollingIntervalSeconds = 1,
+  sealIntervalMs,
   log = console,
 }: {
   connectionString: string;
   pollingIntervalSeconds?: number;
+  /** How often the log is sealed; GUSSET_SEAL_INTERVAL_MS by default. */
+  sealIntervalMs?: number;
   log?: Pick<Console, "info" | "error">;
 }): Promise<RunningWorker> {
   const boss = new PgBoss({ connectionString, schema: JOB_SCHEMA, migrate: false, schedule: false, max: 4, ...JOB_RETENTION });
@@ -37,5 +42,39 @@ export async function startWorker({
     });
   }
   log.info(`[gusset-worker] working on ${QUEUE_NAMES.join(", ")}`);
-  return { stop: () => boss.stop({ graceful: true, timeout: 10_000 }) };
+  const sealer = startSealer(sealIntervalMs ?? serverEnv().GUSSET_SEAL_INTERVAL_MS, log);
+  return {
+    stop: async () => {
+      await sealer.stop();
+      await boss.stop({ graceful: true, timeout: 10_000 });
+    },
+  };
+}
+
+/**
+ * Seals the log every `intervalMs` (lib/jobs/sealer.ts), one round at a time. Several workers may each run one:
+ * an advisory lock lets one seal while the others' rounds find the lock taken and wait for the next tick.
+ */
+function startSealer(intervalMs: number, log: Pick<Console, "info" | "error">): { stop(): Promise<void> } {
+  let round: Promise<void> = Promise.resolve();
+  let stopped = false;
+  const tick = () => {
+    round = sealAll()
+      .then((heads) => {
+        const last = heads.at(-1);
+        if (last) log.info(`[gusset-worker] sealed the log at ${last.size} leaves (${heads.length} head(s))`);
+      })
+      .catch((error: unknown) => log.error("[gusset-worker] sealing failed (it will be tried again):", error))
+      .finally(() => {
+        if (!stopped) timer = setTimeout(tick, intervalMs);
+      });
+  };
+  let timer = setTimeout(tick, 0);
+  return {
+    stop: async () => {
+      stopped = true;
+      clearTimeout(timer);
+      await round;
+    },
+  };
 }

@@ -52,3 +52,34 @@ export function renderPasswordResetMail(args: { to: string; name: string; url: s
     html: layout(paragraphs, { url: args.url, label: "Choose a new password" }),
   };
 }
+
+/**
+ * The QA witness's copy of each new tree head. Kept outside Gusset (a mailbox the database's owner does not
+ * control), these let anyone show later that the log was not rewritten or cut short: every later head must
+ * extend every head mailed here.
+ */
+export function renderWitnessMail(args: {
+  to: string;
+  firmName: string;
+  head: { size: number; rootHash: string; sealedAt: string; signature: string };
+  headText: string;
+  digest: string;
+  keyFingerprint: string;
+  url: string;
+}): OutgoingMail {
+  const paragraphs = [
+    `Gusset has sealed ${args.firmName}'s log at ${args.head.size} records.`,
+    `Tree head digest (SHA-256 of the head's text): ${args.digest}`,
+    `Root hash: ${args.head.rootHash}`,
+    `Sealed at: ${args.head.sealedAt}`,
+    `Signature (Ed25519, base64): ${args.head.signature}`,
+    `Signing key fingerprint (SHA-256 of its SPKI DER): ${args.keyFingerprint}`,
+    `Keep this e-mail. The head's text, which the signature is over, is these four lines: ${JSON.stringify(args.headText)}`,
+  ];
+  return {
+    to: args.to,
+    subject: `Gusset log head ${args.head.size} · ${args.digest.slice(0, 12)}`,
+    text: `${paragraphs.join("\n\n")}\n\n${args.url}\n\n— Gusset`,
+    html: layout(paragraphs, { url: args.url, label: "Open the integrity page" }),
+  };
+}

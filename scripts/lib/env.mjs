@@ -87,6 +87,11 @@ function readEnvLocal() {
   return entries;
 }
 
+/** Sets, from .env.local, every variable the environment does not already give: for scripts run by hand. */
+export function loadEnvLocalDefaults() {
+  for (const [key, value] of readEnvLocal()) if (process.env[key] === undefined) process.env[key] = value;
+}
+
 /** The local auth secret: the one in .env.local when there is one, else a new random one. */
 export function authSecret() {
   const existing = readEnvLocal().get("BETTER_AUTH_SECRET");
@@ -95,13 +100,35 @@ export function authSecret() {
 }
 
 /**
+ * The log's Ed25519 signing key (PKCS #8 DER, base64): the one in .env.local when there is one, else a new one.
+ * Created once at first start, like the auth secret; every tree head is signed with it, so keep it with backups.
+ */
+export function logSigningKey() {
+  const existing = readEnvLocal().get("GUSSET_LOG_SIGNING_KEY");
+  if (existing && existing.length > 40) return { key: existing, created: false };
+  const { privateKey } = crypto.generateKeyPairSync("ed25519");
+  return { key: privateKey.export({ type: "pkcs8", format: "der" }).toString("base64"), created: true };
+}
+
+/** The public half of a signing key from logSigningKey, as one line of base64 SPKI DER. */
+export function logPublicKey(signingKey) {
+  const privateKey = crypto.createPrivateKey({ key: Buffer.from(signingKey, "base64"), format: "der", type: "pkcs8" });
+  return crypto.createPublicKey(privateKey).export({ type: "spki", format: "der" }).toString("base64");
+}
+
+/**
  * The variables every Gusset process reads; DATABASE_URL is the app's role. The owner's URL is not among
  * them (see migrationEnv): only the migrations get it. `fakeMail` is false when a real SMTP server is configured.
  */
-export function gussetEnv(profile, { secret, fakeMail = true }) {
+export function gussetEnv(profile, { secret, logKey = logSigningKey().key, fakeMail = true }) {
   const ports = portsFor(profile);
   const appUrl = `http://127.0.0.1:${ports.app}`;
   const env = {
+    // Only the worker (the sealer) needs the private key; a deployment gives the web server the public key alone.
+    GUSSET_LOG_SIGNING_KEY: logKey,
+    GUSSET_LOG_PUBLIC_KEY: logPublicKey(logKey),
+    // Each new tree head's digest goes to this QA witness mailbox (the fake SMTP in the demo and tests).
+    GUSSET_WITNESS_EMAIL: "qa-witness@marrowby-fenn.example",
     DATABASE_URL: databaseUrlFor(profile, "app"),
     BETTER_AUTH_SECRET: secret,
     BETTER_AUTH_URL: appUrl,
@@ -128,7 +155,7 @@ export function writeEnvLocal(env) {
   const ours = new Set(Object.keys(env));
   const kept = [...readEnvLocal()].filter(([key]) => !ours.has(key) && key !== "FAKE_MAIL_API_URL");
   const lines = [
-    "# Written by `npm start` (scripts/start.mjs). BETTER_AUTH_SECRET is created once and kept.",
+    "# Written by `npm start` (scripts/start.mjs). BETTER_AUTH_SECRET and GUSSET_LOG_SIGNING_KEY are created once and kept.",
     ...Object.entries(env).map(([key, value]) => `${key}="${value}"`),
     ...kept.map(([key, value]) => `${key}="${value}"`),
   ];

@@ -112,6 +112,9 @@ describe("the app's database role", () => {
     expect(await attempt("alter table audit_events disable trigger audit_events_no_update_delete")).toEqual(notOwner);
     expect(await attempt("alter table audit_events disable trigger all")).toEqual(notOwner);
     expect(await attempt("drop trigger audit_events_no_update_delete on audit_events")).toEqual(notOwnerOfRelation);
+    // Nor the trigger that gives each evidence row its leaf in the verifiable log.
+    expect(await attempt("alter table audit_events disable trigger audit_events_log")).toEqual(notOwner);
+    expect(await attempt("alter table runs disable trigger runs_log")).toEqual(refused("must be owner of table runs"));
     expect(await attempt("set session_replication_role = replica")).toEqual(
       refused('permission denied to set parameter "session_replication_role"'),
     );
@@ -120,6 +123,7 @@ describe("the app's database role", () => {
         "select tgname, tgenabled from pg_trigger where tgrelid = 'audit_events'::regclass and not tgisinternal order by 1",
       ),
     ).toEqual([
+      { tgname: "audit_events_log", tgenabled: "O" },
       { tgname: "audit_events_no_truncate", tgenabled: "O" },
       { tgname: "audit_events_no_update_delete", tgenabled: "O" },
     ]);
@@ -193,6 +197,7 @@ describe("the app's database role", () => {
         "calc_revision_events_id_seq",
         "library_review_comments_id_seq",
         "library_version_events_id_seq",
+        "log_leaves_id_seq",
         "standard_review_comments_id_seq",
         "standard_version_events_id_seq",
       ].map((name) => ({

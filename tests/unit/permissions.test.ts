@@ -75,6 +75,10 @@ const EXPECTED: Record<Action, Record<Role, boolean>> = {
   "audit.trace": { admin: N, lead: N, engineer: N, auditor: Y },
   // auditor: "export evidence".
   "audit.export": { admin: N, lead: N, engineer: N, auditor: Y },
+  // The verifiable log: anyone in the firm may check a proof or a tree head (they reveal hashes only); running the
+  // full integrity check is the quality manager's job ("verify integrity"), and the admin's, who runs the servers.
+  "log.verify": { admin: Y, lead: Y, engineer: Y, auditor: Y },
+  "integrity.check": { admin: Y, lead: N, engineer: N, auditor: Y },
 };
 
 /** Actions that change something; an auditor "changes nothing". */

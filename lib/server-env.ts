@@ -68,7 +68,10 @@ const envSchema = z.object({
   /** The log's public key, SPKI DER in base64: every head is checked against it (derived from the private key if unset). */
   GUSSET_LOG_PUBLIC_KEY: z.string().min(40).optional(),
   /** The QA witness's address: each new tree head's digest is e-mailed there, so heads leave the server. */
-  GUSSET_WITNESS_EMAIL: z.email("must be an e-mail address").optional().or(z.literal("").transform(() => undefined)),
+  GUSSET_WITNESS_EMAIL: z
+    .email("must be an e-mail address")
+    .optional()
+    .or(z.literal("").transform(() => undefined)),
   /** How often the sealer folds new leaves into the tree, in milliseconds. */
   GUSSET_SEAL_INTERVAL_MS: positiveInt(3000),
   /** Sign-in attempts per account and client address per minute. */

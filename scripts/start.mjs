@@ -2,6 +2,7 @@
 // Installs what is missing (npm dependencies, postgresql-15), starts or reuses PostgreSQL and the fake
 // SMTP/S3, migrates and seeds the `gusset` database, builds when stale, serves. Ctrl-C stops what it started.
 // Plain Node: it runs before `npm ci` on a fresh machine.
+import crypto from "node:crypto";
 import { authSecret, childEnv, gussetEnv, logSigningKey, writeEnvLocal } from "./lib/env.mjs";
 import { ensureBuild } from "./lib/build.mjs";
 import { demoSignIns, printSignIns, verifyLiveStandards } from "./lib/database.mjs";
@@ -24,6 +25,8 @@ await main(async () => {
   writeEnvLocal(env);
   if (created) say("created a local BETTER_AUTH_SECRET in .env.local (kept for later runs)");
   if (logKey.created) say("created the log's Ed25519 signing key in .env.local (kept for later runs; back it up)");
+  const keyFingerprint = crypto.createHash("sha256").update(Buffer.from(env.GUSSET_LOG_PUBLIC_KEY, "base64")).digest("hex");
+  say(`the log's public key: sha256:${keyFingerprint} (the Integrity page shows it in full)`);
   const processEnv = childEnv(env);
   const url = env.BETTER_AUTH_URL;
 

@@ -16,6 +16,7 @@ import {
 } from "@/lib/data/log";
 import type { LeafDto, TreeHeadDto } from "@/lib/data/log";
 import { AppError } from "@/lib/domain/errors";
+import { runRefSchema } from "@/lib/domain/schemas/jobs";
 import { z } from "@/lib/domain/zod";
 import { logPublicKeyFromSettings } from "@/lib/jobs/log-keys";
 import {
@@ -91,6 +92,20 @@ export async function readSeal(kind: LogLeafKind, ref: string, treeSize?: number
   }
   return { sealed: true, leaf: sealedLeaf, head: signed(head), proof: await proveInclusion(sealedLeaf, head) };
 }
+
+export type RunSeal = { view: InclusionView; publicKeyPem: string; fingerprint: string };
+
+/** A run's seal, for its page and calc sheet: whoever may read the run may see (and check) it. */
+export const readRunSeal = defineUseCase({
+  name: "runs.seal",
+  permission: "runs.read",
+  input: runRefSchema,
+  run: async ({ id }): Promise<RunSeal> => {
+    const { pem, fingerprint } = logPublicKeyFromSettings();
+    return { view: await readSeal("run", id), publicKeyPem: pem, fingerprint };
+  },
+  audit: null,
+});
 
 export const readLogStatus = defineUseCase({
   name: "log.status",

@@ -63,6 +63,12 @@ export function routeHandler<P extends Permission, S extends z.ZodType, T, R>(
   };
 }
 
+/** The API's error answer for anything a route handler of its own caught (the same shape and status as routeHandler's). */
+export function apiErrorResponse(error: unknown): Response {
+  unstable_rethrow(error);
+  return errorResponse(toPublicError(error));
+}
+
 function errorResponse(publicError: PublicError): Response {
   const status = ERROR_STATUS[publicError.code];
   const headers: HeadersInit = status === 503 ? { "Retry-After": String(RETRY_AFTER_SECONDS) } : {};

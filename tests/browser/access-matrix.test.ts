@@ -154,6 +154,7 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     expect: signedInPage("lead", "engineer", "auditor"),
   },
   "/(app)/audit/page": { path: "/audit", title: "Audit trail", expect: signedInPage("admin", "auditor") },
+  "/(app)/audit/integrity/page": { path: "/audit/integrity", title: "Integrity", expect: signedInPage("admin", "auditor") },
   "/(app)/admin/users/page": { path: "/admin/users", title: "People", expect: signedInPage("admin", "auditor") },
   "/(app)/admin/mailbox/page": {
     path: "/admin/mailbox",
@@ -254,6 +255,50 @@ const API_ROUTES: Record<string, ApiRow> = {
     ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]),
   },
   "OPTIONS /api/me/route": OPTIONS_ROW("/api/me", ALLOW_GET),
+  // The verifiable log: everyone in the firm may read the signed heads and check a proof (hashes only).
+  "GET /api/log/heads/route": {
+    path: "/api/log/heads",
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "ok"),
+    ok: (answer) => {
+      expect(answer.status).toBe(200);
+      const heads = answer.text
+        .trim()
+        .split("\n")
+        .map((line) => JSON.parse(line) as { size: number; digest: string });
+      expect(heads.length).toBeGreaterThan(0);
+      expect(heads.every((head, i) => /^[0-9a-f]{64}$/.test(head.digest) && (i === 0 || head.size > heads[i - 1].size))).toBe(
+        true,
+      );
+    },
+  },
+  "HEAD /api/log/heads/route": {
+    path: "/api/log/heads",
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "ok"),
+    ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]),
+  },
+  "OPTIONS /api/log/heads/route": OPTIONS_ROW("/api/log/heads", ALLOW_GET),
+  "GET /api/log/inclusion/route": {
+    path: `/api/log/inclusion?kind=run&ref=${NO_SUCH_UUID}`,
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "not-found"),
+    ok: () => undefined,
+  },
+  "HEAD /api/log/inclusion/route": {
+    path: `/api/log/inclusion?kind=run&ref=${NO_SUCH_UUID}`,
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "not-found"),
+    ok: () => undefined,
+  },
+  "OPTIONS /api/log/inclusion/route": OPTIONS_ROW("/api/log/inclusion", ALLOW_GET),
+  "GET /api/log/consistency/route": {
+    path: "/api/log/consistency?from=999999999998&to=999999999999",
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "not-found"),
+    ok: () => undefined,
+  },
+  "HEAD /api/log/consistency/route": {
+    path: "/api/log/consistency?from=999999999998&to=999999999999",
+    expect: anonymousElse<ApiOutcome>("unauthenticated", "not-found"),
+    ok: () => undefined,
+  },
+  "OPTIONS /api/log/consistency/route": OPTIONS_ROW("/api/log/consistency", ALLOW_GET),
   // better-auth's own endpoints. The session probe answers everyone (null when signed out).
   "GET /api/auth/[...all]/route": {
     path: "/api/auth/get-session",
@@ -448,6 +493,16 @@ function libraryEditorsAction(): Record<Who, ActionOutcome> {
   ) as Record<Who, ActionOutcome>;
 }
 
+/** The integrity check: the quality manager's job ("verify integrity"), and the admin's, who runs the servers. */
+function integrityCheckersAction(): Record<Who, ActionOutcome> {
+  return Object.fromEntries(
+    EVERYONE.map((who) => [
+      who,
+      who === "anonymous" ? "unauthenticated" : who === "admin" || who === "auditor" ? "ok" : "forbidden",
+    ]),
+  ) as Record<Who, ActionOutcome>;
+}
+
 function leadsOnlyAction(): Record<Who, ActionOutcome> {
   return Object.fromEntries(
     EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "lead" ? "ok" : "forbidden"]),
@@ -480,6 +535,7 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/standards/actions.ts#returnDraftAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#approveAndPublishAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#withdrawVersionAction": leadsOnlyAction(),
+  "app/(app)/audit/integrity/actions.ts#runIntegrityCheckAction": integrityCheckersAction(),
   // Jobs and runs: engineers and leads; auditors change nothing; admins manage people.
   "app/(app)/jobs/actions.ts#createJobAction": runnersAction(),
   "app/(app)/jobs/actions.ts#updateJobAction": runnersAction(),
@@ -717,6 +773,7 @@ describe("signing in brings people back", () => {
       "/runs/00000000-0000-4000-8000-000000000000",
       "/runs/compare",
       "/audit",
+      "/audit/integrity",
       "/admin/users",
       "/admin/mailbox",
     ]);

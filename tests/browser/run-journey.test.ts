@@ -16,6 +16,20 @@ import { DEMO_USERS } from "@/db/demo-users";
 import { demoSession, journeyTimeout, signInOverHttp } from "../support/pages";
 import { pdfPages } from "../support/pdf";
 
+/** Reloads the run's page until its record is sealed in the log; the leaf hash and head digest shown. */
+async function waitForSeal(page: Page): Promise<{ leafHash: string; digest: string }> {
+  const deadline = Date.now() + 30_000;
+  while (!(await page.getByTestId("seal-panel").isVisible())) {
+    if (Date.now() > deadline) throw new Error("the run was not sealed in the log within 30 s");
+    await page.waitForTimeout(1000);
+    await page.reload();
+  }
+  return {
+    leafHash: (await page.getByTestId("seal-leaf-hash").textContent())!.trim(),
+    digest: (await page.getByTestId("seal-head-digest").textContent())!.trim(),
+  };
+}
+
 /** Clicks a link that downloads a PDF; the bytes' sha256 (checked against the server's header) and each page's text. */
 async function downloadPdf(page: Page, link: Locator): Promise<{ sha256: string; pages: string[] }> {
   const [download] = await Promise.all([page.waitForEvent("download", { timeout: 60_000 }), link.click()]);
@@ -81,6 +95,11 @@ it(
     // The calc sheet as a PDF rendered on the server: every page carries the run id, the version and its hash.
     const runUrl = page.url();
     const runId = runUrl.split("/runs/")[1];
+    // The run's record is sealed in the log within seconds (the worker's sealer); its page then shows the seal, which
+    // checks out in this very browser, and the calc sheet prints it. Waiting for it keeps the sheet's state still below.
+    const seal = await waitForSeal(page);
+    await page.getByRole("button", { name: "Check it in this browser" }).click();
+    await expect.poll(() => page.getByTestId("seal-check-result").textContent()).toMatch(/^Verified here/);
     await page.getByTestId("open-sheet").click();
     await page.getByTestId("calc-sheet").waitFor();
     const versionLine = (await page.getByTestId("sheet-header").locator("p").nth(3).textContent())!;
@@ -93,6 +112,9 @@ it(
       expect(text, `page ${index + 1}`).toContain(`Page ${index + 1} of ${unsigned.pages.length}`);
     });
     expect(unsigned.pages.join("\n")).toContain("Not issued: no sign-off is recorded against this run.");
+    // The seal is printed: the leaf hash and the head's digest, for a check years later without the server.
+    expect(unsigned.pages.join("").replace(/\s+/g, "")).toContain(seal.leafHash);
+    expect(unsigned.pages.join("").replace(/\s+/g, "")).toContain(seal.digest);
     // The same state again gives the PDF kept for it, not a new one.
     expect((await downloadPdf(page, page.getByTestId("download-pdf"))).sha256).toBe(unsigned.sha256);
     await page.goto(runUrl);

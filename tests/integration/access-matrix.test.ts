@@ -17,7 +17,11 @@ import type { Role } from "@/lib/domain/roles";
 import { DEFAULT_MESSAGES } from "@/lib/domain/errors";
 import { expectRowsUnchanged, refusalWrites, snapshotRows } from "../support/snapshot";
 import { ACTION_FIXTURES, matrixJob, matrixRun, seededVersionId, type ActionAnswer } from "./helpers/action-fixtures";
-import { db } from "@/db";
+import { db, pool } from "@/db";
+import { sealedInLog } from "./helpers/log";
+import { logPublicKeyFromSettings } from "@/lib/jobs/log-keys";
+import { hashFromHex, leafHash, verifyConsistency, verifyInclusion } from "@/lib/integrity/merkle";
+import { verifyTreeHead } from "@/lib/integrity/tree-head";
 import * as schema from "@/db/schema";
 import { eq } from "drizzle-orm";
 import { createTestUser, sessionCount, signInHeaders } from "./helpers/people";
@@ -100,6 +104,17 @@ const PUBLIC: Record<Who, Expected> = {
   auditor: "allowed",
 };
 
+// ---- the verifiable log ---------------------------------------------------------------------------
+
+/** An audit event written as the app's role, committed: a record for the log to seal. */
+async function matrixAuditEvent(): Promise<string> {
+  const { rows } = await pool.query<{ id: string }>(
+    `insert into audit_events (action, details) values ('access.refused', '{"useCase": "matrix log", "permission": "none"}')
+     returning id::text`,
+  );
+  return rows[0].id;
+}
+
 // ---- the people who call -------------------------------------------------------------------------
 
 const headersFor: Partial<Record<Who, Headers>> = {};
@@ -133,6 +148,14 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/profile/actions.ts#changePasswordAction": SIGNED_IN,
   "app/(app)/profile/actions.ts#setTimeZoneAction": SIGNED_IN,
   "app/(app)/profile/actions.ts#setDisplayUnitsAction": SIGNED_IN,
+  // The integrity check: the quality manager's job ("verify integrity"), and the admin's, who runs the servers.
+  "app/(app)/audit/integrity/actions.ts#runIntegrityCheckAction": {
+    anonymous: "unauthenticated",
+    admin: "allowed",
+    lead: "forbidden",
+    engineer: "forbidden",
+    auditor: "allowed",
+  },
   // Public: the link is the credential; anyone holding a real one may accept it.
   "app/(auth)/invite/[token]/actions.ts#acceptInvitationAction": PUBLIC,
   "app/(app)/standards/actions.ts#createStandardAction": LEADS_ONLY,
@@ -372,6 +395,78 @@ const ROUTES: RouteRow[] = [
       expect(response.headers.get("content-type")).toBe("application/pdf");
       expect(response.headers.get("content-disposition")).toMatch(/^attachment; filename="matrix-check\.pdf"/);
       expect(new Uint8Array(await response.arrayBuffer())).toEqual(expectBytes);
+    },
+  },
+  // The verifiable log: anyone in the firm reads the signed heads and asks for a proof; what they get verifies.
+  {
+    route: "app/api/log/heads/route.ts",
+    method: "GET",
+    path: "/api/log/heads",
+    expected: SIGNED_IN,
+    request: async () => {
+      await sealedInLog("audit-event", await matrixAuditEvent());
+      return {};
+    },
+    succeeded: async (response) => {
+      expect(response.status).toBe(200);
+      expect(response.headers.get("content-type")).toBe("application/x-ndjson; charset=utf-8");
+      const heads = (await response.text())
+        .trim()
+        .split("\n")
+        .map((line) => JSON.parse(line) as { size: number; rootHash: string; sealedAt: string; signature: string });
+      const { pem } = logPublicKeyFromSettings();
+      expect(heads.length).toBeGreaterThan(0);
+      for (const [i, head] of heads.entries()) {
+        expect(verifyTreeHead(head, head.signature, pem)).toBe(true);
+        if (i > 0) expect(head.size).toBeGreaterThan(heads[i - 1].size);
+      }
+    },
+  },
+  {
+    route: "app/api/log/inclusion/route.ts",
+    method: "GET",
+    path: "/api/log/inclusion",
+    expected: SIGNED_IN,
+    request: async () => {
+      const ref = await matrixAuditEvent();
+      await sealedInLog("audit-event", ref);
+      return { path: `/api/log/inclusion?kind=audit-event&ref=${ref}`, params: { ref } };
+    },
+    succeeded: async (response, { params }) => {
+      expect(response.status).toBe(200);
+      const { data } = (await response.json()) as {
+        data: {
+          sealed: true;
+          leaf: { ref: string; entry: string; leafIndex: number };
+          head: { size: number; rootHash: string };
+          proof: string[];
+        };
+      };
+      expect(data.leaf.ref).toBe(params!.ref);
+      const leaf = leafHash(new TextEncoder().encode(data.leaf.entry));
+      const proof = data.proof.map((hex) => hashFromHex(hex));
+      expect(verifyInclusion(data.leaf.leafIndex, data.head.size, leaf, proof, hashFromHex(data.head.rootHash))).toBe(true);
+    },
+  },
+  {
+    route: "app/api/log/consistency/route.ts",
+    method: "GET",
+    path: "/api/log/consistency",
+    expected: SIGNED_IN,
+    request: async () => {
+      const older = await sealedInLog("audit-event", await matrixAuditEvent());
+      const newer = await sealedInLog("audit-event", await matrixAuditEvent());
+      return { path: `/api/log/consistency?from=${older}&to=${newer}` };
+    },
+    succeeded: async (response) => {
+      expect(response.status).toBe(200);
+      const { data } = (await response.json()) as {
+        data: { from: { size: number; rootHash: string }; to: { size: number; rootHash: string }; proof: string[] };
+      };
+      const proof = data.proof.map((hex) => hashFromHex(hex));
+      const [from, to] = [hashFromHex(data.from.rootHash), hashFromHex(data.to.rootHash)];
+      expect(data.to.size).toBeGreaterThan(data.from.size);
+      expect(verifyConsistency(data.from.size, data.to.size, from, to, proof)).toBe(true);
     },
   },
   // Runs: engineers and leads run; everyone but admins (whose work is people) reads them.

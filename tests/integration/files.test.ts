@@ -15,6 +15,7 @@ import { attachmentKey } from "@/lib/data/files";
 import { getObject } from "@/lib/storage/s3";
 import { POST as attachRoute } from "@/app/api/jobs/[jobNumber]/attachments/route";
 import { GET as downloadRoute } from "@/app/api/attachments/[attachmentId]/route";
+import { sealedInLog } from "./helpers/log";
 import { GET as sheetPdfRoute } from "@/app/api/runs/[id]/sheet-pdf/route";
 import { GET as keptPdfRoute } from "@/app/api/runs/[id]/sheet-pdfs/[pdfId]/route";
 import { approveAndPublish, createStandard, saveDraft, submitDraft, withdrawVersion } from "@/lib/use-cases/standards";
@@ -236,6 +237,8 @@ describe("calc sheet PDFs", () => {
     runId = (
       await runUseCase(createRun, { actor: engineer, input: { jobId: job.jobId, versionId, inputs: {}, unitSystem: "si" } })
     ).id;
+    // The sheet shows the run's seal once the sealer has it: wait for it, so both asks below see one state.
+    await sealedInLog("run", runId);
 
     const ask = () =>
       sheetPdfRoute(new Request(`${base}/api/runs/${runId}/sheet-pdf`, { headers: engineerHeaders }), params({ id: runId }));

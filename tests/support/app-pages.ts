@@ -145,6 +145,7 @@ export const APP_PAGES: AppPage[] = [
   // Without two runs chosen, the comparison says what to do; two real runs are compared by the run journey.
   { name: "compare runs, none chosen", entry: "/(app)/runs/compare/page", path: "/runs/compare", visitors: ["auditor"] },
   { name: "audit trail", entry: "/(app)/audit/page", path: "/audit", visitors: ["auditor"] },
+  { name: "integrity", entry: "/(app)/audit/integrity/page", path: "/audit/integrity", visitors: ["auditor"] },
   { name: "people", entry: "/(app)/admin/users/page", path: "/admin/users", visitors: ["admin", "auditor"] },
   { name: "demo mailbox", entry: "/(app)/admin/mailbox/page", path: "/admin/mailbox", visitors: ["admin"], mailbox: true },
   { name: "403, not part of the role", entry: "/(app)/runs/(list)/page", path: "/runs", status: 403, visitors: ["admin"] },

@@ -14,6 +14,8 @@ export const testEnv = {
   adminDatabaseUrl: read("DATABASE_ADMIN_URL", "postgres://postgres@127.0.0.1:54329/postgres"),
   baseUrl: read("GUSSET_BASE_URL", "http://127.0.0.1:3100"),
   mailApiUrl: read("FAKE_MAIL_API_URL", "http://127.0.0.1:2581"),
+  /** The QA witness the sealer e-mails each new tree head to. */
+  witnessEmail: read("GUSSET_WITNESS_EMAIL", "qa-witness@marrowby-fenn.example"),
   mailFrom: read("MAIL_FROM", "Gusset <no-reply@gusset.example>"),
   smtp: {
     host: read("SMTP_HOST", "127.0.0.1"),

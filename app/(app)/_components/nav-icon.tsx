@@ -10,6 +10,8 @@ const PATHS: Record<NavIconName, string> = {
   // a calc sheet with a "run" arrowhead on it: a standard put through its steps
   runs: "M4.5 2.5h8l3 3v12h-11zM12.5 2.5v3h3M8 8.5l4.5 3-4.5 3z",
   audit: "M5 2.5h7l3.5 3.5v11.5H5zM8 9.5h5M8 12.5h5M8 15.5h3",
+  // three hashes joined into one: the log's tree, sealed at its root
+  integrity: "M10 3.5v4M10 7.5 5 12.5M10 7.5l5 5M3.5 12.5h3v3h-3zM13.5 12.5h3v3h-3zM8.5 2h3v3h-3z",
   people:
     "M7.5 9a2.75 2.75 0 1 0 0-5.5 2.75 2.75 0 0 0 0 5.5zM2.5 16.5c.5-3 2.5-4.5 5-4.5s4.5 1.5 5 4.5M13.5 4a2.5 2.5 0 0 1 0 5M15 12c1.5.5 2.3 2 2.5 4.5",
   mailbox: "M3 5h14v10H3zM3 5.5l7 5.5 7-5.5",

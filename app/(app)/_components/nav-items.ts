@@ -3,7 +3,7 @@
 // would answer 403. Hiding is a courtesy here — the page's own requirePageActor() is the check.
 import type { Action } from "@/lib/domain/permissions";
 
-export type NavIcon = "home" | "standards" | "libraries" | "jobs" | "runs" | "audit" | "people" | "mailbox";
+export type NavIcon = "home" | "standards" | "libraries" | "jobs" | "runs" | "audit" | "integrity" | "people" | "mailbox";
 
 export type NavItem = {
   href: string;
@@ -21,6 +21,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/jobs", label: "Jobs", icon: "jobs", permission: "jobs.read", group: "work" },
   { href: "/runs", label: "Runs", icon: "runs", permission: "runs.read", group: "work" },
   { href: "/audit", label: "Audit trail", icon: "audit", permission: "audit.read", group: "work" },
+  { href: "/audit/integrity", label: "Integrity", icon: "integrity", permission: "integrity.check", group: "work" },
   { href: "/admin/users", label: "People", icon: "people", permission: "users.read", group: "admin" },
   { href: "/admin/mailbox", label: "Demo mailbox", icon: "mailbox", permission: "mailbox.read", group: "admin" },
 ];

@@ -2,7 +2,7 @@
 // allows did its work: the answer and the rows it changed. Both access matrices use them (in-process
 // and over HTTP); each keeps its own hand-written table of who may call what.
 import { expect } from "vitest";
-import { eq } from "drizzle-orm";
+import { desc, eq } from "drizzle-orm";
 import { db } from "@/db";
 import * as schema from "@/db/schema";
 import { WRONG_CURRENT_PASSWORD_MESSAGE } from "@/lib/domain/schemas/profile";
@@ -268,6 +268,23 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
       const { userId } = (answer as { state: { data: { userId: string } } }).state.data;
       expect((await userRow(userId)).displayUnits).toBe("us");
       await db.update(schema.user).set({ displayUnits: "si" }).where(eq(schema.user.id, userId));
+    },
+  }),
+  // The whole log checked: nothing wrong in the test database, and the check itself on the audit trail.
+  "app/(app)/audit/integrity/actions.ts#runIntegrityCheckAction": async () => ({
+    input: {},
+    succeeded: async (answer) => {
+      expect(answer).toMatchObject({ state: { ok: true, data: { ok: true, problems: [] } } });
+      const { leaves, heads } = (answer as { state: { data: { leaves: number; heads: number } } }).state.data;
+      expect(leaves).toBeGreaterThan(0);
+      expect(heads).toBeGreaterThan(0);
+      const events = await db
+        .select()
+        .from(schema.auditEvents)
+        .where(eq(schema.auditEvents.action, "integrity.check"))
+        .orderBy(desc(schema.auditEvents.id))
+        .limit(1);
+      expect(events[0]?.details).toMatchObject({ ok: true, leaves, heads, problems: 0, first: null });
     },
   }),
   // A real link: the account is made, the person signed in and sent home.

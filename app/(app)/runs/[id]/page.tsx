@@ -11,6 +11,8 @@ import { readRunRecord } from "@/lib/standards/run-record";
 import { PageHeader } from "@/components/ui/page-header";
 import { buttonClasses } from "@/components/ui/button";
 import { Caution } from "@/components/standards/caution";
+import { SealPanel } from "@/components/integrity/seal-panel";
+import { readRunSeal } from "@/lib/use-cases/log";
 import { LocalTime } from "@/components/local-time";
 import { RunResults } from "@/components/runs/run-results";
 import { SheetPdfs } from "@/components/runs/sheet-pdfs";
@@ -37,11 +39,12 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
   const mayIssue = run.createdById === actor.id && run.outcome === "succeeded" && can(actor.role, "runs.sign-prepared");
   const calcs = mayIssue ? await runUseCase(readCalcPackage, { actor, input: { jobId: run.jobId } }) : [];
   const people = mayIssue ? (await runUseCase(readJobPeople, { actor, input: {} })).filter((p) => p.id !== actor.id) : [];
-  const [pdfs, attachments, sameStandard, profile] = await Promise.all([
+  const [pdfs, attachments, sameStandard, profile, seal] = await Promise.all([
     runUseCase(readSheetPdfs, { actor, input: { id: run.id } }),
     runUseCase(readAttachments, { actor, input: { jobId: run.jobId, runId: run.id } }),
     runUseCase(readRuns, { actor, input: { job: run.jobNumber, standard: run.slug, limit: 30 } }),
     runUseCase(readProfile, { actor, input: {} }),
+    runUseCase(readRunSeal, { actor, input: { id: run.id } }),
   ]);
   const others = sameStandard.runs.filter((other) => other.id !== run.id);
   const open = revisions.some((r) => r.state === "awaiting-check" || r.state === "awaiting-approval");
@@ -187,6 +190,9 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
           </form>
         </Section>
       ) : null}
+      <Section title="In the verifiable log" id="seal-heading">
+        <SealPanel view={seal.view} publicKeyPem={seal.publicKeyPem} fingerprint={seal.fingerprint} />
+      </Section>
       <Section title="Calc sheet PDFs" id="sheet-pdfs-heading">
         <SheetPdfs runId={run.id} pdfs={pdfs} />
       </Section>

@@ -12,6 +12,8 @@ import { NarrativeView } from "@/components/standards/narrative-view";
 import { RunChecks, RunDiagrams, RunInputs, RunModel, RunReactions, resultIdsOf } from "@/components/runs/run-results";
 import { orNotFound } from "../../../../(app)/_components/or-not-found";
 import { WithdrawalBanner } from "@/components/runs/withdrawal-banner";
+import { SealPanel } from "@/components/integrity/seal-panel";
+import { readRunSeal } from "@/lib/use-cases/log";
 import { PrintButton } from "./print-button";
 
 export const metadata: Metadata = { title: "Calc sheet" };
@@ -40,6 +42,7 @@ export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sh
     runUseCase(readRunSheet, { actor, input: { id } }),
   );
   const revisions = await runUseCase(readRunSignOff, { actor, input: { id: run.id } });
+  const seal = await runUseCase(readRunSeal, { actor, input: { id: run.id } });
   const record = readRunRecord(run.record);
   const issued = revisions.at(-1);
   const under = record.outcome === "succeeded" ? resultIdsOf(record.evaluation.model)[0]?.id : undefined;
@@ -179,6 +182,13 @@ export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sh
                 ) : (
                   <p className="text-sm">Not issued: no sign-off is recorded against this run.</p>
                 )}
+              </SheetPart>
+              <SheetPart title="Record seal">
+                <p className="mb-1 text-sm">
+                  This run&apos;s record is sealed in the firm&apos;s verifiable log: it can be checked years from now without
+                  trusting the server, from this page alone.
+                </p>
+                <SealPanel view={seal.view} publicKeyPem={seal.publicKeyPem} fingerprint={seal.fingerprint} printable />
               </SheetPart>
               <Caution />
             </td>

@@ -64,11 +64,13 @@ export async function checkLogIntegrity({
     const add = (problem: IntegrityProblem) => problems.push(problem);
 
     // The database compares records with their leaves while this process rebuilds the tree.
-    const databaseSide = Promise.all([
-      snapshot.findRecordProblems(MAX_PROBLEMS),
-      snapshot.findUnloggedRows(MAX_PROBLEMS),
-      snapshot.countRecords(),
-    ]);
+    // (One after another on that connection: a pg client runs one query at a time.)
+    const databaseSide = (async () =>
+      [
+        await snapshot.findRecordProblems(MAX_PROBLEMS),
+        await snapshot.findUnloggedRows(MAX_PROBLEMS),
+        await snapshot.countRecords(),
+      ] as const)();
     const heads = await snapshot.heads();
     const pending = await snapshot.pending();
 

@@ -14,7 +14,10 @@ export function SideNav({ items }: { items: Pick<NavItem, "href" | "label" | "ic
   const [open, setOpen] = useState(false);
   const listId = useId();
   const groups: { key: NavItem["group"]; heading?: string }[] = [{ key: "work" }, { key: "admin", heading: "Administration" }];
-  const current = items.find((item) => pathname === item.href || pathname.startsWith(`${item.href}/`));
+  // The most specific entry that holds the page: /audit/integrity is Integrity's, not the audit trail's.
+  const current = items
+    .filter((item) => pathname === item.href || pathname.startsWith(`${item.href}/`))
+    .sort((a, b) => b.href.length - a.href.length)[0];
   return (
     <nav aria-label="Main" data-testid="main-nav" className="min-w-0 md:flex md:flex-col">
       <button

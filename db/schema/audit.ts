@@ -22,6 +22,8 @@ export const auditEvents = pgTable(
     index("audit_events_occurred_at_idx").on(t.occurredAt),
     index("audit_events_actor_id_idx").on(t.actorId),
     index("audit_events_action_idx").on(t.action),
+    // A run's trace reads every event about the run and its calc revisions ("run:<id>", "calc-revision:<id>").
+    index("audit_events_subject_idx").on(t.subject, t.id),
   ],
 );
 export type AuditEvent = typeof auditEvents.$inferSelect;

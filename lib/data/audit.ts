@@ -2,7 +2,7 @@ import "server-only";
 // The audit trail: written for every change (by the use-case runner, lib/use-cases/run.ts) and every
 // sign-in attempt, read by auditors and admins. The table refuses UPDATE, DELETE and TRUNCATE
 // (drizzle/0002_audit_append_only.sql).
-import { and, asc, desc, eq, gte, lt, notInArray, sql } from "drizzle-orm";
+import { and, asc, desc, eq, gte, inArray, lt, notInArray, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { auditEvents, invitations, user } from "@/db/schema";
 import { auditActionLabel, type AuditEventInput } from "@/lib/domain/audit-actions";
@@ -55,18 +55,9 @@ export type AuditEventFilter = {
 // The person an event was done to ("user:<id>") and the invitation it concerned ("invitation:<uuid>").
 const subjectUser = alias(user, "subject_user");
 
-/** Newest first, with the actor's and the subject's names; pass the last id seen as `before` for the next page. Callers check audit.read. */
-export async function listAuditEvents({
-  limit = 50,
-  before,
-  actorId,
-  action,
-  from,
-  until,
-  excludeActions = [],
-}: AuditEventFilter): Promise<{ events: AuditEventDto[]; nextBefore: number | null }> {
-  const pageSize = Math.min(Math.max(Math.trunc(limit), 1), 200);
-  const rows = await currentDb()
+/** The events with the actor's and the subject's names resolved; the caller adds its own conditions and order. */
+function selectAuditEvents() {
+  return currentDb()
     .select({
       id: auditEvents.id,
       occurredAt: auditEvents.occurredAt,
@@ -83,7 +74,21 @@ export async function listAuditEvents({
     .from(auditEvents)
     .leftJoin(user, eq(user.id, auditEvents.actorId))
     .leftJoin(subjectUser, sql`${auditEvents.subject} = 'user:' || ${subjectUser.id}`)
-    .leftJoin(invitations, sql`${auditEvents.subject} = 'invitation:' || ${invitations.id}::text`)
+    .leftJoin(invitations, sql`${auditEvents.subject} = 'invitation:' || ${invitations.id}::text`);
+}
+
+/** Newest first, with the actor's and the subject's names; pass the last id seen as `before` for the next page. Callers check audit.read. */
+export async function listAuditEvents({
+  limit = 50,
+  before,
+  actorId,
+  action,
+  from,
+  until,
+  excludeActions = [],
+}: AuditEventFilter): Promise<{ events: AuditEventDto[]; nextBefore: number | null }> {
+  const pageSize = Math.min(Math.max(Math.trunc(limit), 1), 200);
+  const rows = await selectAuditEvents()
     .where(
       and(
         before === undefined ? undefined : lt(auditEvents.id, before),
@@ -97,14 +102,27 @@ export async function listAuditEvents({
     .orderBy(desc(auditEvents.id))
     .limit(pageSize + 1);
   const page = rows.slice(0, pageSize);
-  return {
-    events: page.map((row) => ({
-      ...row,
-      occurredAt: row.occurredAt.toISOString(),
-      label: auditActionLabel(row.action),
-    })),
-    nextBefore: rows.length > pageSize ? page[page.length - 1].id : null,
-  };
+  return { events: page.map(toAuditEventDto), nextBefore: rows.length > pageSize ? page[page.length - 1].id : null };
+}
+
+function toAuditEventDto(row: Awaited<ReturnType<ReturnType<typeof selectAuditEvents>["execute"]>>[number]): AuditEventDto {
+  return { ...row, occurredAt: row.occurredAt.toISOString(), label: auditActionLabel(row.action) };
+}
+
+/**
+ * The events about any of `subjects` ("run:<id>", "calc-revision:<id>"), oldest first, at most `limit` (the
+ * newest are kept when there are more). Read through audit_events_subject_idx.
+ */
+export async function listAuditEventsAbout(
+  subjects: readonly string[],
+  limit: number,
+): Promise<{ events: AuditEventDto[]; more: boolean }> {
+  if (subjects.length === 0) return { events: [], more: false };
+  const rows = await selectAuditEvents()
+    .where(inArray(auditEvents.subject, [...subjects]))
+    .orderBy(desc(auditEvents.id))
+    .limit(limit + 1);
+  return { events: rows.slice(0, limit).reverse().map(toAuditEventDto), more: rows.length > limit };
 }
 
 export type AuditPersonDto = { id: string; name: string; email: string; deactivated: boolean };

@@ -87,6 +87,20 @@ export type AuditDetails = {
     sha256: string;
     purpose: "design" | "remediation";
   };
+  /**
+   * A stored run evaluated again: "as-issued" with the evaluation bundle that made it (kept in object storage by its
+   * sha256), "current" with today's. identical: every output part of the record came out byte for byte the same;
+   * differing: how many outputs (derived values, extracts, check utilisations) differ.
+   */
+  "runs.reproduce": {
+    runId: string;
+    mode: "as-issued" | "current";
+    bundleSha256: string;
+    identical: boolean;
+    differing: number;
+  };
+  /** A reproduction that could not be made: the bundle is not kept, or its bytes no longer match their sha256. */
+  "runs.reproduce.refused": { runId: string; mode: "as-issued" | "current"; bundleSha256: string; reason: string };
   /** A state of a run's calc sheet rendered to PDF and kept (its sha256, and the sheet state's). */
   "runs.sheet.render": { runId: string; sha256: string; pages: number; stateSha256: string };
   /** A file kept on a job, or on one of its runs (runId). */
@@ -145,6 +159,8 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "jobs.create": "Created a job",
   "jobs.update": "Changed a job",
   "runs.create": "Ran a standard",
+  "runs.reproduce": "Reproduced a run",
+  "runs.reproduce.refused": "Could not reproduce a run",
   "runs.sheet.render": "Kept a calc sheet PDF",
   "jobs.attachment.add": "Attached a file to a job",
   "calcs.create": "Numbered a calc",

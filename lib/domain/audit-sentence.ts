@@ -94,6 +94,11 @@ const JOB_FIELD_WORDS: Readonly<Record<string, string>> = {
   status: "status",
 };
 
+/** "as issued" (with the bundle that made the run) or "with today's bundle". */
+function reproductionMode(mode: unknown): string {
+  return mode === "current" ? "with today's bundle" : "as issued";
+}
+
 /** The sentence as parts: plain text and the people in it (so a page can style names and show e-mails). */
 export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart[] {
   const actor = auditActorOf(event);
@@ -266,6 +271,21 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
         ` ran ${text(d.slug) ?? "a standard"} version ${count(d.number) ?? "?"} in job ${text(d.jobNumber) ?? "?"}${d.purpose === "remediation" ? " (a remediation re-run)" : ""}: ${result}`,
       ];
     }
+    case "runs.reproduce": {
+      const differing = count(d.differing) ?? 0;
+      const result =
+        d.identical === true
+          ? "identical"
+          : differing > 0
+            ? `${plural(differing, "output differs", "outputs differ")}`
+            : "the outputs are equal but not byte for byte";
+      return [actor, ` reproduced run ${text(d.runId)?.slice(0, 8) ?? "?"} ${reproductionMode(d.mode)}: ${result}`];
+    }
+    case "runs.reproduce.refused":
+      return [
+        actor,
+        ` could not reproduce run ${text(d.runId)?.slice(0, 8) ?? "?"} ${reproductionMode(d.mode)}: ${text(d.reason) ?? "no reason given"}`,
+      ];
     case "runs.sheet.render":
       return [
         actor,

@@ -34,6 +34,8 @@ export const ACTIONS = [
   "runs.sign-checked",
   "runs.sign-approved",
   "files.attach",
+  // a stored run evaluated again (its own bundle, or today's) and compared: slow work that changes no record
+  "runs.reproduce",
   // audit
   "audit.read",
   "audit.trace",
@@ -85,6 +87,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "templates.review",
     "templates.publish",
     "templates.withdraw",
+    "runs.reproduce",
     ...LIBRARY_MAINTENANCE,
   ],
   engineer: ENGINEER,
@@ -93,6 +96,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "library.read",
     "libraries.read",
     "runs.read",
+    "runs.reproduce",
     "audit.read",
     "audit.trace",
     "audit.export",

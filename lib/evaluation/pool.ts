@@ -101,6 +101,8 @@ export interface EvaluationPool {
   runTestHook(task: TestHookRequest["task"]): Promise<PoolOutcome<unknown>>;
   /** The bundle the workers run (read and checked against its sha256 on first use). */
   bundle(): EvaluationBundleManifest;
+  /** The bundle's bytes, read again and checked against its sha256: what is kept to reproduce runs "as issued". */
+  bundleBytes(): Promise<Uint8Array>;
   stats(): EvaluationPoolStats;
   /** Terminates every worker; waiting tasks fail as "crashed". */
   close(): Promise<void>;
@@ -308,6 +310,13 @@ export function createEvaluationPool(options: EvaluationPoolOptions = {}): Evalu
       return run({ task });
     },
     bundle: () => bundle().manifest,
+    bundleBytes: async () => {
+      const { manifest, file } = bundle();
+      const bytes = await fs.promises.readFile(file);
+      if (createHash("sha256").update(bytes).digest("hex") !== manifest.sha256)
+        throw new EvaluationBundleMissingError(`${file} no longer matches the sha256 in its manifest`);
+      return bytes;
+    },
     stats: () => ({
       workers: slots.length,
       busy: slots.filter((s) => s.job !== null).length,

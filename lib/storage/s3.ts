@@ -2,7 +2,7 @@ import "server-only";
 // Object storage for attachments (S3-compatible: the fake s3rver of `npm start`, or the firm's S3).
 // Both checksum settings are needed: without them a streamed upload can be stored with extra bytes
 // and no error.
-import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
+import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
 import { requireSetting, serverEnv } from "@/lib/server-env";
 
@@ -52,6 +52,19 @@ export async function getObject({ key }: { key: string }): Promise<{ body: Uint8
     return { body: await result.Body.transformToByteArray(), contentType: result.ContentType ?? null };
   } catch (error) {
     if ((error as { name?: string }).name === "NoSuchKey") return null;
+    throw error;
+  }
+}
+
+/** Whether an object is stored under the key (a HEAD: no bytes are read). */
+export async function objectExists({ key }: { key: string }): Promise<boolean> {
+  const { client, bucket } = getStorage();
+  try {
+    await client.send(new HeadObjectCommand({ Bucket: bucket, Key: key }));
+    return true;
+  } catch (error) {
+    const failure = error as { name?: string; $metadata?: { httpStatusCode?: number } };
+    if (failure.name === "NotFound" || failure.name === "NoSuchKey" || failure.$metadata?.httpStatusCode === 404) return false;
     throw error;
   }
 }

@@ -21,11 +21,13 @@ async function versionFor(slug: string, wanted: number | "latest"): Promise<Libr
 /**
  * The entries a source's library inputs need, by library slug. A source that does not parse, or has no library
  * input, needs none. `extra` adds names per library (the entries a run picked), or "all" for every entry not
- * withdrawn (what a run form's picker and its preview offer).
+ * withdrawn (what a run form's picker and its preview offer). `asRun`: the library versions a stored run used, by slug
+ * (its record's entries): those versions are read, and nothing is left out for being withdrawn since.
  */
 export async function libraryEntriesFor(
   source: string,
   extra: Readonly<Record<string, readonly string[] | "all">> = {},
+  asRun?: { readonly versions: Readonly<Record<string, number>> },
 ): Promise<LibraryEntries> {
   const definition = definitionOfSource(source);
   if (!definition) return {};
@@ -35,9 +37,10 @@ export async function libraryEntriesFor(
     // Two inputs asking for different versions of one library cannot both be met; the first asked wins and
     // the evaluation names the other input's version as not given.
     if (out[slug]) continue;
-    const version = await versionFor(slug, wanted);
-    if (!version || version.status === "withdrawn") continue;
-    const withdrawn = new Set(version.entryRows.filter((row) => row.withdrawn).map((row) => row.normalisedKey));
+    const version = await versionFor(slug, asRun?.versions[slug] ?? wanted);
+    if (!version || (!asRun && version.status === "withdrawn")) continue;
+    // A stored run is evaluated again with what it used then, withdrawn since or not.
+    const withdrawn = new Set(asRun ? [] : version.entryRows.filter((row) => row.withdrawn).map((row) => row.normalisedKey));
     const more = extra[slug] === "all" ? version.entryRows.map((row) => row.key) : (extra[slug] ?? []);
     const keys = [...(needed.get(slug) ?? []), ...more].filter((key) => !withdrawn.has(normaliseEntryKey(key)));
     out[slug] = await bindLibrary(

@@ -4,7 +4,8 @@ import "server-only";
 // the run is stored as its canonical record with its sha256, with one row per library entry it used, in one
 // transaction with its audit event. Bad inputs store nothing (a 422 with a message per input). A model the engine
 // cannot analyse (an unstable structure names its node and direction) is stored as a failed run, so that the
-// attempt is on record too. Runs are append-only; everyone but admins reads them.
+// attempt is on record too. The evaluation bundle that made a run is kept in object storage by its sha256 before the
+// run is stored (evaluation-bundles.ts), for reproducing it "as issued". Runs are append-only; everyone but admins reads them.
 import { createHash, randomUUID } from "node:crypto";
 import { AppError } from "@/lib/domain/errors";
 import { compareRunsSchema, createRunSchema, listRunsSchema, runRefSchema } from "@/lib/domain/schemas/jobs";
@@ -40,6 +41,7 @@ import {
 } from "@/lib/data/runs";
 import { getFirmName } from "@/lib/data/firm";
 import { libraryEntriesFor } from "./library-resolution";
+import { keepCurrentEvaluationBundle } from "./evaluation-bundles";
 import { defineUseCase } from "./use-case";
 
 type Prepared = {
@@ -117,6 +119,15 @@ export const createRun = defineUseCase({
       );
     const { outcome } = answer.result;
     const manifest = pool.bundle();
+    // The bundle that made the run is kept before the run is, so the run can always be reproduced "as issued".
+    await keepCurrentEvaluationBundle().catch((error: unknown) => {
+      console.error("[gusset] could not keep the evaluation bundle in object storage:", error);
+      throw new AppError(
+        "unavailable",
+        "The run was not stored: the evaluation bundle that made it could not be kept in file storage, so it could not be " +
+          "reproduced later. Try again in a minute; if it keeps happening, tell your admin.",
+      );
+    });
     const identity = {
       engine: manifest.builtFrom.engine ?? "",
       engineSourceHash: manifest.builtFrom.engineSourceHash ?? "",

@@ -75,6 +75,12 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     title: "Standard version",
     expect: signedInPage("lead", "engineer", "auditor"),
   },
+  // Every run of a version: for those who read runs.
+  "/(app)/standards/[slug]/versions/[number]/runs/page": {
+    path: "/standards/simply-supported-beam/versions/1/runs",
+    title: "Runs of a version",
+    expect: signedInPage("lead", "engineer", "auditor"),
+  },
   "/(app)/standards/[slug]/diff/page": {
     path: "/standards/simply-supported-beam/diff?from=1&to=2",
     title: "Compare versions",
@@ -146,6 +152,10 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
   },
   "/(app)/runs/[id]/page": {
     path: "/runs/00000000-0000-4000-8000-000000000000",
+    expect: { ...signedInPage("lead", "engineer", "auditor"), lead: "not-found", engineer: "not-found", auditor: "not-found" },
+  },
+  "/(app)/runs/[id]/trace/page": {
+    path: "/runs/00000000-0000-4000-8000-000000000000/trace",
     expect: { ...signedInPage("lead", "engineer", "auditor"), lead: "not-found", engineer: "not-found", auditor: "not-found" },
   },
   "/(app)/runs/compare/page": {
@@ -503,6 +513,16 @@ function integrityCheckersAction(): Record<Who, ActionOutcome> {
   ) as Record<Who, ActionOutcome>;
 }
 
+/** An auditor reproduces runs (product.md), and so may a lead; engineers and admins may not. */
+function reproducersAction(): Record<Who, ActionOutcome> {
+  return Object.fromEntries(
+    EVERYONE.map((who) => [
+      who,
+      who === "anonymous" ? "unauthenticated" : who === "auditor" || who === "lead" ? "ok" : "forbidden",
+    ]),
+  ) as Record<Who, ActionOutcome>;
+}
+
 function leadsOnlyAction(): Record<Who, ActionOutcome> {
   return Object.fromEntries(
     EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "lead" ? "ok" : "forbidden"]),
@@ -545,6 +565,8 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/runs/actions.ts#prepareRevisionAction": runnersAction(),
   "app/(app)/runs/actions.ts#checkRevisionAction": runnersAction(),
   "app/(app)/runs/actions.ts#approveRevisionAction": runnersAction(),
+  // Reproducing a stored run writes only its audit event: auditors and leads.
+  "app/(app)/runs/actions.ts#reproduceRunAction": reproducersAction(),
   // Admins and standards leads maintain the firm's libraries, four eyes between any two of them.
   "app/(app)/libraries/actions.ts#createLibraryAction": libraryEditorsAction(),
   "app/(app)/libraries/actions.ts#startLibraryDraftAction": libraryEditorsAction(),
@@ -752,6 +774,7 @@ describe("signing in brings people back", () => {
       "/standards",
       "/standards/simply-supported-beam",
       "/standards/simply-supported-beam/versions/1",
+      "/standards/simply-supported-beam/versions/1/runs",
       "/standards/simply-supported-beam/diff?from=1&to=2",
       "/standards/new",
       "/standards/drafts/not-a-real-draft",
@@ -771,6 +794,7 @@ describe("signing in brings people back", () => {
       "/jobs/MF-2291/run/fixed-end-beam",
       "/runs/00000000-0000-4000-8000-000000000000/sheet",
       "/runs/00000000-0000-4000-8000-000000000000",
+      "/runs/00000000-0000-4000-8000-000000000000/trace",
       "/runs/compare",
       "/audit",
       "/audit/integrity",

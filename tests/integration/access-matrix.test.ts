@@ -96,6 +96,14 @@ const RUNNERS: Record<Who, Expected> = {
   engineer: "allowed",
   auditor: "forbidden",
 };
+/** An auditor "reproduces" (product.md); a lead answers for the standards whose runs are reproduced. */
+const REPRODUCERS: Record<Who, Expected> = {
+  anonymous: "unauthenticated",
+  admin: "forbidden",
+  lead: "allowed",
+  engineer: "forbidden",
+  auditor: "allowed",
+};
 const PUBLIC: Record<Who, Expected> = {
   anonymous: "allowed",
   admin: "allowed",
@@ -177,6 +185,8 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/runs/actions.ts#prepareRevisionAction": RUNNERS,
   "app/(app)/runs/actions.ts#checkRevisionAction": RUNNERS,
   "app/(app)/runs/actions.ts#approveRevisionAction": RUNNERS,
+  // Reproducing a stored run writes only its audit event: auditors and leads.
+  "app/(app)/runs/actions.ts#reproduceRunAction": REPRODUCERS,
   "app/(app)/libraries/actions.ts#createLibraryAction": LIBRARY_EDITORS,
   "app/(app)/libraries/actions.ts#startLibraryDraftAction": LIBRARY_EDITORS,
   "app/(app)/libraries/actions.ts#saveLibraryDraftAction": LIBRARY_EDITORS,

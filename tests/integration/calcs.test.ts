@@ -6,23 +6,13 @@
 import { describe, expect, it } from "vitest";
 import { pool } from "@/db";
 import type { Actor } from "@/lib/domain/actor";
-import { AppError } from "@/lib/domain/errors";
 import { runUseCase } from "@/lib/use-cases/run";
 import { createJob } from "@/lib/use-cases/jobs";
 import { createRun } from "@/lib/use-cases/runs";
 import { approveRevision, checkRevision, createCalc, nextLetter, prepareRevision, readCalcPackage } from "@/lib/use-cases/calcs";
 import { auditEventsFor, createTestUser } from "./helpers/people";
 import { matrixJobNumber, seededVersionId } from "./helpers/action-fixtures";
-
-async function refusal(work: Promise<unknown>): Promise<AppError> {
-  try {
-    await work;
-  } catch (error) {
-    if (error instanceof AppError) return error;
-    throw error;
-  }
-  throw new Error("expected the call to be refused");
-}
+import { refusal } from "./helpers/refusal";
 
 async function team() {
   const [preparer, checker, responsible, other, auditor] = await Promise.all([

@@ -11,7 +11,6 @@ import { eq } from "drizzle-orm";
 import { db, pool } from "@/db";
 import * as schema from "@/db/schema";
 import type { Actor } from "@/lib/domain/actor";
-import { AppError } from "@/lib/domain/errors";
 import { runUseCase } from "@/lib/use-cases/run";
 import { approveAndPublish, createStandard, saveDraft, submitDraft, withdrawVersion } from "@/lib/use-cases/standards";
 import { createJob, readJob, updateJob } from "@/lib/use-cases/jobs";
@@ -23,20 +22,11 @@ import { runStandardTask } from "@/lib/evaluation/tasks";
 import { readRunRecord } from "@/lib/standards/run-record";
 import { snapshotRows, expectRowsUnchanged } from "../support/snapshot";
 import { auditEventsFor, createTestUser } from "./helpers/people";
+import { refusal } from "./helpers/refusal";
 
 let counter = 0;
 const unique = (label: string) => `${label}-${Date.now().toString(36)}-${(counter++).toString(36)}`;
 const jobNumber = () => `T-${Date.now().toString(36).toUpperCase()}-${(counter++).toString(36).toUpperCase()}`;
-
-async function refusal(work: Promise<unknown>): Promise<AppError> {
-  try {
-    await work;
-  } catch (error) {
-    if (error instanceof AppError) return error;
-    throw error;
-  }
-  throw new Error("expected the call to be refused");
-}
 
 /**
  * A simply supported beam of span 2L made of two members A–B–C, on a pin and a roller, under a uniform load. With

@@ -52,6 +52,12 @@ export const APP_PAGES: AppPage[] = [
     visitors: ["auditor"],
   },
   {
+    name: "a version's runs",
+    entry: "/(app)/standards/[slug]/versions/[number]/runs/page",
+    path: "/standards/portal-frame/versions/1/runs",
+    visitors: ["auditor"],
+  },
+  {
     name: "two versions compared",
     entry: "/(app)/standards/[slug]/diff/page",
     path: "/standards/simply-supported-beam/diff?from=1&to=2",
@@ -139,6 +145,14 @@ export const APP_PAGES: AppPage[] = [
     name: "a run that does not exist",
     entry: "/(app)/runs/[id]/page",
     path: "/runs/00000000-0000-4000-8000-000000000000",
+    status: 404,
+    visitors: ["auditor"],
+  },
+  // A real run's trace is opened, with axe, by the trace journey (tests/browser/trace-journey.test.ts).
+  {
+    name: "the trace of a run that does not exist",
+    entry: "/(app)/runs/[id]/trace/page",
+    path: "/runs/00000000-0000-4000-8000-000000000000/trace",
     status: 404,
     visitors: ["auditor"],
   },

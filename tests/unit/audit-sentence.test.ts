@@ -163,6 +163,35 @@ describe("auditSentence", () => {
       "Ines Okafor-Lind was refused audit.list (it needs audit.read)",
     ],
     [
+      "a reproduction says how it was made and whether it came out the same",
+      {
+        action: "runs.reproduce",
+        ...ines,
+        details: {
+          runId: "0d8f3c1a-5b7e-4c2d-9a10-7f6e5d4c3b2a",
+          mode: "current",
+          bundleSha256: "ab".repeat(32),
+          identical: false,
+          differing: 2,
+        },
+      },
+      "Ines Okafor-Lind reproduced run 0d8f3c1a with today's bundle: 2 outputs differ",
+    ],
+    [
+      "a refused reproduction gives the reason",
+      {
+        action: "runs.reproduce.refused",
+        ...ines,
+        details: {
+          runId: "0d8f3c1a-5b7e-4c2d-9a10-7f6e5d4c3b2a",
+          mode: "as-issued",
+          bundleSha256: "ab".repeat(32),
+          reason: "the stored bundle's bytes do not match its sha256",
+        },
+      },
+      "Ines Okafor-Lind could not reproduce run 0d8f3c1a as issued: the stored bundle's bytes do not match its sha256",
+    ],
+    [
       "the seed is Gusset's own doing",
       { action: "system.seed", details: { firm: "Marrowby Fenn Structural", users: 4, projects: 1 } },
       "Gusset set up the demo firm Marrowby Fenn Structural with 4 people and 1 job",

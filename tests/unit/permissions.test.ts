@@ -69,6 +69,8 @@ const EXPECTED: Record<Action, Record<Role, boolean>> = {
   "runs.sign-approved": { admin: N, lead: Y, engineer: Y, auditor: N },
   // engineer: "attach files"; lead: as an engineer.
   "files.attach": { admin: N, lead: Y, engineer: Y, auditor: N },
+  // auditor: "reproduce"; lead: answers for the standards whose runs are reproduced. Engineers run, they do not audit.
+  "runs.reproduce": { admin: N, lead: Y, engineer: N, auditor: Y },
   // auditor: "read everything"; admin: sees the trail of the account changes and sign-ins they answer for (people page, home).
   "audit.read": { admin: Y, lead: N, engineer: N, auditor: Y },
   // auditor: "trace" any number back to its source.
@@ -147,8 +149,9 @@ describe("the product's role rules, checked on the expectation table and on can(
     }
   });
 
-  it("every action that is not a write is a read, a trace or an export", () => {
-    for (const action of ACTIONS.filter((a) => !WRITES.includes(a))) expect(action).toMatch(/\.(read|trace|export)$/);
+  // The auditor's verbs: "read everything, trace, reproduce, verify integrity, export evidence".
+  it("every action that is not a write is a read, a trace, a reproduction or an export", () => {
+    for (const action of ACTIONS.filter((a) => !WRITES.includes(a))) expect(action).toMatch(/\.(read|trace|reproduce|export)$/);
   });
 
   it("a standards lead may do everything an engineer may", () => {

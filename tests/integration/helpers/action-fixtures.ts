@@ -510,5 +510,27 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
       },
     };
   },
+  // A reproduction writes nothing but its audit event; the comparison comes back to the page.
+  "app/(app)/runs/actions.ts#reproduceRunAction": async () => {
+    const { run } = await matrixRun();
+    return {
+      input: { id: run.id, mode: "as-issued" },
+      succeeded: async (answer) => {
+        expect(answer).toMatchObject({
+          state: { ok: true, data: { runId: run.id, mode: "as-issued", comparison: { identical: true, differing: 0 } } },
+        });
+        const events = await auditEventsFor({ action: "runs.reproduce", subject: `run:${run.id}` });
+        expect(events.map((e) => e.details)).toEqual([
+          {
+            runId: run.id,
+            mode: "as-issued",
+            bundleSha256: expect.stringMatching(/^[0-9a-f]{64}$/),
+            identical: true,
+            differing: 0,
+          },
+        ]);
+      },
+    };
+  },
   ...LIBRARY_ACTION_FIXTURES,
 };

@@ -16,6 +16,7 @@ import { readRunSeal } from "@/lib/use-cases/log";
 import { LocalTime } from "@/components/local-time";
 import { RunResults } from "@/components/runs/run-results";
 import { SheetPdfs } from "@/components/runs/sheet-pdfs";
+import { LibraryEntriesUsed } from "@/components/runs/library-entries-used";
 import { Attachments } from "@/components/jobs/attachments";
 import { readAttachments, readSheetPdfs } from "@/lib/use-cases/files";
 import { readProfile } from "@/lib/use-cases/profile";
@@ -58,6 +59,9 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
           <>
             <Link href={`/runs/${run.id}/sheet`} className={buttonClasses("secondary")} data-testid="open-sheet">
               Calc sheet
+            </Link>
+            <Link href={`/runs/${run.id}/trace`} className={buttonClasses("secondary")} data-testid="open-trace">
+              Trace
             </Link>
             {rerun ? (
               <Link href={rerun} className={buttonClasses("secondary")} data-testid="rerun">
@@ -124,14 +128,7 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
           <>
             <dt className="text-ink-500">Library entries</dt>
             <dd>
-              <ul data-testid="run-library-entries">
-                {record.libraries.map((entry) => (
-                  <li key={entry.input}>
-                    <span className="font-mono text-xs">{entry.input}</span>: {entry.key} ({entry.library} v{entry.version},{" "}
-                    <span className="font-mono text-xs">sha256:{entry.entryHash.slice(0, 12)}</span>)
-                  </li>
-                ))}
-              </ul>
+              <LibraryEntriesUsed entries={record.libraries} testId="run-library-entries" />
             </dd>
           </>
         ) : null}

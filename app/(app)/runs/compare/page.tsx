@@ -4,39 +4,32 @@ import { requirePageActor } from "@/lib/auth/session";
 import { AppError } from "@/lib/domain/errors";
 import { runUseCase } from "@/lib/use-cases/run";
 import { compareRuns, type RunsCompared } from "@/lib/use-cases/runs";
-import { formatRelative, type ComparedValue } from "@/lib/standards/compare-runs";
+import type { ComparedValue } from "@/lib/standards/compare-runs";
+import { ComparedTable } from "@/components/runs/compared-table";
 import { PageHeader } from "@/components/ui/page-header";
 import { Section } from "@/components/ui/section";
-import { TableFrame } from "@/components/ui/table";
 import { Caution } from "@/components/standards/caution";
 import { FormError } from "@/components/ui/notice";
 import { RunOutcomeBadge } from "../_components/run-outcome";
 
 export const metadata: Metadata = { title: "Compare runs" };
 
-function ComparedTable({ rows, testId, labels }: { rows: ComparedValue[]; testId: string; labels: Record<string, string> }) {
+function Compared({ rows, testId, labels }: { rows: ComparedValue[]; testId: string; labels: Record<string, string> }) {
   if (rows.length === 0) return <p className="text-sm text-ink-500">Neither run has any.</p>;
   return (
-    <TableFrame headings={["Value", "First run", "Second run", "Difference"]} testId={testId}>
-      {rows.map((row) => (
-        <tr
-          key={row.key}
-          data-testid="compared-row"
-          data-key={row.key}
-          data-changed={row.changed ? "yes" : "no"}
-          className={row.changed ? "bg-warn-100/60" : undefined}
-        >
-          <th scope="row" className="px-4 py-2 text-left font-medium">
-            {labels[row.key] ?? row.label} <span className="font-mono text-xs text-ink-500">{row.key}</span>
-          </th>
-          <td className="px-4 py-2 font-mono text-xs">{row.a ?? "—"}</td>
-          <td className="px-4 py-2 font-mono text-xs">{row.b ?? "—"}</td>
-          <td className="px-4 py-2 font-mono text-xs" data-testid="compared-difference">
-            {row.changed ? (row.relative === null ? "differs" : formatRelative(row.relative)) : "same"}
-          </td>
-        </tr>
-      ))}
-    </TableFrame>
+    <ComparedTable
+      rows={rows}
+      testId={testId}
+      headings={["Value", "First run", "Second run", "Difference"]}
+      rowTestId="compared-row"
+      differenceTestId="compared-difference"
+      sameWord="same"
+      nameOf={(row) => (
+        <>
+          {labels[row.key] ?? row.label} <span className="font-mono text-xs text-ink-500">{row.key}</span>
+        </>
+      )}
+    />
   );
 }
 
@@ -108,16 +101,16 @@ export default async function CompareRunsPage({ searchParams }: PageProps<"/runs
         </p>
       ) : null}
       <Section title="Check utilisations" id="compare-utilisations">
-        <ComparedTable rows={comparison.utilisations} testId="compared-utilisations" labels={labels} />
+        <Compared rows={comparison.utilisations} testId="compared-utilisations" labels={labels} />
       </Section>
       <Section title="Inputs" id="compare-inputs">
-        <ComparedTable rows={comparison.inputs} testId="compared-inputs" labels={labels} />
+        <Compared rows={comparison.inputs} testId="compared-inputs" labels={labels} />
       </Section>
       <Section title="Extracts" id="compare-extracts">
-        <ComparedTable rows={comparison.extracts} testId="compared-extracts" labels={labels} />
+        <Compared rows={comparison.extracts} testId="compared-extracts" labels={labels} />
       </Section>
       <Section title="Derived values" id="compare-derived">
-        <ComparedTable rows={comparison.derived} testId="compared-derived" labels={labels} />
+        <Compared rows={comparison.derived} testId="compared-derived" labels={labels} />
       </Section>
       <Caution />
     </>

@@ -102,6 +102,20 @@ export function VersionView({
         </dd>
         <dt className="text-ink-500">Verified with</dt>
         <dd className="text-ink-700">{version.verifiedWith}</dd>
+        {can(actor.role, "runs.read") ? (
+          <>
+            <dt className="text-ink-500">Runs</dt>
+            <dd>
+              <Link
+                href={`${base}/versions/${version.number}/runs`}
+                className="text-plate-700 hover:underline"
+                data-testid="version-runs"
+              >
+                Every run of this version
+              </Link>
+            </dd>
+          </>
+        ) : null}
       </dl>
       {compiled.ok ? (
         <VersionBody version={version} compiled={compiled.standard} />

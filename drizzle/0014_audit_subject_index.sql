@@ -1,0 +1,1 @@
+CREATE INDEX "audit_events_subject_idx" ON "audit_events" USING btree ("subject","id");

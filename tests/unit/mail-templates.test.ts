@@ -1,7 +1,8 @@
 // The e-mails say who, what and until when in plain words, carry the link in text and HTML, and
 // escape names in the HTML (a name is typed by an admin and could hold markup).
 import { describe, expect, it } from "vitest";
-import { renderInvitationMail, renderPasswordResetMail } from "@/lib/mail/templates";
+import { renderInvitationMail, renderPasswordResetMail, renderWitnessMail } from "@/lib/mail/templates";
+import { treeHeadDigest, treeHeadText } from "@/lib/integrity/tree-head";
 
 describe("invitation e-mail", () => {
   const mail = renderInvitationMail({
@@ -39,5 +40,37 @@ describe("password reset e-mail", () => {
     expect(mail.text).toContain("http://127.0.0.1:3000/reset-password?token=t1");
     expect(mail.text).toMatch(/signs you out everywhere/);
     expect(mail.html).toContain("reset-password?token=t1");
+  });
+});
+
+describe("the QA witness's e-mail of a tree head", () => {
+  const head = {
+    size: 1234,
+    rootHash: "ab".repeat(32),
+    sealedAt: "2026-12-03T02:38:58.539Z",
+    signature: "c2lnbmF0dXJl",
+  };
+  const headText = treeHeadText(head);
+  const mail = renderWitnessMail({
+    to: "qa-witness@firm.example",
+    firmName: "Example Structural",
+    head,
+    headText,
+    digest: treeHeadDigest(head),
+    keyFingerprint: "cd".repeat(32),
+    url: "http://127.0.0.1:3000/audit/integrity",
+  });
+
+  it("carries the head, its digest and the key's fingerprint, enough to check the head later without Gusset", () => {
+    expect(mail.to).toBe("qa-witness@firm.example");
+    expect(mail.subject).toBe(`Gusset log head 1234 · ${treeHeadDigest(head).slice(0, 12)}`);
+    expect(mail.text).toContain(`Tree head digest (SHA-256 of the head's text): ${treeHeadDigest(head)}`);
+    expect(mail.text).toContain(`Root hash: ${"ab".repeat(32)}`);
+    expect(mail.text).toContain("Sealed at: 2026-12-03T02:38:58.539Z");
+    expect(mail.text).toContain("Signature (Ed25519, base64): c2lnbmF0dXJl");
+    expect(mail.text).toContain(`Signing key fingerprint (SHA-256 of its SPKI DER): ${"cd".repeat(32)}`);
+    // The four signed lines, with their newlines visible.
+    expect(mail.text).toContain(JSON.stringify(`gusset-tree-head/1\n1234\n${"ab".repeat(32)}\n2026-12-03T02:38:58.539Z\n`));
+    expect(mail.html).toContain('href="http://127.0.0.1:3000/audit/integrity"');
   });
 });

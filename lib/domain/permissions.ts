@@ -40,8 +40,8 @@ export const ACTIONS = [
   "audit.read",
   "audit.trace",
   "audit.export",
-  "log.verify",
-  "integrity.check",
+  "log.read",
+  "integrity.verify",
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
@@ -54,7 +54,7 @@ const LIBRARY_MAINTENANCE: readonly Action[] = [
 ];
 
 const ENGINEER: readonly Action[] = [
-  "log.verify",
+  "log.read",
   "jobs.read",
   "jobs.create",
   "jobs.edit",
@@ -76,8 +76,8 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "users.deactivate",
     "mailbox.read",
     "audit.read",
-    "log.verify",
-    "integrity.check",
+    "log.read",
+    "integrity.verify",
     "libraries.read",
     ...LIBRARY_MAINTENANCE,
   ],
@@ -100,8 +100,8 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "audit.read",
     "audit.trace",
     "audit.export",
-    "log.verify",
-    "integrity.check",
+    "log.read",
+    "integrity.verify",
     "users.read",
   ],
 };

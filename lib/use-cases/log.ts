@@ -109,7 +109,7 @@ export const readRunSeal = defineUseCase({
 
 export const readLogStatus = defineUseCase({
   name: "log.status",
-  permission: "log.verify",
+  permission: "log.read",
   input: z.object({}),
   run: async (): Promise<LogStatus> => {
     const { pem, fingerprint } = logPublicKeyFromSettings();
@@ -127,7 +127,7 @@ export const readLogStatus = defineUseCase({
 
 export const readInclusionProof = defineUseCase({
   name: "log.inclusion",
-  permission: "log.verify",
+  permission: "log.read",
   input: z.object({
     kind: z.enum(LOG_LEAF_KINDS, { error: `Say which kind of record: ${LOG_LEAF_KINDS.join(", ")}.` }),
     ref: z.string().trim().min(1, "Say which record (its id).").max(100, "That id is too long."),
@@ -143,7 +143,7 @@ export const readInclusionProof = defineUseCase({
 
 export const readConsistencyProof = defineUseCase({
   name: "log.consistency",
-  permission: "log.verify",
+  permission: "log.read",
   input: z
     .object({ from: size, to: size })
     .refine(({ from, to }) => from <= to, { message: "The first head must not be larger than the second.", path: ["from"] }),
@@ -164,7 +164,7 @@ export const readConsistencyProof = defineUseCase({
 /** One page of tree heads, smallest first after `after`: the export streams these. */
 export const readTreeHeadsPage = defineUseCase({
   name: "log.heads",
-  permission: "log.verify",
+  permission: "log.read",
   input: z.object({
     after: z.coerce.number().int().min(0, "Start after a size of 0 or more.").default(0),
     limit: z.coerce.number().int().min(1).max(5000, "At most 5,000 heads a page.").default(1000),
@@ -175,7 +175,7 @@ export const readTreeHeadsPage = defineUseCase({
 
 export const runIntegrityCheck = defineUseCase({
   name: "integrity.check",
-  permission: "integrity.check",
+  permission: "integrity.verify",
   input: z.object({}),
   // Minutes of reading for a big log: done before the runner's transaction opens, on its own snapshot.
   prepare: async (): Promise<IntegrityReport> => {

@@ -79,8 +79,8 @@ const EXPECTED: Record<Action, Record<Role, boolean>> = {
   "audit.export": { admin: N, lead: N, engineer: N, auditor: Y },
   // The verifiable log: anyone in the firm may check a proof or a tree head (they reveal hashes only); running the
   // full integrity check is the quality manager's job ("verify integrity"), and the admin's, who runs the servers.
-  "log.verify": { admin: Y, lead: Y, engineer: Y, auditor: Y },
-  "integrity.check": { admin: Y, lead: N, engineer: N, auditor: Y },
+  "log.read": { admin: Y, lead: Y, engineer: Y, auditor: Y },
+  "integrity.verify": { admin: Y, lead: N, engineer: N, auditor: Y },
 };
 
 /** Actions that change something; an auditor "changes nothing". */
@@ -150,8 +150,9 @@ describe("the product's role rules, checked on the expectation table and on can(
   });
 
   // The auditor's verbs: "read everything, trace, reproduce, verify integrity, export evidence".
-  it("every action that is not a write is a read, a trace, a reproduction or an export", () => {
-    for (const action of ACTIONS.filter((a) => !WRITES.includes(a))) expect(action).toMatch(/\.(read|trace|reproduce|export)$/);
+  it("every action that is not a write is a read, a trace, a reproduction, a verification or an export", () => {
+    for (const action of ACTIONS.filter((a) => !WRITES.includes(a)))
+      expect(action).toMatch(/\.(read|trace|reproduce|verify|export)$/);
   });
 
   it("a standards lead may do everything an engineer may", () => {

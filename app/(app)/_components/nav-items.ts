@@ -21,7 +21,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/jobs", label: "Jobs", icon: "jobs", permission: "jobs.read", group: "work" },
   { href: "/runs", label: "Runs", icon: "runs", permission: "runs.read", group: "work" },
   { href: "/audit", label: "Audit trail", icon: "audit", permission: "audit.read", group: "work" },
-  { href: "/audit/integrity", label: "Integrity", icon: "integrity", permission: "integrity.check", group: "work" },
+  { href: "/audit/integrity", label: "Integrity", icon: "integrity", permission: "integrity.verify", group: "work" },
   { href: "/admin/users", label: "People", icon: "people", permission: "users.read", group: "admin" },
   { href: "/admin/mailbox", label: "Demo mailbox", icon: "mailbox", permission: "mailbox.read", group: "admin" },
 ];

@@ -18,7 +18,7 @@ export const metadata: Metadata = { title: "Integrity" };
 const first = (value: string | string[] | undefined) => (Array.isArray(value) ? value[0] : value) ?? "";
 
 export default async function IntegrityPage({ searchParams }: PageProps<"/audit/integrity">) {
-  const actor = await requirePageActor("integrity.check", { next: "/audit/integrity" });
+  const actor = await requirePageActor("integrity.verify", { next: "/audit/integrity" });
   const status = await runUseCase(readLogStatus, { actor, input: {} });
   const raw = await searchParams;
   const [kind, ref] = [first(raw.kind), first(raw.ref).trim()];

@@ -62,7 +62,7 @@ export default async function TracePage({ params }: PageProps<"/runs/[id]/trace"
         <p className="mb-3 max-w-2xl text-sm text-ink-700">
           The run&apos;s record is a leaf of the firm&apos;s verifiable log: its entry holds the record&apos;s sha256 above, and
           the inclusion proof leads from it to a tree head signed with the log&apos;s key.{" "}
-          <Link href={`/api/log/inclusion?kind=run&ref=${run.id}`} className="text-plate-700 hover:underline">
+          <Link href={`/api/log/inclusion?kind=run&ref=${run.id}`} className="text-plate-700 underline">
             The proof as JSON
           </Link>
           .

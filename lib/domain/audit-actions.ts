@@ -89,6 +89,11 @@ export type AuditDetails = {
   };
   /** A state of a run's calc sheet rendered to PDF and kept (its sha256, and the sheet state's). */
   "runs.sheet.render": { runId: string; sha256: string; pages: number; stateSha256: string };
+  /**
+   * The run log exported as CSV: the filters and order as the address named them (defaults left out), and the instant
+   * the export reads up to (runs made later are not in it).
+   */
+  "runs.export": { filters: Record<string, string>; asOf: string };
   /** A file kept on a job, or on one of its runs (runId). */
   "jobs.attachment.add": { jobNumber: string; runId: string | null; sha256: string; fileName: string; bytes: number };
   // The calc package. `calc` is the calc's number (C-012); `letter` the revision.
@@ -144,6 +149,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "jobs.update": "Changed a job",
   "runs.create": "Ran a standard",
   "runs.sheet.render": "Kept a calc sheet PDF",
+  "runs.export": "Exported the run log",
   "jobs.attachment.add": "Attached a file to a job",
   "calcs.create": "Numbered a calc",
   "calcs.revision.prepare": "Issued a calc revision for checking",

@@ -36,6 +36,8 @@ export const ACTIONS = [
   "files.attach",
   // audit
   "audit.read",
+  // the run log: every run with its sign-off state, filtered and sorted for a quality audit
+  "run-log.read",
   "audit.trace",
   "audit.export",
 ] as const;
@@ -71,6 +73,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "users.deactivate",
     "mailbox.read",
     "audit.read",
+    "run-log.read",
     "libraries.read",
     ...LIBRARY_MAINTENANCE,
   ],
@@ -80,6 +83,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "templates.review",
     "templates.publish",
     "templates.withdraw",
+    "run-log.read",
     ...LIBRARY_MAINTENANCE,
   ],
   engineer: ENGINEER,
@@ -89,6 +93,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "libraries.read",
     "runs.read",
     "audit.read",
+    "run-log.read",
     "audit.trace",
     "audit.export",
     "users.read",

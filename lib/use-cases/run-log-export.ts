@@ -5,7 +5,7 @@ import "server-only";
 // never the whole result in memory. Rows made after the export began are left out (asOf).
 import { csvRecord, type CsvValue } from "@/lib/domain/csv";
 import { attachmentDisposition } from "@/lib/domain/file-signatures";
-import { cursorAfter, listRuns, type RunListRowDto } from "@/lib/data/runs";
+import { cursorAfter, listRuns, type RunListRowDto } from "@/lib/data/run-list";
 import { outsideTransaction } from "@/lib/data/transaction";
 import { EXPORT_BATCH, exportFilterOf, type RunExport } from "./run-log";
 

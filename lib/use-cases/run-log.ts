@@ -1,6 +1,6 @@
 import "server-only";
 // The run log: every run of the firm, filtered, sorted and paged on the server (GET /api/runs, the runs list and the
-// auditor's /audit/runs all read through pageOfRuns, one query in lib/data/runs.ts), and its CSV export. The export
+// auditor's /audit/runs all read through pageOfRuns, one query in lib/data/run-list.ts), and its CSV export. The export
 // is a use case like any read — permission checked, filters parsed, an audit event naming the filters — whose
 // result is the first batch of rows; the route then streams the rest in keyset batches (run-log-export.ts).
 import { z } from "zod";
@@ -14,7 +14,7 @@ import {
   type RunListQuery,
 } from "@/lib/domain/schemas/run-log";
 import { nextDay, startOfDayInTimeZone } from "@/lib/domain/zoned-time";
-import { cursorAfter, listRuns, type RunFilter, type RunListRowDto } from "@/lib/data/runs";
+import { cursorAfter, listRuns, type RunFilter, type RunListRowDto } from "@/lib/data/run-list";
 import { listJobs } from "@/lib/data/jobs";
 import { listVersionSummaries } from "@/lib/data/standards";
 import { listAuditPeople } from "@/lib/data/audit";

@@ -95,7 +95,7 @@ function filtersOf(values: Awaited<ReturnType<typeof benchValues>>): Filter[] {
 
 /** p50 and p95 of a page of the run log (50 rows) through the page's own use case, and of the page after it. */
 const runLogPages: BenchSection = {
-  title: "Run log pages: runUseCase(readRunLog) — the use case /audit/runs renders, its one query lib/data/runs.ts listRuns",
+  title: "Run log pages: runUseCase(readRunLog) — the use case /audit/runs renders, its one query lib/data/run-list.ts listRuns",
   run: async (bench) => {
     const values = await benchValues(bench);
     const calls = 60;

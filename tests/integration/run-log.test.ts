@@ -10,7 +10,7 @@ import * as schema from "@/db/schema";
 import type { Actor } from "@/lib/domain/actor";
 import { parseCsv } from "@/lib/domain/csv";
 import { runListQuerySchema, type RunListQuery } from "@/lib/domain/schemas/run-log";
-import { listRuns, type RunListRowDto } from "@/lib/data/runs";
+import { listRuns, type RunListRowDto } from "@/lib/data/run-list";
 import { runUseCase } from "@/lib/use-cases/run";
 import { createJob } from "@/lib/use-cases/jobs";
 import { createRun } from "@/lib/use-cases/runs";

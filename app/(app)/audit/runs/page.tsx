@@ -99,7 +99,8 @@ export default async function RunLogPage({ searchParams }: PageProps<"/audit/run
           ) : null
         }
       />
-      <RunLogFilters values={values} errors={errors} options={options} timeZone={timeZone} />
+      {/* Keyed by the query, so that a new address (a heading's order, "Clear") shows its own values in the form. */}
+      <RunLogFilters key={JSON.stringify(values)} values={values} errors={errors} options={options} timeZone={timeZone} />
       {page && parsed.success ? (
         <RunLogResults query={parsed.data} page={page} linkRuns={can(actor.role, "runs.read")} timeZone={timeZone} />
       ) : (

@@ -50,7 +50,8 @@ it("filters by job and by failing checks, keeps the filters in the address, sort
   await page.getByTestId("audit-run-log-link").click();
   await page.waitForURL((url) => url.pathname === "/audit/runs");
   const rows = page.getByTestId("run-row");
-  expect(await rows.count()).toBeGreaterThan(0);
+  // The section's skeleton shows first; the table follows.
+  await expect.poll(() => rows.count(), { timeout: 15_000 }).toBeGreaterThan(0);
 
   await page.getByTestId("run-log-filter-job").fill(jobNumber);
   await page.getByTestId("run-log-filter-submit").click();

@@ -46,6 +46,10 @@ describe("the query in the address", () => {
     const query = runListQuerySchema.parse({ job: "", standard: "fixed-end-beam", pass: "false", sort: "date", dir: "", tz: "" });
     expect(query).toMatchObject({ standard: "fixed-end-beam", pass: "false", sort: "date", tz: "UTC", limit: 50 });
     expect(query.job).toBeUndefined();
+    // As the form hands them over, blanks and all.
+    expect(runLogHref({ job: "MF-2291", sort: "" as "date", dir: "" as "asc", version: "" as unknown as number })).toBe(
+      "/audit/runs?job=MF-2291",
+    );
     expect(runLogHref(query)).toBe("/audit/runs?standard=fixed-end-beam&pass=false");
     expect(runLogHref({ ...query, sort: "job", dir: "asc" }, { cursor: `jA_${AT}_${ID}` })).toBe(
       `/audit/runs?standard=fixed-end-beam&pass=false&sort=job&cursor=jA_${encodeURIComponent(AT)}_${ID}`.replace(/%3A/g, "%3A"),

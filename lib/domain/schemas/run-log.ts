@@ -141,7 +141,7 @@ export function runListParams(query: Partial<RunListQuery>, page: { cursor?: str
     if (value !== undefined && value !== "") params.set(key, String(value));
   }
   if ((query.from || query.to) && query.tz && query.tz !== "UTC") params.set("tz", query.tz);
-  const sort = query.sort ?? "date";
+  const sort = query.sort || "date"; // a blank order (the form's hidden field) is the default one
   if (sort !== "date") params.set("sort", sort);
   if (query.dir && query.dir !== DEFAULT_DIRECTION[sort]) params.set("dir", query.dir);
   if (query.limit && query.limit !== RUN_PAGE_SIZE) params.set("limit", String(query.limit));

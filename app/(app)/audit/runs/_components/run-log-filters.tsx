@@ -70,7 +70,7 @@ export function RunLogFilters({
         value={standard}
         onChange={(event) => setStandard(event.target.value)}
         error={errors.standard}
-        className="col-span-2 sm:col-span-2"
+        className="col-span-2"
         data-testid="run-log-filter-standard"
       >
         <option value="">Every standard</option>
@@ -92,21 +92,6 @@ export function RunLogFilters({
         {(standard ? versions : [...new Set(options.standards.flatMap((s) => s.versions))].sort((a, b) => a - b)).map((n) => (
           <option key={n} value={n}>
             v{n}
-          </option>
-        ))}
-      </SelectField>
-      <SelectField
-        label="Run by"
-        name="person"
-        defaultValue={values.person}
-        error={errors.person}
-        className="col-span-2"
-        data-testid="run-log-filter-person"
-      >
-        <option value="">Anyone</option>
-        {options.people.map((person) => (
-          <option key={person.id} value={person.id}>
-            {person.name} ({person.email}){person.deactivated ? " — deactivated" : ""}
           </option>
         ))}
       </SelectField>
@@ -140,6 +125,21 @@ export function RunLogFilters({
           </option>
         ))}
       </SelectField>
+      <SelectField
+        label="Run by"
+        name="person"
+        defaultValue={values.person}
+        error={errors.person}
+        className="col-span-2 sm:col-span-1 lg:col-span-2"
+        data-testid="run-log-filter-person"
+      >
+        <option value="">Anyone</option>
+        {options.people.map((person) => (
+          <option key={person.id} value={person.id}>
+            {person.name} ({person.email}){person.deactivated ? " — deactivated" : ""}
+          </option>
+        ))}
+      </SelectField>
       <TextField
         type="date"
         label="From"
@@ -151,7 +151,7 @@ export function RunLogFilters({
       <TextField type="date" label="To" name="to" defaultValue={values.to} error={errors.to} data-testid="run-log-filter-to" />
       <input type="hidden" name="sort" value={values.sort} />
       <input type="hidden" name="dir" value={values.dir} />
-      <div className="col-span-2 flex items-center gap-3 self-end sm:col-span-4 lg:col-span-2">
+      <div className="col-span-2 flex items-center gap-3 self-end lg:col-span-1">
         <button type="submit" className={buttonClasses("primary")} data-testid="run-log-filter-submit">
           Filter
         </button>

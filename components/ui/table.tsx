@@ -6,7 +6,14 @@
 // slides under it. The box is `relative` so that visually hidden text inside it (sr-only headings and
 // labels are absolutely positioned) is placed inside the box, not against the page, where it would
 // widen the page.
-type Heading = string | { label: string; hidden: true };
+/**
+ * A heading: its text; or text read only by screen readers; or what to show (a sort link) with the column's sort state,
+ * for a table sorted on the server.
+ */
+export type Heading =
+  | string
+  | { label: string; hidden: true }
+  | { label: string; content: React.ReactNode; sort?: "ascending" | "descending" | "none" };
 
 const STICKY_FIRST_COLUMN =
   "[&_tr>*:first-child]:sticky [&_tr>*:first-child]:left-0 [&_tr>*:first-child]:z-[1] [&_tbody_tr>*:first-child]:bg-paper-raised " +
@@ -39,8 +46,19 @@ export function TableFrame({
             {headings.map((heading) => {
               const label = typeof heading === "string" ? heading : heading.label;
               return (
-                <th key={label} scope="col" className="bg-paper-sunk px-4 py-2.5 whitespace-nowrap">
-                  {typeof heading === "string" ? label : <span className="sr-only">{label}</span>}
+                <th
+                  key={label}
+                  scope="col"
+                  className="bg-paper-sunk px-4 py-2.5 whitespace-nowrap"
+                  aria-sort={typeof heading === "object" && "content" in heading ? heading.sort : undefined}
+                >
+                  {typeof heading === "string" ? (
+                    label
+                  ) : "content" in heading ? (
+                    heading.content
+                  ) : (
+                    <span className="sr-only">{label}</span>
+                  )}
                 </th>
               );
             })}

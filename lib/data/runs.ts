@@ -1,7 +1,7 @@
 import "server-only";
 // Runs: the append-only rows a run use case writes (lib/use-cases/runs.ts) and what lists and the run page read.
 // A run's record is stored as the canonical text that was hashed; lists read only the columns copied from it.
-import { and, desc, eq, lt, or, sql, type SQL } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import {
   jobs,
   libraries,
@@ -45,7 +45,7 @@ export type RunDto = RunSummaryDto & {
   record: string;
 };
 
-const summaryColumns = {
+export const summaryColumns = {
   id: runs.id,
   jobId: runs.jobId,
   jobNumber: jobs.jobNumber,
@@ -100,42 +100,6 @@ export async function getRun(id: string): Promise<RunDto | null> {
   if (!row) return null;
   const [{ record }] = await currentDb().select({ record: runs.record }).from(runs).where(eq(runs.id, id));
   return { ...row, record };
-}
-
-export type RunFilter = {
-  jobId?: string;
-  jobNumber?: string;
-  slug?: string;
-  number?: number;
-  versionId?: string;
-  createdById?: string;
-  outcome?: RunOutcome;
-  pass?: boolean;
-  /** Keyset: rows strictly after this (createdAt, id) in newest-first order. */
-  after?: { createdAt: string; id: string };
-  limit: number;
-};
-
-/** Newest first, `limit` rows at most, after the cursor when one is given. */
-export async function listRuns(filter: RunFilter): Promise<RunSummaryDto[]> {
-  const where: SQL[] = [];
-  if (filter.jobId) where.push(eq(runs.jobId, filter.jobId));
-  if (filter.jobNumber) where.push(eq(jobs.jobNumber, filter.jobNumber));
-  if (filter.slug) where.push(eq(standards.slug, filter.slug));
-  if (filter.number) where.push(eq(standardVersions.number, filter.number));
-  if (filter.versionId) where.push(eq(runs.versionId, filter.versionId));
-  if (filter.createdById) where.push(eq(runs.createdById, filter.createdById));
-  if (filter.outcome) where.push(eq(runs.outcome, filter.outcome));
-  if (filter.pass !== undefined) where.push(eq(runs.pass, filter.pass));
-  if (filter.after) {
-    const at = new Date(filter.after.createdAt);
-    where.push(or(lt(runs.createdAt, at), and(eq(runs.createdAt, at), lt(runs.id, filter.after.id)))!);
-  }
-  const rows = await selectRuns()
-    .where(where.length > 0 ? and(...where) : undefined)
-    .orderBy(desc(runs.createdAt), desc(runs.id))
-    .limit(filter.limit);
-  return rows.map(toSummary);
 }
 
 export async function countRunsOfJob(jobId: string): Promise<number> {

@@ -103,6 +103,11 @@ export type AuditDetails = {
   "runs.reproduce.refused": { runId: string; mode: "as-issued" | "current"; bundleSha256: string; reason: string };
   /** A state of a run's calc sheet rendered to PDF and kept (its sha256, and the sheet state's). */
   "runs.sheet.render": { runId: string; sha256: string; pages: number; stateSha256: string };
+  /**
+   * The run log exported as CSV: the filters and order as the address named them (defaults left out), and the instant
+   * the export reads up to (runs made later are not in it).
+   */
+  "runs.export": { filters: Record<string, string>; asOf: string };
   /** A file kept on a job, or on one of its runs (runId). */
   "jobs.attachment.add": { jobNumber: string; runId: string | null; sha256: string; fileName: string; bytes: number };
   // The calc package. `calc` is the calc's number (C-012); `letter` the revision.
@@ -162,6 +167,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "runs.reproduce": "Reproduced a run",
   "runs.reproduce.refused": "Could not reproduce a run",
   "runs.sheet.render": "Kept a calc sheet PDF",
+  "runs.export": "Exported the run log",
   "jobs.attachment.add": "Attached a file to a job",
   "calcs.create": "Numbered a calc",
   "calcs.revision.prepare": "Issued a calc revision for checking",

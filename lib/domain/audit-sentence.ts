@@ -291,6 +291,11 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
         actor,
         ` kept the calc sheet of run ${text(d.runId) ?? "?"} as a PDF of ${count(d.pages) ?? "?"} page${d.pages === 1 ? "" : "s"} (sha256 ${text(d.sha256)?.slice(0, 12) ?? "?"}…)`,
       ];
+    case "runs.export": {
+      const filters = d.filters && typeof d.filters === "object" ? Object.entries(d.filters as Record<string, unknown>) : [];
+      const named = filters.map(([key, value]) => `${key} ${text(value) ?? "?"}`).join(", ");
+      return [actor, ` exported the run log as CSV${named ? ` (${named})` : ", every run"}`];
+    }
     case "jobs.attachment.add":
       return [
         actor,

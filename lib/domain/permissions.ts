@@ -38,6 +38,8 @@ export const ACTIONS = [
   "runs.reproduce",
   // audit
   "audit.read",
+  // the run log: every run with its sign-off state, filtered and sorted for a quality audit
+  "run-log.read",
   "audit.trace",
   "audit.export",
   "log.read",
@@ -78,6 +80,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "audit.read",
     "log.read",
     "integrity.verify",
+    "run-log.read",
     "libraries.read",
     ...LIBRARY_MAINTENANCE,
   ],
@@ -88,6 +91,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "templates.publish",
     "templates.withdraw",
     "runs.reproduce",
+    "run-log.read",
     ...LIBRARY_MAINTENANCE,
   ],
   engineer: ENGINEER,
@@ -98,6 +102,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "runs.read",
     "runs.reproduce",
     "audit.read",
+    "run-log.read",
     "audit.trace",
     "audit.export",
     "log.read",

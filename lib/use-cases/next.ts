@@ -47,7 +47,14 @@ export function serverAction<P extends Permission, S extends z.ZodType, T, R>(
  */
 export function routeHandler<P extends Permission, S extends z.ZodType, T, R>(
   useCase: UseCase<P, S, T, R>,
-  options: { respond?: (result: T) => Response } = {},
+  options: {
+    respond?: (result: T) => Response;
+    /**
+     * A query string the schema refuses is a request that cannot be read (400), not a form to correct (422): for
+     * reads whose input is the address alone (filters, a page cursor). The message names each parameter refused.
+     */
+    queryErrors?: "bad-request";
+  } = {},
 ): (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response> {
   return async (request, context) => {
     try {
@@ -58,6 +65,8 @@ export function routeHandler<P extends Permission, S extends z.ZodType, T, R>(
       return options.respond ? options.respond(result) : Response.json({ data: result ?? null });
     } catch (error) {
       unstable_rethrow(error);
+      if (options.queryErrors && error instanceof AppError && error.code === "invalid-input")
+        return errorResponse(toPublicError(badQueryOf(error)));
       return errorResponse(toPublicError(error));
     }
   };
@@ -67,6 +76,13 @@ export function routeHandler<P extends Permission, S extends z.ZodType, T, R>(
 export function apiErrorResponse(error: unknown): Response {
   unstable_rethrow(error);
   return errorResponse(toPublicError(error));
+}
+
+/** "from: Enter a date as YYYY-MM-DD." for each parameter refused, as one 400. */
+function badQueryOf(error: AppError): AppError {
+  const fields = Object.entries(error.fieldErrors ?? {});
+  const message = fields.length > 0 ? fields.map(([field, [first]]) => `${field}: ${first}`).join(" ") : error.message;
+  return new AppError("bad-request", message, error.fieldErrors ? { fieldErrors: error.fieldErrors } : undefined);
 }
 
 function errorResponse(publicError: PublicError): Response {

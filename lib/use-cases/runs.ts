@@ -35,13 +35,13 @@ import {
   getRunSummary,
   insertRun,
   insertRunLibraryEntries,
-  listRuns,
   type RunDto,
   type RunSummaryDto,
 } from "@/lib/data/runs";
 import { getFirmName } from "@/lib/data/firm";
 import { libraryEntriesFor } from "./library-resolution";
 import { keepCurrentEvaluationBundle } from "./evaluation-bundles";
+import { pageOfRuns, type RunPage } from "./run-log";
 import { defineUseCase } from "./use-case";
 
 type Prepared = {
@@ -332,30 +332,12 @@ export const readRunSheet = defineUseCase({
   audit: null,
 });
 
-export type RunPage = { runs: RunSummaryDto[]; nextCursor: string | null };
-
+/** GET /api/runs: a page of runs, filtered and sorted (lib/domain/schemas/run-log.ts), for whoever reads runs. */
 export const readRuns = defineUseCase({
   name: "runs.list",
   permission: "runs.read",
   input: listRunsSchema,
-  run: async ({ job, standard, version, person, outcome, pass, cursor, limit }): Promise<RunPage> => {
-    const after = cursor
-      ? { createdAt: cursor.slice(0, cursor.indexOf("_")), id: cursor.slice(cursor.indexOf("_") + 1) }
-      : undefined;
-    const rows = await listRuns({
-      jobNumber: job,
-      slug: standard,
-      number: version,
-      createdById: person,
-      outcome,
-      pass: pass === undefined ? undefined : pass === "true",
-      after,
-      limit: limit + 1,
-    });
-    const page = rows.slice(0, limit);
-    const last = page.at(-1);
-    return { runs: page, nextCursor: rows.length > limit && last ? `${last.createdAt}_${last.id}` : null };
-  },
+  run: async (query): Promise<RunPage> => pageOfRuns(query),
   audit: null,
 });
 

@@ -10,7 +10,8 @@ import { runRefSchema } from "@/lib/domain/schemas/jobs";
 import { versionRunsSchema } from "@/lib/domain/schemas/trace";
 import { contentHash } from "@/lib/standards/content-hash";
 import { readRunRecord } from "@/lib/standards/run-record";
-import { getRun, listRuns, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
+import { getRun, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
+import { listRuns } from "@/lib/data/run-list";
 import { getStandardBySlug, getVersion, listVersionsOf, type VersionDto } from "@/lib/data/standards";
 import { revisionsOfRun } from "@/lib/data/calcs";
 import { listAttachments, listSheetPdfs, type AttachmentDto, type SheetPdfDto } from "@/lib/data/files";
@@ -96,7 +97,7 @@ export const readVersionRuns = defineUseCase({
     const version = standard ? await getVersion({ standardId: standard.id, number }) : null;
     if (!version) throw new AppError("not-found", `“${slug}” has no version ${number}.`);
     const at = cursor?.indexOf("_") ?? -1;
-    const after = cursor ? { createdAt: cursor.slice(0, at), id: cursor.slice(at + 1) } : undefined;
+    const after = cursor ? { sort: "date" as const, createdAt: cursor.slice(0, at), id: cursor.slice(at + 1) } : undefined;
     const rows = await listRuns({ versionId: version.id, after, limit: limit + 1 });
     const runs = rows.slice(0, limit);
     const last = runs.at(-1);

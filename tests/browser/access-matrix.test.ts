@@ -163,7 +163,9 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     title: "Compare runs",
     expect: signedInPage("lead", "engineer", "auditor"),
   },
-  "/(app)/audit/page": { path: "/audit", title: "Audit trail", expect: signedInPage("admin", "auditor") },
+  "/(app)/audit/(trail)/page": { path: "/audit", title: "Audit trail", expect: signedInPage("admin", "auditor") },
+  // The run log: the auditor's, the lead's (who answers for the standards) and the admin's (whose trail names every run).
+  "/(app)/audit/runs/page": { path: "/audit/runs", title: "Run log", expect: signedInPage("admin", "lead", "auditor") },
   "/(app)/audit/integrity/page": { path: "/audit/integrity", title: "Integrity", expect: signedInPage("admin", "auditor") },
   "/(app)/admin/users/page": { path: "/admin/users", title: "People", expect: signedInPage("admin", "auditor") },
   "/(app)/admin/mailbox/page": {
@@ -222,6 +224,11 @@ const NO_SUCH_UUID = "00000000-0000-4000-8000-000000000000";
 const libraryReaders = (outcome: ApiOutcome) =>
   Object.fromEntries(
     EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "admin" ? "forbidden" : outcome]),
+  ) as Record<Who, ApiOutcome>;
+/** The auditor alone gets `ok` ("export evidence"); every other role is refused. */
+const auditorOnly = (): Record<Who, ApiOutcome> =>
+  Object.fromEntries(
+    EVERYONE.map((who) => [who, who === "anonymous" ? "unauthenticated" : who === "auditor" ? "ok" : "forbidden"]),
   ) as Record<Who, ApiOutcome>;
 const OPTIONS_ROW = (url: string, allow: string): ApiRow => ({
   path: url,
@@ -409,6 +416,23 @@ const API_ROUTES: Record<string, ApiRow> = {
     ok: () => undefined,
   },
   "OPTIONS /api/runs/[id]/route": OPTIONS_ROW(`/api/runs/${NO_SUCH_UUID}`, ALLOW_GET),
+  // The run log as CSV: the auditor's alone ("export evidence"); the export is an audit event, no other write.
+  "GET /api/runs/export/route": {
+    path: "/api/runs/export?outcome=failed&sort=job",
+    expect: auditorOnly(),
+    ok: (answer) => {
+      expect(answer.status).toBe(200);
+      expect(answer.headers.get("content-type")).toMatch(/^text\/csv; charset=utf-8/);
+      expect(answer.headers.get("content-disposition")).toMatch(/^attachment; filename="gusset-run-log-\d{8}T\d{6}Z\.csv"/);
+      expect(answer.text.split("\r\n")[0]).toMatch(/^run_id,created_at,job_number,/);
+    },
+  },
+  "HEAD /api/runs/export/route": {
+    path: "/api/runs/export?outcome=failed",
+    expect: auditorOnly(),
+    ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]),
+  },
+  "OPTIONS /api/runs/export/route": OPTIONS_ROW("/api/runs/export", ALLOW_GET),
   // Calc sheet PDFs of a run id nothing has: 404 for those who read runs, before anything is rendered.
   "GET /api/runs/[id]/sheet-pdf/route": {
     path: `/api/runs/${NO_SUCH_UUID}/sheet-pdf`,
@@ -798,6 +822,7 @@ describe("signing in brings people back", () => {
       "/runs/compare",
       "/audit",
       "/audit/integrity",
+      "/audit/runs",
       "/admin/users",
       "/admin/mailbox",
     ]);

@@ -23,7 +23,8 @@ import { logPublicKeyFromSettings } from "@/lib/jobs/log-keys";
 import { hashFromHex, leafHash, verifyConsistency, verifyInclusion } from "@/lib/integrity/merkle";
 import { verifyTreeHead } from "@/lib/integrity/tree-head";
 import * as schema from "@/db/schema";
-import { eq } from "drizzle-orm";
+import { and, desc, eq } from "drizzle-orm";
+import { parseCsv } from "@/lib/domain/csv";
 import { createTestUser, sessionCount, signInHeaders } from "./helpers/people";
 import { runUseCase } from "@/lib/use-cases/run";
 import { createStandard } from "@/lib/use-cases/standards";
@@ -101,6 +102,14 @@ const REPRODUCERS: Record<Who, Expected> = {
   anonymous: "unauthenticated",
   admin: "forbidden",
   lead: "allowed",
+  engineer: "forbidden",
+  auditor: "allowed",
+};
+/** The auditor alone: "export evidence" (product.md). */
+const AUDITOR_ONLY: Record<Who, Expected> = {
+  anonymous: "unauthenticated",
+  admin: "forbidden",
+  lead: "forbidden",
   engineer: "forbidden",
   auditor: "allowed",
 };
@@ -529,6 +538,30 @@ const ROUTES: RouteRow[] = [
       const body = (await response.json()) as { data: { id: string; recordSha256: string; record: { id: string } } };
       const [row] = await db.select().from(schema.runs).where(eq(schema.runs.id, params!.id));
       expect(body.data).toMatchObject({ id: row.id, recordSha256: row.recordSha256, record: { id: row.id } });
+    },
+  },
+  // The run log as CSV: the auditor's alone ("export evidence"); the export is recorded in the audit trail.
+  {
+    route: "app/api/runs/export/route.ts",
+    method: "GET",
+    path: "/api/runs/export",
+    expected: AUDITOR_ONLY,
+    request: async () => {
+      const { jobNumber, run } = await matrixRun();
+      return { path: `/api/runs/export?job=${jobNumber}`, made: { id: run.id, jobNumber } };
+    },
+    succeeded: async (response, { made, actor }) => {
+      expect(response.status).toBe(200);
+      const rows = parseCsv(await response.text());
+      expect(rows[0].slice(0, 3)).toEqual(["run_id", "created_at", "job_number"]);
+      expect(rows.slice(1).map((row) => row[0])).toEqual([made!.id]);
+      const [event] = await db
+        .select()
+        .from(schema.auditEvents)
+        .where(and(eq(schema.auditEvents.action, "runs.export"), eq(schema.auditEvents.actorId, actor!.id)))
+        .orderBy(desc(schema.auditEvents.id))
+        .limit(1);
+      expect(event.details).toMatchObject({ filters: { job: made!.jobNumber } });
     },
   },
   // Calc sheet PDFs: whoever reads runs gets the sheet rendered by the server's Chromium (as them) and kept.

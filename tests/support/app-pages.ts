@@ -158,12 +158,27 @@ export const APP_PAGES: AppPage[] = [
   },
   // Without two runs chosen, the comparison says what to do; two real runs are compared by the run journey.
   { name: "compare runs, none chosen", entry: "/(app)/runs/compare/page", path: "/runs/compare", visitors: ["auditor"] },
-  { name: "audit trail", entry: "/(app)/audit/page", path: "/audit", visitors: ["auditor"] },
+  { name: "audit trail", entry: "/(app)/audit/(trail)/page", path: "/audit", visitors: ["auditor"] },
+  // The run log differs by role: an admin reads it without links to runs and jobs, an auditor may download it.
+  { name: "run log", entry: "/(app)/audit/runs/page", path: "/audit/runs", visitors: ["auditor", "admin"] },
+  {
+    name: "run log, filtered and sorted",
+    entry: "/(app)/audit/runs/page",
+    path: "/audit/runs?outcome=succeeded&pass=true&sort=utilisation",
+    visitors: ["lead"],
+  },
   { name: "integrity", entry: "/(app)/audit/integrity/page", path: "/audit/integrity", visitors: ["auditor"] },
   { name: "people", entry: "/(app)/admin/users/page", path: "/admin/users", visitors: ["admin", "auditor"] },
   { name: "demo mailbox", entry: "/(app)/admin/mailbox/page", path: "/admin/mailbox", visitors: ["admin"], mailbox: true },
   { name: "403, not part of the role", entry: "/(app)/runs/(list)/page", path: "/runs", status: 403, visitors: ["admin"] },
-  { name: "403, not part of the role", entry: "/(app)/audit/page", path: "/audit", status: 403, visitors: ["lead"] },
+  { name: "403, not part of the role", entry: "/(app)/audit/(trail)/page", path: "/audit", status: 403, visitors: ["lead"] },
+  {
+    name: "403, not part of the role",
+    entry: "/(app)/audit/runs/page",
+    path: "/audit/runs",
+    status: 403,
+    visitors: ["engineer"],
+  },
   {
     name: "403, not part of the role",
     entry: "/(app)/admin/mailbox/page",

@@ -237,6 +237,15 @@ describe("auditSentence", () => {
     }
   });
 
+  it("says what a CSV export of the run log held: its filters, or every run", () => {
+    const exported = (filters: Record<string, string>) =>
+      auditSentence(event({ action: "runs.export", ...ines, details: { filters, asOf: "2026-03-14T09:32:05.123Z" } }));
+    expect(exported({ job: "MF-2291", pass: "false" })).toBe(
+      "Ines Okafor-Lind exported the run log as CSV (job MF-2291, pass false)",
+    );
+    expect(exported({})).toBe("Ines Okafor-Lind exported the run log as CSV, every run");
+  });
+
   it("keeps an action it has no sentence for readable: who, then the stored key", () => {
     expect(auditSentence(event({ action: "test.future-kind", ...ines }))).toBe("Ines Okafor-Lind: test.future-kind");
   });

@@ -17,7 +17,8 @@ const LOADING: Record<string, () => Promise<{ default: ComponentType }>> = {
   "libraries/(list)": () => import("@/app/(app)/libraries/(list)/loading"),
   "jobs/(list)": () => import("@/app/(app)/jobs/(list)/loading"),
   "runs/(list)": () => import("@/app/(app)/runs/(list)/loading"),
-  audit: () => import("@/app/(app)/audit/loading"),
+  "audit/(trail)": () => import("@/app/(app)/audit/(trail)/loading"),
+  "audit/runs": () => import("@/app/(app)/audit/runs/loading"),
   "admin/users": () => import("@/app/(app)/admin/users/loading"),
   "admin/mailbox": () => import("@/app/(app)/admin/mailbox/loading"),
 };
@@ -39,6 +40,7 @@ const NO_SKELETON: Record<string, string> = {
   "jobs/[jobNumber]/edit": "403 for roles that do not change jobs, 404 for a job that does not exist",
   "jobs/[jobNumber]/run/[slug]": "403 for roles that do not run, 404 for a job or standard that does not exist",
   "runs/[id]": "404 for a run that does not exist",
+  "audit/integrity": "403 for roles that do not verify the log's integrity; the check itself runs on a button",
   "runs/[id]/trace": "404 for a run that does not exist",
   "standards/[slug]/versions/[number]/runs": "404 for a version that does not exist",
   "runs/compare": "two stored records read at once; a refusal (runs of different standards) is shown in the page",

@@ -73,6 +73,10 @@ const EXPECTED: Record<Action, Record<Role, boolean>> = {
   "runs.reproduce": { admin: N, lead: Y, engineer: N, auditor: Y },
   // auditor: "read everything"; admin: sees the trail of the account changes and sign-ins they answer for (people page, home).
   "audit.read": { admin: Y, lead: N, engineer: N, auditor: Y },
+  // The run log (who ran what, when, how it came out, how far it is signed off): the auditor's, who "reads everything";
+  // the lead's, who answers for the standards and finds every job a version touched; the admin's, whose audit trail
+  // already names every run made. Engineers keep the runs list; it is not their audit.
+  "run-log.read": { admin: Y, lead: Y, engineer: N, auditor: Y },
   // auditor: "trace" any number back to its source.
   "audit.trace": { admin: N, lead: N, engineer: N, auditor: Y },
   // auditor: "export evidence".

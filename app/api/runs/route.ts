@@ -14,6 +14,7 @@ export const POST = routeHandler(createRun, {
     ),
 });
 
-// GET /api/runs?job=&standard=&version=&person=&outcome=&pass=&cursor=&limit=: newest first, with the cursor of the
-// next page (null on the last).
-export const GET = routeHandler(readRuns);
+// GET /api/runs?job=&standard=&version=&person=&outcome=&pass=&signOff=&from=&to=&tz=&sort=&dir=&cursor=&limit=:
+// newest first unless sorted otherwise (date, utilisation, job; asc or desc), with the cursor of the next page (null on
+// the last). A filter or cursor that cannot be read answers 400 with what is wrong.
+export const GET = routeHandler(readRuns, { queryErrors: "bad-request" });

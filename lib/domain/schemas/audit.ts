@@ -6,9 +6,9 @@ import { isAuditAction } from "../audit-actions";
 import { isTimeZone } from "../zoned-time";
 
 /** An empty field of the form ("Everyone", no date) is no filter. */
-const blankIsAbsent = (value: unknown) => (value === "" || value === null ? undefined : value);
+export const blankIsAbsent = (value: unknown) => (value === "" || value === null ? undefined : value);
 
-const isoDay = z
+export const isoDay = z
   .string({ error: "Enter one date, as YYYY-MM-DD." })
   .regex(/^\d{4}-\d{2}-\d{2}$/, { message: "Enter a date as YYYY-MM-DD.", abort: true })
   .refine(

@@ -74,23 +74,8 @@ export type CreateRunInput = z.input<typeof createRunSchema>;
 
 export const runRefSchema = z.object({ id: z.uuid("That is not a run id.") });
 
-const RUN_PAGE_SIZE = 50;
-export const listRunsSchema = z
-  .object({
-    job: z.string().trim().max(30).optional(),
-    standard: z.string().trim().max(60).optional(),
-    version: z.coerce.number().int().min(1).optional(),
-    person: z.string().trim().max(100).optional(),
-    outcome: z.enum(["succeeded", "failed"], { error: "Filter by succeeded or failed." }).optional(),
-    pass: z.enum(["true", "false"], { error: "Filter by pass (true) or fail (false)." }).optional(),
-    /** The last row of the previous page: `<ISO time>_<id>`. */
-    cursor: z
-      .string()
-      .regex(/^\d{4}-\d\d-\d\dT[\d:.]+Z_[0-9a-f-]{36}$/, "That page cursor is not one Gusset gave.")
-      .optional(),
-    limit: z.coerce.number().int().min(1).max(200).default(RUN_PAGE_SIZE),
-  })
-  .default({ limit: RUN_PAGE_SIZE });
+/** GET /api/runs and the run log: filters, order and page (lib/domain/schemas/run-log.ts). */
+export { runListQuerySchema as listRunsSchema } from "./run-log";
 
 /** A stored calc sheet PDF of a run. */
 export const sheetPdfRefSchema = z.object({

@@ -3,11 +3,12 @@ import { requirePageActor } from "@/lib/auth/session";
 import { runUseCase } from "@/lib/use-cases/run";
 import { readRuns } from "@/lib/use-cases/runs";
 import { PageHeader } from "@/components/ui/page-header";
-import { EmptyState } from "@/components/ui/empty-state";
 import { Button } from "@/components/ui/button";
+import { EmptyState } from "@/components/ui/empty-state";
 import { SelectField, TextField } from "@/components/ui/field";
 import { orNotFound } from "../../_components/or-not-found";
 import { RunList } from "../_components/run-list";
+import { RunLogLink } from "../../audit/runs/_components/run-log-link";
 
 export const metadata: Metadata = { title: "Runs" };
 
@@ -30,6 +31,7 @@ export default async function RunsPage({ searchParams }: PageProps<"/runs">) {
       <PageHeader
         title="Runs"
         lead="Every run of a published version, newest first: the inputs given, the frame engine's results and the checks, kept for good."
+        actions={<RunLogLink actor={actor} testId="runs-run-log-link" />}
       />
       <form
         method="get"

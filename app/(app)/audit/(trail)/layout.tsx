@@ -1,4 +1,4 @@
-import { sectionGate } from "../_components/section-gate";
+import { sectionGate } from "../../_components/section-gate";
 
 // The access check above this section's loading.tsx (see section-gate.tsx).
 export default sectionGate("audit.read");

@@ -13,7 +13,8 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { Notice } from "@/components/ui/notice";
 import { AuditSentence } from "@/components/audit-sentence";
 import { LocalTime } from "@/components/local-time";
-import { AuditFilters, type AuditFilterErrors, type AuditFilterValues } from "./_components/audit-filters";
+import { RunLogLink } from "../runs/_components/run-log-link";
+import { AuditFilters, type AuditFilterErrors, type AuditFilterValues } from "../_components/audit-filters";
 
 export const metadata: Metadata = { title: "Audit trail" };
 
@@ -72,6 +73,7 @@ export default async function AuditPage({ searchParams }: PageProps<"/audit">) {
       <PageHeader
         title="Audit trail"
         lead="Who did what, to whom, and when: invitations, role changes, deactivations and sign-ins. Entries are append-only — the database refuses to change or delete them."
+        actions={<RunLogLink actor={actor} testId="audit-run-log-link" />}
       />
       <AuditFilters values={values} errors={errors} people={people} timeZone={timeZone} />
       {trail && parsed.success ? (

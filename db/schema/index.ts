@@ -5,3 +5,4 @@ export * from "./standards";
 export * from "./libraries";
 export * from "./jobs";
 export * from "./calcs";
+export * from "./withdrawals";

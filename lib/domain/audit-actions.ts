@@ -48,7 +48,8 @@ export type AuditDetails = {
     supersedes: number[];
     cases: number;
   };
-  "standards.withdraw": { slug: string; number: number; reason: string };
+  /** successor: the version named to replace it (with the mapping of inputs, on the withdrawal's impact report). */
+  "standards.withdraw": { slug: string; number: number; reason: string; successor?: number | null; notified?: number };
   /** A standard imported from content/standards/ by the seed, as a published version. */
   "standards.import": { slug: string; number: number; hash: string };
   // The libraries' lifecycle. `slug` names the library; `hash` is the content hash of the document concerned
@@ -69,9 +70,17 @@ export type AuditDetails = {
     authorName: string;
     supersedes: number[];
   };
-  "libraries.withdraw": { slug: string; number: number; reason: string };
+  "libraries.withdraw": { slug: string; number: number; reason: string; replacement?: string | null; notified?: number };
   /** One entry of a version withdrawn (a wrong value); the rest of the version stays in use. */
-  "libraries.entry.withdraw": { slug: string; number: number; entryKey: string; entryHash: string; reason: string };
+  "libraries.entry.withdraw": {
+    slug: string;
+    number: number;
+    entryKey: string;
+    entryHash: string;
+    reason: string;
+    replacement?: string | null;
+    notified?: number;
+  };
   /** A starting library published by the seed (the demo catalogue, content/libraries/). */
   "libraries.import": { slug: string; kind: string; number: number; hash: string; entries: number };
   // Jobs and runs. `jobNumber` names the job; a run's subject is `run:<id>`.
@@ -97,6 +106,18 @@ export type AuditDetails = {
   "calcs.revision.check": { calc: string; letter: string; decision: "approve" | "return" };
   /** reason: why a failing run, or one on a version no longer current, was approved. */
   "calcs.revision.approve": { calc: string; letter: string; reason: string | null };
+  // After a withdrawal (subject `withdrawal:<id>`).
+  /** The signed outcome of an affected calc revision. */
+  "withdrawals.outcome": {
+    calc: string;
+    letter: string;
+    outcome: "no-action" | "rerun-checked" | "drawings-revised";
+    reason: string | null;
+    newRevision: string | null;
+    reference: string | null;
+  };
+  /** A batch re-run of every affected run on the successor, queued. */
+  "withdrawals.batch.start": { batchId: string; runs: number; successor: string };
 };
 
 export type AuditAction = keyof AuditDetails;
@@ -149,6 +170,8 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "calcs.revision.prepare": "Issued a calc revision for checking",
   "calcs.revision.check": "Checked a calc revision",
   "calcs.revision.approve": "Approved a calc revision",
+  "withdrawals.outcome": "Recorded the outcome of a withdrawal for a calc",
+  "withdrawals.batch.start": "Started a batch re-run after a withdrawal",
 };
 
 export function isAuditAction(value: string): value is AuditAction {

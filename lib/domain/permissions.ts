@@ -34,6 +34,10 @@ export const ACTIONS = [
   "runs.sign-checked",
   "runs.sign-approved",
   "files.attach",
+  // after a withdrawal: a lead re-runs every affected run on the successor; the signed outcome of an affected calc
+  // revision is recorded by a lead, or by the responsible engineer of that calc's job (the use case checks which job)
+  "withdrawals.rerun",
+  "withdrawals.record-outcome",
   // audit
   "audit.read",
   "audit.trace",
@@ -61,6 +65,7 @@ const ENGINEER: readonly Action[] = [
   "runs.sign-checked",
   "runs.sign-approved",
   "files.attach",
+  "withdrawals.record-outcome",
 ];
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
@@ -80,6 +85,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "templates.review",
     "templates.publish",
     "templates.withdraw",
+    "withdrawals.rerun",
     ...LIBRARY_MAINTENANCE,
   ],
   engineer: ENGINEER,

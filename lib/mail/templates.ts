@@ -52,3 +52,54 @@ export function renderPasswordResetMail(args: { to: string; name: string; url: s
     html: layout(paragraphs, { url: args.url, label: "Choose a new password" }),
   };
 }
+
+export type WithdrawalNotice = {
+  to: string;
+  name: string;
+  /** What was withdrawn, in words ("Simply supported steel beam v2"). */
+  what: string;
+  reason: string;
+  withdrawnBy: string;
+  successor: string | null;
+  reportUrl: string;
+  /** The person's own runs on it (as the one who ran them). */
+  runs: { jobNumber: string; runId: string; url: string }[];
+  /** The jobs the person is responsible engineer of, with how many of their runs used it. */
+  jobs: { jobNumber: string; jobName: string; runs: number }[];
+};
+
+/** One e-mail per person after a withdrawal: their own runs on what was withdrawn, and the jobs they answer for. */
+export function renderWithdrawalNoticeMail(notice: WithdrawalNotice): OutgoingMail {
+  const lines: string[] = [];
+  if (notice.runs.length > 0) {
+    lines.push(`Your runs that used it (${notice.runs.length}):`);
+    for (const run of notice.runs) lines.push(`  - job ${run.jobNumber}, run ${run.runId.slice(0, 8)}: ${run.url}`);
+  }
+  if (notice.jobs.length > 0) {
+    lines.push(`Jobs you are responsible engineer of that used it (${notice.jobs.length}):`);
+    for (const job of notice.jobs)
+      lines.push(`  - ${job.jobNumber} (${job.jobName}): ${job.runs} ${job.runs === 1 ? "run" : "runs"}`);
+  }
+  const paragraphs = [
+    `Hello ${notice.name},`,
+    `${notice.withdrawnBy} has withdrawn ${notice.what}. Reason: ${notice.reason}`,
+    notice.successor
+      ? `The version that replaces it is ${notice.successor}. Results that used the withdrawn one should not be relied on until they are re-run on it and checked again.`
+      : `Results that used it should not be relied on until they are reviewed.`,
+    ...lines,
+    `The impact report lists every affected run, calc revision and job, and what is still open.`,
+  ];
+  const html = layout(
+    paragraphs.filter((p) => !p.startsWith("  - ")),
+    { url: notice.reportUrl, label: "Open the impact report" },
+  ).replace(
+    '</p><p style="margin:24px 0">',
+    `</p><ul>${[...notice.runs.map((r) => `<li>job ${escapeHtml(r.jobNumber)}, run <a href="${escapeHtml(r.url)}">${escapeHtml(r.runId.slice(0, 8))}</a></li>`), ...notice.jobs.map((j) => `<li>${escapeHtml(j.jobNumber)} (${escapeHtml(j.jobName)}): ${j.runs} ${j.runs === 1 ? "run" : "runs"}</li>`)].join("")}</ul><p style="margin:24px 0">`,
+  );
+  return {
+    to: notice.to,
+    subject: `Withdrawn: ${notice.what} — your runs and jobs`,
+    text: `${paragraphs.join("\n\n")}\n\n${notice.reportUrl}\n\n— Gusset`,
+    html,
+  };
+}

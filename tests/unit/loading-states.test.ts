@@ -39,6 +39,7 @@ const NO_SKELETON: Record<string, string> = {
   "jobs/[jobNumber]/edit": "403 for roles that do not change jobs, 404 for a job that does not exist",
   "jobs/[jobNumber]/run/[slug]": "403 for roles that do not run, 404 for a job or standard that does not exist",
   "runs/[id]": "404 for a run that does not exist",
+  "withdrawals/[id]": "404 for a withdrawal that does not exist",
   "runs/compare": "two stored records read at once; a refusal (runs of different standards) is shown in the page",
   "libraries/new": "403 for roles that do not maintain the libraries",
   "libraries/drafts/[draftId]": "403 for roles that do not maintain the libraries, 404 for a draft that does not exist",

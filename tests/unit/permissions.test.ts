@@ -69,6 +69,10 @@ const EXPECTED: Record<Action, Record<Role, boolean>> = {
   "runs.sign-approved": { admin: N, lead: Y, engineer: Y, auditor: N },
   // engineer: "attach files"; lead: as an engineer.
   "files.attach": { admin: N, lead: Y, engineer: Y, auditor: N },
+  // lead: re-runs every affected run on the successor after a withdrawal (the issue: "a lead starts a batch").
+  "withdrawals.rerun": { admin: N, lead: Y, engineer: N, auditor: N },
+  // lead, and a job's responsible engineer for that job's calcs (the use case checks the job): signs an outcome.
+  "withdrawals.record-outcome": { admin: N, lead: Y, engineer: Y, auditor: N },
   // auditor: "read everything"; admin: sees the trail of the account changes and sign-ins they answer for (people page, home).
   "audit.read": { admin: Y, lead: N, engineer: N, auditor: Y },
   // auditor: "trace" any number back to its source.

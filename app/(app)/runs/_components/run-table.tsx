@@ -33,6 +33,11 @@ export function RunTable({ runs, showJob = true, timeZone }: { runs: RunSummaryD
           <td className="px-4 py-3">
             {run.title} <span className="font-mono text-xs text-ink-500">v{run.number}</span>
             {run.purpose === "remediation" ? <span className="block text-xs text-warn-700">Remediation re-run</span> : null}
+            {run.withdrawn ? (
+              <span className="block text-xs font-semibold text-fault-700" data-testid="run-withdrawn">
+                Withdrawn: do not rely on it
+              </span>
+            ) : null}
           </td>
           <td className="px-4 py-3 text-ink-700">{run.createdByName}</td>
           <td className="px-4 py-3">

@@ -101,6 +101,8 @@ const WRITES: readonly Action[] = [
   "runs.sign-checked",
   "runs.sign-approved",
   "files.attach",
+  "withdrawals.rerun",
+  "withdrawals.record-outcome",
 ];
 
 const allowedFor = (role: Role) => ACTIONS.filter((action) => EXPECTED[action][role]);

@@ -6,8 +6,9 @@ function escapeHtml(value: string): string {
   return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 }
 
-function layout(paragraphs: string[], link: { url: string; label: string }): string {
-  const body = paragraphs.map((p) => `<p style="margin:0 0 16px">${escapeHtml(p)}</p>`).join("");
+function layout(paragraphs: string[], link: { url: string; label: string }, list: string[] = []): string {
+  const items = list.length > 0 ? `<ul style="margin:0 0 16px">${list.map((item) => `<li>${item}</li>`).join("")}</ul>` : "";
+  const body = paragraphs.map((p) => `<p style="margin:0 0 16px">${escapeHtml(p)}</p>`).join("") + items;
   return `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1f2933;max-width:560px;margin:24px auto;line-height:1.5">
 <p style="font-weight:700;font-size:18px;margin:0 0 24px">Gusset</p>${body}
 <p style="margin:24px 0"><a href="${escapeHtml(link.url)}" style="background:#1f5a5f;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(link.label)}</a></p>
@@ -89,12 +90,19 @@ export function renderWithdrawalNoticeMail(notice: WithdrawalNotice): OutgoingMa
     ...lines,
     `The impact report lists every affected run, calc revision and job, and what is still open.`,
   ];
+  // The HTML lists the same runs and jobs, each run a link; every value is escaped.
   const html = layout(
     paragraphs.filter((p) => !p.startsWith("  - ")),
     { url: notice.reportUrl, label: "Open the impact report" },
-  ).replace(
-    '</p><p style="margin:24px 0">',
-    `</p><ul>${[...notice.runs.map((r) => `<li>job ${escapeHtml(r.jobNumber)}, run <a href="${escapeHtml(r.url)}">${escapeHtml(r.runId.slice(0, 8))}</a></li>`), ...notice.jobs.map((j) => `<li>${escapeHtml(j.jobNumber)} (${escapeHtml(j.jobName)}): ${j.runs} ${j.runs === 1 ? "run" : "runs"}</li>`)].join("")}</ul><p style="margin:24px 0">`,
+    [
+      ...notice.runs.map(
+        (r) => `job ${escapeHtml(r.jobNumber)}, run <a href="${escapeHtml(r.url)}">${escapeHtml(r.runId.slice(0, 8))}</a>`,
+      ),
+      ...notice.jobs.map(
+        (j) =>
+          `responsible engineer of ${escapeHtml(j.jobNumber)} (${escapeHtml(j.jobName)}): ${j.runs} ${j.runs === 1 ? "run" : "runs"}`,
+      ),
+    ],
   );
   return {
     to: notice.to,

@@ -116,6 +116,8 @@ export type AuditDetails = {
     newRevision: string | null;
     reference: string | null;
   };
+  /** The successor of a withdrawn version named (or named again) after the withdrawal, with its mapping. */
+  "withdrawals.successor": { withdrawn: string; successor: number };
   /** A batch re-run of every affected run on the successor, queued. */
   "withdrawals.batch.start": { batchId: string; runs: number; successor: string };
 };
@@ -171,6 +173,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "calcs.revision.check": "Checked a calc revision",
   "calcs.revision.approve": "Approved a calc revision",
   "withdrawals.outcome": "Recorded the outcome of a withdrawal for a calc",
+  "withdrawals.successor": "Named the successor of a withdrawn version",
   "withdrawals.batch.start": "Started a batch re-run after a withdrawal",
 };
 

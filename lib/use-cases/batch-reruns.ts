@@ -79,6 +79,8 @@ export const startBatch = defineUseCase({
 export type BatchProgress = {
   batch: {
     id: string;
+    /** The mapping it re-ran on: a newer mapping may be re-run as a batch of its own. */
+    mappingId: string;
     total: number;
     done: number;
     succeeded: number;
@@ -102,7 +104,14 @@ export const readBatchProgress = defineUseCase({
     if (!batch) return { batch: null, deltas: [] };
     const counts = await countBatchItems(batch.id);
     return {
-      batch: { id: batch.id, total: batch.total, ...counts, startedByName: batch.startedByName, startedAt: batch.startedAt },
+      batch: {
+        id: batch.id,
+        mappingId: batch.mappingId,
+        total: batch.total,
+        ...counts,
+        startedByName: batch.startedByName,
+        startedAt: batch.startedAt,
+      },
       deltas: await listBatchDeltas(batch.id, 50),
     };
   },

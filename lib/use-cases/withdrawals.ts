@@ -8,7 +8,7 @@ import { AppError } from "@/lib/domain/errors";
 import { z } from "@/lib/domain/zod";
 import type { Actor } from "@/lib/domain/actor";
 import { can } from "@/lib/domain/permissions";
-import { recordOutcomeSchema, withdrawalRefSchema } from "@/lib/domain/schemas/withdrawals";
+import { declareSuccessorSchema, recordOutcomeSchema, withdrawalRefSchema } from "@/lib/domain/schemas/withdrawals";
 import type { InputMapping } from "@/db/schema";
 import { serverEnv } from "@/lib/server-env";
 import { enqueueJob } from "@/lib/jobs/enqueue";
@@ -397,7 +397,7 @@ const inputsOf = (version: Parameters<typeof definitionOf>[0]): Record<string, S
     ]),
   );
 
-/** What a version's page needs about withdrawing it: its impact report once withdrawn, else the successors to offer. */
+/** What a version's page (and its impact report) needs about withdrawing it: its report once withdrawn, the successors to offer. */
 export const readVersionWithdrawal = defineUseCase({
   name: "withdrawals.of-version",
   permission: "library.read",
@@ -406,14 +406,39 @@ export const readVersionWithdrawal = defineUseCase({
     const version = await getVersion({ id: versionId });
     if (!version) throw new AppError("not-found", "That version does not exist.");
     const withdrawalId = await findWithdrawalId({ standardVersionId: versionId });
-    if (withdrawalId) return { withdrawalId, inputs: {}, successors: [] };
     const others = (await listVersionsOf(version.standardId)).filter((v) => v.id !== versionId && v.status !== "withdrawn");
     const successors: SuccessorOption[] = [];
     for (const summary of others) {
       const candidate = (await getVersion({ id: summary.id }))!;
       successors.push({ id: candidate.id, number: candidate.number, title: candidate.title, inputs: inputsOf(candidate) });
     }
-    return { withdrawalId: null, inputs: inputsOf(version), successors: successors.sort((a, b) => b.number - a.number) };
+    return { withdrawalId, inputs: inputsOf(version), successors: successors.sort((a, b) => b.number - a.number) };
   },
   audit: null,
+});
+
+/**
+ * Names (or names again) the successor of a withdrawn standard version, with the mapping of inputs, after the
+ * withdrawal: a version often comes out to fix the one withdrawn. A new mapping row; the latest is in force, and a
+ * new mapping may be re-run as a batch of its own.
+ */
+export const declareSuccessor = defineUseCase({
+  name: "withdrawals.successor",
+  permission: "templates.withdraw",
+  input: declareSuccessorSchema,
+  run: async ({ withdrawalId, successorVersionId, mapping }, { actor }) => {
+    const withdrawal = await getWithdrawal(withdrawalId);
+    if (!withdrawal) throw new AppError("not-found", "There is no withdrawal with that id.");
+    if (withdrawal.subject !== "standard-version")
+      throw new AppError("conflict", "A library's replacement entry is named when it is withdrawn.");
+    const checked = await successorMappingOrThrow(withdrawal.standardVersionId!, successorVersionId, mapping);
+    await insertMapping({ withdrawalId, successorVersionId, mapping: checked, declaredById: actor.id });
+    const successor = (await getVersion({ id: successorVersionId }))!;
+    return { withdrawalId, label: withdrawal.label, successor: successor.number };
+  },
+  audit: ({ result }) => ({
+    action: "withdrawals.successor",
+    subject: `withdrawal:${result.withdrawalId}`,
+    details: { withdrawn: result.label, successor: result.successor },
+  }),
 });

@@ -498,6 +498,7 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/standards/actions.ts#approveAndPublishAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#withdrawVersionAction": leadsOnlyAction(),
   // After a withdrawal: a lead starts the batch re-run; a lead or the job's responsible engineer signs an outcome.
+  "app/(app)/withdrawals/actions.ts#declareSuccessorAction": leadsOnlyAction(),
   "app/(app)/withdrawals/actions.ts#startBatchAction": leadsOnlyAction(),
   "app/(app)/withdrawals/actions.ts#recordOutcomeAction": runnersAction(),
   // Jobs and runs: engineers and leads; auditors change nothing; admins manage people.

@@ -166,6 +166,7 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/libraries/actions.ts#withdrawLibraryEntryAction": LIBRARY_EDITORS,
   // After a withdrawal: a lead starts the batch re-run; a lead, or the responsible engineer of the calc's job (the
   // fixture checks that a caller who is neither is told who may), signs an affected calc revision's outcome.
+  "app/(app)/withdrawals/actions.ts#declareSuccessorAction": LEADS_ONLY,
   "app/(app)/withdrawals/actions.ts#startBatchAction": LEADS_ONLY,
   "app/(app)/withdrawals/actions.ts#recordOutcomeAction": RUNNERS,
 };

@@ -13,11 +13,12 @@ import { runUseCase } from "@/lib/use-cases/run";
 import { withdrawVersion, createStandard, saveDraft, submitDraft, approveAndPublish } from "@/lib/use-cases/standards";
 import { readRun, readRuns } from "@/lib/use-cases/runs";
 import { checkRevision, createCalc, prepareRevision } from "@/lib/use-cases/calcs";
-import { readImpactReport, recordOutcome } from "@/lib/use-cases/withdrawals";
+import { declareSuccessor, readImpactReport, recordOutcome } from "@/lib/use-cases/withdrawals";
+import { startBatch } from "@/lib/use-cases/batch-reruns";
 import { withdrawLibraryEntry } from "@/lib/use-cases/libraries";
 import { readLibraryVersion } from "@/lib/use-cases/library-reads";
 import { buildSectionOrThrow } from "@/lib/libraries";
-import { expectNoChangeFrom } from "../support/snapshot";
+import { expectNoChangeFrom, refusalWrites } from "../support/snapshot";
 import { listMessages, waitForMessage } from "../support/mailbox";
 import { createTestUser } from "./helpers/people";
 import { beamSource, publishedSections } from "./helpers/library-standard";
@@ -235,6 +236,51 @@ describe("withdrawing a standard version", () => {
     await expect(db.execute(sql`delete from withdrawal_outcomes where revision_id = ${issued}`)).rejects.toThrow();
     const kept = await db.select().from(schema.withdrawalOutcomes).where(eq(schema.withdrawalOutcomes.revisionId, issued));
     expect(kept.map((o) => o.kind)).toEqual(["no-action", "drawings-revised"]);
+  });
+});
+
+describe("naming the successor after the withdrawal", () => {
+  it("is refused until it fits, and then lets a lead start the batch", async () => {
+    const { v1, v2 } = await standardWithTwoVersions("later");
+    const [lead, engineer, responsible] = await Promise.all([
+      person("lead", "wd-later-lead"),
+      person("engineer", "wd-later-eng"),
+      person("engineer", "wd-later-resp"),
+    ]);
+    const job = await jobFor(engineer, responsible);
+    await runIn(engineer, job.jobId, v1);
+    const { withdrawalId } = await runUseCase(withdrawVersion, { actor: lead, input: { versionId: v1, reason: "Wrong." } });
+    expect((await runUseCase(readImpactReport, { actor: engineer, input: { id: withdrawalId } })).mapping).toBeNull();
+    const noSuccessor = await refusal(() => runUseCase(startBatch, { actor: lead, input: { withdrawalId } }));
+    expect(noSuccessor.message).toMatch(/No successor was named/);
+
+    const unmapped = await refusal(() =>
+      runUseCase(declareSuccessor, { actor: lead, input: { withdrawalId, successorVersionId: v2 } }),
+    );
+    expect(Object.keys(unmapped.fieldErrors ?? {}).sort()).toEqual([
+      "mapping.rename.w",
+      "mapping.values.q",
+      "mapping.values.w_add",
+    ]);
+    // An engineer is refused for their role: the runner's one write is the refusal's audit event.
+    await expectNoChangeFrom(
+      () =>
+        expect(
+          runUseCase(declareSuccessor, {
+            actor: engineer,
+            input: { withdrawalId, successorVersionId: v2, mapping: { rename: { w: "q" }, values: { w_add: "0 kN/m" } } },
+          }),
+        ).rejects.toMatchObject({ code: "forbidden" }),
+      { except: refusalWrites("forbidden", engineer) },
+    );
+
+    await runUseCase(declareSuccessor, {
+      actor: lead,
+      input: { withdrawalId, successorVersionId: v2, mapping: { rename: { w: "q" }, values: { w_add: "0 kN/m" } } },
+    });
+    const report = await runUseCase(readImpactReport, { actor: engineer, input: { id: withdrawalId } });
+    expect(report.mapping).toMatchObject({ successorVersionId: v2, mapping: { rename: { w: "q" } } });
+    expect(await runUseCase(startBatch, { actor: lead, input: { withdrawalId } })).toMatchObject({ runs: 1 });
   });
 });
 

@@ -42,6 +42,13 @@ export const replacementField = {
     .transform((value) => value || undefined),
 };
 
+/** Naming the successor after the withdrawal (a version that fixes it came out later). */
+export const declareSuccessorSchema = z.object({
+  withdrawalId: z.uuid("That is not a withdrawal's id."),
+  successorVersionId: z.uuid("Choose the version that replaces it."),
+  mapping: inputMappingSchema.default(EMPTY_MAPPING),
+});
+
 export const withdrawalRefSchema = z.object({ id: z.uuid("That is not a withdrawal's id.") });
 
 export const OUTCOME_IDS = ["no-action", "rerun-checked", "drawings-revised"] as const;

@@ -47,6 +47,28 @@ export async function matrixWithdrawal() {
 }
 
 export const WITHDRAWAL_ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
+  [`${file}#declareSuccessorAction`]: async () => {
+    const { v1, v2, author } = await standardWithTwoVersions("matrix-wd-later");
+    const { withdrawalId } = await runUseCase(withdrawVersion, {
+      actor: author,
+      input: { versionId: v1, reason: "For the matrix." },
+    });
+    return {
+      input: { withdrawalId, successorVersionId: v2, mapping: { rename: { w: "q" }, values: { w_add: "0 kN/m" } } },
+      succeeded: async (answer) => {
+        expect(answer).toEqual({
+          state: { ok: true, data: { withdrawalId, label: expect.stringMatching(/ v1$/), successor: 2 } },
+        });
+        const rows = await db
+          .select()
+          .from(schema.withdrawalMappings)
+          .where(eq(schema.withdrawalMappings.withdrawalId, withdrawalId));
+        expect(rows.map((r) => [r.successorVersionId, r.mapping])).toEqual([
+          [v2, { rename: { w: "q" }, values: { w_add: "0 kN/m" }, drop: [] }],
+        ]);
+      },
+    };
+  },
   [`${file}#startBatchAction`]: async () => {
     const { withdrawalId, run } = await matrixWithdrawal();
     return {

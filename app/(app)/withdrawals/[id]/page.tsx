@@ -5,7 +5,7 @@ import { can } from "@/lib/domain/permissions";
 import { OUTCOME_LABELS } from "@/lib/domain/schemas/withdrawals";
 import { ISSUE_STATUS_LABELS, type IssueStatusId } from "@/lib/domain/schemas/calcs";
 import { runUseCase } from "@/lib/use-cases/run";
-import { maySignOutcome, readImpactReport } from "@/lib/use-cases/withdrawals";
+import { maySignOutcome, readImpactReport, readVersionWithdrawal } from "@/lib/use-cases/withdrawals";
 import { readBatchProgress } from "@/lib/use-cases/batch-reruns";
 import { displayUtilisation } from "@/lib/standards/utilisation";
 import { PageHeader } from "@/components/ui/page-header";
@@ -17,6 +17,7 @@ import { orNotFound } from "../../_components/or-not-found";
 import { RunOutcomeBadge } from "../../runs/_components/run-outcome";
 import { BatchPanel } from "./_components/batch-panel";
 import { OutcomeForm } from "./_components/outcome-form";
+import { SuccessorForm } from "./_components/successor-form";
 
 export const metadata: Metadata = { title: "Impact report" };
 
@@ -40,6 +41,11 @@ export default async function ImpactReportPage({ params }: PageProps<"/withdrawa
   const report = await orNotFound(() => runUseCase(readImpactReport, { actor, input: { id } }));
   const progress = await runUseCase(readBatchProgress, { actor, input: { id } });
   const { withdrawal, mapping, runs, revisions, jobs, people } = report;
+  // A lead may name the successor of a withdrawn standard version later (again, if a better one comes out).
+  const naming =
+    withdrawal.subject === "standard-version" && can(actor.role, "templates.withdraw")
+      ? await runUseCase(readVersionWithdrawal, { actor, input: { versionId: withdrawal.standardVersionId! } })
+      : null;
   const open = revisions.filter((r) => r.open).length;
   const tracked = revisions.filter((r) => r.tracked).length;
   const successor = mapping?.successorVersionId
@@ -49,7 +55,7 @@ export default async function ImpactReportPage({ params }: PageProps<"/withdrawa
       : null;
   const blocked =
     withdrawal.subject === "standard-version" && !mapping
-      ? "No successor was named, so there is nothing to re-run on."
+      ? "No successor is named yet, so there is nothing to re-run on."
       : runs.length === 0
         ? "No run used it: there is nothing to re-run."
         : null;
@@ -195,7 +201,7 @@ export default async function ImpactReportPage({ params }: PageProps<"/withdrawa
         >
           {jobs.map((job) => (
             <tr key={job.jobId} data-testid="impact-job" data-job-number={job.jobNumber}>
-              <td className="px-4 py-3 font-mono text-sm">
+              <td className="px-4 py-3 font-mono text-sm whitespace-nowrap">
                 <Link href={`/jobs/${encodeURIComponent(job.jobNumber)}`} className="text-plate-800 hover:underline">
                   {job.jobNumber}
                 </Link>
@@ -211,9 +217,21 @@ export default async function ImpactReportPage({ params }: PageProps<"/withdrawa
         </TableFrame>
       </Section>
 
+      {naming ? (
+        <Section title={mapping ? "Name another successor" : "Name the successor"} id="impact-successor-heading">
+          <SuccessorForm
+            withdrawalId={withdrawal.id}
+            number={withdrawal.number}
+            inputs={naming.inputs}
+            successors={naming.successors.filter((s) => s.id !== mapping?.successorVersionId)}
+          />
+        </Section>
+      ) : null}
+
       <Section title="Batch re-run" id="impact-batch-heading">
         <BatchPanel
           withdrawalId={withdrawal.id}
+          mappingId={mapping?.id ?? null}
           first={progress}
           canStart={can(actor.role, "withdrawals.rerun")}
           blocked={blocked}
@@ -228,8 +246,8 @@ export default async function ImpactReportPage({ params }: PageProps<"/withdrawa
         >
           {runs.slice(0, RUNS_SHOWN).map((run) => (
             <tr key={run.id} data-testid="impact-run" data-run-id={run.id}>
-              <td className="px-4 py-3 font-mono text-sm">{run.jobNumber}</td>
-              <td className="px-4 py-3">
+              <td className="px-4 py-3 font-mono text-sm whitespace-nowrap">{run.jobNumber}</td>
+              <td className="px-4 py-3 whitespace-nowrap">
                 <Link href={`/runs/${run.id}`} className="font-mono text-sm text-plate-800 hover:underline">
                   {run.id.slice(0, 8)}
                 </Link>

@@ -63,7 +63,7 @@ function Deltas({ deltas }: { deltas: BatchProgress["deltas"] }) {
         const failing = item.checks.filter((c) => c.before?.pass && c.after && !c.after.pass);
         return (
           <tr key={item.originalRunId} data-testid="batch-delta" data-newly-failing={item.newlyFailing}>
-            <td className="px-4 py-3 font-mono text-sm">{item.jobNumber}</td>
+            <td className="px-4 py-3 font-mono text-sm whitespace-nowrap">{item.jobNumber}</td>
             <td className="px-4 py-3">
               <Link href={`/runs/${item.originalRunId}`} className="font-mono text-sm text-plate-800 hover:underline">
                 {item.originalRunId.slice(0, 8)}
@@ -82,7 +82,9 @@ function Deltas({ deltas }: { deltas: BatchProgress["deltas"] }) {
               {item.status === "failed" && !item.newRunId ? (
                 <span className="text-fault-700">not run: {item.message}</span>
               ) : (
-                <span className={item.passAfter === false || item.passAfter === null ? "text-fault-700" : ""}>
+                <span
+                  className={`whitespace-nowrap ${item.passAfter === false || item.passAfter === null ? "text-fault-700" : ""}`}
+                >
                   {result(item.passBefore)} → {result(item.passAfter)}
                   {item.message ? <span className="block text-xs">{item.message}</span> : null}
                 </span>
@@ -101,11 +103,14 @@ function Deltas({ deltas }: { deltas: BatchProgress["deltas"] }) {
 
 function Panel({
   withdrawalId,
+  mappingId,
   first,
   canStart,
   blocked,
 }: {
   withdrawalId: string;
+  /** The mapping in force; a batch on an older one does not stop a new batch. */
+  mappingId: string | null;
   first: BatchProgress;
   canStart: boolean;
   blocked: string | null;
@@ -127,9 +132,8 @@ function Panel({
   const progress = query.data ?? first;
   return (
     <div className="space-y-4" data-testid="batch-panel">
-      {progress.batch ? (
-        <Progress batch={progress.batch} />
-      ) : canStart && !blocked ? (
+      {progress.batch ? <Progress batch={progress.batch} /> : null}
+      {progress.batch && progress.batch.mappingId === mappingId ? null : canStart && !blocked ? (
         <form
           onSubmit={(event) => {
             event.preventDefault();
@@ -155,7 +159,13 @@ function Panel({
   );
 }
 
-export function BatchPanel(props: { withdrawalId: string; first: BatchProgress; canStart: boolean; blocked: string | null }) {
+export function BatchPanel(props: {
+  withdrawalId: string;
+  mappingId: string | null;
+  first: BatchProgress;
+  canStart: boolean;
+  blocked: string | null;
+}) {
   const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { retry: 2, refetchOnWindowFocus: false } } }));
   return (
     <QueryClientProvider client={client}>

@@ -217,7 +217,7 @@ export default async function ImpactReportPage({ params }: PageProps<"/withdrawa
         </TableFrame>
       </Section>
 
-      {naming ? (
+      {naming && (!mapping || naming.successors.some((s) => s.id !== mapping.successorVersionId)) ? (
         <Section title={mapping ? "Name another successor" : "Name the successor"} id="impact-successor-heading">
           <SuccessorForm
             withdrawalId={withdrawal.id}
@@ -255,8 +255,8 @@ export default async function ImpactReportPage({ params }: PageProps<"/withdrawa
                   <LocalTime iso={run.createdAt} />
                 </span>
               </td>
-              <td className="px-4 py-3 text-sm">
-                {run.title} <span className="font-mono text-xs text-ink-500">v{run.number}</span>
+              <td className="min-w-48 px-4 py-3 text-sm">
+                {run.title} <span className="font-mono text-xs whitespace-nowrap text-ink-500">v{run.number}</span>
               </td>
               <td className="px-4 py-3 text-sm">{run.createdByName}</td>
               <td className="px-4 py-3">

@@ -57,13 +57,29 @@ function Deltas({ deltas }: { deltas: BatchProgress["deltas"] }) {
     <TableFrame
       testId="batch-deltas"
       label="Delta table of the re-runs"
-      headings={["Job", "Run", "Re-run", "Result", "Largest utilisation", "Checks from pass to fail"]}
+      headings={["Job", "Result", "Largest utilisation", "Checks from pass to fail", "Run", "Re-run"]}
     >
       {deltas.map((item) => {
         const failing = item.checks.filter((c) => c.before?.pass && c.after && !c.after.pass);
         return (
           <tr key={item.originalRunId} data-testid="batch-delta" data-newly-failing={item.newlyFailing}>
             <td className="px-4 py-3 font-mono text-sm whitespace-nowrap">{item.jobNumber}</td>
+            <td className="px-4 py-3 text-sm">
+              {item.status === "failed" && !item.newRunId ? (
+                <span className="text-fault-700">not run: {item.message}</span>
+              ) : (
+                <span
+                  className={`whitespace-nowrap ${item.passAfter === false || item.passAfter === null ? "text-fault-700" : ""}`}
+                >
+                  {result(item.passBefore)} → {result(item.passAfter)}
+                  {item.message ? <span className="block text-xs">{item.message}</span> : null}
+                </span>
+              )}
+            </td>
+            <td className="px-4 py-3 text-sm whitespace-nowrap tabular">
+              {utilisation(item.utilisationBefore)} → {utilisation(item.utilisationAfter)}
+            </td>
+            <td className="px-4 py-3 text-sm text-fault-700">{failing.map((c) => c.label).join(", ") || "—"}</td>
             <td className="px-4 py-3">
               <Link href={`/runs/${item.originalRunId}`} className="font-mono text-sm text-plate-800 hover:underline">
                 {item.originalRunId.slice(0, 8)}
@@ -78,22 +94,6 @@ function Deltas({ deltas }: { deltas: BatchProgress["deltas"] }) {
                 "—"
               )}
             </td>
-            <td className="px-4 py-3 text-sm">
-              {item.status === "failed" && !item.newRunId ? (
-                <span className="text-fault-700">not run: {item.message}</span>
-              ) : (
-                <span
-                  className={`whitespace-nowrap ${item.passAfter === false || item.passAfter === null ? "text-fault-700" : ""}`}
-                >
-                  {result(item.passBefore)} → {result(item.passAfter)}
-                  {item.message ? <span className="block text-xs">{item.message}</span> : null}
-                </span>
-              )}
-            </td>
-            <td className="px-4 py-3 text-sm tabular">
-              {utilisation(item.utilisationBefore)} → {utilisation(item.utilisationAfter)}
-            </td>
-            <td className="px-4 py-3 text-sm text-fault-700">{failing.map((c) => c.label).join(", ") || "—"}</td>
           </tr>
         );
       })}

@@ -1,7 +1,8 @@
 // The background worker (`npm start` and `npm test` start one; a deployment runs as many as it likes):
-// sends queued e-mail with retries. Stops on SIGTERM/SIGINT, or when the set-up script that started it
+// sends queued e-mail with retries, and re-runs the runs of a batch after a withdrawal. Stops on SIGTERM/SIGINT, or when the set-up script that started it
 // (--parent-pid) goes away. Run with tsx --conditions=react-server (it loads server-only modules).
 import { startWorker } from "@/lib/jobs/worker";
+import { processRerunJob } from "@/lib/use-cases/batch-reruns";
 
 const url = process.env.DATABASE_URL;
 if (!url) {
@@ -9,7 +10,7 @@ if (!url) {
   process.exit(1);
 }
 
-const worker = await startWorker({ connectionString: url });
+const worker = await startWorker({ connectionString: url, handlers: { "rerun.item": processRerunJob } });
 
 let stopping = false;
 async function stop(): Promise<void> {

@@ -6,3 +6,4 @@ export * from "./libraries";
 export * from "./jobs";
 export * from "./calcs";
 export * from "./log";
+export * from "./withdrawals";

@@ -38,6 +38,8 @@ export type RunSummaryDto = {
   createdById: string;
   createdByName: string;
   createdAt: string;
+  /** Its standard version, or a library version or entry it used, has been withdrawn (see its impact report). */
+  withdrawn: boolean;
 };
 
 export type RunDto = RunSummaryDto & {
@@ -65,6 +67,11 @@ export const summaryColumns = {
   createdById: runs.createdById,
   createdByName: user.name,
   createdAt: runs.createdAt,
+  // Two probes on unique and primary-key indexes: a page of runs pays a few index lookups per row.
+  withdrawn: sql<boolean>`(exists (select 1 from withdrawals w where w.standard_version_id = ${runs.versionId})
+    or exists (select 1 from run_library_entries rle join library_version_entries e on e.id = rle.entry_id
+                 join withdrawals w on w.library_entry_id = e.id or w.library_version_id = e.version_id
+                where rle.run_id = ${runs.id}))`.mapWith(Boolean),
 };
 
 function selectRuns() {

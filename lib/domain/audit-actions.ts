@@ -48,7 +48,8 @@ export type AuditDetails = {
     supersedes: number[];
     cases: number;
   };
-  "standards.withdraw": { slug: string; number: number; reason: string };
+  /** successor: the version named to replace it (with the mapping of inputs, on the withdrawal's impact report). */
+  "standards.withdraw": { slug: string; number: number; reason: string; successor?: number | null; notified?: number };
   /** A standard imported from content/standards/ by the seed, as a published version. */
   "standards.import": { slug: string; number: number; hash: string };
   // The libraries' lifecycle. `slug` names the library; `hash` is the content hash of the document concerned
@@ -69,9 +70,17 @@ export type AuditDetails = {
     authorName: string;
     supersedes: number[];
   };
-  "libraries.withdraw": { slug: string; number: number; reason: string };
+  "libraries.withdraw": { slug: string; number: number; reason: string; replacement?: string | null; notified?: number };
   /** One entry of a version withdrawn (a wrong value); the rest of the version stays in use. */
-  "libraries.entry.withdraw": { slug: string; number: number; entryKey: string; entryHash: string; reason: string };
+  "libraries.entry.withdraw": {
+    slug: string;
+    number: number;
+    entryKey: string;
+    entryHash: string;
+    reason: string;
+    replacement?: string | null;
+    notified?: number;
+  };
   /** A starting library published by the seed (the demo catalogue, content/libraries/). */
   "libraries.import": { slug: string; kind: string; number: number; hash: string; entries: number };
   // Jobs and runs. `jobNumber` names the job; a run's subject is `run:<id>`.
@@ -118,6 +127,20 @@ export type AuditDetails = {
   "calcs.revision.approve": { calc: string; letter: string; reason: string | null };
   /** The log's integrity check was run: what it covered and the first problem it found, if any. */
   "integrity.check": { ok: boolean; leaves: number; heads: number; problems: number; first: string | null; durationMs: number };
+  // After a withdrawal (subject `withdrawal:<id>`).
+  /** The signed outcome of an affected calc revision. */
+  "withdrawals.outcome": {
+    calc: string;
+    letter: string;
+    outcome: "no-action" | "rerun-checked" | "drawings-revised";
+    reason: string | null;
+    newRevision: string | null;
+    reference: string | null;
+  };
+  /** The successor of a withdrawn version named (or named again) after the withdrawal, with its mapping. */
+  "withdrawals.successor": { withdrawn: string; successor: number };
+  /** A batch re-run of every affected run on the successor, queued. */
+  "withdrawals.batch.start": { batchId: string; runs: number; successor: string };
 };
 
 export type AuditAction = keyof AuditDetails;
@@ -174,6 +197,9 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   "calcs.revision.check": "Checked a calc revision",
   "calcs.revision.approve": "Approved a calc revision",
   "integrity.check": "Ran the integrity check",
+  "withdrawals.outcome": "Recorded the outcome of a withdrawal for a calc",
+  "withdrawals.successor": "Named the successor of a withdrawn version",
+  "withdrawals.batch.start": "Started a batch re-run after a withdrawal",
 };
 
 export function isAuditAction(value: string): value is AuditAction {

@@ -320,6 +320,25 @@ export function auditSentenceParts(event: AuditSentenceEvent): AuditSentencePart
         actor,
         ` approved ${text(d.calc) ?? "a calc"} rev ${text(d.letter) ?? "?"}${text(d.reason) ? `, because ${text(d.reason)}` : ""}`,
       ];
+    case "withdrawals.outcome": {
+      const what =
+        d.outcome === "no-action"
+          ? `no action needed (${text(d.reason) ?? "no reason given"})`
+          : d.outcome === "rerun-checked"
+            ? `re-run and re-checked as rev ${text(d.newRevision) ?? "?"}`
+            : `drawings revised (${text(d.reference) ?? "no reference"})`;
+      return [actor, ` recorded for ${text(d.calc) ?? "a calc"} rev ${text(d.letter) ?? "?"} after a withdrawal: ${what}`];
+    }
+    case "withdrawals.successor":
+      return [
+        actor,
+        ` named version ${count(d.successor) ?? "?"} as the successor of ${text(d.withdrawn) ?? "a withdrawn version"}`,
+      ];
+    case "withdrawals.batch.start":
+      return [
+        actor,
+        ` started re-running ${plural(count(d.runs) ?? 0, "run", "runs")} on ${text(d.successor) ?? "the successor"}`,
+      ];
     default:
       // A kind this version has no sentence for (a newer or retired one): who, and its label.
       return [actor, `: ${auditActionLabel(event.action)}`];

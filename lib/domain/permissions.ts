@@ -36,6 +36,10 @@ export const ACTIONS = [
   "files.attach",
   // a stored run evaluated again (its own bundle, or today's) and compared: slow work that changes no record
   "runs.reproduce",
+  // after a withdrawal: a lead re-runs every affected run on the successor; the signed outcome of an affected calc
+  // revision is recorded by a lead, or by the responsible engineer of that calc's job (the use case checks which job)
+  "withdrawals.rerun",
+  "withdrawals.record-outcome",
   // audit
   "audit.read",
   // the run log: every run with its sign-off state, filtered and sorted for a quality audit
@@ -68,6 +72,7 @@ const ENGINEER: readonly Action[] = [
   "runs.sign-checked",
   "runs.sign-approved",
   "files.attach",
+  "withdrawals.record-outcome",
 ];
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
@@ -92,6 +97,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Action[]> = {
     "templates.withdraw",
     "runs.reproduce",
     "run-log.read",
+    "withdrawals.rerun",
     ...LIBRARY_MAINTENANCE,
   ],
   engineer: ENGINEER,

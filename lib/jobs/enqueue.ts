@@ -52,3 +52,13 @@ export async function enqueueJob<Q extends QueueName>(name: Q, data: JobPayloads
   if (!id) throw new Error(`The job queue "${name}" does not exist: run the migrations (npm run db:migrate).`);
   return id;
 }
+
+/** Many jobs of one queue in one statement, in the caller's transaction (a batch re-run queues hundreds). */
+export async function enqueueJobs<Q extends QueueName>(name: Q, items: JobPayloads[Q][]): Promise<number> {
+  if (items.length === 0) return 0;
+  const { retryLimit, retryDelay, retryBackoff, expireInSeconds } = QUEUES[name];
+  const jobs = items.map((data) => ({ name, data: data as object, retryLimit, retryDelay, retryBackoff, expireInSeconds }));
+  // pg-boss 10 inserts each job with the policy given here (its own defaults otherwise), in the open transaction.
+  await getSender().insert(jobs, { db: currentSql() });
+  return items.length;
+}

@@ -9,6 +9,8 @@ export const JOB_SCHEMA = "pgboss";
 export type JobPayloads = {
   /** One e-mail, rendered when its transaction ran; sent by a worker after commit. */
   "mail.send": OutgoingMail;
+  /** One run of a batch re-run after a withdrawal, re-run on the successor (lib/use-cases/batch-reruns.ts). */
+  "rerun.item": { batchId: string; originalRunId: string };
 };
 export type QueueName = keyof JobPayloads;
 
@@ -20,6 +22,18 @@ type QueuePolicy = { retryLimit: number; retryDelay: number; retryBackoff: boole
  */
 export const QUEUES: Record<QueueName, QueuePolicy> = {
   "mail.send": { retryLimit: 5, retryDelay: 5, retryBackoff: true, expireInSeconds: 60 },
+  // A worker killed mid-run leaves its jobs active until they expire; pg-boss's default of 15 minutes would stall
+  // a batch that long. Each re-run is idempotent (unique batch and original run), so an early retry costs nothing.
+  "rerun.item": { retryLimit: 10, retryDelay: 2, retryBackoff: false, expireInSeconds: 45 },
+};
+
+/**
+ * How a worker takes each queue: jobs fetched at once, handlers running side by side, and how often it asks. A
+ * re-run is short (evaluation in the pool) and a batch has hundreds, so it takes a few at a time, twice over.
+ */
+export const WORKER_POLICY: Record<QueueName, { batchSize: number; concurrency: number; pollingIntervalSeconds?: number }> = {
+  "mail.send": { batchSize: 1, concurrency: 1 },
+  "rerun.item": { batchSize: 4, concurrency: 2, pollingIntervalSeconds: 0.5 },
 };
 
 /**

@@ -6,8 +6,9 @@ function escapeHtml(value: string): string {
   return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 }
 
-function layout(paragraphs: string[], link: { url: string; label: string }): string {
-  const body = paragraphs.map((p) => `<p style="margin:0 0 16px">${escapeHtml(p)}</p>`).join("");
+function layout(paragraphs: string[], link: { url: string; label: string }, list: string[] = []): string {
+  const items = list.length > 0 ? `<ul style="margin:0 0 16px">${list.map((item) => `<li>${item}</li>`).join("")}</ul>` : "";
+  const body = paragraphs.map((p) => `<p style="margin:0 0 16px">${escapeHtml(p)}</p>`).join("") + items;
   return `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1f2933;max-width:560px;margin:24px auto;line-height:1.5">
 <p style="font-weight:700;font-size:18px;margin:0 0 24px">Gusset</p>${body}
 <p style="margin:24px 0"><a href="${escapeHtml(link.url)}" style="background:#1f5a5f;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(link.label)}</a></p>
@@ -81,5 +82,63 @@ export function renderWitnessMail(args: {
     subject: `Gusset log head ${args.head.size} · ${args.digest.slice(0, 12)}`,
     text: `${paragraphs.join("\n\n")}\n\n${args.url}\n\n— Gusset`,
     html: layout(paragraphs, { url: args.url, label: "Open the integrity page" }),
+  };
+}
+
+export type WithdrawalNotice = {
+  to: string;
+  name: string;
+  /** What was withdrawn, in words ("Simply supported steel beam v2"). */
+  what: string;
+  reason: string;
+  withdrawnBy: string;
+  successor: string | null;
+  reportUrl: string;
+  /** The person's own runs on it (as the one who ran them). */
+  runs: { jobNumber: string; runId: string; url: string }[];
+  /** The jobs the person is responsible engineer of, with how many of their runs used it. */
+  jobs: { jobNumber: string; jobName: string; runs: number }[];
+};
+
+/** One e-mail per person after a withdrawal: their own runs on what was withdrawn, and the jobs they answer for. */
+export function renderWithdrawalNoticeMail(notice: WithdrawalNotice): OutgoingMail {
+  const lines: string[] = [];
+  if (notice.runs.length > 0) {
+    lines.push(`Your runs that used it (${notice.runs.length}):`);
+    for (const run of notice.runs) lines.push(`  - job ${run.jobNumber}, run ${run.runId.slice(0, 8)}: ${run.url}`);
+  }
+  if (notice.jobs.length > 0) {
+    lines.push(`Jobs you are responsible engineer of that used it (${notice.jobs.length}):`);
+    for (const job of notice.jobs)
+      lines.push(`  - ${job.jobNumber} (${job.jobName}): ${job.runs} ${job.runs === 1 ? "run" : "runs"}`);
+  }
+  const paragraphs = [
+    `Hello ${notice.name},`,
+    `${notice.withdrawnBy} has withdrawn ${notice.what}. Reason: ${notice.reason}`,
+    notice.successor
+      ? `The version that replaces it is ${notice.successor}. Results that used the withdrawn one should not be relied on until they are re-run on it and checked again.`
+      : `Results that used it should not be relied on until they are reviewed.`,
+    ...lines,
+    `The impact report lists every affected run, calc revision and job, and what is still open.`,
+  ];
+  // The HTML lists the same runs and jobs, each run a link; every value is escaped.
+  const html = layout(
+    paragraphs.filter((p) => !p.startsWith("  - ")),
+    { url: notice.reportUrl, label: "Open the impact report" },
+    [
+      ...notice.runs.map(
+        (r) => `job ${escapeHtml(r.jobNumber)}, run <a href="${escapeHtml(r.url)}">${escapeHtml(r.runId.slice(0, 8))}</a>`,
+      ),
+      ...notice.jobs.map(
+        (j) =>
+          `responsible engineer of ${escapeHtml(j.jobNumber)} (${escapeHtml(j.jobName)}): ${j.runs} ${j.runs === 1 ? "run" : "runs"}`,
+      ),
+    ],
+  );
+  return {
+    to: notice.to,
+    subject: `Withdrawn: ${notice.what} — your runs and jobs`,
+    text: `${paragraphs.join("\n\n")}\n\n${notice.reportUrl}\n\n— Gusset`,
+    html,
   };
 }

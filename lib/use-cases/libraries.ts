@@ -53,6 +53,7 @@ import {
   type LibraryCheck,
 } from "./library-check";
 import { defineUseCase } from "./use-case";
+import { recordWithdrawal } from "./withdrawals";
 
 const refuse = (sentences: string[]) =>
   new AppError("invalid-input", sentences.join(" "), { fieldErrors: { document: sentences } });
@@ -362,15 +363,25 @@ export const withdrawLibraryVersion = defineUseCase({
   name: "libraries.withdraw",
   permission: "libraries.withdraw",
   input: withdrawLibraryVersionSchema,
-  run: async ({ versionId, reason }, { actor }) => {
+  run: async ({ versionId, reason, replacementKey }, { actor }) => {
     const version = await versionToWithdraw(versionId);
     await insertLibraryVersionEvent({ versionId, kind: "withdrawn", reason, actorId: actor.id });
-    return { versionId, slug: version.slug, number: version.number, reason };
+    const { withdrawalId, notified, replacement } = await recordWithdrawal(
+      { libraryVersionId: versionId },
+      { actor, reason, library: { slug: version.slug, replacementKey } },
+    );
+    return { versionId, slug: version.slug, number: version.number, reason, withdrawalId, replacement, notified };
   },
   audit: ({ result }) => ({
     action: "libraries.withdraw",
     subject: `library-version:${result.versionId}`,
-    details: { slug: result.slug, number: result.number, reason: result.reason },
+    details: {
+      slug: result.slug,
+      number: result.number,
+      reason: result.reason,
+      replacement: result.replacement,
+      notified: result.notified,
+    },
   }),
 });
 
@@ -379,13 +390,17 @@ export const withdrawLibraryEntry = defineUseCase({
   name: "libraries.entry.withdraw",
   permission: "libraries.withdraw",
   input: withdrawLibraryEntrySchema,
-  run: async ({ versionId, entryKey, reason }, { actor }) => {
+  run: async ({ versionId, entryKey, reason, replacementKey }, { actor }) => {
     const version = await versionToWithdraw(versionId);
     const entry = version.entryRows.find((row) => row.normalisedKey === normaliseKey(entryKey));
     if (!entry) throw new AppError("not-found", `Version ${version.number} of ${version.slug} has no entry “${entryKey}”.`);
     if (entry.withdrawn)
       throw new AppError("conflict", `${entry.key} in version ${version.number} of ${version.slug} is already withdrawn.`);
     await insertLibraryVersionEvent({ versionId, kind: "withdrawn", entryKey: entry.normalisedKey, reason, actorId: actor.id });
+    const { withdrawalId, notified, replacement } = await recordWithdrawal(
+      { libraryEntryId: entry.id },
+      { actor, reason, library: { slug: version.slug, replacementKey } },
+    );
     return {
       versionId,
       entryId: entry.id,
@@ -394,6 +409,9 @@ export const withdrawLibraryEntry = defineUseCase({
       entryKey: entry.key,
       entryHash: entry.entryHash,
       reason,
+      withdrawalId,
+      replacement,
+      notified,
     };
   },
   audit: ({ result }) => ({
@@ -405,6 +423,8 @@ export const withdrawLibraryEntry = defineUseCase({
       entryKey: result.entryKey,
       entryHash: result.entryHash,
       reason: result.reason,
+      replacement: result.replacement,
+      notified: result.notified,
     },
   }),
 });

@@ -5,81 +5,29 @@ import "server-only";
 // transaction with its audit event. Bad inputs store nothing (a 422 with a message per input). A model the engine
 // cannot analyse (an unstable structure names its node and direction) is stored as a failed run, so that the
 // attempt is on record too. The evaluation bundle that made a run is kept in object storage by its sha256 before the
-// run is stored (evaluation-bundles.ts), for reproducing it "as issued". Runs are append-only; everyone but admins reads them.
-import { createHash, randomUUID } from "node:crypto";
+// run is stored (run-store.ts, evaluation-bundles.ts), for reproducing it "as issued". Runs are append-only; everyone but
+// admins reads them.
 import { AppError } from "@/lib/domain/errors";
 import { compareRunsSchema, createRunSchema, listRunsSchema, runRefSchema } from "@/lib/domain/schemas/jobs";
 import { compareRuns as compareRecords, type RunComparison } from "@/lib/standards/compare-runs";
 import { parseSource } from "@/lib/standards/source";
 import { DefinitionSchema, type Definition } from "@/lib/standards/definition";
-import { isLibraryInput, normaliseEntryKey } from "@/lib/standards/library-inputs";
-import {
-  maxUtilisationOf,
-  readRunRecord,
-  RUN_RECORD_FORMAT,
-  runFailureOf,
-  runRecordText,
-  runRecordTextWithAnalysis,
-  type RunRecord,
-  type RunRecordEntry,
-} from "@/lib/standards/run-record";
-import type { Evaluation } from "@/lib/standards/evaluate";
-
-import { evaluationPool } from "@/lib/evaluation/pool";
-import { getJob, lockJob, type JobDto } from "@/lib/data/jobs";
-import { getVersion, getVersionStatus, type VersionDto } from "@/lib/data/standards";
+import { readRunRecord } from "@/lib/standards/run-record";
+import { getJob, lockJob } from "@/lib/data/jobs";
+import { getVersion, getVersionStatus } from "@/lib/data/standards";
 import { definitionOfSource } from "@/lib/standards/read-definition";
-import {
-  findLibraryEntryRow,
-  getRun,
-  getRunSummary,
-  insertRun,
-  insertRunLibraryEntries,
-  type RunDto,
-  type RunSummaryDto,
-} from "@/lib/data/runs";
+import { getRun, getRunSummary, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
 import { getFirmName } from "@/lib/data/firm";
-import { libraryEntriesFor } from "./library-resolution";
-import { keepCurrentEvaluationBundle } from "./evaluation-bundles";
-import { pageOfRuns, type RunPage } from "./run-log";
+import { listWithdrawalsOfRun } from "@/lib/data/withdrawals";
 import { defineUseCase } from "./use-case";
-
-type Prepared = {
-  job: JobDto;
-  version: VersionDto;
-  order: RunRecord["order"];
-  identity: { engine: string; engineSourceHash: string; evaluation: string; bundleSha256: string };
-} & (
-  | { outcome: "succeeded"; evaluation: Evaluation; analysisJson: string }
-  | { outcome: "failed"; failure: ReturnType<typeof runFailureOf> }
-);
-
-function definitionOf(version: VersionDto): Definition {
-  const definition = definitionOfSource(version.source);
-  if (!definition)
-    throw new AppError("conflict", `Version ${version.number} of ${version.slug} no longer reads with this release of Gusset.`);
-  return definition;
-}
-
-/** The entries each library input was given, by library slug: what the evaluation needs bound besides defaults. */
-function picksOf(definition: Definition, inputs: Readonly<Record<string, string | number>>): Record<string, string[]> {
-  const picks: Record<string, string[]> = {};
-  for (const [key, input] of Object.entries(definition.inputs)) {
-    const given = inputs[key];
-    if (!isLibraryInput(input) || typeof given !== "string") continue;
-    (picks[input.library] ??= []).push(given);
-  }
-  return picks;
-}
-
-const unknownInputs = (definition: Definition, inputs: Readonly<Record<string, unknown>>) =>
-  Object.keys(inputs).filter((key) => !Object.hasOwn(definition.inputs, key));
+import { pageOfRuns, type RunPage } from "./run-log";
+import { evaluateRun, storeRun, type EvaluatedRun } from "./run-store";
 
 export const createRun = defineUseCase({
   name: "runs.create",
   permission: "runs.create",
   input: createRunSchema,
-  prepare: async ({ jobId, versionId, inputs }): Promise<Prepared> => {
+  prepare: async ({ jobId, versionId, inputs }): Promise<EvaluatedRun> => {
     const job = await getJob({ id: jobId });
     if (!job)
       throw new AppError("not-found", "That job does not exist.", { fieldErrors: { jobId: ["Choose a job of the firm."] } });
@@ -95,72 +43,7 @@ export const createRun = defineUseCase({
         "conflict",
         `Version ${version.number} of ${version.title} is withdrawn and cannot be run. Run the version that replaces it.`,
       );
-    const definition = definitionOf(version);
-    const unknown = unknownInputs(definition, inputs);
-    if (unknown.length > 0)
-      throw new AppError("invalid-input", `This standard has no input ${unknown.map((k) => `“${k}”`).join(", ")}.`, {
-        fieldErrors: Object.fromEntries(
-          unknown.map((key) => [`inputs.${key}`, [`There is no input “${key}” in this standard.`]]),
-        ),
-      });
-
-    const pool = evaluationPool();
-    const libraries = await libraryEntriesFor(version.source, picksOf(definition, inputs));
-    const answer = await pool.run(version.source, inputs, libraries);
-    if (!answer.ok)
-      throw new AppError(
-        answer.reason === "timeout" || answer.reason === "out-of-memory" ? "invalid-input" : "unavailable",
-        answer.message,
-      );
-    if (!answer.result.ok)
-      throw new AppError(
-        "conflict",
-        `Version ${version.number} of ${version.title} no longer compiles with this release of Gusset.`,
-      );
-    const { outcome } = answer.result;
-    const manifest = pool.bundle();
-    // The bundle that made the run is kept before the run is, so the run can always be reproduced "as issued".
-    await keepCurrentEvaluationBundle().catch((error: unknown) => {
-      console.error("[gusset] could not keep the evaluation bundle in object storage:", error);
-      throw new AppError(
-        "unavailable",
-        "The run was not stored: the evaluation bundle that made it could not be kept in file storage, so it could not be " +
-          "reproduced later. Try again in a minute; if it keeps happening, tell your admin.",
-      );
-    });
-    const identity = {
-      engine: manifest.builtFrom.engine ?? "",
-      engineSourceHash: manifest.builtFrom.engineSourceHash ?? "",
-      evaluation: manifest.builtFrom.evaluation ?? "",
-      bundleSha256: manifest.sha256,
-    };
-    if (!outcome.ok && outcome.stage === "inputs")
-      throw new AppError("invalid-input", "Some inputs need attention.", {
-        fieldErrors: outcome.problems.reduce<Record<string, string[]>>((errors, problem) => {
-          (errors[`inputs.${problem.input}`] ??= []).push(problem.message);
-          return errors;
-        }, {}),
-      });
-    const order = {
-      inputs: Object.keys(definition.inputs),
-      derived: Object.keys(definition.derived),
-      extracts: Object.keys(definition.extracts),
-      checks: Object.keys(definition.checks),
-    };
-    if (!outcome.ok) return { job, version, order, identity, outcome: "failed", failure: runFailureOf(outcome) };
-    if (answer.result.analysisJson === null || answer.result.evaluationJson === null)
-      throw new Error("runs.create: the evaluation bundle gave no result text for a run that succeeded");
-    return {
-      job,
-      version,
-      order,
-      // The identity the evaluation itself reports is the authority; the bundle's hash comes from its manifest.
-      identity: { ...outcome.evaluation.identity, bundleSha256: manifest.sha256 },
-      outcome: "succeeded",
-      evaluation: JSON.parse(answer.result.evaluationJson) as Evaluation,
-      // Already canonical: spliced into the record as it is (runRecordTextWithAnalysis), never parsed here.
-      analysisJson: answer.result.analysisJson,
-    };
+    return evaluateRun(job, version, inputs);
   },
   run: async ({ inputs, unitSystem, parentRunId }, { actor, prepared }) => {
     const { job, version } = prepared;
@@ -178,91 +61,14 @@ export const createRun = defineUseCase({
           fieldErrors: { parentRunId: ["Re-run a run of the same job."] },
         });
     }
-
-    const entries: RunRecordEntry[] = [];
-    if (prepared.outcome === "succeeded")
-      for (const [input, evaluated] of Object.entries(prepared.evaluation.inputs)) {
-        const used = evaluated.entry;
-        if (!used) continue;
-        const row = await findLibraryEntryRow(used.library, used.version, normaliseEntryKey(used.key));
-        if (!row || row.entryHash !== used.hash)
-          throw new AppError(
-            "conflict",
-            `The library entry ${used.key} (${used.library} v${used.version}) is not the one published.`,
-          );
-        entries.push({
-          input,
-          library: used.library,
-          version: used.version,
-          contentHash: used.contentHash,
-          key: used.key,
-          entryId: row.id,
-          entryHash: row.entryHash,
-        });
-      }
-
-    const id = randomUUID();
-    const createdAt = new Date();
-    const base = {
-      format: RUN_RECORD_FORMAT,
-      id,
-      createdAt: createdAt.toISOString(),
-      createdBy: { id: actor.id, name: actor.name },
-      job: { id: job.id, number: locked.jobNumber, name: job.name },
-      standard: {
-        slug: version.slug,
-        title: version.title,
-        versionId: version.id,
-        number: version.number,
-        contentHash: version.contentHash,
-      },
-      purpose: "design",
-      parentRunId: parentRunId ?? null,
-      unitSystem,
-      typed: inputs,
-      identity: prepared.identity,
-      libraries: entries,
-      order: prepared.order,
-    } as const;
-    const record =
-      prepared.outcome === "succeeded"
-        ? ({ ...base, outcome: "succeeded", evaluation: prepared.evaluation } as const)
-        : ({ ...base, outcome: "failed", failure: prepared.failure } as const);
-    const text =
-      prepared.outcome === "succeeded" && record.outcome === "succeeded"
-        ? runRecordTextWithAnalysis(record, prepared.analysisJson)
-        : runRecordText(record as RunRecord);
-    const sha256 = createHash("sha256").update(text, "utf8").digest("hex");
-    const pass = record.outcome === "succeeded" ? record.evaluation.pass : null;
-    await insertRun({
-      id,
-      jobId: job.id,
-      versionId: version.id,
-      outcome: record.outcome,
-      pass,
-      maxUtilisation: record.outcome === "succeeded" ? maxUtilisationOf(record.evaluation) : null,
-      purpose: "design",
-      parentRunId: parentRunId ?? null,
-      unitSystem,
-      record: text,
-      recordSha256: sha256,
-      recordBytes: Buffer.byteLength(text, "utf8"),
-      createdById: actor.id,
-      createdAt,
-    });
-    await insertRunLibraryEntries(
-      entries.map((e) => ({ runId: id, inputKey: e.input, entryId: e.entryId, entryHash: e.entryHash })),
-    );
-    return {
-      id,
-      outcome: record.outcome,
-      pass,
-      sha256,
+    return storeRun(prepared, {
+      actor,
       jobNumber: locked.jobNumber,
-      slug: version.slug,
-      number: version.number,
-      ...(record.outcome === "failed" ? { message: record.failure.message } : {}),
-    };
+      inputs,
+      unitSystem,
+      parentRunId: parentRunId ?? null,
+      purpose: "design",
+    });
   },
   audit: ({ result }) => ({
     action: "runs.create",
@@ -279,7 +85,7 @@ export const createRun = defineUseCase({
   }),
 });
 
-export type RunView = RunDto;
+export type RunView = RunDto & { withdrawals: RunWithdrawal[] };
 
 export const readRun = defineUseCase({
   name: "runs.read",
@@ -288,16 +94,23 @@ export const readRun = defineUseCase({
   run: async ({ id }): Promise<RunView> => {
     const run = await getRun(id);
     if (!run) throw new AppError("not-found", "There is no run with that id.");
-    return run;
+    return { ...run, withdrawals: run.withdrawn ? await withdrawalsOf(id) : [] };
   },
   audit: null,
 });
 
-/** The withdrawal of a version, when it has been withdrawn. */
-export function withdrawalOf(version: { status: string; events: VersionDto["events"] }): RunSheet["withdrawal"] {
-  if (version.status !== "withdrawn") return null;
-  const event = version.events.findLast((e) => e.kind === "withdrawn");
-  return { at: event?.occurredAt ?? "", by: event?.actorName ?? null, reason: event?.reason ?? null };
+/** A withdrawal that touches a run, as its banner says it. */
+export type RunWithdrawal = { id: string; label: string; reason: string; actorName: string | null; occurredAt: string };
+
+/** The withdrawals that touch a run (its version, a library version or entry it used), for its banner. */
+async function withdrawalsOf(runId: string): Promise<RunWithdrawal[]> {
+  return (await listWithdrawalsOfRun(runId)).map(({ id, label, reason, actorName, occurredAt }) => ({
+    id,
+    label,
+    reason,
+    actorName,
+    occurredAt,
+  }));
 }
 
 export type RunSheet = {
@@ -306,8 +119,8 @@ export type RunSheet = {
   /** The version's definition and narrative, for the sheet's scope, limitations and worked narrative. */
   definition: Definition | null;
   narrative: string;
-  /** Set when the run's version has been withdrawn since: the sheet and the run page say so in a banner. */
-  withdrawal: { at: string; by: string | null; reason: string | null } | null;
+  /** What the run used that has been withdrawn since: the sheet and the run page say so in a banner. */
+  withdrawals: RunWithdrawal[];
 };
 
 /** What a run's calc sheet prints: the run, the firm, and its version's definition and narrative. */
@@ -321,12 +134,13 @@ export const readRunSheet = defineUseCase({
     const version = (await getVersion({ id: run.versionId }))!;
     const read = parseSource(version.source);
     const parsed = read.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
+    const withdrawals = await withdrawalsOf(run.id);
     return {
-      run,
+      run: { ...run, withdrawals },
       firmName: (await getFirmName()) ?? "",
       definition: parsed?.success ? parsed.data : null,
       narrative: read.ok ? read.parsed.narrative : "",
-      withdrawal: withdrawalOf(version),
+      withdrawals,
     };
   },
   audit: null,

@@ -61,6 +61,7 @@ import { parseSource } from "@/lib/standards/source";
 import { evaluationPool } from "@/lib/evaluation/pool";
 import { checkSource, gateRefusals, VERIFIED_WITH, type SourceCheck } from "./standard-gate";
 import { defineUseCase } from "./use-case";
+import { recordWithdrawal } from "./withdrawals";
 import { ownEditableDraft } from "./draft-access";
 import { missingHandCalculations } from "./standard-attachments";
 import { libraryEntriesFor } from "./library-resolution";
@@ -393,19 +394,30 @@ export const withdrawVersion = defineUseCase({
   name: "standards.withdraw",
   permission: "templates.withdraw",
   input: withdrawVersionSchema,
-  run: async ({ versionId, reason }, { actor }) => {
+  run: async ({ versionId, reason, successorVersionId, mapping }, { actor }) => {
     const version = await getVersion({ id: versionId });
     if (!version) throw new AppError("not-found", "That version does not exist.");
     await lockStandard(version.standardId);
     const current = await getVersion({ id: versionId });
     if (current?.status === "withdrawn") throw new AppError("conflict", `Version ${version.number} is already withdrawn.`);
     await insertVersionEvent({ versionId, kind: "withdrawn", reason, actorId: actor.id });
-    return { versionId, slug: version.slug, number: version.number, reason };
+    // The impact report's record, the mapping onto the successor and the notices, in the same transaction.
+    const { withdrawalId, notified, successorNumber } = await recordWithdrawal(
+      { standardVersionId: versionId },
+      { actor, reason, successorVersionId, mapping },
+    );
+    return { versionId, slug: version.slug, number: version.number, reason, withdrawalId, successor: successorNumber, notified };
   },
   audit: ({ result }) => ({
     action: "standards.withdraw",
     subject: `standard-version:${result.versionId}`,
-    details: { slug: result.slug, number: result.number, reason: result.reason },
+    details: {
+      slug: result.slug,
+      number: result.number,
+      reason: result.reason,
+      successor: result.successor,
+      notified: result.notified,
+    },
   }),
 });
 

@@ -158,6 +158,11 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     path: "/runs/00000000-0000-4000-8000-000000000000/trace",
     expect: { ...signedInPage("lead", "engineer", "auditor"), lead: "not-found", engineer: "not-found", auditor: "not-found" },
   },
+  // A withdrawal nothing has: the 404 page for those who read runs (an impact report is read by whoever reads runs).
+  "/(app)/withdrawals/[id]/page": {
+    path: "/withdrawals/00000000-0000-4000-8000-000000000000",
+    expect: { ...signedInPage("lead", "engineer", "auditor"), lead: "not-found", engineer: "not-found", auditor: "not-found" },
+  },
   "/(app)/runs/compare/page": {
     path: "/runs/compare",
     title: "Compare runs",
@@ -433,6 +438,18 @@ const API_ROUTES: Record<string, ApiRow> = {
     ok: (answer) => expect([answer.status, answer.text]).toEqual([200, ""]),
   },
   "OPTIONS /api/runs/export/route": OPTIONS_ROW("/api/runs/export", ALLOW_GET),
+  // The batch re-run of a withdrawal nothing has: 404 for those who read runs (the impact report's progress).
+  "GET /api/withdrawals/[id]/batch/route": {
+    path: `/api/withdrawals/${NO_SUCH_UUID}/batch`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "HEAD /api/withdrawals/[id]/batch/route": {
+    path: `/api/withdrawals/${NO_SUCH_UUID}/batch`,
+    expect: libraryReaders("not-found"),
+    ok: () => undefined,
+  },
+  "OPTIONS /api/withdrawals/[id]/batch/route": OPTIONS_ROW(`/api/withdrawals/${NO_SUCH_UUID}/batch`, ALLOW_GET),
   // Calc sheet PDFs of a run id nothing has: 404 for those who read runs, before anything is rendered.
   "GET /api/runs/[id]/sheet-pdf/route": {
     path: `/api/runs/${NO_SUCH_UUID}/sheet-pdf`,
@@ -580,6 +597,10 @@ const ACTIONS: Record<string, Record<Who, ActionOutcome>> = {
   "app/(app)/standards/actions.ts#approveAndPublishAction": leadsOnlyAction(),
   "app/(app)/standards/actions.ts#withdrawVersionAction": leadsOnlyAction(),
   "app/(app)/audit/integrity/actions.ts#runIntegrityCheckAction": integrityCheckersAction(),
+  // After a withdrawal: a lead starts the batch re-run; a lead or the job's responsible engineer signs an outcome.
+  "app/(app)/withdrawals/actions.ts#declareSuccessorAction": leadsOnlyAction(),
+  "app/(app)/withdrawals/actions.ts#startBatchAction": leadsOnlyAction(),
+  "app/(app)/withdrawals/actions.ts#recordOutcomeAction": runnersAction(),
   // Jobs and runs: engineers and leads; auditors change nothing; admins manage people.
   "app/(app)/jobs/actions.ts#createJobAction": runnersAction(),
   "app/(app)/jobs/actions.ts#updateJobAction": runnersAction(),
@@ -819,6 +840,7 @@ describe("signing in brings people back", () => {
       "/runs/00000000-0000-4000-8000-000000000000/sheet",
       "/runs/00000000-0000-4000-8000-000000000000",
       "/runs/00000000-0000-4000-8000-000000000000/trace",
+      "/withdrawals/00000000-0000-4000-8000-000000000000",
       "/runs/compare",
       "/audit",
       "/audit/integrity",

@@ -33,6 +33,7 @@ import { getDraft, listAttachments } from "@/lib/data/standards";
 import { getObject, putObject } from "@/lib/storage/s3";
 import { attachmentKey, sheetPdfKey } from "@/lib/data/files";
 import { attachFile } from "@/lib/use-cases/files";
+import { matrixWithdrawal } from "./helpers/withdrawal-action-fixtures";
 
 const request = vi.hoisted(() => ({ headers: new Headers() }));
 vi.mock("next/headers", () => ({
@@ -205,6 +206,11 @@ const ACTIONS: Record<string, Record<Who, Expected>> = {
   "app/(app)/libraries/actions.ts#approveAndPublishLibraryAction": LIBRARY_EDITORS,
   "app/(app)/libraries/actions.ts#withdrawLibraryVersionAction": LIBRARY_EDITORS,
   "app/(app)/libraries/actions.ts#withdrawLibraryEntryAction": LIBRARY_EDITORS,
+  // After a withdrawal: a lead starts the batch re-run; a lead, or the responsible engineer of the calc's job (the
+  // fixture checks that a caller who is neither is told who may), signs an affected calc revision's outcome.
+  "app/(app)/withdrawals/actions.ts#declareSuccessorAction": LEADS_ONLY,
+  "app/(app)/withdrawals/actions.ts#startBatchAction": LEADS_ONLY,
+  "app/(app)/withdrawals/actions.ts#recordOutcomeAction": RUNNERS,
 };
 
 type ManifestEntry = { workers: Record<string, unknown>; filename?: string; exportedName?: string };
@@ -562,6 +568,21 @@ const ROUTES: RouteRow[] = [
         .orderBy(desc(schema.auditEvents.id))
         .limit(1);
       expect(event.details).toMatchObject({ filters: { job: made!.jobNumber } });
+    },
+  },
+  // A withdrawal's batch re-run progress: whoever reads runs (the impact report polls it).
+  {
+    route: "app/api/withdrawals/[id]/batch/route.ts",
+    method: "GET",
+    path: "/api/withdrawals/:id/batch",
+    expected: LIBRARY_READERS,
+    request: async () => {
+      const { withdrawalId } = await matrixWithdrawal();
+      return { path: `/api/withdrawals/${withdrawalId}/batch`, params: { id: withdrawalId } };
+    },
+    succeeded: async (response) => {
+      expect(response.status).toBe(200);
+      expect(await response.json()).toEqual({ data: { batch: null, deltas: [] } });
     },
   },
   // Calc sheet PDFs: whoever reads runs gets the sheet rendered by the server's Chromium (as them) and kept.

@@ -156,6 +156,14 @@ export const APP_PAGES: AppPage[] = [
     status: 404,
     visitors: ["auditor"],
   },
+  // The impact report of a withdrawal; a real one is walked by the withdrawal journey (tests/browser).
+  {
+    name: "the impact report of a withdrawal that does not exist",
+    entry: "/(app)/withdrawals/[id]/page",
+    path: "/withdrawals/00000000-0000-4000-8000-000000000000",
+    status: 404,
+    visitors: ["auditor"],
+  },
   // Without two runs chosen, the comparison says what to do; two real runs are compared by the run journey.
   { name: "compare runs, none chosen", entry: "/(app)/runs/compare/page", path: "/runs/compare", visitors: ["auditor"] },
   { name: "audit trail", entry: "/(app)/audit/(trail)/page", path: "/audit", visitors: ["auditor"] },

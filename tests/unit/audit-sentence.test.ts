@@ -158,6 +158,27 @@ describe("auditSentence", () => {
       "Failed sign-in as Sam Reed: the account is deactivated",
     ],
     [
+      "an outcome after a withdrawal names the calc, its revision and what was done",
+      {
+        action: "withdrawals.outcome",
+        ...ines,
+        details: {
+          calc: "C-012",
+          letter: "B",
+          outcome: "drawings-revised",
+          reason: null,
+          newRevision: null,
+          reference: "S-101 rev C",
+        },
+      },
+      "Ines Okafor-Lind recorded for C-012 rev B after a withdrawal: drawings revised (S-101 rev C)",
+    ],
+    [
+      "a batch re-run says how many runs, on what",
+      { action: "withdrawals.batch.start", ...ines, details: { batchId: "b", runs: 12, successor: "beam v2" } },
+      "Ines Okafor-Lind started re-running 12 runs on beam v2",
+    ],
+    [
       "a refused action names the use case and what it needs",
       { action: "access.refused", ...ines, details: { useCase: "audit.list", permission: "audit.read" } },
       "Ines Okafor-Lind was refused audit.list (it needs audit.read)",

@@ -43,6 +43,7 @@ const NO_SKELETON: Record<string, string> = {
   "audit/integrity": "403 for roles that do not verify the log's integrity; the check itself runs on a button",
   "runs/[id]/trace": "404 for a run that does not exist",
   "standards/[slug]/versions/[number]/runs": "404 for a version that does not exist",
+  "withdrawals/[id]": "404 for a withdrawal that does not exist",
   "runs/compare": "two stored records read at once; a refusal (runs of different standards) is shown in the page",
   "libraries/new": "403 for roles that do not maintain the libraries",
   "libraries/drafts/[draftId]": "403 for roles that do not maintain the libraries, 404 for a draft that does not exist",

@@ -1,7 +1,12 @@
 // The e-mails say who, what and until when in plain words, carry the link in text and HTML, and
 // escape names in the HTML (a name is typed by an admin and could hold markup).
 import { describe, expect, it } from "vitest";
-import { renderInvitationMail, renderPasswordResetMail, renderWitnessMail } from "@/lib/mail/templates";
+import {
+  renderInvitationMail,
+  renderPasswordResetMail,
+  renderWithdrawalNoticeMail,
+  renderWitnessMail,
+} from "@/lib/mail/templates";
 import { treeHeadDigest, treeHeadText } from "@/lib/integrity/tree-head";
 
 describe("invitation e-mail", () => {
@@ -72,5 +77,36 @@ describe("the QA witness's e-mail of a tree head", () => {
     // The four signed lines, with their newlines visible.
     expect(mail.text).toContain(JSON.stringify(`gusset-tree-head/1\n1234\n${"ab".repeat(32)}\n2026-12-03T02:38:58.539Z\n`));
     expect(mail.html).toContain('href="http://127.0.0.1:3000/audit/integrity"');
+  });
+});
+
+describe("withdrawal notice", () => {
+  const mail = renderWithdrawalNoticeMail({
+    to: "sam@firm.example",
+    name: "Sam",
+    what: "Beam <b>v1</b>",
+    reason: "The load factor is wrong.",
+    withdrawnBy: "Lee Lead",
+    successor: "version 2 of beam",
+    reportUrl: "http://127.0.0.1:3000/withdrawals/w1",
+    runs: [{ jobNumber: "MF-1", runId: "0123456789abcdef", url: "http://127.0.0.1:3000/runs/0123456789abcdef" }],
+    jobs: [{ jobNumber: "MF-2", jobName: "Depot <i>east</i>", runs: 3 }],
+  });
+
+  it("lists the person's runs and jobs, with the report's link, in both parts", () => {
+    expect(mail.subject).toBe("Withdrawn: Beam <b>v1</b> — your runs and jobs");
+    expect(mail.text).toContain("Lee Lead has withdrawn Beam <b>v1</b>. Reason: The load factor is wrong.");
+    expect(mail.text).toContain("The version that replaces it is version 2 of beam.");
+    expect(mail.text).toContain("job MF-1, run 01234567: http://127.0.0.1:3000/runs/0123456789abcdef");
+    expect(mail.text).toContain("MF-2 (Depot <i>east</i>): 3 runs");
+    expect(mail.text).toContain("http://127.0.0.1:3000/withdrawals/w1");
+    expect(mail.html).toContain('<a href="http://127.0.0.1:3000/runs/0123456789abcdef">01234567</a>');
+    expect(mail.html).toContain('href="http://127.0.0.1:3000/withdrawals/w1"');
+  });
+
+  it("escapes markup in the HTML", () => {
+    expect(mail.html).not.toContain("<b>v1</b>");
+    expect(mail.html).not.toContain("<i>east</i>");
+    expect(mail.html).toContain("Depot &#60;i&#62;east&#60;/i&#62;");
   });
 });

@@ -71,6 +71,10 @@ const EXPECTED: Record<Action, Record<Role, boolean>> = {
   "files.attach": { admin: N, lead: Y, engineer: Y, auditor: N },
   // auditor: "reproduce"; lead: answers for the standards whose runs are reproduced. Engineers run, they do not audit.
   "runs.reproduce": { admin: N, lead: Y, engineer: N, auditor: Y },
+  // lead: re-runs every affected run on the successor after a withdrawal (the issue: "a lead starts a batch").
+  "withdrawals.rerun": { admin: N, lead: Y, engineer: N, auditor: N },
+  // lead, and a job's responsible engineer for that job's calcs (the use case checks the job): signs an outcome.
+  "withdrawals.record-outcome": { admin: N, lead: Y, engineer: Y, auditor: N },
   // auditor: "read everything"; admin: sees the trail of the account changes and sign-ins they answer for (people page, home).
   "audit.read": { admin: Y, lead: N, engineer: N, auditor: Y },
   // The run log (who ran what, when, how it came out, how far it is signed off): the auditor's, who "reads everything";
@@ -107,6 +111,8 @@ const WRITES: readonly Action[] = [
   "runs.sign-checked",
   "runs.sign-approved",
   "files.attach",
+  "withdrawals.rerun",
+  "withdrawals.record-outcome",
 ];
 
 const allowedFor = (role: Role) => ACTIONS.filter((action) => EXPECTED[action][role]);

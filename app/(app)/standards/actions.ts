@@ -70,4 +70,11 @@ export const approveAndPublishAction = serverAction(approveAndPublish, {
   },
 });
 
-export const withdrawVersionAction = serverAction(withdrawVersion, { then: refreshStandards });
+// Withdrawn: to its impact report, where the affected runs, calcs and people are listed.
+export const withdrawVersionAction = serverAction(withdrawVersion, {
+  then: ({ withdrawalId }) => {
+    refreshStandards();
+    revalidatePath("/runs", "layout");
+    redirect(`/withdrawals/${withdrawalId}`);
+  },
+});

@@ -4,6 +4,7 @@
 // so a draft with problems is still saved.
 import { z } from "../zod";
 import { slugSchema } from "./standards";
+import { replacementField } from "./withdrawals";
 import { plainText } from "./text";
 
 /** The three kinds of library; lib/libraries/document.ts's LIBRARY_KINDS (a unit test keeps them equal). */
@@ -98,11 +99,13 @@ export const approveLibraryReviewSchema = z.object({ reviewId: id("a submission"
 export const withdrawLibraryVersionSchema = z.object({
   versionId: id("a version"),
   reason: sentence("why the version is withdrawn", 500),
+  ...replacementField,
 });
 export const withdrawLibraryEntrySchema = z.object({
   versionId: id("a version"),
   entryKey: entryKeySchema,
   reason: sentence("why the entry is withdrawn (which value is wrong)", 500),
+  ...replacementField,
 });
 
 /**

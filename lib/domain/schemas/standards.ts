@@ -2,6 +2,7 @@
 // A standard's source itself is checked by lib/standards (compile); here only its size and characters.
 import { z } from "../zod";
 import { plainText } from "./text";
+import { successorFields } from "./withdrawals";
 
 export const MAX_SOURCE_LENGTH = 200_000;
 
@@ -75,6 +76,7 @@ export const approveReviewSchema = z.object({
 export const withdrawVersionSchema = z.object({
   versionId: id("a version"),
   reason: sentence("why the version is withdrawn", 500),
+  ...successorFields,
 });
 export const standardSlugSchema = z.object({ slug: slugSchema });
 export const versionRefSchema = z.object({ slug: slugSchema, number: z.coerce.number().int().min(1) });

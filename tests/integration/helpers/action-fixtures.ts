@@ -70,6 +70,7 @@ async function runRows(jobId: string) {
   return db.select().from(schema.runs).where(eq(schema.runs.jobId, jobId));
 }
 import { LIBRARY_ACTION_FIXTURES } from "./library-action-fixtures";
+import { WITHDRAWAL_ACTION_FIXTURES } from "./withdrawal-action-fixtures";
 
 let standardCounter = 0;
 const matrixSlug = () => `matrix-${Date.now().toString(36)}-${(standardCounter++).toString(36)}`;
@@ -394,18 +395,22 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
     };
   },
   "app/(app)/standards/actions.ts#withdrawVersionAction": async () => {
-    const { slug, versionId } = await publishedStandard();
+    const { versionId } = await publishedStandard();
     return {
       input: { versionId, reason: "Withdrawn by the access matrix." },
       succeeded: async (answer) => {
-        expect(answer).toEqual({
-          state: { ok: true, data: { versionId, slug, number: 1, reason: "Withdrawn by the access matrix." } },
-        });
         const events = await db
           .select()
           .from(schema.standardVersionEvents)
           .where(eq(schema.standardVersionEvents.versionId, versionId));
         expect(events.map((e) => e.kind)).toEqual(["published", "withdrawn"]);
+        // Withdrawn: on to its impact report.
+        const [withdrawal] = await db
+          .select()
+          .from(schema.withdrawals)
+          .where(eq(schema.withdrawals.standardVersionId, versionId));
+        expect(withdrawal).toMatchObject({ subject: "standard-version", reason: "Withdrawn by the access matrix." });
+        expect(answer).toEqual({ redirect: `/withdrawals/${withdrawal.id}` });
       },
     };
   },
@@ -533,4 +538,5 @@ export const ACTION_FIXTURES: Record<string, () => Promise<ActionFixture>> = {
     };
   },
   ...LIBRARY_ACTION_FIXTURES,
+  ...WITHDRAWAL_ACTION_FIXTURES,
 };

@@ -2,6 +2,7 @@
 // What an admin or lead does from a published version: start a new draft from it, withdraw it (a reason is
 // required; it stays on record, with every run made with it), or withdraw one entry of it (a wrong value), which
 // leaves the rest of the version in use.
+import Link from "next/link";
 import { startTransition, useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -39,16 +40,27 @@ export function WithdrawLibraryForm({
   const [versionState, withdrawVersion, versionPending] = useActionState(withdrawLibraryVersionAction, null);
   const [entryState, withdrawEntry, entryPending] = useActionState(withdrawLibraryEntryAction, null);
   const [reason, setReason] = useState("");
+  const [replacementKey, setReplacementKey] = useState("");
   const [entryKey, setEntryKey] = useState(entryKeys?.[0] ?? "");
   const whole = entryKeys === undefined;
   const state = whole ? versionState : entryState;
-  const server = actionErrors(state, ["reason", "entryKey"]);
+  const server = actionErrors(state, ["reason", "entryKey", "replacementKey"]);
   const testId = whole ? "withdraw-version" : "withdraw-entry";
-  if (versionState?.ok) return <Notice tone="pass">Version {number} is withdrawn.</Notice>;
+  const report = (withdrawalId: string) => (
+    <Link href={`/withdrawals/${withdrawalId}`} className="underline" data-testid="impact-report-link">
+      Impact report
+    </Link>
+  );
+  if (versionState?.ok)
+    return (
+      <Notice tone="pass">
+        Version {number} is withdrawn. {report(versionState.data.withdrawalId)}
+      </Notice>
+    );
   if (entryState?.ok)
     return (
       <Notice tone="pass" testId={`${testId}-done`}>
-        {entryState.data.entryKey} is withdrawn from version {number}.
+        {entryState.data.entryKey} is withdrawn from version {number}. {report(entryState.data.withdrawalId)}
       </Notice>
     );
   return (
@@ -58,7 +70,11 @@ export function WithdrawLibraryForm({
       data-testid={`${testId}-form`}
       onSubmit={(event) => {
         event.preventDefault();
-        startTransition(() => (whole ? withdrawVersion({ versionId, reason }) : withdrawEntry({ versionId, entryKey, reason })));
+        startTransition(() =>
+          whole
+            ? withdrawVersion({ versionId, reason, replacementKey })
+            : withdrawEntry({ versionId, entryKey, reason, replacementKey }),
+        );
       }}
     >
       <p className="text-sm text-ink-700">
@@ -88,6 +104,14 @@ export function WithdrawLibraryForm({
         onChange={(event) => setReason(event.target.value)}
         error={server.field.reason}
         data-testid={`${testId}-reason`}
+      />
+      <TextField
+        label="Entry that replaces it (optional)"
+        hint="A re-run of each affected run takes this entry instead; the impact report starts the batch."
+        value={replacementKey}
+        onChange={(event) => setReplacementKey(event.target.value)}
+        error={server.field.replacementKey}
+        data-testid={`${testId}-replacement`}
       />
       <Button
         type="submit"

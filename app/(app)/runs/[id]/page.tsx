@@ -13,6 +13,7 @@ import { buttonClasses } from "@/components/ui/button";
 import { Caution } from "@/components/standards/caution";
 import { SealPanel } from "@/components/integrity/seal-panel";
 import { readRunSeal } from "@/lib/use-cases/log";
+import { WithdrawalBanner } from "@/components/runs/withdrawal-banner";
 import { LocalTime } from "@/components/local-time";
 import { RunResults } from "@/components/runs/run-results";
 import { SheetPdfs } from "@/components/runs/sheet-pdfs";
@@ -71,6 +72,7 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
           </>
         }
       />
+      <WithdrawalBanner withdrawals={run.withdrawals} />
       <Caution />
       <dl
         className="grid gap-x-8 gap-y-2 rounded-plate bg-paper-raised p-4 text-sm shadow-sheet ring-1 ring-ink-200 sm:grid-cols-[auto_minmax(0,1fr)]"
@@ -103,7 +105,7 @@ export default async function RunPage({ params, searchParams }: PageProps<"/runs
         </dd>
         {record.parentRunId ? (
           <>
-            <dt className="text-ink-500">Re-run of</dt>
+            <dt className="text-ink-500">{run.purpose === "remediation" ? "Remediation re-run of" : "Re-run of"}</dt>
             <dd>
               <Link href={`/runs/${record.parentRunId}`} className="font-mono text-plate-700 hover:underline">
                 {record.parentRunId.slice(0, 8)}

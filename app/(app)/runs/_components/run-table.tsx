@@ -62,6 +62,11 @@ function columnsFor({ showJob, showSignOff, linkRuns, timeZone }: Options): Colu
         <>
           {run.title} <span className="font-mono text-xs text-ink-500">v{run.number}</span>
           {run.purpose === "remediation" ? <span className="block text-xs text-warn-700">Remediation re-run</span> : null}
+          {run.withdrawn ? (
+            <span className="block text-xs font-semibold text-fault-700" data-testid="run-withdrawn">
+              Withdrawn: do not rely on it
+            </span>
+          ) : null}
         </>
       ),
     },

@@ -10,7 +10,7 @@ export const metadata: Metadata = { title: "Standard" };
 export default async function StandardPage({ params }: PageProps<"/standards/[slug]">) {
   const { slug } = await params;
   const actor = await requirePageActor("library.read", { next: `/standards/${encodeURIComponent(slug)}` });
-  const { standard, version, timeZone } = await loadVersionPage(actor, slug);
+  const { standard, version, timeZone, withdrawal } = await loadVersionPage(actor, slug);
   if (!version)
     return (
       <>
@@ -26,5 +26,5 @@ export default async function StandardPage({ params }: PageProps<"/standards/[sl
         </ul>
       </>
     );
-  return <VersionView version={version} history={standard.versions} actor={actor} timeZone={timeZone} />;
+  return <VersionView version={version} history={standard.versions} actor={actor} timeZone={timeZone} withdrawal={withdrawal} />;
 }

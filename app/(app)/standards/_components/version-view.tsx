@@ -8,6 +8,7 @@ import type { Actor } from "@/lib/domain/actor";
 import { can } from "@/lib/domain/permissions";
 import type { VersionDto, VersionSummaryDto } from "@/lib/data/standards";
 import type { VersionView } from "@/lib/use-cases/standards";
+import type { VersionWithdrawal } from "@/lib/use-cases/withdrawals";
 import { compileStandard } from "@/lib/standards/compile";
 import type { VerificationResult } from "@/lib/standards/verify";
 import { formatSignificant, trimZeros } from "@/lib/standards/format";
@@ -29,11 +30,13 @@ export function VersionView({
   history,
   actor,
   timeZone,
+  withdrawal,
 }: {
   version: VersionView;
   history: VersionSummaryDto[];
   actor: Actor;
   timeZone?: string;
+  withdrawal: VersionWithdrawal | null;
 }) {
   const compiled = compileStandard(version.source, version.libraries);
   const leads = can(actor.role, "templates.write-draft");
@@ -93,6 +96,18 @@ export function VersionView({
             <dt className="text-fault-700">Withdrawn</dt>
             <dd className="text-fault-700">
               {withdrawn.reason} ({withdrawn.actorName}, <LocalTime iso={withdrawn.occurredAt} timeZone={timeZone} />)
+              {withdrawal?.withdrawalId && can(actor.role, "runs.read") ? (
+                <>
+                  {" "}
+                  <Link
+                    href={`/withdrawals/${withdrawal.withdrawalId}`}
+                    className="text-plate-700 hover:underline"
+                    data-testid="impact-report-link"
+                  >
+                    Impact report
+                  </Link>
+                </>
+              ) : null}
             </dd>
           </>
         ) : null}
@@ -154,7 +169,12 @@ export function VersionView({
       </Section>
       {can(actor.role, "templates.withdraw") && version.status !== "withdrawn" ? (
         <Section title="Withdraw this version" id="withdraw-heading">
-          <WithdrawForm versionId={version.id} number={version.number} />
+          <WithdrawForm
+            versionId={version.id}
+            number={version.number}
+            inputs={withdrawal?.inputs ?? {}}
+            successors={withdrawal?.successors ?? []}
+          />
         </Section>
       ) : null}
     </>

@@ -38,7 +38,7 @@ const utc = (iso: string) => `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
 export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sheet">) {
   const { id } = await params;
   const actor = await requirePageActor("runs.read", { next: `/runs/${encodeURIComponent(id)}/sheet` });
-  const { run, firmName, definition, narrative, withdrawal } = await orNotFound(() =>
+  const { run, firmName, definition, narrative, withdrawals } = await orNotFound(() =>
     runUseCase(readRunSheet, { actor, input: { id } }),
   );
   const revisions = await runUseCase(readRunSignOff, { actor, input: { id: run.id } });
@@ -101,7 +101,7 @@ export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sh
               <p className="text-sm text-ink-700">
                 Prepared by {run.createdByName}. Record sha256:{run.recordSha256}.
               </p>
-              {withdrawal ? <WithdrawalBanner withdrawal={withdrawal} /> : null}
+              <WithdrawalBanner withdrawals={withdrawals} />
               <Caution />
               {definition ? (
                 <SheetPart title="Scope and limitations">

@@ -12,7 +12,7 @@ export default async function VersionPage({ params }: PageProps<"/standards/[slu
     next: `/standards/${encodeURIComponent(slug)}/versions/${encodeURIComponent(number)}`,
   });
   if (!/^[1-9][0-9]{0,5}$/.test(number)) notFound();
-  const { standard, version, timeZone } = await loadVersionPage(actor, slug, Number(number));
+  const { standard, version, timeZone, withdrawal } = await loadVersionPage(actor, slug, Number(number));
   if (!version) notFound();
-  return <VersionView version={version} history={standard.versions} actor={actor} timeZone={timeZone} />;
+  return <VersionView version={version} history={standard.versions} actor={actor} timeZone={timeZone} withdrawal={withdrawal} />;
 }

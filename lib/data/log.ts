@@ -32,6 +32,10 @@ function arrayLiteral(values: readonly (number | string)[]): string {
 
 /** In the current transaction: true when this caller is the one sealer; the lock ends with the transaction. */
 export async function tryLockSealer(): Promise<boolean> {
+  // A seal never waits long on anything: should a lock be held elsewhere, this round fails (and is logged) and the next
+  // one, a few seconds on, tries again, instead of the sealer hanging with the tree unsealed.
+  await currentDb().execute(sql`set local lock_timeout = '5s'`);
+  await currentDb().execute(sql`set local statement_timeout = '120s'`);
   const result = await currentDb().execute<{ locked: boolean }>(sql`select pg_try_advisory_xact_lock(${SEALER_LOCK}) as locked`);
   return result.rows[0]?.locked === true;
 }

@@ -843,8 +843,8 @@ describe("signing in brings people back", () => {
       "/withdrawals/00000000-0000-4000-8000-000000000000",
       "/runs/compare",
       "/audit",
-      "/audit/integrity",
       "/audit/runs",
+      "/audit/integrity",
       "/admin/users",
       "/admin/mailbox",
     ]);

@@ -50,6 +50,9 @@ it("checks the whole log, and a run's seal in the browser, as the auditor", asyn
   for (;;) {
     await page.goto(appUrl(`/audit/integrity?kind=run&ref=${runId}#record`));
     if (await page.getByTestId("seal-panel").isVisible()) break;
+    // A lookup the server refused (a proof that does not verify) is a failure to report, not to wait out.
+    const refused = page.getByTestId("record-lookup-error");
+    if (await refused.isVisible()) throw new Error(`the run's seal was refused: ${await refused.textContent()}`);
     if (Date.now() > deadline) throw new Error("the run was not sealed within 30 s");
     await page.waitForTimeout(1000);
   }

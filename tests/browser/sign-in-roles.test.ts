@@ -12,10 +12,10 @@ import { AppShell, DEMO_BY_ROLE, SignInPage, isFakeMailInUse, journeyTimeout } f
 const mailboxInUse = await isFakeMailInUse();
 
 const EXPECTED_NAV: Record<Role, string[]> = {
-  admin: ["Home", "Libraries", "Audit trail", "People", ...(mailboxInUse ? ["Demo mailbox"] : [])],
+  admin: ["Home", "Libraries", "Audit trail", "Integrity", "People", ...(mailboxInUse ? ["Demo mailbox"] : [])],
   lead: ["Home", "Standards", "Libraries", "Jobs", "Runs"],
   engineer: ["Home", "Standards", "Libraries", "Jobs", "Runs"],
-  auditor: ["Home", "Standards", "Libraries", "Jobs", "Runs", "Audit trail", "People"],
+  auditor: ["Home", "Standards", "Libraries", "Jobs", "Runs", "Audit trail", "Integrity", "People"],
 };
 
 // What each home shows first: one panel that only that role's home has.

@@ -198,8 +198,10 @@ describe("the app's database role", () => {
         "library_review_comments_id_seq",
         "library_version_events_id_seq",
         "log_leaves_id_seq",
+        "rerun_batch_items_id_seq",
         "standard_review_comments_id_seq",
         "standard_version_events_id_seq",
+        "withdrawal_outcomes_id_seq",
       ].map((name) => ({
         name,
         usage: true,

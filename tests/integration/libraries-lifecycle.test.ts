@@ -400,6 +400,9 @@ describe("a library from first draft to withdrawal", () => {
         entryKey: "GT 114x5",
         entryHash: withdrawn.entryHash,
         reason: "Wall thickness is 5.6 mm, not 5 mm.",
+        // No run used the entry, so nobody was told; no replacement entry was named.
+        notified: 0,
+        replacement: null,
       },
     ]);
   });

@@ -27,11 +27,13 @@ const started: ChildProcess[] = [];
 async function startWorkerProcess(label: string): Promise<ChildProcess> {
   const log = path.join(os.tmpdir(), `gusset-batch-${label}-${process.pid}.log`);
   const out = fs.openSync(log, "w");
-  const child = spawn(path.join(repoRoot, "node_modules", ".bin", "tsx"), ["--conditions=react-server", "scripts/worker.ts"], {
-    cwd: repoRoot,
-    env: process.env,
-    stdio: ["ignore", out, out],
-  });
+  // Node itself with tsx as a loader, not the tsx wrapper: the wrapper is a process of its own, and a SIGKILL to it would
+  // leave the real worker running on. --parent-pid ends the worker should this test process go away.
+  const child = spawn(
+    process.execPath,
+    ["--import", "tsx", "--conditions=react-server", "scripts/worker.ts", "--parent-pid", String(process.pid)],
+    { cwd: repoRoot, env: process.env, stdio: ["ignore", out, out] },
+  );
   started.push(child);
   const deadline = Date.now() + 60_000;
   while (!fs.readFileSync(log, "utf8").includes("[gusset-worker] working on")) {

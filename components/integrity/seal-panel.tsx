@@ -26,6 +26,13 @@ export function SealPanel({
   fingerprint: string;
   printable?: boolean;
 }) {
+  if (!view.sealed && view.problem) {
+    return (
+      <p className="text-sm font-medium text-fault-700" data-testid="seal-problem">
+        {view.problem}
+      </p>
+    );
+  }
   if (!view.sealed) {
     return (
       <p className="text-sm text-ink-700" data-testid="seal-pending">

@@ -32,7 +32,9 @@ export const QUEUES: Record<QueueName, QueuePolicy> = {
  * re-run is short (evaluation in the pool) and a batch has hundreds, so it takes a few at a time, twice over.
  */
 export const WORKER_POLICY: Record<QueueName, { batchSize: number; concurrency: number; pollingIntervalSeconds?: number }> = {
-  "mail.send": { batchSize: 1, concurrency: 1 },
+  // Four sends at once: a burst (a withdrawal's notices, the witness's copy of each tree head, invitations) must not
+  // keep a password-reset e-mail waiting behind it. Each send is mostly waiting on the SMTP server.
+  "mail.send": { batchSize: 1, concurrency: 4 },
   "rerun.item": { batchSize: 4, concurrency: 2, pollingIntervalSeconds: 0.5 },
 };
 

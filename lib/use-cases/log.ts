@@ -35,7 +35,7 @@ import { defineUseCase } from "./use-case";
 export type SignedHead = TreeHeadDto & { text: string; digest: string };
 
 export type InclusionView =
-  | { sealed: false; leaf: LeafDto | null }
+  | { sealed: false; leaf: LeafDto | null; problem?: string }
   | { sealed: true; leaf: LeafDto & { leafIndex: number }; head: SignedHead; proof: string[] };
 
 export type LogStatus = {
@@ -102,7 +102,12 @@ export const readRunSeal = defineUseCase({
   input: runRefSchema,
   run: async ({ id }): Promise<RunSeal> => {
     const { pem, fingerprint } = logPublicKeyFromSettings();
-    return { view: await readSeal("run", id), publicKeyPem: pem, fingerprint };
+    // A proof that does not verify is shown as such on the run's page and sheet, never as a page that fails to open.
+    const view = await readSeal("run", id).catch(async (error: unknown): Promise<InclusionView> => {
+      if (!(error instanceof AppError) || error.code !== "internal") throw error;
+      return { sealed: false, leaf: await getLeaf("run", id), problem: error.message };
+    });
+    return { view, publicKeyPem: pem, fingerprint };
   },
   audit: null,
 });

@@ -8,7 +8,8 @@
  *      years (scripts/lib/bench-audit-load.ts), with calc revisions signed off to each step for some of them;
  *   3. each section of scripts/lib/bench-audit-sections.ts runs against it and prints its figures.
  *
- *   npm run bench:audit [-- --runs 1000000] [-- --reuse]     (--reuse: keep a database loaded by an earlier run)
+ *   npm run bench:audit [-- --runs 1000000] [-- --reuse] [-- --only integrity,pages]
+ *     --reuse: keep a database loaded by an earlier run; --only: these sections alone (sealer, pages, csv, integrity)
  */
 import { execFileSync } from "node:child_process";
 import fs from "node:fs";
@@ -23,6 +24,7 @@ const argument = (name: string) => {
 };
 const runs = Number(argument("--runs") ?? 1_000_000);
 const reuse = process.argv.includes("--reuse");
+const only = argument("--only")?.split(",").filter(Boolean);
 if (!Number.isInteger(runs) || runs < 1000) throw new Error("--runs takes a whole number of at least 1000");
 
 let stop = async () => {};
@@ -43,7 +45,12 @@ async function main(): Promise<void> {
   const bench = await openBench({ appUrl: database.urls.app, ownerUrl: database.urls.owner });
   try {
     if (!database.kept) await loadBenchRuns(bench, runs);
-    for (const section of BENCH_SECTIONS) {
+    const unknown = only?.filter((id) => !BENCH_SECTIONS.some((section) => section.id === id)) ?? [];
+    if (unknown.length)
+      throw new Error(
+        `--only names no section ${unknown.join(", ")}; the sections: ${BENCH_SECTIONS.map((s) => s.id).join(", ")}`,
+      );
+    for (const section of BENCH_SECTIONS.filter((s) => !only || only.includes(s.id))) {
       console.log(`\n== ${section.title}`);
       await section.run(bench);
     }

@@ -62,6 +62,8 @@ function snapshotOn(main: PoolClient, side: PoolClient): LogSnapshot {
   return {
     async findRecordProblems(limit) {
       const problems: RecordProblem[] = [];
+      // `s.id is null`, never `s is null`: a whole-row test builds the row and so fetches every record's TOAST a
+      // second time (on a million runs, 95 s instead of 34 s).
       for (const source of LEAF_SOURCES) {
         const { rows } = await side.query<{
           leaf_id: string;
@@ -70,14 +72,14 @@ function snapshotOn(main: PoolClient, side: PoolClient): LogSnapshot {
           problem: RecordProblem["problem"];
         }>(
           `select l.id as leaf_id, p.leaf_index, l.ref,
-                  case when s is null then 'missing'
+                  case when s.id is null then 'missing'
                        when (l.entry::jsonb ->> 'sha256') is distinct from ${sha256Of(source.record)} then 'altered'
                        else 'time' end as problem
              from log_leaves l
              left join log_positions p on p.leaf_id = l.id
              left join ${source.table} s on s.id = ${refAsId(source, "l.ref")}
             where l.kind = $1
-              and (s is null
+              and (s.id is null
                    or (l.entry::jsonb ->> 'sha256') is distinct from ${sha256Of(source.record)}
                    or (l.entry::jsonb ->> 'at') is distinct from ${source.at})
             order by p.leaf_index nulls last, l.id
@@ -99,10 +101,15 @@ function snapshotOn(main: PoolClient, side: PoolClient): LogSnapshot {
     async findUnloggedRows(limit) {
       const found: { kind: LogLeafKind; ref: string }[] = [];
       for (const source of LEAF_SOURCES) {
+        const unlogged = `from ${source.table} s
+            where not exists (select 1 from log_leaves l where l.kind = $1 and l.ref = s.id::text)`;
+        // Counted first, as a hash anti-join over the whole table (under a second on a million runs); the rows are
+        // listed in time order only when there are some (with ORDER BY … LIMIT the planner probes the index once per
+        // row instead: 5 s).
+        const { rows: count } = await side.query<{ n: number }>(`select count(*)::int as n ${unlogged}`, [source.kind]);
+        if (count[0].n === 0) continue;
         const { rows } = await side.query<{ ref: string }>(
-          `select s.id::text as ref from ${source.table} s
-            where not exists (select 1 from log_leaves l where l.kind = $1 and l.ref = s.id::text)
-            order by ${source.time} limit $2`,
+          `select s.id::text as ref ${unlogged} order by ${source.time} limit $2`,
           [source.kind, limit],
         );
         found.push(...rows.map((row) => ({ kind: source.kind, ref: row.ref })));

@@ -20,7 +20,8 @@ export type Bench = {
   close: () => Promise<void>;
 };
 
-export type BenchSection = { title: string; run: (bench: Bench) => Promise<void> };
+/** `id` names the section for `--only` (e.g. `npm run bench:audit -- --reuse --only integrity`). */
+export type BenchSection = { id: string; title: string; run: (bench: Bench) => Promise<void> };
 
 export async function openBench({ appUrl, ownerUrl }: { appUrl: string; ownerUrl: string }): Promise<Bench> {
   const app = new pg.Pool({ connectionString: appUrl, max: 2 });
@@ -97,6 +98,7 @@ function filtersOf(values: Awaited<ReturnType<typeof benchValues>>): Filter[] {
 
 /** p50 and p95 of a page of the run log (50 rows) through the page's own use case, and of the page after it. */
 const runLogPages: BenchSection = {
+  id: "pages",
   title: "Run log pages: runUseCase(readRunLog) — the use case /audit/runs renders, its one query lib/data/run-list.ts listRuns",
   run: async (bench) => {
     const values = await benchValues(bench);
@@ -132,6 +134,7 @@ const runLogPages: BenchSection = {
 
 /** The CSV export of every run: the export use case, then its stream read to the end. */
 const csvExport: BenchSection = {
+  id: "csv",
   title: "CSV export: runUseCase(exportRunLog) then runLogCsvStream — what GET /api/runs/export sends",
   run: async (bench) => {
     for (const [name, input] of [
@@ -160,6 +163,7 @@ const csvExport: BenchSection = {
 
 /** The sealer over the load's backlog: every run loaded left its leaf waiting (the trigger writes it with the row). */
 const logSealer: BenchSection = {
+  id: "sealer",
   title: "Verifiable log: the sealer folds the waiting leaves into signed tree heads (lib/jobs/sealer.ts sealAll)",
   run: async () => {
     await benchSealer();
@@ -168,6 +172,7 @@ const logSealer: BenchSection = {
 
 /** The whole integrity check, as the Integrity page and `npm run verify-integrity` run it. */
 const integrityCheck: BenchSection = {
+  id: "integrity",
   title: "Verifiable log: the whole integrity check (lib/use-cases/integrity-check.ts)",
   run: async () => {
     await benchIntegrityCheck();

@@ -110,6 +110,16 @@ describe("migrations on an empty database", () => {
     ]);
   });
 
+  it("keep a run's record compressed with lz4 (the integrity check decompresses every record)", async () => {
+    const compression = await withClient(freshOwnerUrl, async (client) => {
+      const column = await client.query(
+        "select attcompression from pg_attribute where attrelid = 'runs'::regclass and attname = 'record'",
+      );
+      return column.rows[0].attcompression as string;
+    });
+    expect(compression).toBe("l");
+  });
+
   it("make audit_events append-only, for the owner too: INSERT works, UPDATE, DELETE and TRUNCATE raise", async () => {
     await withClient(freshOwnerUrl, async (client) => {
       await client.query("insert into audit_events (action) values ('test.append')");

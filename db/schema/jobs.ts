@@ -103,6 +103,15 @@ export const runs = pgTable(
       t.createdAt.desc(),
       t.id.desc(),
     ),
+    // One person's runs by utilisation ("whose runs are nearest their limits"), read in order: with the index above a
+    // person's 28,000 runs of a million were walked in utilisation order and filtered one by one (136 ms for a page of
+    // one person's runs of one standard; 2 ms with this one).
+    index("runs_person_utilisation_idx").on(
+      t.createdById,
+      sql`coalesce(${t.maxUtilisation}, '-Infinity'::float8) desc nulls last`,
+      t.createdAt.desc(),
+      t.id.desc(),
+    ),
     // Failures are few: "failed in the engine" and "a check fails" read from their own small indexes.
     index("runs_failed_created_idx")
       .on(t.createdAt.desc(), t.id.desc())

@@ -117,6 +117,7 @@ export async function checkLogIntegrity({
       }
       const match = ENTRY.exec(leaf.entry);
       const hash = leafHash(Buffer.from(leaf.entry, "utf8"));
+      const hashMatches = leaf.leafHash.equals(hash);
       if (!match || !KINDS.has(match[2]) || match[2] !== leaf.kind || match[3] !== leaf.ref) {
         add({
           leafIndex: leaf.leafIndex,
@@ -125,7 +126,7 @@ export async function checkLogIntegrity({
           ref: leaf.ref,
           message: "the leaf's entry is not the canonical entry of its row",
         });
-      } else if (!hash.every((byte, i) => byte === leaf.leafHash[i])) {
+      } else if (!hashMatches) {
         add({
           leafIndex: leaf.leafIndex,
           what: "leaf",
@@ -134,7 +135,7 @@ export async function checkLogIntegrity({
           message: "the leaf's stored hash is not the hash of its entry",
         });
       }
-      if (!leaf.node || !hash.every((byte, i) => byte === leaf.node![i])) {
+      if (!leaf.node.equals(hash)) {
         add({
           leafIndex: leaf.leafIndex,
           what: "node",

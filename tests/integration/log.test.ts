@@ -341,6 +341,8 @@ describe("the integrity check", () => {
       await asOwner(async (client) => {
         await client.query("alter table log_nodes disable trigger log_nodes_no_update_delete");
         await client.query("update log_nodes set hash = decode(repeat('ab', 32), 'hex') where level = 1 and idx = 0");
+        // A leaf's own stored node (level 0), which the check compares with the leaf's hash in the database.
+        await client.query("update log_nodes set hash = decode(repeat('ba', 32), 'hex') where level = 0 and idx = 3");
         await client.query("alter table log_nodes enable trigger log_nodes_no_update_delete");
         const { rows } = await client.query<{ size: string }>("select max(size) as size from log_tree_heads");
         await client.query(
@@ -357,6 +359,7 @@ describe("the integrity check", () => {
       expect(out).toContain(
         "the stored subtree at level 1, index 0 (served in proofs) differs from the one rebuilt from the leaves",
       );
+      expect(out).toContain("[leaf 3] the tree's stored leaf node differs from the leaf's hash");
       expect(out).toMatch(/the tree head of size \d+ names key efefefefefefefef…, not the log's key/);
       expect(out).toMatch(/the tree head of size \d+ is larger than the \d+ sealed leaves/);
       expect(out).toMatch(/audit-event \d+ has no leaf in the log/);

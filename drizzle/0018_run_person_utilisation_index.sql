@@ -1,0 +1,1 @@
+CREATE INDEX "runs_person_utilisation_idx" ON "runs" USING btree ("created_by_id",coalesce("max_utilisation", '-Infinity'::float8) desc nulls last,"created_at" DESC NULLS LAST,"id" DESC NULLS LAST);

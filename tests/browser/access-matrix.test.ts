@@ -158,6 +158,11 @@ const PAGES: Record<string, { path: string; title?: string; expect: Record<Who, 
     path: "/runs/00000000-0000-4000-8000-000000000000/trace",
     expect: { ...signedInPage("lead", "engineer", "auditor"), lead: "not-found", engineer: "not-found", auditor: "not-found" },
   },
+  "/(app)/withdrawals/(list)/page": {
+    path: "/withdrawals",
+    title: "Withdrawals",
+    expect: signedInPage("lead", "engineer", "auditor"),
+  },
   // A withdrawal nothing has: the 404 page for those who read runs (an impact report is read by whoever reads runs).
   "/(app)/withdrawals/[id]/page": {
     path: "/withdrawals/00000000-0000-4000-8000-000000000000",
@@ -840,6 +845,7 @@ describe("signing in brings people back", () => {
       "/runs/00000000-0000-4000-8000-000000000000/sheet",
       "/runs/00000000-0000-4000-8000-000000000000",
       "/runs/00000000-0000-4000-8000-000000000000/trace",
+      "/withdrawals",
       "/withdrawals/00000000-0000-4000-8000-000000000000",
       "/runs/compare",
       "/audit",

@@ -78,7 +78,7 @@ it(
     await shell.home().waitFor();
     expect(await shell.home().getAttribute("data-role")).toBe("lead");
     expect((await shell.userName().textContent())?.trim()).toBe(invitee.name);
-    expect(await shell.navLabels()).toEqual(["Home", "Standards", "Libraries", "Jobs", "Runs"]);
+    expect(await shell.navLabels()).toEqual(["Home", "Standards", "Libraries", "Jobs", "Runs", "Withdrawals"]);
 
     // The link works once.
     await invitation.open(link);

@@ -13,9 +13,9 @@ const mailboxInUse = await isFakeMailInUse();
 
 const EXPECTED_NAV: Record<Role, string[]> = {
   admin: ["Home", "Libraries", "Audit trail", "Integrity", "People", ...(mailboxInUse ? ["Demo mailbox"] : [])],
-  lead: ["Home", "Standards", "Libraries", "Jobs", "Runs"],
-  engineer: ["Home", "Standards", "Libraries", "Jobs", "Runs"],
-  auditor: ["Home", "Standards", "Libraries", "Jobs", "Runs", "Audit trail", "Integrity", "People"],
+  lead: ["Home", "Standards", "Libraries", "Jobs", "Runs", "Withdrawals"],
+  engineer: ["Home", "Standards", "Libraries", "Jobs", "Runs", "Withdrawals"],
+  auditor: ["Home", "Standards", "Libraries", "Jobs", "Runs", "Withdrawals", "Audit trail", "Integrity", "People"],
 };
 
 // What each home shows first: one panel that only that role's home has.

@@ -61,6 +61,20 @@ it(
     expect(await deltas.first().getAttribute("data-newly-failing")).toBe("1");
     expect(await deltas.last().getAttribute("data-newly-failing")).toBe("0");
     expect(await seriousViolations(page)).toEqual([]);
+
+    // The withdrawals list, from the menu, leads back to this report.
+    const report = new URL(page.url()).pathname;
+    const label = (await page.getByTestId("page-title").textContent())!.replace(/^Impact report: /, "");
+    await page.getByRole("navigation").getByRole("link", { name: "Withdrawals" }).click();
+    await page.waitForURL(/\/withdrawals$/);
+    await page
+      .getByTestId("page-title")
+      .filter({ hasText: /^Withdrawals$/ })
+      .waitFor();
+    const row = page.getByTestId("withdrawal-row").filter({ has: page.getByRole("link", { name: label, exact: true }) });
+    expect(await row.count()).toBe(1);
+    expect(await row.getByRole("link").getAttribute("href")).toBe(report);
+    expect(await row.textContent()).toContain("Standard version");
     expect(refused.filter((text) => /Content Security Policy|Refused to/.test(text))).toEqual([]);
 
     async function successorLabel(): Promise<string> {

@@ -156,6 +156,7 @@ export const APP_PAGES: AppPage[] = [
     status: 404,
     visitors: ["auditor"],
   },
+  { name: "withdrawals", entry: "/(app)/withdrawals/(list)/page", path: "/withdrawals", visitors: ["auditor", "engineer"] },
   // The impact report of a withdrawal; a real one is walked by the withdrawal journey (tests/browser).
   {
     name: "the impact report of a withdrawal that does not exist",

@@ -9,6 +9,8 @@ const PATHS: Record<NavIconName, string> = {
   jobs: "M3 6.5h14v9.5H3zM7 6.5V4h6v2.5M3 10.5h14",
   // a calc sheet with a "run" arrowhead on it: a standard put through its steps
   runs: "M4.5 2.5h8l3 3v12h-11zM12.5 2.5v3h3M8 8.5l4.5 3-4.5 3z",
+  // a sheet struck through: a version taken out of use
+  withdrawals: "M5 2.5h7l3.5 3.5v11.5H5zM12 2.5V6h3.5M3.5 16.5l13-13",
   audit: "M5 2.5h7l3.5 3.5v11.5H5zM8 9.5h5M8 12.5h5M8 15.5h3",
   // three hashes joined into one: the log's tree, sealed at its root
   integrity: "M10 3.5v4M10 7.5 5 12.5M10 7.5l5 5M3.5 12.5h3v3h-3zM13.5 12.5h3v3h-3zM8.5 2h3v3h-3z",

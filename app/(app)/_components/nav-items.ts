@@ -3,7 +3,8 @@
 // would answer 403. Hiding is a courtesy here — the page's own requirePageActor() is the check.
 import type { Action } from "@/lib/domain/permissions";
 
-export type NavIcon = "home" | "standards" | "libraries" | "jobs" | "runs" | "audit" | "integrity" | "people" | "mailbox";
+export type NavIcon =
+  "home" | "standards" | "libraries" | "jobs" | "runs" | "withdrawals" | "audit" | "integrity" | "people" | "mailbox";
 
 export type NavItem = {
   href: string;
@@ -20,6 +21,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/libraries", label: "Libraries", icon: "libraries", permission: "libraries.read", group: "work" },
   { href: "/jobs", label: "Jobs", icon: "jobs", permission: "jobs.read", group: "work" },
   { href: "/runs", label: "Runs", icon: "runs", permission: "runs.read", group: "work" },
+  { href: "/withdrawals", label: "Withdrawals", icon: "withdrawals", permission: "runs.read", group: "work" },
   { href: "/audit", label: "Audit trail", icon: "audit", permission: "audit.read", group: "work" },
   { href: "/audit/integrity", label: "Integrity", icon: "integrity", permission: "integrity.verify", group: "work" },
   { href: "/admin/users", label: "People", icon: "people", permission: "users.read", group: "admin" },

@@ -163,12 +163,15 @@ export type RunsCompared = {
   labels: Record<string, string>;
 };
 
-/** Two runs of the same standard side by side, from their records. Runs of different standards are refused. */
+/**
+ * Two runs of the same standard side by side, from their records, their values in the units asked for (the person's
+ * display units). Runs of different standards are refused.
+ */
 export const compareRuns = defineUseCase({
   name: "runs.compare",
   permission: "runs.read",
   input: compareRunsSchema,
-  run: async ({ a, b }): Promise<RunsCompared> => {
+  run: async ({ a, b, units }): Promise<RunsCompared> => {
     const [runA, runB] = await Promise.all([getRun(a), getRun(b)]);
     if (!runA || !runB)
       throw new AppError("not-found", "There is no run with that id.", {
@@ -192,7 +195,7 @@ export const compareRuns = defineUseCase({
     }
     const { record: recordA, ...a_ } = runA;
     const { record: recordB, ...b_ } = runB;
-    return { a: a_, b: b_, comparison: compareRecords(readRunRecord(recordA), readRunRecord(recordB)), labels };
+    return { a: a_, b: b_, comparison: compareRecords(readRunRecord(recordA), readRunRecord(recordB), units), labels };
   },
   audit: null,
 });

@@ -63,6 +63,12 @@ const envSchema = z.object({
    * that terminates TLS: the app's loopback address, e.g. http://localhost:3000).
    */
   GUSSET_RENDER_URL: optionalUrl,
+  /**
+   * The id of the app's build being served (scripts/serve.mjs reads it from .next/BUILD_ID). Part of a calc sheet's
+   * key: a kept PDF is served without opening Chromium only for the build that drew it. Unset (next dev, a script):
+   * every sheet PDF is checked in Chromium.
+   */
+  GUSSET_BUILD_ID: z.string().trim().min(1).max(200).optional(),
   /** The log's Ed25519 private key, PKCS #8 DER in base64: only the worker, which seals tree heads, needs it. */
   GUSSET_LOG_SIGNING_KEY: z.string().min(40).optional(),
   /** The log's public key, SPKI DER in base64: every head is checked against it (derived from the private key if unset). */

@@ -12,8 +12,10 @@
 // Rate limits and the audit trail read only x-gusset-client-address (lib/auth/client-address.ts), and
 // only when this server set GUSSET_CLIENT_ADDRESS_FROM_SERVER, so `next start` run on its own cannot be
 // fooled by a forged header either: it records no address at all.
+import fs from "node:fs";
 import http from "node:http";
 import net from "node:net";
+import path from "node:path";
 import { parseArgs } from "node:util";
 import next from "next";
 
@@ -133,6 +135,15 @@ export function guardServerAction(req, res) {
   return false;
 }
 
+/** The id `next build` wrote for the build in `dir`'s .next, or null without one. */
+export function readBuildId(dir) {
+  try {
+    return fs.readFileSync(path.join(dir, ".next", "BUILD_ID"), "utf8").trim() || null;
+  } catch {
+    return null;
+  }
+}
+
 async function main() {
   const { values } = parseArgs({
     options: { hostname: { type: "string", default: "127.0.0.1" }, port: { type: "string", default: "3000" } },
@@ -141,6 +152,11 @@ async function main() {
   const trusted = trustedProxyList(process.env.GUSSET_TRUSTED_PROXIES);
   // Read by lib/server-env.ts: the app believes x-gusset-client-address only under this server.
   process.env.GUSSET_CLIENT_ADDRESS_FROM_SERVER = "1";
+  // Read by lib/server-env.ts: the build served, part of a calc sheet's key (a kept PDF is served without Chromium
+  // only for the build that drew it, lib/use-cases/sheet-key.ts).
+  const buildId = readBuildId(process.cwd());
+  if (buildId) process.env.GUSSET_BUILD_ID = buildId;
+  else delete process.env.GUSSET_BUILD_ID;
   const app = next({ dev: false, hostname: values.hostname, port });
   const handle = app.getRequestHandler();
   await app.prepare();

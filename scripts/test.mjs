@@ -10,6 +10,7 @@ import os from "node:os";
 import path from "node:path";
 import { authSecret, childEnv, databaseUrlFor, gussetEnv, migrationEnv, portsFor, repoRoot } from "./lib/env.mjs";
 import { buildStaleness, ensureBuild } from "./lib/build.mjs";
+import { readBuildId } from "./serve.mjs";
 import { CHROMIUM_PACKAGE, POPPLER_PACKAGE, POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
 import { createLifecycle, profileSetup } from "./lib/lifecycle.mjs";
 import { say } from "./lib/processes.mjs";
@@ -85,6 +86,10 @@ await main(async () => {
   // The tests' own code runs as the app's role (DATABASE_URL) like the server and the worker; the owner's
   // and the superuser's URLs are for fixtures only: scratch databases, migrations, the owner's view.
   const testEnv = { ...env, ...migrationEnv("test"), DATABASE_ADMIN_URL: databaseUrlFor("test", "superuser", "postgres") };
+  // The build the test server serves (scripts/serve.mjs sets the same there): route handlers called in-process
+  // compute a calc sheet's key for that build.
+  const buildId = readBuildId(repoRoot);
+  if (buildId) testEnv.GUSSET_BUILD_ID = buildId;
   const reportFile = path.join(os.tmpdir(), `gusset-vitest-${process.pid}.json`);
   const code = await timer.phase("vitest", () => runVitest(testEnv, reportFile));
   const counts = countsLine(reportFile);

@@ -11,6 +11,10 @@
 //                         their sha256 before the row is written; append-only
 //   calc_sheet_pdfs       each state of a run's calc sheet rendered to PDF by Chromium and stored in S3: a new
 //                         sign-off or a withdrawal banner gives a new row, an old one is kept; append-only
+//   calc_sheet_pdf_keys   each sheet key a kept PDF is known by: the sha256 of what the sheet shows, read from the
+//                         database, and the build that draws it (lib/use-cases/sheet-key.ts), so a kept PDF is served
+//                         without opening Chromium; one PDF may have several (a new build drawing the same sheet);
+//                         append-only, so a key never comes to name another PDF
 import { sql } from "drizzle-orm";
 import {
   type AnyPgColumn,
@@ -209,3 +213,24 @@ export const calcSheetPdfs = pgTable(
   ],
 );
 export type CalcSheetPdf = typeof calcSheetPdfs.$inferSelect;
+
+export const calcSheetPdfKeys = pgTable(
+  "calc_sheet_pdf_keys",
+  {
+    runId: uuid("run_id")
+      .notNull()
+      .references(() => runs.id),
+    /** sha256 (hex) of the sheet's facts and the app's build, as the sheet page computed it when it drew the PDF. */
+    sheetKey: text("sheet_key").notNull(),
+    pdfId: uuid("pdf_id")
+      .notNull()
+      .references(() => calcSheetPdfs.id),
+    keptAt: timestamp("kept_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    primaryKey({ name: "calc_sheet_pdf_keys_pkey", columns: [t.runId, t.sheetKey] }),
+    index("calc_sheet_pdf_keys_pdf_idx").on(t.pdfId),
+    check("calc_sheet_pdf_keys_key_check", sql`${t.sheetKey} ~ '^[0-9a-f]{64}$'`),
+  ],
+);
+export type CalcSheetPdfKey = typeof calcSheetPdfKeys.$inferSelect;

@@ -1,9 +1,9 @@
 import "server-only";
 // Files kept beside jobs and runs: attachments (sketches, site photos, PDFs) and the calc sheet PDFs rendered for
-// each state of a run's sheet. The bytes live in S3 under keys made from their sha256; these rows say what they
-// are, and are append-only.
+// each state of a run's sheet, with the sheet keys each is known by. The bytes live in S3 under keys made from their
+// sha256; these rows say what they are, and are append-only.
 import { and, asc, eq, isNull } from "drizzle-orm";
-import { calcSheetPdfs, jobAttachments, user, type JobAttachmentType } from "@/db/schema";
+import { calcSheetPdfKeys, calcSheetPdfs, jobAttachments, user, type JobAttachmentType } from "@/db/schema";
 import { currentDb } from "./transaction";
 
 /** The S3 key of a calc sheet PDF: content-addressed, so a key is never written with other bytes. */
@@ -52,6 +52,24 @@ export async function findSheetPdf(
     ),
   );
   return row ? toSheetPdf(row) : null;
+}
+
+/** The PDF kept under a sheet key (what the sheet showed and the build that drew it), if any. */
+export async function findSheetPdfByKey(where: { runId: string; sheetKey: string }): Promise<SheetPdfDto | null> {
+  const [row] = await selectSheetPdfs()
+    .innerJoin(calcSheetPdfKeys, eq(calcSheetPdfKeys.pdfId, calcSheetPdfs.id))
+    .where(and(eq(calcSheetPdfKeys.runId, where.runId), eq(calcSheetPdfKeys.sheetKey, where.sheetKey)));
+  return row ? toSheetPdf(row) : null;
+}
+
+/** Names a kept PDF by a sheet key; a key already kept keeps its PDF (false). */
+export async function insertSheetPdfKey(values: { runId: string; sheetKey: string; pdfId: string }): Promise<boolean> {
+  const inserted = await currentDb()
+    .insert(calcSheetPdfKeys)
+    .values(values)
+    .onConflictDoNothing()
+    .returning({ pdfId: calcSheetPdfKeys.pdfId });
+  return inserted.length > 0;
 }
 
 /** Oldest first: the order the sheet's states were kept in. */

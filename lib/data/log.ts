@@ -7,7 +7,7 @@ import { logLeaves, logPending, logPositions, logTreeHeads, type LogLeafKind, ty
 import { currentDb } from "./transaction";
 
 /** pg_try_advisory_xact_lock key: one sealer at a time, however many workers run. */
-const SEALER_LOCK = 9162_2291;
+export const SEALER_LOCK = 9162_2291;
 
 export type TreeHeadDto = {
   size: number;

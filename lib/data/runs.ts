@@ -105,8 +105,13 @@ export async function getRunSummary(id: string): Promise<RunSummaryDto | null> {
 export async function getRun(id: string): Promise<RunDto | null> {
   const row = await getRunSummary(id);
   if (!row) return null;
-  const [{ record }] = await currentDb().select({ record: runs.record }).from(runs).where(eq(runs.id, id));
-  return { ...row, record };
+  return { ...row, record: (await getRunRecord(id))! };
+}
+
+/** A run's canonical record as stored, alone. */
+export async function getRunRecord(id: string): Promise<string | null> {
+  const [row] = await currentDb().select({ record: runs.record }).from(runs).where(eq(runs.id, id));
+  return row?.record ?? null;
 }
 
 export async function countRunsOfJob(jobId: string): Promise<number> {

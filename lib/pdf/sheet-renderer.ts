@@ -5,7 +5,8 @@ import "server-only";
 //
 // A sheet's *state* is the sha256 of its markup as Chromium laid it out: the same run shows a new state when a
 // sign-off is added or its version is withdrawn, and the same state again otherwise. The caller keeps one PDF
-// per state (lib/use-cases/sheet-pdfs.ts).
+// per state (lib/use-cases/files.ts), under the sheet key the page printed beside the sheet (data-sheet-key), and
+// opens the sheet here only when no PDF is kept under the key of what the database holds now.
 //
 // One browser per server process, launched on first use and relaunched if it dies; at most two sheets are
 // open at once (each page holds tens of MB), the rest wait their turn.
@@ -73,6 +74,8 @@ function parseCookies(header: string, url: string): { name: string; value: strin
 export type OpenSheet = {
   /** sha256 (hex) of the sheet's markup: what it shows now. */
   stateSha256: string;
+  /** The key of the facts the page drew the sheet from, as it printed it (lib/use-cases/sheet-key.ts); null without one. */
+  sheetKey: string | null;
   /** Prints the open sheet; the PDF's bytes and its page count. */
   print: () => Promise<{ body: Uint8Array; pages: number }>;
 };
@@ -86,6 +89,13 @@ export function countPdfPages(body: Uint8Array): number {
   ).length;
 }
 
+let opened = 0;
+
+/** How many sheets this process has opened in Chromium: a kept PDF served by its key opens none. */
+export function sheetsOpened(): number {
+  return opened;
+}
+
 /**
  * Opens a run's calc sheet in the server's Chromium as the asking person and hands it to `use` (which may
  * print it); the page is closed afterwards whatever happens.
@@ -93,6 +103,7 @@ export function countPdfPages(body: Uint8Array): number {
 export async function withOpenSheet<T>(runId: string, use: (sheet: OpenSheet) => Promise<T>): Promise<T> {
   const cookieHeader = requestCookies.getStore();
   if (!cookieHeader) throw new AppError("unauthenticated", "Sign in to make a calc sheet PDF.");
+  opened++;
   const base = (serverEnv().GUSSET_RENDER_URL ?? appBaseUrl()).replace(/\/+$/, "");
   const address = `${base}/runs/${encodeURIComponent(runId)}/sheet`;
   const release = await takeTurn();
@@ -110,8 +121,12 @@ export async function withOpenSheet<T>(runId: string, use: (sheet: OpenSheet) =>
       await page.evaluate(() => document.fonts.ready.then(() => undefined));
       const markup = await page.locator('[data-testid="calc-sheet"]').evaluate((element) => element.outerHTML);
       const stateSha256 = createHash("sha256").update(markup).digest("hex");
+      const sheetKey = await page.evaluate(
+        () => document.querySelector("[data-sheet-key]")?.getAttribute("data-sheet-key") ?? null,
+      );
       return await use({
         stateSha256,
+        sheetKey,
         print: async () => {
           await page.emulateMedia({ media: "print" });
           const body = new Uint8Array(await page.pdf({ preferCSSPageSize: true, printBackground: true }));

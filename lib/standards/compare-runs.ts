@@ -3,8 +3,10 @@
  * either record, with both values as shown and the relative difference of their SI values ((b − a) / |a|).
  * Read from the two stored records alone. A value only one of the runs has (another version added or dropped
  * it) is listed with the other side empty; a value that is text (a choice, a library entry's name) is compared
- * as text.
+ * as text. Numbers are shown in the person's display units (SI as the standard wrote them, or US customary
+ * converted from the SI value, as the run's page shows them); the difference is always that of the SI values.
  */
+import { showValue, type DisplayUnits } from "./display-units";
 import { inOrder, type RunRecord } from "./run-record";
 
 export type ComparedValue = {
@@ -30,9 +32,13 @@ export type RunComparison = {
 
 type Side = { si: number | string; display: string; label?: string };
 
-function compareValue(key: string, a: Side | undefined, b: Side | undefined): ComparedValue {
+/** A side as the person reads it: a number in their display units, text as it is. */
+const shownIn = (side: Side | undefined, units: DisplayUnits): string | null =>
+  !side ? null : typeof side.si === "number" ? showValue(side.si, side.display, units) : side.display;
+
+function compareValue(key: string, a: Side | undefined, b: Side | undefined, units: DisplayUnits): ComparedValue {
   const label = a?.label ?? b?.label ?? key;
-  const shown = { key, label, a: a?.display ?? null, b: b?.display ?? null };
+  const shown = { key, label, a: shownIn(a, units), b: shownIn(b, units) };
   if (!a || !b) return { ...shown, relative: null, changed: true };
   if (typeof a.si !== "number" || typeof b.si !== "number") return { ...shown, relative: null, changed: a.si !== b.si };
   const relative = a.si === b.si ? 0 : a.si === 0 ? null : (b.si - a.si) / Math.abs(a.si);
@@ -44,14 +50,16 @@ function compareGroup(
   b: Readonly<Record<string, Side>>,
   orderA: ReadonlyArray<string>,
   orderB: ReadonlyArray<string>,
+  units: DisplayUnits,
 ): ComparedValue[] {
   const keys = inOrder({ ...b, ...a }, [...orderA, ...orderB.filter((key) => !orderA.includes(key))]).map(([key]) => key);
-  return keys.map((key) => compareValue(key, a[key], b[key]));
+  return keys.map((key) => compareValue(key, a[key], b[key], units));
 }
 
 const evaluationOf = (record: RunRecord) => (record.outcome === "succeeded" ? record.evaluation : null);
 
-export function compareRuns(a: RunRecord, b: RunRecord): RunComparison {
+/** The two records' values side by side, shown in `units` (SI unless asked); differences of the SI values. */
+export function compareRuns(a: RunRecord, b: RunRecord, units: DisplayUnits = "si"): RunComparison {
   const ea = evaluationOf(a);
   const eb = evaluationOf(b);
   const inputsOf = (record: RunRecord, evaluation: ReturnType<typeof evaluationOf>): Record<string, Side> =>
@@ -68,10 +76,10 @@ export function compareRuns(a: RunRecord, b: RunRecord): RunComparison {
       ]),
     );
   return {
-    inputs: compareGroup(inputsOf(a, ea), inputsOf(b, eb), a.order.inputs, b.order.inputs),
-    derived: compareGroup(ea?.derived ?? {}, eb?.derived ?? {}, a.order.derived, b.order.derived),
-    extracts: compareGroup(ea?.extracts ?? {}, eb?.extracts ?? {}, a.order.extracts, b.order.extracts),
-    utilisations: compareGroup(utilisationsOf(ea), utilisationsOf(eb), a.order.checks, b.order.checks),
+    inputs: compareGroup(inputsOf(a, ea), inputsOf(b, eb), a.order.inputs, b.order.inputs, units),
+    derived: compareGroup(ea?.derived ?? {}, eb?.derived ?? {}, a.order.derived, b.order.derived, units),
+    extracts: compareGroup(ea?.extracts ?? {}, eb?.extracts ?? {}, a.order.extracts, b.order.extracts, units),
+    utilisations: compareGroup(utilisationsOf(ea), utilisationsOf(eb), a.order.checks, b.order.checks, units),
     pass: { a: ea?.pass ?? null, b: eb?.pass ?? null },
   };
 }

@@ -1,10 +1,13 @@
 import "server-only";
 // Files beside jobs and runs.
 //
-// Calc sheet PDFs: the server's Chromium opens the run's print-ready sheet as the person asking and, when the
-// sheet shows a state no PDF was kept for (a new sign-off, a withdrawal banner), prints it, stores the bytes in S3
-// under their sha256 and keeps a row; otherwise the PDF kept for that state is served. Old PDFs stay. Rendering
-// and S3 happen before the transaction opens; the row is written inside it.
+// Calc sheet PDFs: when a PDF is kept under the key of what the sheet shows now (the sheet's facts read from the
+// database and the app's build, lib/use-cases/sheet-key.ts), it is served as it is, without opening Chromium. Else
+// the server's Chromium opens the run's print-ready sheet as the person asking and, when the sheet shows a state no
+// PDF was kept for (a new sign-off, a withdrawal banner, a new seal), prints it, stores the bytes in S3 under their
+// sha256 and keeps a row; otherwise the PDF kept for that state is served. Either way the PDF is then known by the
+// key the page printed, the key of the facts it drew. Old PDFs and keys stay, never overwritten. Rendering and S3
+// happen before the transaction opens; the rows are written inside it.
 //
 // Attachments: a file on a job or on one of its runs, its type told from its bytes, stored in S3 under its
 // sha256 before the row is written (a failed upload leaves no row). Downloads check who may read the job.
@@ -22,9 +25,11 @@ import type { JobAttachmentType } from "@/db/schema";
 import {
   attachmentKey,
   findSheetPdf,
+  findSheetPdfByKey,
   getAttachment,
   insertAttachment,
   insertSheetPdf,
+  insertSheetPdfKey,
   listAttachments,
   listSheetPdfs,
   sheetPdfKey,
@@ -33,6 +38,8 @@ import {
 } from "@/lib/data/files";
 import { getJob } from "@/lib/data/jobs";
 import { getRunSummary } from "@/lib/data/runs";
+import { sheetFactsOf } from "./runs";
+import { isSheetKey, sheetKeyOf } from "./sheet-key";
 import { getObject, putObject } from "@/lib/storage/s3";
 import { withOpenSheet } from "@/lib/pdf/sheet-renderer";
 
@@ -50,9 +57,10 @@ async function readStoredPdf(pdf: SheetPdfDto): Promise<Uint8Array> {
 
 export type SheetPdfDownload = SheetPdfDto & { body: Uint8Array; added: boolean };
 
+/** `sheetKey`: the key the page printed, for the PDF to be known by (null when it is known by it already). */
 type Rendered =
-  | { kind: "kept"; pdf: SheetPdfDto; body: Uint8Array }
-  | { kind: "new"; stateSha256: string; sha256: string; bytes: number; pages: number; body: Uint8Array };
+  | { kind: "kept"; pdf: SheetPdfDto; body: Uint8Array; sheetKey: string | null }
+  | { kind: "new"; stateSha256: string; sha256: string; bytes: number; pages: number; body: Uint8Array; sheetKey: string | null };
 
 /** The PDF of a run's calc sheet as it shows now: the one kept for this state, or a new one rendered and kept. */
 export const renderSheetPdf = defineUseCase({
@@ -60,21 +68,32 @@ export const renderSheetPdf = defineUseCase({
   permission: "runs.read",
   input: runRefSchema,
   prepare: async ({ id }): Promise<Rendered> => {
-    if (!(await getRunSummary(id))) throw new AppError("not-found", "There is no run with that id.");
+    const facts = await sheetFactsOf(id);
+    if (!facts) throw new AppError("not-found", "There is no run with that id.");
+    // Nothing the sheet shows has changed since a PDF was kept for it: that PDF, without Chromium.
+    const key = sheetKeyOf(facts);
+    const known = key ? await findSheetPdfByKey({ runId: id, sheetKey: key }) : null;
+    if (known) return { kind: "kept", pdf: known, body: await readStoredPdf(known), sheetKey: null };
     return withOpenSheet(id, async (sheet): Promise<Rendered> => {
+      const sheetKey = isSheetKey(sheet.sheetKey) ? sheet.sheetKey : null;
       const kept = await findSheetPdf({ runId: id, stateSha256: sheet.stateSha256 });
-      if (kept) return { kind: "kept", pdf: kept, body: await readStoredPdf(kept) };
+      if (kept) return { kind: "kept", pdf: kept, body: await readStoredPdf(kept), sheetKey };
       const { body, pages } = await sheet.print();
       const sha256 = sha256Of(body);
       await putObject({ key: sheetPdfKey(id, sha256), body, contentType: "application/pdf" });
-      return { kind: "new", stateSha256: sheet.stateSha256, sha256, bytes: body.length, pages, body };
+      return { kind: "new", stateSha256: sheet.stateSha256, sha256, bytes: body.length, pages, body, sheetKey };
     });
   },
   run: async ({ id }, { actor, prepared }): Promise<SheetPdfDownload> => {
-    if (prepared.kind === "kept") return { ...prepared.pdf, body: prepared.body, added: false };
-    const { stateSha256, sha256, bytes, pages, body } = prepared;
+    if (prepared.kind === "kept") {
+      // The same state under a key not kept yet (a new build, a name changed and changed back): known by it from now on.
+      if (prepared.sheetKey) await insertSheetPdfKey({ runId: id, sheetKey: prepared.sheetKey, pdfId: prepared.pdf.id });
+      return { ...prepared.pdf, body: prepared.body, added: false };
+    }
+    const { stateSha256, sha256, bytes, pages, body, sheetKey } = prepared;
     const added = await insertSheetPdf({ runId: id, stateSha256, sha256, bytes, pages, renderedById: actor.id });
     const pdf = (await findSheetPdf({ runId: id, stateSha256 }))!;
+    if (sheetKey) await insertSheetPdfKey({ runId: id, sheetKey, pdfId: pdf.id });
     // Another request kept this state first: serve what it kept (its bytes are read after the commit).
     return { ...pdf, body: added ? body : new Uint8Array(), added };
   },

@@ -95,20 +95,23 @@ export async function readSeal(kind: LogLeafKind, ref: string, treeSize?: number
 
 export type RunSeal = { view: InclusionView; publicKeyPem: string; fingerprint: string };
 
+/** A run's seal as its page and calc sheet show it (the first head that holds it, with the log's key). */
+export async function runSealOf(id: string): Promise<RunSeal> {
+  const { pem, fingerprint } = logPublicKeyFromSettings();
+  // A proof that does not verify is shown as such on the run's page and sheet, never as a page that fails to open.
+  const view = await readSeal("run", id).catch(async (error: unknown): Promise<InclusionView> => {
+    if (!(error instanceof AppError) || error.code !== "internal") throw error;
+    return { sealed: false, leaf: await getLeaf("run", id), problem: error.message };
+  });
+  return { view, publicKeyPem: pem, fingerprint };
+}
+
 /** A run's seal, for its page and calc sheet: whoever may read the run may see (and check) it. */
 export const readRunSeal = defineUseCase({
   name: "runs.seal",
   permission: "runs.read",
   input: runRefSchema,
-  run: async ({ id }): Promise<RunSeal> => {
-    const { pem, fingerprint } = logPublicKeyFromSettings();
-    // A proof that does not verify is shown as such on the run's page and sheet, never as a page that fails to open.
-    const view = await readSeal("run", id).catch(async (error: unknown): Promise<InclusionView> => {
-      if (!(error instanceof AppError) || error.code !== "internal") throw error;
-      return { sealed: false, leaf: await getLeaf("run", id), problem: error.message };
-    });
-    return { view, publicKeyPem: pem, fingerprint };
-  },
+  run: async ({ id }): Promise<RunSeal> => runSealOf(id),
   audit: null,
 });
 

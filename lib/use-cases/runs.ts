@@ -16,11 +16,14 @@ import { readRunRecord } from "@/lib/standards/run-record";
 import { getJob, lockJob } from "@/lib/data/jobs";
 import { getVersion, getVersionStatus } from "@/lib/data/standards";
 import { definitionOfSource } from "@/lib/standards/read-definition";
-import { getRun, getRunSummary, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
+import { getRun, getRunRecord, getRunSummary, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
+import { revisionsOfRun } from "@/lib/data/calcs";
 import { getFirmName } from "@/lib/data/firm";
 import { listWithdrawalsOfRun } from "@/lib/data/withdrawals";
 import { defineUseCase } from "./use-case";
 import { pageOfRuns, type RunPage } from "./run-log";
+import { runSealOf, type RunSeal } from "./log";
+import { sheetKeyOf } from "./sheet-key";
 import { evaluateRun, storeRun, type EvaluatedRun } from "./run-store";
 
 export const createRun = defineUseCase({
@@ -113,34 +116,64 @@ async function withdrawalsOf(runId: string): Promise<RunWithdrawal[]> {
   }));
 }
 
-export type RunSheet = {
-  run: RunView;
+/**
+ * Everything a run's calc sheet shows from the database but the run's record and its version (both append-only,
+ * named here by the record's sha256 and the version's id): its key is the sheet's key (lib/use-cases/sheet-key.ts).
+ */
+export type SheetFacts = {
+  run: RunSummaryDto & { withdrawals: RunWithdrawal[] };
   firmName: string;
+  /** The revisions that issue the run, with each sign-off event, for the sheet's header and sign-off block. */
+  revisions: Awaited<ReturnType<typeof revisionsOfRun>>;
+  /** Its seal in the verifiable log (or why there is none yet), printed for a check without the server. */
+  seal: RunSeal;
+};
+
+/** A calc sheet's facts, read as the sheet page reads them; null when there is no such run. */
+export async function sheetFactsOf(id: string): Promise<SheetFacts | null> {
+  const run = await getRunSummary(id);
+  if (!run) return null;
+  const [withdrawals, firmName, revisions, seal] = await Promise.all([
+    withdrawalsOf(id),
+    getFirmName(),
+    revisionsOfRun(id),
+    runSealOf(id),
+  ]);
+  return { run: { ...run, withdrawals }, firmName: firmName ?? "", revisions, seal };
+}
+
+export type RunSheet = {
+  /** What the sheet shows from the database besides the record and the version; `sheetKey` is their key. */
+  facts: SheetFacts;
+  /** The canonical record as stored, named by facts.run.recordSha256. */
+  record: string;
   /** The version's definition and narrative, for the sheet's scope, limitations and worked narrative. */
   definition: Definition | null;
   narrative: string;
-  /** What the run used that has been withdrawn since: the sheet and the run page say so in a banner. */
-  withdrawals: RunWithdrawal[];
+  /** The key of this state of the sheet, computed from `facts`; null when the app's build is not known. */
+  sheetKey: string | null;
 };
 
-/** What a run's calc sheet prints: the run, the firm, and its version's definition and narrative. */
+/**
+ * What a run's calc sheet prints: its facts, its record and its version's definition and narrative — all the sheet
+ * page reads, so that the key computed from the facts here is the key of what the page draws.
+ */
 export const readRunSheet = defineUseCase({
   name: "runs.sheet",
   permission: "runs.read",
   input: runRefSchema,
   run: async ({ id }): Promise<RunSheet> => {
-    const run = await getRun(id);
-    if (!run) throw new AppError("not-found", "There is no run with that id.");
-    const version = (await getVersion({ id: run.versionId }))!;
-    const read = parseSource(version.source);
+    const facts = await sheetFactsOf(id);
+    if (!facts) throw new AppError("not-found", "There is no run with that id.");
+    const [record, version] = await Promise.all([getRunRecord(id), getVersion({ id: facts.run.versionId })]);
+    const read = parseSource(version!.source);
     const parsed = read.ok ? DefinitionSchema.safeParse(read.parsed.data) : null;
-    const withdrawals = await withdrawalsOf(run.id);
     return {
-      run: { ...run, withdrawals },
-      firmName: (await getFirmName()) ?? "",
+      facts,
+      record: record!,
       definition: parsed?.success ? parsed.data : null,
       narrative: read.ok ? read.parsed.narrative : "",
-      withdrawals,
+      sheetKey: sheetKeyOf(facts),
     };
   },
   audit: null,
@@ -163,12 +196,15 @@ export type RunsCompared = {
   labels: Record<string, string>;
 };
 
-/** Two runs of the same standard side by side, from their records. Runs of different standards are refused. */
+/**
+ * Two runs of the same standard side by side, from their records, their values in the units asked for (the person's
+ * display units). Runs of different standards are refused.
+ */
 export const compareRuns = defineUseCase({
   name: "runs.compare",
   permission: "runs.read",
   input: compareRunsSchema,
-  run: async ({ a, b }): Promise<RunsCompared> => {
+  run: async ({ a, b, units }): Promise<RunsCompared> => {
     const [runA, runB] = await Promise.all([getRun(a), getRun(b)]);
     if (!runA || !runB)
       throw new AppError("not-found", "There is no run with that id.", {
@@ -192,7 +228,7 @@ export const compareRuns = defineUseCase({
     }
     const { record: recordA, ...a_ } = runA;
     const { record: recordB, ...b_ } = runB;
-    return { a: a_, b: b_, comparison: compareRecords(readRunRecord(recordA), readRunRecord(recordB)), labels };
+    return { a: a_, b: b_, comparison: compareRecords(readRunRecord(recordA), readRunRecord(recordB), units), labels };
   },
   audit: null,
 });

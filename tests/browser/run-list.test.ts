@@ -1,7 +1,7 @@
 // A list of runs longer than a page: the first 50 come with the page, "Older runs" fetches the next page from
 // GET /api/runs in place (TanStack Query) without leaving the page, and the rows are newest first without a gap or a
 // repeat across the page boundary. Then the oldest and newest runs compared side by side, and a run shown in US
-// customary units, remembered across a reload.
+// customary units, remembered across a reload, and so is the comparison (the same differences, of the SI values).
 import { desc, eq } from "drizzle-orm";
 import { expect, it } from "vitest";
 import { db } from "@/db";
@@ -67,9 +67,13 @@ it("loads older runs in place, newest first, with none missing or repeated", asy
   await page.getByTestId("compare-with").selectOption(newestFirst[0]);
   await page.getByTestId("compare-submit").click();
   await page.waitForURL(/\/runs\/compare\?a=/);
+  const compareUrl = page.url();
   const span = page.locator("[data-testid=compared-inputs] [data-testid=compared-row][data-key=L]");
   expect(await span.getAttribute("data-changed")).toBe("yes");
-  expect(await span.getByTestId("compared-difference").textContent()).toMatch(/^\+\d+(\.\d+)? %$/);
+  const spanDifference = await span.getByTestId("compared-difference").textContent();
+  expect(spanDifference).toMatch(/^\+\d+(\.\d+)? %$/);
+  const spanCells = () => span.locator("td").allTextContents();
+  expect((await spanCells()).slice(0, 2)).toEqual([expect.stringMatching(/ m$/), expect.stringMatching(/ m$/)]);
   const bending = page.locator("[data-testid=compared-utilisations] [data-testid=compared-row][data-key=bending]");
   expect(await bending.getByTestId("compared-difference").textContent()).toMatch(/^\+\d+(\.\d+)? %$/);
   expect(
@@ -89,6 +93,12 @@ it("loads older runs in place, newest first, with none missing or repeated", asy
     expect(await page.getByTestId("display-units-us").getAttribute("aria-pressed")).toBe("true");
     const moment = await page.locator("[data-testid=member-diagram-svg][data-quantity=M]").first().getAttribute("aria-label");
     expect(moment).toMatch(/kip·ft at x = \d+\.\d{2} ft/);
+    // The comparison follows the same choice: the spans in feet, their difference still that of the SI values.
+    await page.goto(compareUrl);
+    expect(await page.getByTestId("compare-units").getAttribute("data-units")).toBe("us");
+    expect((await spanCells()).slice(0, 2)).toEqual([expect.stringMatching(/ ft$/), expect.stringMatching(/ ft$/)]);
+    expect(await span.getByTestId("compared-difference").textContent()).toBe(spanDifference);
+    await page.goto(appUrl(`/runs/${newestFirst[0]}`));
   } finally {
     await page.getByTestId("display-units-si").click();
     await expect.poll(reactionHeadings, { timeout: 15_000 }).toContain("Ry (kN)");

@@ -1,16 +1,20 @@
 // Attachments and calc sheet PDFs through the real route handlers, database and fake S3: a file attached to a job
 // or a run downloads as the same bytes with the same sha256; every bad upload (empty, renamed, disallowed type,
 // too large, a body cut off on the way, a run of another job) is a 4xx naming the problem with nothing stored;
-// the calc sheet PDF is kept once per state of the sheet, and a withdrawal of the run's version (a banner on the
-// sheet) gives a new one while the old is kept; both tables are append-only for the app's role.
+// the calc sheet PDF is kept once per state of the sheet and served again without opening Chromium while nothing the
+// sheet shows has changed (its key, read from the database), and a new seal, a sign-off or a withdrawal of the run's
+// version (a banner on the sheet) gives a new one while the old is kept; the tables are append-only for the app's role.
 import { createHash, randomBytes } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { db, pool } from "@/db";
 import * as schema from "@/db/schema";
 import type { Actor } from "@/lib/domain/actor";
 import { runUseCase } from "@/lib/use-cases/run";
-import { countPdfPages } from "@/lib/pdf/sheet-renderer";
+import { countPdfPages, sheetsOpened } from "@/lib/pdf/sheet-renderer";
+import { SEALER_LOCK } from "@/lib/data/log";
+import { forgetServerEnv } from "@/lib/server-env";
+import { pdfPages } from "../support/pdf";
 import { attachmentKey } from "@/lib/data/files";
 import { getObject } from "@/lib/storage/s3";
 import { POST as attachRoute } from "@/app/api/jobs/[jobNumber]/attachments/route";
@@ -21,6 +25,7 @@ import { GET as keptPdfRoute } from "@/app/api/runs/[id]/sheet-pdfs/[pdfId]/rout
 import { approveAndPublish, createStandard, saveDraft, submitDraft, withdrawVersion } from "@/lib/use-cases/standards";
 import { getStandardBySlug, getVersion, listVersionsOf } from "@/lib/data/standards";
 import { createRun } from "@/lib/use-cases/runs";
+import { createCalc, prepareRevision } from "@/lib/use-cases/calcs";
 import { refusalWrites, snapshotRows, expectRowsUnchanged } from "../support/snapshot";
 import { matrixJob, matrixRun } from "./helpers/action-fixtures";
 import { createTestUser, signInHeaders } from "./helpers/people";
@@ -203,8 +208,13 @@ describe("attachments", () => {
   it("is append-only for the app's role", async () => {
     const client = await pool.connect();
     try {
-      for (const table of ["job_attachments", "calc_sheet_pdfs"]) {
-        for (const statement of [`update ${table} set bytes = bytes + 1`, `delete from ${table}`]) {
+      const updates = {
+        job_attachments: "set bytes = bytes + 1",
+        calc_sheet_pdfs: "set bytes = bytes + 1",
+        calc_sheet_pdf_keys: "set kept_at = now()",
+      };
+      for (const [table, change] of Object.entries(updates)) {
+        for (const statement of [`update ${table} ${change}`, `delete from ${table}`]) {
           await client.query("begin");
           await expect(client.query(statement)).rejects.toMatchObject({ code: "42501" });
           await client.query("rollback");
@@ -217,13 +227,16 @@ describe("attachments", () => {
 });
 
 describe("calc sheet PDFs", () => {
-  let versionId: string;
-  let runId: string;
+  let lead: Actor;
+  let reviewer: Actor;
 
-  it("keeps one PDF per state of the sheet: the same state again is the kept PDF; a withdrawal banner makes a new one", async () => {
-    // A version of our own to withdraw, so the seeded standards stay in use for the other tests.
-    const lead = (await createTestUser({ role: "lead", label: "files-lead" })).actor;
-    const reviewer = (await createTestUser({ role: "lead", label: "files-reviewer" })).actor;
+  beforeAll(async () => {
+    lead = (await createTestUser({ role: "lead", label: "files-lead" })).actor;
+    reviewer = (await createTestUser({ role: "lead", label: "files-reviewer" })).actor;
+  });
+
+  /** A published version of our own, to withdraw, so the seeded standards stay in use for the other tests. */
+  async function ownVersion(): Promise<string> {
     const seeded = (await getStandardBySlug("fixed-end-beam"))!;
     const source = (await getVersion({ id: (await listVersionsOf(seeded.id))[0].id }))!.source;
     const slug = `files-beam-${Date.now().toString(36)}`;
@@ -233,42 +246,154 @@ describe("calc sheet PDFs", () => {
     });
     await runUseCase(saveDraft, { actor: lead, input: { draftId, source } });
     const { reviewId } = await runUseCase(submitDraft, { actor: lead, input: { draftId, changelog: "First." } });
-    ({ versionId } = await runUseCase(approveAndPublish, { actor: reviewer, input: { reviewId } }));
-    runId = (
-      await runUseCase(createRun, { actor: engineer, input: { jobId: job.jobId, versionId, inputs: {}, unitSystem: "si" } })
-    ).id;
-    // The sheet shows the run's seal once the sealer has it: wait for it, so both asks below see one state.
+    return (await runUseCase(approveAndPublish, { actor: reviewer, input: { reviewId } })).versionId;
+  }
+
+  const newRun = async (versionId: string) =>
+    (await runUseCase(createRun, { actor: engineer, input: { jobId: job.jobId, versionId, inputs: {}, unitSystem: "si" } })).id;
+
+  /** The sheet's PDF through the route: its bytes, sha256 and state, and how many times Chromium opened the sheet for it. */
+  async function askPdf(runId: string, headers = engineerHeaders) {
+    const before = sheetsOpened();
+    const answer = await sheetPdfRoute(new Request(`${base}/api/runs/${runId}/sheet-pdf`, { headers }), params({ id: runId }));
+    expect(answer.status).toBe(200);
+    const bytes = new Uint8Array(await answer.arrayBuffer());
+    expect(answer.headers.get("x-content-sha256")).toBe(sha256(bytes));
+    return { bytes, sha256: sha256(bytes), state: answer.headers.get("x-sheet-state-sha256"), opened: sheetsOpened() - before };
+  }
+
+  /** A kept PDF as its own address serves it, to whoever may read runs. */
+  async function keptBytes(runId: string, pdfSha256: string): Promise<Buffer> {
+    const [row] = await db
+      .select()
+      .from(schema.calcSheetPdfs)
+      .where(and(eq(schema.calcSheetPdfs.runId, runId), eq(schema.calcSheetPdfs.sha256, pdfSha256)));
+    const answer = await keptPdfRoute(
+      new Request(`${base}/api/runs/${runId}/sheet-pdfs/${row.id}`, { headers: auditorHeaders }),
+      params({ id: runId, pdfId: row.id }),
+    );
+    expect(answer.status).toBe(200);
+    return Buffer.from(await answer.arrayBuffer());
+  }
+
+  /** A PDF's text, its pages run together and every run of white space one space. */
+  const textOf = (bytes: Uint8Array) => pdfPages(bytes).join(" ").replace(/\s+/g, " ");
+
+  const keysOf = (runId: string) => db.select().from(schema.calcSheetPdfKeys).where(eq(schema.calcSheetPdfKeys.runId, runId));
+
+  it("serves the kept PDF without Chromium while nothing the sheet shows changes; a new seal, a sign-off and a withdrawal banner each give a new PDF, the old ones served byte for byte", async () => {
+    const versionId = await ownVersion();
+    // The sealer held off (its advisory lock, taken here), so that the first PDF shows the run waiting for its seal.
+    const sealer = await pool.connect();
+    let runId: string;
+    let waiting: Awaited<ReturnType<typeof askPdf>>;
+    try {
+      await sealer.query("select pg_advisory_lock($1)", [SEALER_LOCK]);
+      runId = await newRun(versionId);
+      waiting = await askPdf(runId);
+      expect(waiting.opened).toBe(1);
+      expect(textOf(waiting.bytes)).toContain("waits for the sealer");
+      // Nothing changed: the kept PDF, the same bytes, and Chromium not opened.
+      expect(await askPdf(runId)).toMatchObject({ opened: 0, sha256: waiting.sha256, state: waiting.state });
+    } finally {
+      await sealer.query("select pg_advisory_unlock($1)", [SEALER_LOCK]);
+      sealer.release();
+    }
+
+    // The run sealed under a tree head: a new state of the sheet, printed with its seal.
     await sealedInLog("run", runId);
+    const sealed = await askPdf(runId);
+    expect(sealed.opened).toBe(1);
+    expect(sealed.state).not.toBe(waiting.state);
+    expect(sealed.sha256).not.toBe(waiting.sha256);
+    expect(textOf(sealed.bytes)).not.toContain("waits for the sealer");
+    expect(await askPdf(runId)).toMatchObject({ opened: 0, sha256: sealed.sha256 });
 
-    const ask = () =>
-      sheetPdfRoute(new Request(`${base}/api/runs/${runId}/sheet-pdf`, { headers: engineerHeaders }), params({ id: runId }));
-    const first = await ask();
-    expect(first.status).toBe(200);
-    const firstBytes = new Uint8Array(await first.arrayBuffer());
-    expect(first.headers.get("x-content-sha256")).toBe(sha256(firstBytes));
-    const again = await ask();
-    expect(again.headers.get("x-content-sha256")).toBe(sha256(firstBytes));
-    expect(again.headers.get("x-sheet-state-sha256")).toBe(first.headers.get("x-sheet-state-sha256"));
+    // Issued as revision A of a calc, for a lead to check: the header and the sign-off block change.
+    const calcNumber = `C-${Date.now().toString(36).slice(-5).toUpperCase()}`;
+    const { calcId } = await runUseCase(createCalc, {
+      actor: engineer,
+      input: { jobId: job.jobId, number: calcNumber, title: "Beam for the sheet key" },
+    });
+    await runUseCase(prepareRevision, {
+      actor: engineer,
+      input: { calcId, runId, checkerId: reviewer.id, issueStatus: "for-approval" },
+    });
+    const signed = await askPdf(runId);
+    expect(signed.opened).toBe(1);
+    expect(signed.state).not.toBe(sealed.state);
+    expect(textOf(signed.bytes)).toContain(`Calc ${calcNumber} rev A`);
+    expect(await askPdf(runId)).toMatchObject({ opened: 0, sha256: signed.sha256 });
 
+    // The version withdrawn: the sheet's banner says so.
     await runUseCase(withdrawVersion, { actor: lead, input: { versionId, reason: "Wrong deflection limit for this test" } });
-    const withdrawn = await ask();
-    const withdrawnBytes = new Uint8Array(await withdrawn.arrayBuffer());
-    expect(withdrawn.headers.get("x-sheet-state-sha256")).not.toBe(first.headers.get("x-sheet-state-sha256"));
-    expect(sha256(withdrawnBytes)).not.toBe(sha256(firstBytes));
+    const withdrawn = await askPdf(runId);
+    expect(withdrawn.opened).toBe(1);
+    expect(withdrawn.state).not.toBe(signed.state);
+    expect(textOf(withdrawn.bytes)).toContain("Wrong deflection limit for this test");
+    expect(await askPdf(runId)).toMatchObject({ opened: 0, sha256: withdrawn.sha256 });
+
+    // Four states, four PDFs, each kept once under the key of what it showed; every one still served as it was.
+    const states = [waiting, sealed, signed, withdrawn];
+    const kept = await db.select().from(schema.calcSheetPdfs).where(eq(schema.calcSheetPdfs.runId, runId));
+    expect(kept.map((row) => row.sha256).sort()).toEqual(states.map((state) => state.sha256).sort());
+    expect(kept.every((row) => row.pages === countPdfPages(states.find((state) => state.sha256 === row.sha256)!.bytes))).toBe(
+      true,
+    );
+    const keys = await keysOf(runId);
+    expect(keys.map((key) => key.pdfId).sort()).toEqual(kept.map((row) => row.id).sort());
+    for (const state of states) expect((await keptBytes(runId, state.sha256)).equals(Buffer.from(state.bytes))).toBe(true);
+  }, 90_000);
+
+  it("opens the sheet in Chromium for a state its key does not name (another build, none known, a name changed), and keeps no PDF twice", async () => {
+    const versionId = (await listVersionsOf((await getStandardBySlug("fixed-end-beam"))!.id))[0].id;
+    const runId = await newRun(versionId);
+    await sealedInLog("run", runId);
+    const first = await askPdf(runId);
+    expect(first.opened).toBe(1);
+    // Whoever asks: the sheet shows nothing of the person asking, so an auditor gets the same PDF without Chromium.
+    expect(await askPdf(runId, auditorHeaders)).toMatchObject({ opened: 0, sha256: first.sha256 });
+
+    const build = process.env.GUSSET_BUILD_ID;
+    expect(build, "scripts/test.mjs gives the tests the test server's build").toBeTruthy();
+    try {
+      // Another build than the one the server draws the sheet with: the key names no PDF, so the sheet is opened; it
+      // shows the state kept already, and that PDF is served.
+      process.env.GUSSET_BUILD_ID = `${build}-other`;
+      forgetServerEnv();
+      expect(await askPdf(runId)).toMatchObject({ opened: 1, sha256: first.sha256, state: first.state });
+      // No build known (next dev, a script): no key, always opened.
+      delete process.env.GUSSET_BUILD_ID;
+      forgetServerEnv();
+      expect(await askPdf(runId)).toMatchObject({ opened: 1, sha256: first.sha256 });
+    } finally {
+      process.env.GUSSET_BUILD_ID = build;
+      forgetServerEnv();
+    }
+    expect(await askPdf(runId)).toMatchObject({ opened: 0, sha256: first.sha256 });
+
+    // The preparer's name, printed on the sheet, changes: a new key and a new PDF; changed back, the first PDF again,
+    // known by its key, without Chromium.
+    const [{ name }] = await db.select({ name: schema.user.name }).from(schema.user).where(eq(schema.user.id, engineer.id));
+    let renamed: Awaited<ReturnType<typeof askPdf>>;
+    try {
+      await db
+        .update(schema.user)
+        .set({ name: `${name} Jr` })
+        .where(eq(schema.user.id, engineer.id));
+      renamed = await askPdf(runId);
+      expect(renamed.opened).toBe(1);
+      expect(renamed.sha256).not.toBe(first.sha256);
+      expect(textOf(renamed.bytes)).toContain(`${name} Jr`);
+    } finally {
+      await db.update(schema.user).set({ name }).where(eq(schema.user.id, engineer.id));
+    }
+    expect(await askPdf(runId)).toMatchObject({ opened: 0, sha256: first.sha256 });
 
     const kept = await db.select().from(schema.calcSheetPdfs).where(eq(schema.calcSheetPdfs.runId, runId));
-    expect(kept.map((row) => row.sha256).sort()).toEqual([sha256(firstBytes), sha256(withdrawnBytes)].sort());
-    expect(
-      kept.every((row) => row.pages === countPdfPages(row.sha256 === sha256(firstBytes) ? firstBytes : withdrawnBytes)),
-    ).toBe(true);
-    // The first state is still there, byte for byte.
-    const firstRow = kept.find((row) => row.sha256 === sha256(firstBytes))!;
-    const old = await keptPdfRoute(
-      new Request(`${base}/api/runs/${runId}/sheet-pdfs/${firstRow.id}`, { headers: auditorHeaders }),
-      params({ id: runId, pdfId: firstRow.id }),
-    );
-    expect(Buffer.from(await old.arrayBuffer()).equals(Buffer.from(firstBytes))).toBe(true);
-  });
+    expect(kept.map((row) => row.sha256).sort()).toEqual([first.sha256, renamed.sha256].sort());
+    expect((await keysOf(runId)).length).toBe(2);
+  }, 90_000);
 
   it("answers 404 for a run or a kept PDF that does not exist, and 401 without a session", async () => {
     const none = "00000000-0000-4000-8000-000000000000";

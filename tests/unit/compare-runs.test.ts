@@ -1,5 +1,6 @@
 // Two runs' records side by side: each value's relative difference (b − a) / |a|, values only one run has, text
-// values (a choice, a library entry), failed runs, and the order the definitions list them in.
+// values (a choice, a library entry), failed runs, and the order the definitions list them in; and the rows in a person's
+// display units, converted from the SI values as the run's page converts them, with the same differences.
 import { describe, expect, it } from "vitest";
 import { compareRuns, formatRelative } from "@/lib/standards/compare-runs";
 import type { RunRecord } from "@/lib/standards/run-record";
@@ -77,6 +78,74 @@ describe("compareRuns", () => {
     expect(inputs).toEqual([{ key: "w", label: "w", a: "0 (shown)", b: "5 typed", relative: null, changed: true }]);
     expect(utilisations).toEqual([]);
     expect(pass).toEqual({ a: true, b: null });
+  });
+});
+
+describe("compareRuns in a person's display units", () => {
+  // Values as a standard records them: the SI value and the display string in the unit the standard chose.
+  function withDisplays(
+    inputs: Record<string, [number | string, string]>,
+    extracts: Record<string, [number, string]>,
+    bending: number,
+  ) {
+    const base = record(
+      Object.fromEntries(Object.entries(inputs).map(([key, [si]]) => [key, si])),
+      { bending },
+      { extracts: Object.fromEntries(Object.entries(extracts).map(([key, [si]]) => [key, si])) },
+    ) as Extract<RunRecord, { outcome: "succeeded" }>;
+    const displayed = <V extends object>(values: Readonly<Record<string, V>>, displays: Record<string, [unknown, string]>) =>
+      Object.fromEntries(Object.entries(values).map(([key, value]) => [key, { ...value, display: displays[key][1] }]));
+    const { inputs: shownInputs, extracts: shownExtracts } = base.evaluation;
+    return {
+      ...base,
+      evaluation: { ...base.evaluation, inputs: displayed(shownInputs, inputs), extracts: displayed(shownExtracts, extracts) },
+    } as RunRecord;
+  }
+  const a = withDisplays(
+    { L: [6, "6.00 m"], w: [10_000, "10.0 kN/m"], steel: ["S355", "S355"] },
+    { M_max: [45_000, "45.0 kN·m"] },
+    0.5,
+  );
+  const b = withDisplays(
+    { L: [7.5, "7.50 m"], w: [10_000, "10.0 kN/m"], steel: ["S275", "S275"] },
+    { M_max: [70_312.5, "70.3 kN·m"] },
+    0.78,
+  );
+
+  it("shows SI values as the standard wrote them, and US customary values converted from SI to the same digits", () => {
+    const si = compareRuns(a, b, "si");
+    const us = compareRuns(a, b);
+    expect(us).toEqual(si);
+    expect(si.inputs.map((row) => [row.key, row.a, row.b])).toEqual([
+      ["L", "6.00 m", "7.50 m"],
+      ["w", "10.0 kN/m", "10.0 kN/m"],
+      ["steel", "S355", "S275"],
+    ]);
+    // 1 ft = 0.3048 m, 1 kip = 4448.2216152605 N (NIST Special Publication 811, 2008 ed., Appendix B):
+    // 6 m = 19.685 ft; 7.5 m = 24.606 ft; 10 kN/m = 0.68522 kip/ft; 45 kN·m = 33.190 kip·ft; 70.3125 kN·m = 51.860 kip·ft.
+    const customary = compareRuns(a, b, "us");
+    expect(customary.inputs.map((row) => [row.key, row.a, row.b])).toEqual([
+      ["L", "19.7 ft", "24.6 ft"],
+      ["w", "0.685 kip/ft", "0.685 kip/ft"],
+      ["steel", "S355", "S275"],
+    ]);
+    expect(customary.extracts.map((row) => [row.key, row.a, row.b])).toEqual([["M_max", "33.2 kip·ft", "51.9 kip·ft"]]);
+    // A utilisation has no unit: the same in either system.
+    expect(customary.utilisations.map((row) => [row.a, row.b])).toEqual([["0.50", "0.78"]]);
+  });
+
+  it("computes every difference from the SI values, whatever the units shown", () => {
+    const si = compareRuns(a, b, "si");
+    const customary = compareRuns(a, b, "us");
+    for (const group of ["inputs", "derived", "extracts", "utilisations"] as const)
+      expect(customary[group].map(({ key, relative, changed }) => ({ key, relative, changed }))).toEqual(
+        si[group].map(({ key, relative, changed }) => ({ key, relative, changed })),
+      );
+    // (7.5 − 6) / 6 = 0.25 and (70 312.5 − 45 000) / 45 000 = 0.5625, exact in binary; the rounded feet would give 0.2487.
+    expect(customary.inputs.find((row) => row.key === "L")?.relative).toBe(0.25);
+    expect(customary.extracts[0].relative).toBe(0.5625);
+    // Equal SI values are the same in either system.
+    expect(customary.inputs.find((row) => row.key === "w")?.changed).toBe(false);
   });
 });
 

@@ -110,5 +110,7 @@ export const compareRunsSchema = z
   .object({
     a: z.uuid("Choose the first run to compare."),
     b: z.uuid("Choose the run to compare it with."),
+    /** The units the values are shown in: the person's display units (differences are of the SI values). */
+    units: z.enum(UNIT_SYSTEM_IDS, { error: "Choose SI or US customary units." }).default("si"),
   })
   .refine((value) => value.a !== value.b, { message: "Choose two different runs to compare.", path: ["b"] });

@@ -4,6 +4,8 @@ import { requirePageActor } from "@/lib/auth/session";
 import { AppError } from "@/lib/domain/errors";
 import { runUseCase } from "@/lib/use-cases/run";
 import { compareRuns, type RunsCompared } from "@/lib/use-cases/runs";
+import { readProfile } from "@/lib/use-cases/profile";
+import type { DisplayUnits } from "@/lib/standards/display-units";
 import type { ComparedValue } from "@/lib/standards/compare-runs";
 import { ComparedTable } from "@/components/runs/compared-table";
 import { PageHeader } from "@/components/ui/page-header";
@@ -11,6 +13,7 @@ import { Section } from "@/components/ui/section";
 import { Caution } from "@/components/standards/caution";
 import { FormError } from "@/components/ui/notice";
 import { RunOutcomeBadge } from "../_components/run-outcome";
+import { DisplayUnitsForm } from "../../profile/_components/display-units-form";
 
 export const metadata: Metadata = { title: "Compare runs" };
 
@@ -43,8 +46,10 @@ export default async function CompareRunsPage({ searchParams }: PageProps<"/runs
   const actor = await requirePageActor("runs.read", { next: `/runs/compare?${query}` });
   let compared: RunsCompared | null = null;
   let problem: string | null = null;
+  // The values in the person's display units, as the run's page shows them; the differences are of the SI values.
+  const { displayUnits }: { displayUnits: DisplayUnits } = await runUseCase(readProfile, { actor, input: {} });
   try {
-    compared = await runUseCase(compareRuns, { actor, input: { a, b } });
+    compared = await runUseCase(compareRuns, { actor, input: { a, b, units: displayUnits } });
   } catch (error) {
     if (!(error instanceof AppError) || !["invalid-input", "not-found"].includes(error.code)) throw error;
     problem = Object.values(error.fieldErrors ?? {})[0]?.[0] ?? error.message;
@@ -87,7 +92,7 @@ export default async function CompareRunsPage({ searchParams }: PageProps<"/runs
     <>
       <PageHeader
         title={`Compare runs · ${compared.a.title}`}
-        lead="Each value of the two stored runs, with the relative difference of the second from the first. Rows that differ are shaded."
+        lead="Each value of the two stored runs, with the relative difference of the second from the first (of the SI values, whatever units they are shown in). Rows that differ are shaded."
       />
       <Caution />
       <div className="grid gap-4 sm:grid-cols-2">
@@ -100,6 +105,9 @@ export default async function CompareRunsPage({ searchParams }: PageProps<"/runs
           version has is shown beside an empty cell.
         </p>
       ) : null}
+      <div className="mt-6 flex justify-end" data-testid="compare-units" data-units={displayUnits}>
+        <DisplayUnitsForm current={displayUnits} compact />
+      </div>
       <Section title="Check utilisations" id="compare-utilisations">
         <Compared rows={comparison.utilisations} testId="compared-utilisations" labels={labels} />
       </Section>

@@ -3,7 +3,6 @@ import Link from "next/link";
 import { requirePageActor } from "@/lib/auth/session";
 import { runUseCase } from "@/lib/use-cases/run";
 import { readRunSheet } from "@/lib/use-cases/runs";
-import { readRunSignOff } from "@/lib/use-cases/calcs";
 import { readRunRecord } from "@/lib/standards/run-record";
 import { restoreResult } from "@/lib/engine";
 import { ISSUE_STATUS_LABELS, type IssueStatusId } from "@/lib/domain/schemas/calcs";
@@ -13,7 +12,6 @@ import { RunChecks, RunDiagrams, RunInputs, RunModel, RunReactions, resultIdsOf 
 import { orNotFound } from "../../../../(app)/_components/or-not-found";
 import { WithdrawalBanner } from "@/components/runs/withdrawal-banner";
 import { SealPanel } from "@/components/integrity/seal-panel";
-import { readRunSeal } from "@/lib/use-cases/log";
 import { PrintButton } from "./print-button";
 
 export const metadata: Metadata = { title: "Calc sheet" };
@@ -34,23 +32,26 @@ const utc = (iso: string) => `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
  * A run's calc sheet, print-ready: every printed page repeats the firm, job, calc and revision, standard and
  * version with its short hash, engine, run id and date (a table header, which Chromium repeats on each page), and
  * numbers its pages "Page x of y" (the @page rule in app/globals.css). Drawn from the run's record alone.
+ *
+ * Everything it shows comes from one read (readRunSheet): the record, the version, and the sheet's facts, whose key
+ * it prints outside the sheet (data-sheet-key) for the server's PDF renderer, which keeps the PDF under it. Show
+ * nothing here that is not in those, or a PDF kept for an older state would be served for a newer one.
  */
 export default async function CalcSheetPage({ params }: PageProps<"/runs/[id]/sheet">) {
   const { id } = await params;
   const actor = await requirePageActor("runs.read", { next: `/runs/${encodeURIComponent(id)}/sheet` });
-  const { run, firmName, definition, narrative, withdrawals } = await orNotFound(() =>
-    runUseCase(readRunSheet, { actor, input: { id } }),
-  );
-  const revisions = await runUseCase(readRunSignOff, { actor, input: { id: run.id } });
-  const seal = await runUseCase(readRunSeal, { actor, input: { id: run.id } });
-  const record = readRunRecord(run.record);
+  const sheet = await orNotFound(() => runUseCase(readRunSheet, { actor, input: { id } }));
+  const { definition, narrative, sheetKey } = sheet;
+  const { run, firmName, revisions, seal } = sheet.facts;
+  const withdrawals = run.withdrawals;
+  const record = readRunRecord(sheet.record);
   const issued = revisions.at(-1);
   const under = record.outcome === "succeeded" ? resultIdsOf(record.evaluation.model)[0]?.id : undefined;
   const restored = record.outcome === "succeeded" ? restoreResult(record.evaluation.model, record.analysis) : null;
 
   return (
     <>
-      <p className="mb-4 flex flex-wrap items-center gap-3 print:hidden">
+      <p className="mb-4 flex flex-wrap items-center gap-3 print:hidden" data-sheet-key={sheetKey ?? undefined}>
         <Link href={`/runs/${run.id}`} className="text-sm text-plate-700 hover:underline">
           Back to the run
         </Link>

@@ -2,13 +2,14 @@
 // looked up by its id and checked in the browser itself (Web Crypto: SHA-256 and Ed25519, apart from the server's
 // code), a proof changed on the page refused, the witness's e-mail of a head received by the fake SMTP server, and
 // every head exported as NDJSON. Axe finds nothing serious.
-import { desc, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { expect, it } from "vitest";
 import { db } from "@/db";
 import * as schema from "@/db/schema";
 import { seriousViolations } from "../support/axe";
 import { useBrowser, usePagesAs } from "../support/browser";
 import { appUrl, testEnv } from "../support/env";
+import { latestVersionId, postRun } from "../support/demo-runs";
 import { waitForMessage } from "../support/mailbox";
 import { DEMO_BY_ROLE, demoSession } from "../support/pages";
 
@@ -18,20 +19,11 @@ it("checks the whole log, and a run's seal in the browser, as the auditor", asyn
   // A run of the demo's fixed-end beam, made by the demo engineer through the API.
   const engineer = await demoSession("engineer");
   const [job] = await db.select().from(schema.jobs).where(eq(schema.jobs.jobNumber, "MF-2304"));
-  const [standard] = await db.select().from(schema.standards).where(eq(schema.standards.slug, "fixed-end-beam"));
-  const [version] = await db
-    .select({ id: schema.standardVersions.id })
-    .from(schema.standardVersions)
-    .where(eq(schema.standardVersions.standardId, standard.id))
-    .orderBy(desc(schema.standardVersions.number))
-    .limit(1);
-  const made = await fetch(appUrl("/api/runs"), {
-    method: "POST",
-    headers: { cookie: engineer, origin: testEnv.baseUrl, "content-type": "application/json" },
-    body: JSON.stringify({ jobId: job.id, versionId: version.id, inputs: { L: "5.5 m" } }),
+  const runId = await postRun(engineer, {
+    jobId: job.id,
+    versionId: await latestVersionId("fixed-end-beam"),
+    inputs: { L: "5.5 m" },
   });
-  expect(made.status).toBe(201);
-  const runId = ((await made.json()) as { data: { id: string } }).data.id;
 
   const page = await pageAs(await demoSession("auditor"));
   await page.goto(appUrl("/audit/integrity"));
@@ -47,14 +39,16 @@ it("checks the whole log, and a run's seal in the browser, as the auditor", asyn
 
   // The run's seal, once the worker's sealer has folded it in (every few seconds).
   const deadline = Date.now() + 30_000;
+  await page.goto(appUrl(`/audit/integrity?kind=run&ref=${runId}#record`));
   for (;;) {
-    await page.goto(appUrl(`/audit/integrity?kind=run&ref=${runId}#record`));
     if (await page.getByTestId("seal-panel").isVisible()) break;
     // A lookup the server refused (a proof that does not verify) is a failure to report, not to wait out.
     const refused = page.getByTestId("record-lookup-error");
     if (await refused.isVisible()) throw new Error(`the run's seal was refused: ${await refused.textContent()}`);
     if (Date.now() > deadline) throw new Error("the run was not sealed within 30 s");
     await page.waitForTimeout(1000);
+    // Asked again from the server (going to the same address with its #record again would only scroll).
+    await page.reload();
   }
   expect(await page.getByTestId("seal-entry").textContent()).toContain(`"kind":"run","ref":"${runId}"`);
   await page.getByRole("button", { name: "Check it in this browser" }).click();

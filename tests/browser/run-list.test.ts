@@ -2,44 +2,32 @@
 // GET /api/runs in place (TanStack Query) without leaving the page, and the rows are newest first without a gap or a
 // repeat across the page boundary. Then the oldest and newest runs compared side by side, and a run shown in US
 // customary units, remembered across a reload, and so is the comparison (the same differences, of the SI values).
-import { desc, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { expect, it } from "vitest";
 import { db } from "@/db";
 import * as schema from "@/db/schema";
 import { useBrowser, usePagesAs } from "../support/browser";
-import { appUrl, testEnv } from "../support/env";
-import { DEMO_BY_ROLE, demoSession } from "../support/pages";
+import { appUrl } from "../support/env";
+import { demoEngineerJob, latestVersionId, postRun } from "../support/demo-runs";
+import { demoSession } from "../support/pages";
 
 const pageAs = usePagesAs(useBrowser());
 
 it("loads older runs in place, newest first, with none missing or repeated", async () => {
   const cookie = await demoSession("engineer");
-  const [engineer] = await db.select().from(schema.user).where(eq(schema.user.email, DEMO_BY_ROLE.engineer.email));
-  const jobNumber = `LIST-${Date.now().toString(36).toUpperCase()}`;
-  const [job] = await db
-    .insert(schema.jobs)
-    .values({ jobNumber, name: "A job with many runs", responsibleEngineerId: engineer.id, createdById: engineer.id })
-    .returning({ id: schema.jobs.id });
-  const [standard] = await db.select().from(schema.standards).where(eq(schema.standards.slug, "fixed-end-beam"));
-  const [version] = await db
-    .select({ id: schema.standardVersions.id })
-    .from(schema.standardVersions)
-    .where(eq(schema.standardVersions.standardId, standard.id))
-    .orderBy(desc(schema.standardVersions.number))
-    .limit(1);
+  const job = await demoEngineerJob("LIST", "A job with many runs");
+  const jobNumber = job.jobNumber;
+  const versionId = await latestVersionId("fixed-end-beam");
   // 53 runs through the API, a few at a time: more than the page's 50.
   const made: string[] = [];
   for (let k = 0; k < 53; k += 4) {
-    const answers = await Promise.all(
-      Array.from({ length: Math.min(4, 53 - k) }, (_, i) =>
-        fetch(appUrl("/api/runs"), {
-          method: "POST",
-          headers: { cookie, origin: testEnv.baseUrl, "content-type": "application/json" },
-          body: JSON.stringify({ jobId: job.id, versionId: version.id, inputs: { L: `${4 + (k + i) / 10} m` } }),
-        }).then((response) => response.json() as Promise<{ data: { id: string } }>),
-      ),
+    made.push(
+      ...(await Promise.all(
+        Array.from({ length: Math.min(4, 53 - k) }, (_, i) =>
+          postRun(cookie, { jobId: job.id, versionId, inputs: { L: `${4 + (k + i) / 10} m` } }),
+        ),
+      )),
     );
-    made.push(...answers.map((answer) => answer.data.id));
   }
   const newestFirst = (
     await db

@@ -2,42 +2,22 @@
 // filters into the address (so the list can be reloaded and sent on); a heading sorts it; the CSV downloaded from it
 // has the export's header and one record per run the table shows.
 import fs from "node:fs";
-import { desc, eq } from "drizzle-orm";
 import { expect, it } from "vitest";
-import { db } from "@/db";
-import * as schema from "@/db/schema";
 import { parseCsv } from "@/lib/domain/csv";
 import { useBrowser, usePagesAs } from "../support/browser";
-import { appUrl, testEnv } from "../support/env";
-import { DEMO_BY_ROLE, demoSession } from "../support/pages";
+import { appUrl } from "../support/env";
+import { demoEngineerJob, latestVersionId, postRun } from "../support/demo-runs";
+import { demoSession } from "../support/pages";
 
 const pageAs = usePagesAs(useBrowser());
 
 /** A job of its own with runs of the fixed-end beam at these spans, run by the demo engineer through the API. */
 async function jobWithRuns(spans: string[]): Promise<string> {
   const cookie = await demoSession("engineer");
-  const [engineer] = await db.select().from(schema.user).where(eq(schema.user.email, DEMO_BY_ROLE.engineer.email));
-  const jobNumber = `LOG-${Date.now().toString(36).toUpperCase()}-${Math.random().toString(36).slice(2, 5).toUpperCase()}`;
-  const [job] = await db
-    .insert(schema.jobs)
-    .values({ jobNumber, name: "Kiln Close workshop", responsibleEngineerId: engineer.id, createdById: engineer.id })
-    .returning({ id: schema.jobs.id });
-  const [standard] = await db.select().from(schema.standards).where(eq(schema.standards.slug, "fixed-end-beam"));
-  const [version] = await db
-    .select({ id: schema.standardVersions.id })
-    .from(schema.standardVersions)
-    .where(eq(schema.standardVersions.standardId, standard.id))
-    .orderBy(desc(schema.standardVersions.number))
-    .limit(1);
-  for (const L of spans) {
-    const response = await fetch(appUrl("/api/runs"), {
-      method: "POST",
-      headers: { cookie, origin: testEnv.baseUrl, "content-type": "application/json" },
-      body: JSON.stringify({ jobId: job.id, versionId: version.id, inputs: { L } }),
-    });
-    expect(response.status).toBe(201);
-  }
-  return jobNumber;
+  const job = await demoEngineerJob("LOG", "Kiln Close workshop");
+  const versionId = await latestVersionId("fixed-end-beam");
+  for (const L of spans) await postRun(cookie, { jobId: job.id, versionId, inputs: { L } });
+  return job.jobNumber;
 }
 
 it("filters by job and by failing checks, keeps the filters in the address, sorts, and downloads what it shows", async () => {

@@ -8,35 +8,27 @@ import { and, eq } from "drizzle-orm";
 import { expect, it } from "vitest";
 import { db } from "@/db";
 import * as schema from "@/db/schema";
-import { DEMO_BY_ROLE, demoSession } from "../support/pages";
+import { demoSession } from "../support/pages";
 import { seriousViolations } from "../support/axe";
 import { useBrowser, usePagesAs } from "../support/browser";
-import { appUrl, testEnv } from "../support/env";
+import { appUrl } from "../support/env";
+import { demoEngineerJob, postRun } from "../support/demo-runs";
 import { measureWidth, PHONE } from "../support/app-pages";
 
 const pageAs = usePagesAs(useBrowser());
 
 it("an auditor opens a run, goes to its trace, sees the version and its author, and reproduces it as issued", async () => {
   // The run: the demo engineer runs simply-supported-beam v1 in a job of their own, through the API.
-  const [engineer] = await db.select().from(schema.user).where(eq(schema.user.email, DEMO_BY_ROLE.engineer.email));
-  const jobNumber = `TRACE-${Date.now().toString(36).toUpperCase()}`;
-  const [job] = await db
-    .insert(schema.jobs)
-    .values({ jobNumber, name: "A traced job", responsibleEngineerId: engineer.id, createdById: engineer.id })
-    .returning({ id: schema.jobs.id });
+  const job = await demoEngineerJob("TRACE", "A traced job");
   const [version] = await db
     .select({ id: schema.standardVersions.id, authorId: schema.standardVersions.authorId })
     .from(schema.standardVersions)
     .innerJoin(schema.standards, eq(schema.standards.id, schema.standardVersions.standardId))
     .where(and(eq(schema.standards.slug, "simply-supported-beam"), eq(schema.standardVersions.number, 1)));
   const [author] = await db.select({ name: schema.user.name }).from(schema.user).where(eq(schema.user.id, version.authorId));
-  const response = await fetch(appUrl("/api/runs"), {
-    method: "POST",
-    headers: { cookie: await demoSession("engineer"), origin: testEnv.baseUrl, "content-type": "application/json" },
-    body: JSON.stringify({ jobId: job.id, versionId: version.id, inputs: { L: "6.5 m" } }),
-  });
-  expect(response.status).toBe(201);
-  const { data: run } = (await response.json()) as { data: { id: string } };
+  const run = {
+    id: await postRun(await demoSession("engineer"), { jobId: job.id, versionId: version.id, inputs: { L: "6.5 m" } }),
+  };
 
   const page = await pageAs(await demoSession("auditor"));
   await page.goto(appUrl(`/runs/${run.id}`));

@@ -416,14 +416,22 @@ export async function insertBatchItem(values: typeof rerunBatchItems.$inferInser
   await currentDb().insert(rerunBatchItems).values(values);
 }
 
-export type BatchProgressDto = { done: number; succeeded: number; failed: number; passToFail: number };
+export type BatchProgressDto = {
+  done: number;
+  succeeded: number;
+  failed: number;
+  passToFail: number;
+  /** When its latest re-run finished (null before the first). */
+  lastFinishedAt: string | null;
+};
 
 export async function countBatchItems(batchId: string): Promise<BatchProgressDto> {
   const { rows } = await currentDb().execute<Record<string, unknown>>(sql`
     select count(*) as done,
            count(*) filter (where status = 'succeeded') as succeeded,
            count(*) filter (where status = 'failed') as failed,
-           count(*) filter (where newly_failing > 0) as pass_to_fail
+           count(*) filter (where newly_failing > 0) as pass_to_fail,
+           max(finished_at) as last_finished_at
       from rerun_batch_items where batch_id = ${batchId}`);
   const row = rows[0];
   return {
@@ -431,6 +439,7 @@ export async function countBatchItems(batchId: string): Promise<BatchProgressDto
     succeeded: Number(row.succeeded),
     failed: Number(row.failed),
     passToFail: Number(row.pass_to_fail),
+    lastFinishedAt: row.last_finished_at ? iso(row.last_finished_at as string | Date) : null,
   };
 }
 

@@ -9,6 +9,7 @@ import "server-only";
 import { AppError } from "@/lib/domain/errors";
 import { z } from "@/lib/domain/zod";
 import type { Actor } from "@/lib/domain/actor";
+import { batchStalledFor } from "@/lib/domain/batch-stall";
 import { batchProgressSchema, startBatchSchema } from "@/lib/domain/schemas/withdrawals";
 import type { CheckDelta } from "@/db/schema";
 import { enqueueJobs } from "@/lib/jobs/enqueue";
@@ -88,6 +89,9 @@ export type BatchProgress = {
     passToFail: number;
     startedByName: string;
     startedAt: string;
+    lastFinishedAt: string | null;
+    /** Milliseconds it has finished nothing with runs still to do, once that is long enough to say (else null). */
+    stalledForMs: number | null;
   } | null;
   /** Checks that went from pass to fail first, then failed re-runs, then the largest changes of utilisation. */
   deltas: BatchItemDto[];
@@ -111,6 +115,7 @@ export const readBatchProgress = defineUseCase({
         ...counts,
         startedByName: batch.startedByName,
         startedAt: batch.startedAt,
+        stalledForMs: batchStalledFor({ ...counts, total: batch.total, startedAt: batch.startedAt }, new Date()),
       },
       deltas: await listBatchDeltas(batch.id, 50),
     };

@@ -162,7 +162,9 @@ describe("a batch re-run", () => {
     expect(audited).toBe(RUNS - refused);
 
     const progress = await runUseCase(readBatchProgress, { actor: lead, input: { id: withdrawalId } });
-    expect(progress.batch).toMatchObject({ total: RUNS, done: RUNS, failed: refused });
+    expect(progress.batch).toMatchObject({ total: RUNS, done: RUNS, failed: refused, stalledForMs: null });
+    // Its latest re-run finished after it started, and a finished batch is never said to be stalled.
+    expect(Date.parse(progress.batch!.lastFinishedAt!)).toBeGreaterThan(Date.parse(progress.batch!.startedAt));
     expect(progress.batch!.passToFail).toBeGreaterThan(0);
     // The delta table leads with the checks that went from pass to fail.
     expect(progress.deltas[0].newlyFailing).toBeGreaterThan(0);

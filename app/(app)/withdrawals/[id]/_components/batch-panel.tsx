@@ -33,6 +33,13 @@ function Progress({ batch }: { batch: NonNullable<BatchProgress["batch"]> }) {
         {finished ? " — complete." : "…"} {batch.failed > 0 ? `${batch.failed} failed. ` : ""}
         {batch.passToFail > 0 ? `${batch.passToFail} went from pass to fail.` : ""}
       </p>
+      {batch.stalledForMs !== null ? (
+        <Notice tone="warn" testId="batch-stalled">
+          No re-run has finished for {Math.floor(batch.stalledForMs / 60_000)} minutes, with {batch.total - batch.done} still to
+          do. Re-runs are done by the background worker (<code>npm start</code> starts one): if none is running they wait, and the
+          batch goes on where it stopped once one starts. Nothing is lost or done twice.
+        </Notice>
+      ) : null}
       <div
         role="progressbar"
         aria-label="Batch re-run progress"

@@ -16,7 +16,7 @@ export default async function LibraryPage({ params }: PageProps<"/libraries/[slu
   const library = await orNotFound(() => runUseCase(readLibrary, { actor, input: { slug } }));
   const current = library.versions.find((version) => version.status !== "withdrawn") ?? library.versions[0];
   const maintain = can(actor.role, "libraries.write-draft")
-    ? { drafts: library.drafts, withdraw: can(actor.role, "libraries.withdraw") }
+    ? { drafts: library.drafts, withdraw: can(actor.role, "libraries.withdraw"), readsReports: can(actor.role, "runs.read") }
     : null;
   if (!current)
     return (

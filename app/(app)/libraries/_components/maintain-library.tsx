@@ -31,11 +31,14 @@ export function WithdrawLibraryForm({
   versionId,
   number,
   entryKeys,
+  readsReports,
 }: {
   versionId: string;
   number: number;
   /** Absent to withdraw the whole version. */
   entryKeys?: string[];
+  /** Whether this person reads impact reports (those who read runs): else the report is named, not linked. */
+  readsReports: boolean;
 }) {
   const [versionState, withdrawVersion, versionPending] = useActionState(withdrawLibraryVersionAction, null);
   const [entryState, withdrawEntry, entryPending] = useActionState(withdrawLibraryEntryAction, null);
@@ -46,11 +49,14 @@ export function WithdrawLibraryForm({
   const state = whole ? versionState : entryState;
   const server = actionErrors(state, ["reason", "entryKey", "replacementKey"]);
   const testId = whole ? "withdraw-version" : "withdraw-entry";
-  const report = (withdrawalId: string) => (
-    <Link href={`/withdrawals/${withdrawalId}`} className="underline" data-testid="impact-report-link">
-      Impact report
-    </Link>
-  );
+  const report = (withdrawalId: string) =>
+    readsReports ? (
+      <Link href={`/withdrawals/${withdrawalId}`} className="underline" data-testid="impact-report-link">
+        Impact report
+      </Link>
+    ) : (
+      <span data-testid="impact-report-note">Its impact report is read by the leads, engineers and auditors.</span>
+    );
   if (versionState?.ok)
     return (
       <Notice tone="pass">

@@ -20,8 +20,8 @@ export function LibraryVersionPage({
 }: {
   version: LibraryVersionView;
   history: LibraryVersionSummaryDto[];
-  /** For those who maintain the libraries: the library's open drafts, and whether they may withdraw. */
-  maintain: { drafts: LibraryDraftDto[]; withdraw: boolean } | null;
+  /** For those who maintain the libraries: the library's open drafts, whether they may withdraw, and read impact reports. */
+  maintain: { drafts: LibraryDraftDto[]; withdraw: boolean; readsReports: boolean } | null;
 }) {
   const withdrawal = version.events.findLast((event) => event.kind === "withdrawn" && event.entryKey === null);
   const usable = version.status === "withdrawn" ? [] : version.entryRows.filter((row) => row.withdrawn === null);
@@ -114,7 +114,12 @@ export function LibraryVersionPage({
                 {summary}
               </summary>
               <div className="mt-3">
-                <WithdrawLibraryForm versionId={version.id} number={version.number} entryKeys={keys} />
+                <WithdrawLibraryForm
+                  versionId={version.id}
+                  number={version.number}
+                  entryKeys={keys}
+                  readsReports={maintain.readsReports}
+                />
               </div>
             </details>
           ))}

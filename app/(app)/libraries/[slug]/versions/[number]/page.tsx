@@ -21,7 +21,7 @@ export default async function LibraryVersionRoute({ params }: PageProps<"/librar
     ]),
   );
   const maintain = can(actor.role, "libraries.write-draft")
-    ? { drafts: library.drafts, withdraw: can(actor.role, "libraries.withdraw") }
+    ? { drafts: library.drafts, withdraw: can(actor.role, "libraries.withdraw"), readsReports: can(actor.role, "runs.read") }
     : null;
   return <LibraryVersionPage version={version} history={library.versions} maintain={maintain} />;
 }

@@ -70,7 +70,12 @@ export default async function LibraryEntryPage({ params, searchParams }: PagePro
           <h2 id="entry-withdraw" className="text-base font-semibold text-ink-900">
             Withdraw {entry.key} from version {version.number}
           </h2>
-          <WithdrawLibraryForm versionId={version.id} number={version.number} entryKeys={[row.key]} />
+          <WithdrawLibraryForm
+            versionId={version.id}
+            number={version.number}
+            entryKeys={[row.key]}
+            readsReports={can(actor.role, "runs.read")}
+          />
         </section>
       ) : null}
     </>

@@ -165,7 +165,11 @@ export async function publishedLibraryEntries(
             "version of the standard on a library version in use.",
         );
     }
-  return { entries: await libraryEntriesFor(version.source, extra, pinnedVersions(pins)), pins };
+  // Read for its page, a version on a withdrawn library version is shown as it was published (it cannot be run).
+  const resolution = pins.some((pin) => pin.status === "withdrawn")
+    ? { asRun: pinnedVersions(pins).pinned }
+    : pinnedVersions(pins);
+  return { entries: await libraryEntriesFor(version.source, extra, resolution), pins };
 }
 
 /**

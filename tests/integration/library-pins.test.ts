@@ -160,6 +160,8 @@ describe("library references pinned at publication", () => {
     ).rejects.toMatchObject({ code: "conflict", message: expect.stringContaining(refusal) });
     const view = await runUseCase(readVersion, { actor: engineer, input: { slug: published.slug, number: 1 } });
     expect(view.libraryPins[0]).toMatchObject({ version: 1, status: "withdrawn" });
+    // Its page still draws it as published, on version 1, and says it cannot be run.
+    expect(view.libraries[library].version).toBe(1);
   });
 
   it("are append-only for the app's role", async () => {

@@ -4,7 +4,8 @@
 // app's role. Real use cases, real database. The sections are invented and made in the builder; the verification case
 // checks the deflection 5wL⁴/384EI (AWC Design Aid No. 6 (2005), Fig. 1).
 import { describe, expect, it } from "vitest";
-import { pool } from "@/db";
+import { db, pool } from "@/db";
+import * as schema from "@/db/schema";
 import type { Actor } from "@/lib/domain/actor";
 import { runUseCase } from "@/lib/use-cases/run";
 import {
@@ -161,6 +162,40 @@ describe("library references pinned at publication", () => {
     const view = await runUseCase(readVersion, { actor: engineer, input: { slug: published.slug, number: 1 } });
     expect(view.libraryPins[0]).toMatchObject({ version: 1, status: "withdrawn" });
     // Its page still draws it as published, on version 1, and says it cannot be run.
+    expect(view.libraries[library].version).toBe(1);
+  });
+
+  it("read what `latest` meant at publication for a version published before pins were recorded", async () => {
+    const { lead, second, library, source, published } = await standardOnNewSections("pins-before");
+    // A version as one published before this release: the same source, no pins (the seed imports its versions so).
+    const published1 = (await runUseCase(readVersion, { actor: lead, input: { slug: published.slug, number: 1 } })).publishedAt;
+    const [standard] = await db
+      .insert(schema.standards)
+      .values({ slug: uniqueLabel("unpinned"), createdById: lead.id })
+      .returning();
+    const [version] = await db
+      .insert(schema.standardVersions)
+      .values({
+        standardId: standard.id,
+        number: 1,
+        source,
+        contentHash: published.hash,
+        title: "Beam on a library section",
+        category: "beams",
+        summary: "A test beam.",
+        changelog: "Published before pins.",
+        authorId: lead.id,
+        reviewerId: second.id,
+        verifiedWith: "test",
+        verification: [],
+        publishedAt: new Date(published1),
+      })
+      .returning();
+    await publishSecondVersion(library, lead, second);
+    const view = await runUseCase(readVersion, { actor: lead, input: { slug: standard.slug, number: version.number } });
+    expect(view.libraryPins).toEqual([
+      { library, inputs: ["beam"], requested: "latest", version: 1, how: "as-of-publication", status: "superseded", newer: 2 },
+    ]);
     expect(view.libraries[library].version).toBe(1);
   });
 

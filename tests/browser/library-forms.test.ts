@@ -72,9 +72,14 @@ it(
     // Opened again, the entry is there in the form, its modulus in MPa; as JSON, in pascals.
     await page.reload();
     const saved = page.locator(`[data-testid=draft-entry][data-key="${name}"]`);
-    // (The form fills its fields once the page is hydrated.)
-    await expect.poll(() => saved.getByTestId("material-E-value").inputValue(), { timeout: 15_000 }).toBe("200000");
-    await saved.getByTestId("draft-entry-mode").click();
+    // Drawn with its values by the server already, before the page is hydrated.
+    expect(await saved.getByTestId("material-E-value").inputValue()).toBe("200000");
+    // The mode switch works once React has hydrated it (its node then carries React's own properties).
+    const mode = saved.getByTestId("draft-entry-mode");
+    await expect
+      .poll(() => mode.evaluate((node) => Object.keys(node).some((key) => key.startsWith("__react"))), { timeout: 15_000 })
+      .toBe(true);
+    await mode.click();
     expect(JSON.parse(await saved.getByTestId("draft-entry-json").inputValue())).toMatchObject({
       key: name,
       E: { value: 200e9 },

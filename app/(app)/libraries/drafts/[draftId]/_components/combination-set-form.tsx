@@ -17,7 +17,7 @@ import { PlainOptions } from "./plain-options";
 
 export function CombinationSetForm({ entry, onChange }: { entry: unknown; onChange: (entry: unknown) => void }) {
   const {
-    register,
+    fieldOf,
     control,
     formState: { errors },
   } = useEntryForm<CombinationSetFormValues>(COMBINATION_SET_FORM, entry, onChange);
@@ -29,8 +29,8 @@ export function CombinationSetForm({ entry, onChange }: { entry: unknown; onChan
   return (
     <div className="space-y-4" data-testid="combination-set-form">
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField label="Name" error={errorAt(errors, "key")} data-testid="set-key" {...register("key")} />
-        <SelectField label="Purpose" error={errorAt(errors, "purpose")} data-testid="set-purpose" {...register("purpose")}>
+        <TextField label="Name" error={errorAt(errors, "key")} data-testid="set-key" {...fieldOf("key")} />
+        <SelectField label="Purpose" error={errorAt(errors, "purpose")} data-testid="set-purpose" {...fieldOf("purpose")}>
           <PlainOptions values={COMBINATION_PURPOSES} />
         </SelectField>
       </div>
@@ -38,7 +38,7 @@ export function CombinationSetForm({ entry, onChange }: { entry: unknown; onChan
         label="Reference (standard and clause)"
         error={errorAt(errors, "reference")}
         data-testid="set-reference"
-        {...register("reference")}
+        {...fieldOf("reference")}
       />
       <fieldset className="space-y-2">
         <legend className="text-sm font-medium text-ink-700">Load kinds</legend>
@@ -53,12 +53,12 @@ export function CombinationSetForm({ entry, onChange }: { entry: unknown; onChan
             className="grid items-end gap-3 sm:grid-cols-[6rem_minmax(0,1fr)_9rem_9rem_auto]"
             data-testid="set-load-kind"
           >
-            <TextField label="Symbol" error={errorAt(errors, `loadKinds.${i}.id`)} {...register(`loadKinds.${i}.id`)} />
-            <TextField label="Name" error={errorAt(errors, `loadKinds.${i}.name`)} {...register(`loadKinds.${i}.name`)} />
-            <SelectField label="Action" {...register(`loadKinds.${i}.action`)}>
+            <TextField label="Symbol" error={errorAt(errors, `loadKinds.${i}.id`)} {...fieldOf(`loadKinds.${i}.id`)} />
+            <TextField label="Name" error={errorAt(errors, `loadKinds.${i}.name`)} {...fieldOf(`loadKinds.${i}.name`)} />
+            <SelectField label="Action" {...fieldOf(`loadKinds.${i}.action`)}>
               <PlainOptions values={LOAD_ACTIONS} />
             </SelectField>
-            <SelectField label="Several cases" {...register(`loadKinds.${i}.cases`)}>
+            <SelectField label="Several cases" {...fieldOf(`loadKinds.${i}.cases`)}>
               <PlainOptions values={LOAD_CASE_RULES} />
             </SelectField>
             <Button type="button" variant="quiet" size="sm" onClick={() => kinds.remove(i)}>
@@ -85,16 +85,16 @@ export function CombinationSetForm({ entry, onChange }: { entry: unknown; onChan
         {combinations.fields.map((field, i) => (
           <div key={field.id} className="space-y-2 rounded-plate p-3 ring-1 ring-ink-200" data-testid="set-combination">
             <div className="grid items-end gap-3 sm:grid-cols-[6rem_minmax(0,1fr)_8rem_auto]">
-              <TextField label="Id" error={errorAt(errors, `combinations.${i}.id`)} {...register(`combinations.${i}.id`)} />
+              <TextField label="Id" error={errorAt(errors, `combinations.${i}.id`)} {...fieldOf(`combinations.${i}.id`)} />
               <TextField
                 label="As the standard writes it"
                 error={errorAt(errors, `combinations.${i}.label`)}
-                {...register(`combinations.${i}.label`)}
+                {...fieldOf(`combinations.${i}.label`)}
               />
               <SelectField
                 label="Led by"
                 error={errorAt(errors, `combinations.${i}.leading`)}
-                {...register(`combinations.${i}.leading`)}
+                {...fieldOf(`combinations.${i}.leading`)}
               >
                 <option value="">—</option>
                 <PlainOptions values={variable} />
@@ -115,7 +115,7 @@ export function CombinationSetForm({ entry, onChange }: { entry: unknown; onChan
                     error={errorAt(errors, `combinations.${i}.factors.${id}`)}
                     errorTestId={`set-factor-error-${i}-${id}`}
                     data-testid={`set-factor-${i}-${id}`}
-                    {...register(`combinations.${i}.factors.${id}`)}
+                    {...fieldOf(`combinations.${i}.factors.${id}`)}
                   />
                 ))}
             </div>
@@ -131,7 +131,7 @@ export function CombinationSetForm({ entry, onChange }: { entry: unknown; onChan
           Add a combination
         </Button>
       </fieldset>
-      <TextAreaField label="Note (optional)" rows={2} error={errorAt(errors, "note")} {...register("note")} />
+      <TextAreaField label="Note (optional)" rows={2} error={errorAt(errors, "note")} {...fieldOf("note")} />
     </div>
   );
 }

@@ -16,7 +16,7 @@ import { PlainOptions } from "./plain-options";
 
 export function MaterialForm({ entry, onChange }: { entry: unknown; onChange: (entry: unknown) => void }) {
   const {
-    register,
+    fieldOf,
     control,
     formState: { errors },
   } = useEntryForm<MaterialFormValues>(MATERIAL_FORM, entry, onChange);
@@ -24,8 +24,8 @@ export function MaterialForm({ entry, onChange }: { entry: unknown; onChange: (e
   return (
     <div className="space-y-4" data-testid="material-form">
       <div className="grid gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
-        <TextField label="Name" error={errorAt(errors, "key")} data-testid="material-key" {...register("key")} />
-        <SelectField label="Family" error={errorAt(errors, "family")} data-testid="material-family" {...register("family")}>
+        <TextField label="Name" error={errorAt(errors, "key")} data-testid="material-key" {...fieldOf("key")} />
+        <SelectField label="Family" error={errorAt(errors, "family")} data-testid="material-family" {...fieldOf("family")}>
           <PlainOptions values={MATERIAL_FAMILIES} />
         </SelectField>
       </div>
@@ -47,14 +47,14 @@ export function MaterialForm({ entry, onChange }: { entry: unknown; onChange: (e
               error={errorAt(errors, `${name}.value`) ?? errorAt(errors, name)}
               errorTestId={`material-${name}-value-error`}
               data-testid={`material-${name}-value`}
-              {...register(`${name}.value`)}
+              {...fieldOf(`${name}.value`)}
             />
             <TextField
               label={`Source of ${name}`}
               error={errorAt(errors, `${name}.source`)}
               errorTestId={`material-${name}-source-error`}
               data-testid={`material-${name}-source`}
-              {...register(`${name}.source`)}
+              {...fieldOf(`${name}.source`)}
             />
           </div>
         ))}
@@ -65,17 +65,17 @@ export function MaterialForm({ entry, onChange }: { entry: unknown; onChange: (e
           const symbol = field.symbol;
           return (
             <div key={field.id} className="grid items-end gap-3 sm:grid-cols-[8rem_minmax(0,1fr)_6rem_minmax(0,2fr)_auto]">
-              <TextField label="Symbol" error={errorAt(errors, `values.${symbol}`)} {...register(`values.${i}.symbol`)} />
+              <TextField label="Symbol" error={errorAt(errors, `values.${symbol}`)} {...fieldOf(`values.${i}.symbol`)} />
               <TextField
                 label="Value"
                 inputMode="decimal"
                 error={errorAt(errors, `values.${symbol}.value`)}
-                {...register(`values.${i}.value`)}
+                {...fieldOf(`values.${i}.value`)}
               />
-              <SelectField label="Unit" {...register(`values.${i}.unit`)}>
+              <SelectField label="Unit" {...fieldOf(`values.${i}.unit`)}>
                 <PlainOptions values={MATERIAL_VALUE_UNITS} />
               </SelectField>
-              <TextField label="Source" error={errorAt(errors, `values.${symbol}.source`)} {...register(`values.${i}.source`)} />
+              <TextField label="Source" error={errorAt(errors, `values.${symbol}.source`)} {...fieldOf(`values.${i}.source`)} />
               <Button type="button" variant="quiet" size="sm" onClick={() => further.remove(i)}>
                 Remove {symbol || "value"}
               </Button>
@@ -91,7 +91,7 @@ export function MaterialForm({ entry, onChange }: { entry: unknown; onChange: (e
           Add a further value
         </Button>
       </fieldset>
-      <TextAreaField label="Note (optional)" rows={2} error={errorAt(errors, "note")} {...register("note")} />
+      <TextAreaField label="Note (optional)" rows={2} error={errorAt(errors, "note")} {...fieldOf("note")} />
     </div>
   );
 }

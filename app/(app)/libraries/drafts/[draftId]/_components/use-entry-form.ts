@@ -2,8 +2,10 @@
 // What both entry forms share: react-hook-form on the entry's form values, checked with the form's schema (the
 // library's own entry schema, after the values are turned into the entry) on every change — the whole entry, so a
 // rule across fields (fu below fy) is named again when either changes — and the entry handed to the editor.
-import { useEffect, useRef } from "react";
-import { useForm, type DefaultValues, type FieldValues, type Resolver } from "react-hook-form";
+// `fieldOf` registers an input with its value as the input's own default too, so the page is drawn with the entry's
+// values before it is hydrated (react-hook-form fills its inputs only then).
+import { useEffect, useRef, useState } from "react";
+import { useForm, type DefaultValues, type FieldValues, type Path, type Resolver } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { EntryFormKind } from "@/lib/libraries";
 
@@ -12,9 +14,10 @@ export function useEntryForm<Values extends FieldValues>(
   entry: unknown,
   onChange: (entry: unknown) => void,
 ) {
+  const [opened] = useState(() => valuesOf(entry) as DefaultValues<Values>);
   const form = useForm<Values>({
     resolver: zodResolver(schema as never) as unknown as Resolver<Values>,
-    defaultValues: valuesOf(entry) as DefaultValues<Values>,
+    defaultValues: opened,
   });
   const { subscribe, trigger } = form;
   const changed = useRef(onChange);
@@ -32,16 +35,22 @@ export function useEntryForm<Values extends FieldValues>(
       },
     });
   }, [subscribe, trigger, entryOf]);
-  return form;
+  const fieldOf = (name: Path<Values>) => {
+    // The form's value now, not as opened: a row of a list keeps its input when a row above it is removed.
+    const value: unknown = form.getValues(name);
+    return { ...form.register(name), ...(typeof value === "string" ? { defaultValue: value } : {}) };
+  };
+  return { ...form, fieldOf };
+}
+
+function valueAt(values: unknown, name: string): unknown {
+  let at: unknown = values;
+  for (const part of name.split(".")) at = at && typeof at === "object" ? (at as Record<string, unknown>)[part] : undefined;
+  return at;
 }
 
 /** A field's error message, from react-hook-form's nested errors, by its dotted name. */
 export function errorAt(errors: unknown, name: string): string | undefined {
-  let at: unknown = errors;
-  for (const part of name.split(".")) {
-    if (!at || typeof at !== "object") return undefined;
-    at = (at as Record<string, unknown>)[part];
-  }
-  const message = (at as { message?: unknown } | undefined)?.message;
+  const message = (valueAt(errors, name) as { message?: unknown } | undefined)?.message;
   return typeof message === "string" ? message : undefined;
 }

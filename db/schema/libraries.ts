@@ -15,6 +15,10 @@
 //   library_version_events    published, superseded, withdrawn (append-only). A version's status is its latest
 //                             event without an entry key; an event with one withdraws that entry alone (a wrong
 //                             property in the catalogue) and leaves the rest of the version in use
+//   standard_version_library_pins
+//                             the library version each `latest` reference of a standard version resolved to when
+//                             it was published: its runs use that version, not whatever is newest later
+//                             (append-only)
 //
 // The append-only triggers are in drizzle/0008_libraries.sql (custom part); scripts/lib/app-privileges.ts gives
 // the app's role only SELECT and INSERT on tables with such a trigger.
@@ -28,6 +32,7 @@ import {
   integer,
   jsonb,
   pgTable,
+  primaryKey,
   text,
   timestamp,
   unique,
@@ -35,7 +40,7 @@ import {
 } from "drizzle-orm/pg-core";
 import { LIBRARY_KIND_IDS } from "@/lib/domain/schemas/libraries";
 import { user } from "./auth";
-import { DRAFT_STATES, REVIEW_OUTCOMES, VERSION_EVENT_KINDS } from "./standards";
+import { DRAFT_STATES, REVIEW_OUTCOMES, standardVersions, VERSION_EVENT_KINDS } from "./standards";
 
 export const libraries = pgTable(
   "libraries",
@@ -166,6 +171,8 @@ export const libraryVersions = pgTable(
     check("library_versions_kind_check", sql`${t.kind} in ('sections', 'materials', 'combinations')`),
     check("library_versions_four_eyes", sql`${t.reviewerId} <> ${t.authorId}`),
     check("library_versions_hash_check", sql`${t.contentHash} ~ '^[0-9a-f]{64}$'`),
+    // What a pin's foreign key points at: a version together with its own library.
+    unique("library_versions_id_library_unique").on(t.id, t.libraryId),
   ],
 );
 export type LibraryVersion = typeof libraryVersions.$inferSelect;
@@ -229,3 +236,30 @@ export const libraryVersionEvents = pgTable(
   ],
 );
 export type LibraryVersionEvent = typeof libraryVersionEvents.$inferSelect;
+
+export const standardVersionLibraryPins = pgTable(
+  "standard_version_library_pins",
+  {
+    standardVersionId: uuid("standard_version_id")
+      .notNull()
+      .references(() => standardVersions.id),
+    libraryId: uuid("library_id")
+      .notNull()
+      .references(() => libraries.id),
+    /** The newest published version not withdrawn when the standard version was published. */
+    libraryVersionId: uuid("library_version_id").notNull(),
+    pinnedAt: timestamp("pinned_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    // One pin per library: every `latest` reference of a version to one library reads the same version.
+    primaryKey({ columns: [t.standardVersionId, t.libraryId] }),
+    index("standard_version_library_pins_version_idx").on(t.libraryVersionId),
+    // The pinned version is a version of that very library.
+    foreignKey({
+      name: "standard_version_library_pins_version_fk",
+      columns: [t.libraryVersionId, t.libraryId],
+      foreignColumns: [libraryVersions.id, libraryVersions.libraryId],
+    }),
+  ],
+);
+export type StandardVersionLibraryPin = typeof standardVersionLibraryPins.$inferSelect;

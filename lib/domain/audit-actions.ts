@@ -47,6 +47,8 @@ export type AuditDetails = {
     authorName: string;
     supersedes: number[];
     cases: number;
+    /** The library version each `latest` reference was pinned to, with its content hash. */
+    libraries?: { library: string; version: number; contentHash: string }[];
   };
   /** successor: the version named to replace it (with the mapping of inputs, on the withdrawal's impact report). */
   "standards.withdraw": { slug: string; number: number; reason: string; successor?: number | null; notified?: number };

@@ -118,7 +118,7 @@ const valueSymbol = z
   .string()
   .regex(/^[A-Za-z][A-Za-z0-9_]{0,23}$/, "A value's symbol is a short identifier: f_ck, f_m_k, E_0_05, rho_k…");
 
-const materialEntrySchema = z
+export const materialEntrySchema = z
   .object({
     key,
     family: z.enum(MATERIAL_FAMILIES),
@@ -160,6 +160,12 @@ export type MaterialEntry = z.output<typeof materialEntrySchema>;
 
 // ---- load-combination sets ---------------------------------------------------------------------------------
 
+/** A load kind's variation in time (EN 1990 4.1.1), and what several cases of it in one model are. */
+export const LOAD_ACTIONS = ["permanent", "variable", "accidental"] as const;
+export const LOAD_CASE_RULES = ["add", "alternatives"] as const;
+/** What a set's combinations are for. */
+export const COMBINATION_PURPOSES = ["strength", "allowable-stress", "serviceability", "accidental", "seismic"] as const;
+
 const loadKindId = z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,11}$/, "A load kind is a short symbol: D, L, Lr, S, W, E_h…");
 
 /**
@@ -173,10 +179,10 @@ const loadKindSchema = z
   .object({
     id: loadKindId,
     name: z.string().trim().min(1).max(80),
-    action: z.enum(["permanent", "variable", "accidental"], {
+    action: z.enum(LOAD_ACTIONS, {
       error: "Say whether the load kind is a permanent, variable or accidental action.",
     }),
-    cases: z.enum(["add", "alternatives"]).default("add"),
+    cases: z.enum(LOAD_CASE_RULES).default("add"),
   })
   .strict();
 
@@ -199,13 +205,13 @@ const combinationSchema = z
   })
   .strict();
 
-const combinationSetEntrySchema = z
+export const combinationSetEntrySchema = z
   .object({
     key,
     /** The standard and clause the set follows: "ASCE/SEI 7-16 §2.3.1". */
     reference: source,
     /** What the combinations are for. */
-    purpose: z.enum(["strength", "allowable-stress", "serviceability", "accidental", "seismic"]),
+    purpose: z.enum(COMBINATION_PURPOSES),
     loadKinds: z.array(loadKindSchema).min(1, "Name the load kinds the set's factors apply to."),
     combinations: z.array(combinationSchema).min(1, "A set needs at least one combination."),
     note: z.string().max(2000).optional(),

@@ -1,5 +1,6 @@
 // The firm's libraries, the pure part: the section builder, the catalogue import and the demo catalogue; the
-// library documents; a combination set's expansion into the engine's combinations; what a model takes from a material.
+// library documents and the draft editor's forms for their materials and sets; a combination set's expansion into the
+// engine's combinations; what a model takes from a material.
 export { buildSection, buildSectionOrThrow, rectangleTorsion } from "./sections";
 export type { BuildSectionResult, Section, SectionProblem, SectionProperties, SectionPropertiesByShape } from "./sections";
 export { DIMENSION_LABELS, SECTION_SHAPES, SHAPE_NAMES, sectionInputSchema } from "./section-schema";
@@ -20,13 +21,18 @@ export { buildDemoCatalogue, DEMO_CATALOGUE_MAPPING, DEMO_SECTIONS, renderDemoCa
 export {
   catalogueSectionEntries,
   checkLibraryDocument,
+  COMBINATION_PURPOSES,
+  combinationSetEntrySchema,
   findEntry,
   LIBRARY_KIND_NAMES,
   LIBRARY_KINDS,
   libraryContentHash,
   libraryDocumentInputSchema,
   libraryEntryHash,
+  LOAD_ACTIONS,
+  LOAD_CASE_RULES,
   MATERIAL_FAMILIES,
+  materialEntrySchema,
   MATERIAL_VALUE_UNITS,
   normaliseKey,
 } from "./document";
@@ -51,4 +57,16 @@ export type {
   ExpandOptions,
   ExpansionProblem,
 } from "./combination-sets";
+export {
+  COMBINATION_SET_FORM,
+  combinationSetFormSchema,
+  combinationSetFormValues,
+  combinationSetOfForm,
+  MATERIAL_FORM,
+  MATERIAL_FORM_VALUES,
+  materialFormSchema,
+  materialFormValues,
+  materialOfForm,
+} from "./entry-forms";
+export type { CombinationSetFormValues, EntryFormKind, MaterialFormValues } from "./entry-forms";
 export { materialShearModulus, memberMaterial, shearModulusFromPoisson, STANDARD_GRAVITY, weightDensity } from "./materials";

@@ -22,7 +22,7 @@ import { runWithBundleBytes, sha256Hex } from "@/lib/evaluation/archived-bundle"
 import type { RunResult } from "@/lib/evaluation/protocol";
 import { getRun } from "@/lib/data/runs";
 import { getVersion } from "@/lib/data/standards";
-import { libraryEntriesFor } from "./library-resolution";
+import { libraryEntriesFor, libraryPinsOf, pinnedVersions } from "./library-resolution";
 import { keepCurrentEvaluationBundle, readKeptEvaluationBundle } from "./evaluation-bundles";
 import { defineUseCase } from "./use-case";
 
@@ -101,7 +101,11 @@ export const reproduceRun = defineUseCase({
           reason: "the version's text does not match its content hash",
         },
       );
-    const libraries = await libraryEntriesFor(version.source, picksOf(record), { versions: libraryVersionsOf(record) });
+    // The versions the record names; a library it names none of (a failed run) at the version's pin.
+    const pinned = pinnedVersions(await libraryPinsOf(version)).pinned;
+    const libraries = await libraryEntriesFor(version.source, picksOf(record), {
+      asRun: { ...pinned, ...libraryVersionsOf(record) },
+    });
     const task = { source: version.source, inputs: record.typed, libraries };
     const pool = evaluationPool();
     const answer = mode === "as-issued" ? await asIssued(record, task) : await pool.run(task.source, task.inputs, libraries);

@@ -18,7 +18,7 @@ import { getJob, type JobDto } from "@/lib/data/jobs";
 import { getStandardBySlug, getVersion, listVersionsOf, type VersionDto } from "@/lib/data/standards";
 import { getRun } from "@/lib/data/runs";
 import { evaluationPool } from "@/lib/evaluation/pool";
-import { libraryEntriesFor } from "./library-resolution";
+import { publishedLibraryEntries } from "./library-resolution";
 import { defineUseCase } from "./use-case";
 
 /** The units offered per quantity, in the order a person thinks of them (SI first, then US customary). */
@@ -171,7 +171,7 @@ export const readRunForm = defineUseCase({
     const definition = parsed.data;
     const all: Record<string, "all"> = {};
     for (const input of Object.values(definition.inputs)) if (isLibraryInput(input)) all[input.library] = "all";
-    const libraries = await libraryEntriesFor(version.source, all);
+    const { entries: libraries } = await publishedLibraryEntries(version, all, { forRun: true });
 
     let typed: Record<string, string | number> = {};
     let fromRun: RunFormData["from"] = null;

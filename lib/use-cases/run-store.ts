@@ -24,7 +24,7 @@ import type { JobDto } from "@/lib/data/jobs";
 import type { VersionDto } from "@/lib/data/standards";
 import { findLibraryEntryRow, insertRun, insertRunLibraryEntries } from "@/lib/data/runs";
 import type { RunPurpose, UnitSystem } from "@/db/schema";
-import { libraryEntriesFor } from "./library-resolution";
+import { publishedLibraryEntries } from "./library-resolution";
 import { keepCurrentEvaluationBundle } from "./evaluation-bundles";
 
 export type RunInputs = Readonly<Record<string, string | number>>;
@@ -73,7 +73,8 @@ export async function evaluateRun(job: JobDto, version: VersionDto, inputs: RunI
     });
 
   const pool = evaluationPool();
-  const libraries = await libraryEntriesFor(version.source, picksOf(definition, inputs));
+  // `latest` reads the library version pinned when this version was published.
+  const { entries: libraries } = await publishedLibraryEntries(version, picksOf(definition, inputs), { forRun: true });
   const answer = await pool.run(version.source, inputs, libraries);
   if (!answer.ok)
     throw new AppError(

@@ -64,7 +64,8 @@ import { defineUseCase } from "./use-case";
 import { recordWithdrawal } from "./withdrawals";
 import { ownEditableDraft } from "./draft-access";
 import { missingHandCalculations } from "./standard-attachments";
-import { libraryEntriesFor } from "./library-resolution";
+import { latestPinsToRecord, libraryEntriesFor, publishedLibraryEntries, type LibraryReferencePin } from "./library-resolution";
+import { insertLibraryPins } from "@/lib/data/library-pins";
 import type { LibraryEntries } from "@/lib/standards/library-inputs";
 
 const noInput = z.object({}).default({});
@@ -113,8 +114,11 @@ export const readStandard = defineUseCase({
   audit: null,
 });
 
-/** A version with the library entries its section and material inputs' defaults name, to evaluate it for its page. */
-export type VersionView = VersionDto & { libraries: LibraryEntries };
+/**
+ * A version with the library entries its section and material inputs' defaults name, to evaluate it for its page,
+ * and the library version each of its library references reads (pinned at publication for `latest`).
+ */
+export type VersionView = VersionDto & { libraries: LibraryEntries; libraryPins: LibraryReferencePin[] };
 
 export const readVersion = defineUseCase({
   name: "standards.read-version",
@@ -124,7 +128,8 @@ export const readVersion = defineUseCase({
     const standard = await getStandardBySlug(slug);
     const version = standard ? await getVersion({ standardId: standard.id, number }) : null;
     if (!version) throw new AppError("not-found", `“${slug}” has no version ${number}.`);
-    return { ...version, libraries: await libraryEntriesFor(version.source) };
+    const { entries, pins } = await publishedLibraryEntries(version);
+    return { ...version, libraries: entries, libraryPins: pins };
   },
   audit: null,
 });
@@ -327,7 +332,9 @@ export const approveAndPublish = defineUseCase({
   prepare: async ({ reviewId }, { actor }) => {
     if (!can(actor.role, "templates.review")) throw new AppError("forbidden");
     const source = await getReviewSource(reviewId);
-    return { source, check: await checkSource(source) };
+    // Checked against the libraries' newest versions, which are the ones pinned below.
+    const libraries = await libraryEntriesFor(source);
+    return { source, libraries, check: await checkSource(source, { libraries }) };
   },
   run: async ({ reviewId, note }, { actor, prepared }) => {
     const review = await reviewToDecide(reviewId, actor);
@@ -338,6 +345,8 @@ export const approveAndPublish = defineUseCase({
     const refusals = [...gateRefusals(check), ...(await missingHandCalculations(draft.standardId, check))];
     if (refusals.length > 0) throw new AppError("invalid-input", `It cannot be published: ${refusals.join(" ")}`);
     await lockStandard(draft.standardId);
+    // Each `latest` library reference is pinned to the version it was just verified against (still the newest).
+    const pins = await latestPinsToRecord(review.source, prepared.libraries);
     const previous = (await listVersionsOf(draft.standardId)).filter((version) => version.status === "published");
     const number = await nextVersionNumber(draft.standardId);
     const version = await insertVersion({
@@ -358,6 +367,7 @@ export const approveAndPublish = defineUseCase({
       verifiedWith: check.verifiedWith,
       verification: check.verification,
     });
+    await insertLibraryPins(version.id, pins);
     await insertVersionEvent({ versionId: version.id, kind: "published", actorId: actor.id });
     for (const old of previous)
       await insertVersionEvent({ versionId: old.id, kind: "superseded", reason: `by version ${number}`, actorId: actor.id });
@@ -373,6 +383,7 @@ export const approveAndPublish = defineUseCase({
       authorName: author.name,
       supersedes: previous.map((old) => old.number),
       cases: check.verification.length,
+      libraries: pins.map(({ library, version: pinned, contentHash }) => ({ library, version: pinned, contentHash })),
     };
   },
   audit: ({ result }) => ({
@@ -386,6 +397,8 @@ export const approveAndPublish = defineUseCase({
       authorName: result.authorName,
       supersedes: result.supersedes,
       cases: result.cases,
+      // The pins, sealed in the verifiable log with the audit event.
+      ...(result.libraries.length > 0 ? { libraries: result.libraries } : {}),
     },
   }),
 });

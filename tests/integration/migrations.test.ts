@@ -40,7 +40,7 @@ describe("migrations on an empty database", () => {
     expect(firstRun.status, firstRun.stderr).toBe(0);
     expect(firstRun.stdout).toMatch(
       new RegExp(
-        `privileges of ${appRole} set on \\d+ tables \\(\\d+ of the job queue; append-only: audit_events, calc_revision_events, calc_revisions, calc_sheet_pdf_keys, calc_sheet_pdfs, calcs, job_attachments, library_review_comments, library_version_entries, library_version_events, library_versions, log_leaves, log_nodes, log_positions, log_tree_heads, rerun_batch_items, rerun_batches, run_library_entries, runs, standard_attachments, standard_review_comments, standard_version_events, standard_versions, withdrawal_mappings, withdrawal_outcomes, withdrawals\\)`,
+        `privileges of ${appRole} set on \\d+ tables \\(\\d+ of the job queue; append-only: audit_events, calc_revision_events, calc_revisions, calc_sheet_pdf_keys, calc_sheet_pdfs, calcs, job_attachments, library_review_comments, library_version_entries, library_version_events, library_versions, log_leaves, log_nodes, log_positions, log_tree_heads, rerun_batch_items, rerun_batches, run_library_entries, runs, standard_attachments, standard_review_comments, standard_version_events, standard_version_library_pins, standard_versions, withdrawal_mappings, withdrawal_outcomes, withdrawals\\)`,
       ),
     );
     const before = await accessLists();
@@ -101,6 +101,7 @@ describe("migrations on an empty database", () => {
       "standard_review_comments",
       "standard_reviews",
       "standard_version_events",
+      "standard_version_library_pins",
       "standard_versions",
       "standards",
       "user",

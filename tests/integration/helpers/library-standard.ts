@@ -27,17 +27,24 @@ export async function publishedSections(author: Actor, reviewer: Actor): Promise
   return slug;
 }
 
-/** A simply supported beam whose I comes from the section input; a case checks the deflection 5wL⁴/384EI. */
-export function beamSource(library: string, Ix: number): string {
+/**
+ * A simply supported beam whose I comes from the section input (`sections.default` by default, TB 300); a case checks
+ * the deflection 5wL⁴/384EI with `sections.checked` (TB 400), whose Ix is `Ix` (m⁴).
+ */
+export function beamSource(
+  library: string,
+  Ix: number,
+  sections: { default: string; checked: string; title?: string } = { default: "TB 300", checked: "TB 400" },
+): string {
   const definition = {
-    title: "Beam on a library section",
+    title: sections.title ?? "Beam on a library section",
     category: "beams",
     summary: "A test beam.",
     scope: "Tests only.",
     inputs: {
       L: { label: "Span", quantity: "length", unit: "m", default: "6 m" },
       w: { label: "Load", quantity: "force-per-length", unit: "kN/m", default: "10 kN/m" },
-      beam: { label: "Beam section", quantity: "section", library, shapes: ["i"], default: "TB 300" },
+      beam: { label: "Beam section", quantity: "section", library, shapes: ["i"], default: sections.default },
     },
     model: {
       nodes: [
@@ -50,8 +57,8 @@ export function beamSource(library: string, Ix: number): string {
     extracts: { delta: { max_abs: "relative_deflection", members: "beams", under: "W", unit: "mm" } },
     verification: [
       {
-        name: "Deflection of the 400 deep section",
-        inputs: { beam: "TB 400" },
+        name: sections.checked === "TB 400" ? "Deflection of the 400 deep section" : `Deflection of ${sections.checked}`,
+        inputs: { beam: sections.checked },
         expect: { delta: { value: `5 * 10 kN/m * (6 m)^4 / (384 * 200 GPa * ${Ix} m^4)`, tolerance: 1e-6 } },
         source: "AWC Design Aid No. 6 (2005), Fig. 1: Δmax = 5wL⁴/384EI",
       },

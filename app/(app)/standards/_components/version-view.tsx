@@ -1,13 +1,15 @@
 // One published version of a standard, as a reader needs it: who wrote and approved it and when, its
 // changelog and content hash, what it covers and does not, its inputs, the model drawn with its loads, the
 // narrative with its equations worked at the default inputs, the checks, the verification cases with their
-// results at publication, and the version history with links to each diff.
+// results at publication, the library version each library reference reads (pinned at publication for
+// `latest`), and the version history with links to each diff.
 import { HandCalculationCitation } from "@/components/standards/hand-calculation";
 import Link from "next/link";
 import type { Actor } from "@/lib/domain/actor";
 import { can } from "@/lib/domain/permissions";
 import type { VersionDto, VersionSummaryDto } from "@/lib/data/standards";
 import type { VersionView } from "@/lib/use-cases/standards";
+import type { LibraryReferencePin } from "@/lib/use-cases/library-resolution";
 import type { VersionWithdrawal } from "@/lib/use-cases/withdrawals";
 import { compileStandard } from "@/lib/standards/compile";
 import type { VerificationResult } from "@/lib/standards/verify";
@@ -117,6 +119,14 @@ export function VersionView({
         </dd>
         <dt className="text-ink-500">Verified with</dt>
         <dd className="text-ink-700">{version.verifiedWith}</dd>
+        {version.libraryPins.length > 0 ? (
+          <>
+            <dt className="text-ink-500">Libraries</dt>
+            <dd>
+              <LibraryPins pins={version.libraryPins} />
+            </dd>
+          </>
+        ) : null}
         {can(actor.role, "runs.read") ? (
           <>
             <dt className="text-ink-500">Runs</dt>
@@ -260,6 +270,50 @@ function VersionBody({
         </p>
       )}
     </>
+  );
+}
+
+const HOW: Record<LibraryReferencePin["how"], string> = {
+  named: "named in the source",
+  pinned: "latest, pinned when this version was published",
+  "as-of-publication": "latest when this version was published (before pins were recorded)",
+};
+
+/** Each library the version reads, the version it reads, how that was decided, and whether a newer one exists. */
+function LibraryPins({ pins }: { pins: LibraryReferencePin[] }) {
+  return (
+    <ul className="space-y-1" data-testid="library-pins">
+      {pins.map((pin) => (
+        <li
+          key={`${pin.library}@${pin.requested}`}
+          data-testid="library-pin"
+          data-library={pin.library}
+          data-version={pin.version ?? ""}
+        >
+          {pin.version === null ? (
+            <span className="font-mono">{pin.library}</span>
+          ) : (
+            <Link href={`/libraries/${pin.library}/versions/${pin.version}`} className="font-mono text-plate-700 hover:underline">
+              {pin.library} v{pin.version}
+            </Link>
+          )}{" "}
+          <span className="text-ink-500">
+            ({HOW[pin.how]}; for {pin.inputs.join(", ")})
+          </span>
+          {pin.version === null ? (
+            <span className="text-fault-700"> No version was published then: this version cannot be run.</span>
+          ) : null}
+          {pin.status === "withdrawn" ? (
+            <span className="text-fault-700"> That library version is withdrawn: this version cannot be run.</span>
+          ) : pin.newer !== null ? (
+            <span className="text-ink-500" data-testid="library-pin-newer">
+              {" "}
+              v{pin.newer} is newer; a new version of this standard would take it.
+            </span>
+          ) : null}
+        </li>
+      ))}
+    </ul>
   );
 }
 

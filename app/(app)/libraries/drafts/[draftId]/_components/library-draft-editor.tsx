@@ -1,6 +1,6 @@
 "use client";
 // The author's editor of a library draft: the title, the entries (sections from the builder or the firm's
-// catalogue; materials and combination sets as checked JSON), each entry's problems beside it as it changes,
+// catalogue; materials and combination sets as forms, or as checked JSON), each entry's problems beside it as it changes,
 // Save (always possible, problems and all), Discard, and Submit with a changelog line once the saved document
 // passes the check.
 import { useActionState, useState } from "react";
@@ -90,9 +90,11 @@ export function LibraryDraftEditor({
         ) : (
           <>
             <p className="text-sm text-ink-700">
-              Values are in SI units (Pa, kg/m³, 1/K), each with the standard it comes from (title, edition, clause).
+              Each value with the standard it comes from (title, edition, clause). The form takes strengths and moduli in MPa; as
+              JSON, values are in SI units (Pa, kg/m³, 1/K).
             </p>
             <JsonEntries
+              kind={kind}
               texts={texts}
               problems={problems}
               comments={byKey}

@@ -1,7 +1,8 @@
 import "server-only";
 // Who is asking, for pages, server actions and route handlers. The only module that reads the
 // request's headers; everything below it takes the actor as an argument.
-import { getSessionCookie } from "better-auth/cookies";
+import { createHmac, timingSafeEqual } from "node:crypto";
+import { getSessionCookie, parseCookies } from "better-auth/cookies";
 import { headers } from "next/headers";
 import { cache } from "react";
 import { forbidden, redirect } from "next/navigation";
@@ -10,7 +11,7 @@ import { can, type Action } from "@/lib/domain/permissions";
 import { isRole } from "@/lib/domain/roles";
 import { safePath } from "@/lib/domain/safe-path";
 import type { SignInReason } from "@/lib/domain/schemas/sign-in";
-import { findSessionEndReason } from "@/lib/data/sessions";
+import { findSessionEndReason, findSessionWithUser } from "@/lib/data/sessions";
 import { clientAddressFrom } from "./client-address";
 import { auth } from "./server";
 
@@ -18,12 +19,49 @@ export type { Actor } from "@/lib/domain/actor";
 
 /** The signed-in person for these request headers, or null (no session, expired, or deactivated). */
 export async function getActorFromHeaders(requestHeaders: Headers): Promise<Actor | null> {
+  const exact = await readLiveSession(requestHeaders);
+  if (exact !== ASK_BETTER_AUTH) return exact;
   const current = await auth.api.getSession({ headers: requestHeaders });
   if (!current) return null;
   const { id, name, email, role, deactivatedAt } = current.user;
   // Sessions are deleted on deactivation; this is the second lock in case one slipped through.
   if (deactivatedAt || !isRole(role)) return null;
   return { id, name, email, role, sessionId: current.session.id };
+}
+
+const ASK_BETTER_AUTH = Symbol("ask better-auth");
+
+/**
+ * The common case of every signed-in request, answered exactly as better-auth's getSession would answer it, at a
+ * fraction of its cost (its endpoint machinery, a Web Crypto key imported per request, and two queries): the session
+ * cookie's signature checked with node:crypto, then the session and its person read in one query, every request (so
+ * a deleted session, a deactivation or a new role counts at once). Whatever better-auth would answer with a cookie
+ * change — an unknown or expired session, one due for its sliding refresh, a stale cookie cache, a bad signature —
+ * is handed to better-auth itself (ASK_BETTER_AUTH). No cookie at all is nobody, as it is for better-auth.
+ */
+async function readLiveSession(requestHeaders: Headers): Promise<Actor | null | typeof ASK_BETTER_AUTH> {
+  const header = requestHeaders.get("cookie");
+  if (!header) return null;
+  const context = await auth.$context;
+  const cookies = parseCookies(header);
+  const cookieCache = context.authCookies.sessionData.name;
+  if ([...cookies.keys()].some((name) => name === cookieCache || name.startsWith(`${cookieCache}.`))) return ASK_BETTER_AUTH;
+  const signed = cookies.get(context.authCookies.sessionToken.name);
+  if (!signed) return null;
+  const dot = signed.lastIndexOf(".");
+  const token = signed.slice(0, dot);
+  // The signature as better-call writes it: standard base64 of HMAC-SHA256(secret, token), compared as text.
+  const signature = Buffer.from(signed.slice(dot + 1));
+  const expected = Buffer.from(createHmac("sha256", context.secret).update(token).digest("base64"));
+  if (dot < 1 || signature.length !== expected.length || !timingSafeEqual(signature, expected)) return ASK_BETTER_AUTH;
+  const row = await findSessionWithUser(token);
+  const now = Date.now();
+  if (!row || row.expiresAt.getTime() < now) return ASK_BETTER_AUTH;
+  const { expiresIn, updateAge } = context.sessionConfig;
+  if (row.expiresAt.getTime() - expiresIn * 1000 + updateAge * 1000 <= now) return ASK_BETTER_AUTH;
+  // Sessions are deleted on deactivation; this is the second lock in case one slipped through.
+  if (row.deactivatedAt || !isRole(row.role)) return null;
+  return { id: row.userId, name: row.name, email: row.email, role: row.role, sessionId: row.sessionId };
 }
 
 /** The client's address for this request (see lib/auth/client-address.ts), or null. */

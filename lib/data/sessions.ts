@@ -59,3 +59,21 @@ export async function findSessionEndReason(token: string): Promise<SessionEndRea
   if (row.reason === "deactivated" && row.deactivatedAt === null) return null;
   return row.reason;
 }
+
+/** A session row by its token, with its person's role and state: the one query a signed-in request's check needs. */
+export async function findSessionWithUser(token: string) {
+  const [row] = await currentDb()
+    .select({
+      sessionId: session.id,
+      expiresAt: session.expiresAt,
+      userId: user.id,
+      name: user.name,
+      email: user.email,
+      role: user.role,
+      deactivatedAt: user.deactivatedAt,
+    })
+    .from(session)
+    .innerJoin(user, eq(user.id, session.userId))
+    .where(eq(session.token, token));
+  return row ?? null;
+}

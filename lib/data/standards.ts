@@ -98,10 +98,19 @@ function latestEvents() {
     .as("latest_event");
 }
 
-function versionSummaryQuery() {
+/** What a version holds besides its summary: read with it in one query where a whole version is wanted. */
+const versionContent = {
+  source: standardVersions.source,
+  basedOnVersionId: standardVersions.basedOnVersionId,
+  verifiedWith: standardVersions.verifiedWith,
+  verification: standardVersions.verification,
+};
+
+function versionSummaryQuery<E extends Partial<typeof versionContent>>(content: E = {} as E) {
   const latest = latestEvents();
   return currentDb()
     .select({
+      ...content,
       id: standardVersions.id,
       standardId: standardVersions.standardId,
       slug: standards.slug,
@@ -193,17 +202,8 @@ export async function getVersion(where: { id: string } | { standardId: string; n
     "id" in where
       ? eq(standardVersions.id, where.id)
       : and(eq(standardVersions.standardId, where.standardId), eq(standardVersions.number, where.number));
-  const [summary] = await versionSummaryQuery().where(condition);
+  const [summary] = await versionSummaryQuery(versionContent).where(condition);
   if (!summary) return null;
-  const [content] = await currentDb()
-    .select({
-      source: standardVersions.source,
-      basedOnVersionId: standardVersions.basedOnVersionId,
-      verifiedWith: standardVersions.verifiedWith,
-      verification: standardVersions.verification,
-    })
-    .from(standardVersions)
-    .where(eq(standardVersions.id, summary.id));
   const events = await currentDb()
     .select({
       kind: standardVersionEvents.kind,
@@ -215,9 +215,13 @@ export async function getVersion(where: { id: string } | { standardId: string; n
     .leftJoin(user, eq(user.id, standardVersionEvents.actorId))
     .where(eq(standardVersionEvents.versionId, summary.id))
     .orderBy(asc(standardVersionEvents.id));
+  const { source, basedOnVersionId, verifiedWith, verification } = summary;
   return {
     ...toSummary(summary),
-    ...content,
+    source,
+    basedOnVersionId,
+    verifiedWith,
+    verification,
     events: events.map((event) => ({ ...event, occurredAt: event.occurredAt.toISOString() })),
   };
 }

@@ -98,4 +98,7 @@ export const readSelf = defineUseCase({
   input: z.object({}).passthrough(),
   run: async (_input, { actor }) => ({ id: actor.id, name: actor.name, email: actor.email, role: actor.role }),
   audit: null,
+  // The actor was read from the database (the session check) just before; the answer needs nothing else, so no
+  // transaction is opened for it (a BEGIN and a COMMIT saved on the shell's session watcher and the API's who-am-I).
+  database: false,
 });

@@ -12,12 +12,11 @@
 // Rate limits and the audit trail read only x-gusset-client-address (lib/auth/client-address.ts), and
 // only when this server set GUSSET_CLIENT_ADDRESS_FROM_SERVER, so `next start` run on its own cannot be
 // fooled by a forged header either: it records no address at all.
-import fs from "node:fs";
 import http from "node:http";
 import net from "node:net";
-import path from "node:path";
 import { parseArgs } from "node:util";
 import next from "next";
+import { readBuildId } from "./lib/build-id.mjs";
 
 export const CLIENT_ADDRESS_HEADER = "x-gusset-client-address";
 
@@ -133,15 +132,6 @@ export function guardServerAction(req, res) {
     return replaced ? end(`${ACTION_MESSAGES.unreadable}\n`) : end(...args);
   };
   return false;
-}
-
-/** The id `next build` wrote for the build in `dir`'s .next, or null without one. */
-export function readBuildId(dir) {
-  try {
-    return fs.readFileSync(path.join(dir, ".next", "BUILD_ID"), "utf8").trim() || null;
-  } catch {
-    return null;
-  }
 }
 
 async function main() {

@@ -10,7 +10,7 @@ import os from "node:os";
 import path from "node:path";
 import { authSecret, childEnv, databaseUrlFor, gussetEnv, migrationEnv, portsFor, repoRoot } from "./lib/env.mjs";
 import { buildStaleness, ensureBuild } from "./lib/build.mjs";
-import { readBuildId } from "./serve.mjs";
+import { readBuildId } from "./lib/build-id.mjs";
 import { CHROMIUM_PACKAGE, POPPLER_PACKAGE, POSTGRES_PACKAGE, ensureDebianPackages, ensureNodeModules } from "./lib/install.mjs";
 import { createLifecycle, profileSetup } from "./lib/lifecycle.mjs";
 import { say } from "./lib/processes.mjs";

@@ -17,6 +17,7 @@ const LOADING: Record<string, () => Promise<{ default: ComponentType }>> = {
   "libraries/(list)": () => import("@/app/(app)/libraries/(list)/loading"),
   "jobs/(list)": () => import("@/app/(app)/jobs/(list)/loading"),
   "runs/(list)": () => import("@/app/(app)/runs/(list)/loading"),
+  "withdrawals/(list)": () => import("@/app/(app)/withdrawals/(list)/loading"),
   "audit/(trail)": () => import("@/app/(app)/audit/(trail)/loading"),
   "audit/runs": () => import("@/app/(app)/audit/runs/loading"),
   "admin/users": () => import("@/app/(app)/admin/users/loading"),

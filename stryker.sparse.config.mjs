@@ -1,0 +1,17 @@
+// Mutation testing for the sparse kernels (lib/engine/sparse) alone, run by hand:
+// `npx stryker run stryker.sparse.config.mjs`. Runs the test set of tests/engine/vitest.mutation-sparse.config.ts
+// (the kernels' own tests, the solver reference and the property tests), not the whole engine suite: see there.
+// The HTML report lands in reports/mutation/sparse.html; survivors are judged in lib/engine/MUTATION-SURVIVORS.md.
+// @ts-check
+import base from "./stryker.config.mjs";
+
+/** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
+const config = {
+  ...base,
+  vitest: { configFile: "tests/engine/vitest.mutation-sparse.config.ts", related: false },
+  mutate: ["lib/engine/sparse/**/*.ts"],
+  htmlReporter: { fileName: "reports/mutation/sparse.html" },
+  jsonReporter: { fileName: "reports/mutation/sparse.json" },
+};
+
+export default config;

@@ -5,24 +5,11 @@
 // (solver-reference), the stiffness pattern built on the triplet builder (stiffness-pattern) and the property
 // tests that multiply by the assembled matrix (properties). A mutant this set kills, the whole suite kills too;
 // a survivor here may still be killed by the rest of the suite.
-import path from "node:path";
-import { defineConfig } from "vitest/config";
+import { engineMutationConfig } from "./mutation-vitest";
 
-const root = path.resolve(import.meta.dirname, "../..");
-
-export default defineConfig({
-  root,
-  resolve: { alias: { "@": root } },
-  test: {
-    include: [
-      "tests/engine/sparse/**/*.test.ts",
-      "tests/engine/solver-reference.test.ts",
-      "tests/engine/stiffness-pattern.test.ts",
-      "tests/engine/properties.test.ts",
-    ],
-    environment: "node",
-    env: { GUSSET_MUTATION: "1" },
-    setupFiles: ["tests/engine/mutation-setup.ts"],
-    testTimeout: 120_000,
-  },
-});
+export default engineMutationConfig([
+  "tests/engine/sparse/**/*.test.ts",
+  "tests/engine/solver-reference.test.ts",
+  "tests/engine/stiffness-pattern.test.ts",
+  "tests/engine/properties.test.ts",
+]);

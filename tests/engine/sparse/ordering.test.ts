@@ -6,6 +6,7 @@ import {
   SymmetricTripletBuilder,
   type OrderingMethod,
 } from "@/lib/engine/sparse";
+import { invertPermutation } from "@/lib/engine/sparse/ordering";
 import { createRandom, randomSpdMatrix, relativeError } from "./dense-reference";
 import { buildFrameMatrix } from "./frame-matrix";
 
@@ -87,5 +88,20 @@ describe("computeOrdering", () => {
     const blocked = factorizeSymmetric(frame.matrix, { ordering: "amd", blockSize: 3 });
     if (!scalar.ok || !blocked.ok) throw new Error("frame matrix should be SPD");
     expect(blocked.factor.stats.nnzL / scalar.factor.stats.nnzL).toBeLessThan(1.3);
+  });
+
+  it("refuses a method it does not know, naming it", () => {
+    const a = randomSpdMatrix(createRandom(3), 4, 1, 0.5);
+    expect(() => computeOrdering(a, "metis" as OrderingMethod)).toThrow("computeOrdering: unknown method metis");
+  });
+});
+
+describe("invertPermutation", () => {
+  it("gives pinv[perm[k]] = k, and refuses an index given twice, naming its position", () => {
+    expect(Array.from(invertPermutation(Int32Array.of(2, 0, 3, 1)))).toEqual([1, 3, 0, 2]);
+    expect(() => invertPermutation(Int32Array.of(0, 2, 1, 2))).toThrow("invalid permutation at position 3");
+    // An index out of range is refused too.
+    expect(() => invertPermutation(Int32Array.of(0, 4, 1, 2))).toThrow("invalid permutation at position 1");
+    expect(() => invertPermutation(Int32Array.of(0, 1, -1, 2))).toThrow("invalid permutation at position 2");
   });
 });

@@ -94,6 +94,14 @@ describe("computeOrdering", () => {
     const a = randomSpdMatrix(createRandom(3), 4, 1, 0.5);
     expect(() => computeOrdering(a, "metis" as OrderingMethod)).toThrow("computeOrdering: unknown method metis");
   });
+
+  it("refuses a block size that is not a whole number ≥ 1 dividing n", () => {
+    const a = randomSpdMatrix(createRandom(4), 5, 1, 0.5);
+    for (const b of [2, 2.5, -1])
+      expect(() => computeOrdering(a, "amd", b)).toThrow(
+        `buildAdjacency: blockSize ${b} must be a positive integer dividing n = 5`,
+      );
+  });
 });
 
 describe("invertPermutation", () => {

@@ -89,6 +89,42 @@ describe("factorizeSymmetric", () => {
       const result = factorizeSymmetric(a, { ordering: method });
       expect(result.ok).toBe(false);
       if (!result.ok) expect([6, 7]).toContain(result.equation);
+      // Found by the numeric factorisation (the diagonal is positive), which reports the same kind.
+      if (!result.ok) expect(result.kind).toBe("not-positive-definite");
+    }
+  });
+
+  it("reports the first diagonal entry that is not positive, with its value in A, whatever the ordering", () => {
+    // A positive definite matrix has a positive diagonal (a_ii = e_iᵀ A e_i > 0; common practice), so an entry ≤ 0
+    // is reported as it stands in A, before elimination changes it. Here a₁₁ = −2 comes first: it is coupled to
+    // equation 0, so elimination would reach −2 − 1²/4 = −2.25 there; a₃₃ = 0 is coupled to equation 2, and
+    // a₄₄ = 0 stands alone (a minimum-degree order eliminates it first).
+    const builder = new SymmetricTripletBuilder(5);
+    builder.add(0, 0, 4);
+    builder.add(1, 0, 1);
+    builder.add(1, 1, -2);
+    builder.add(2, 2, 4);
+    builder.add(3, 2, 1);
+    const a = builder.toCsc();
+    // A zero diagonal alone: a₁₁ = 0, coupled to equation 0, where elimination would reach 0 − 1²/4 = −0.25.
+    const zero = new SymmetricTripletBuilder(2);
+    zero.add(0, 0, 4);
+    zero.add(1, 0, 1);
+    for (const method of methods) {
+      for (const blockSize of [1, 5]) {
+        expect(factorizeSymmetric(a, { ordering: method, blockSize })).toMatchObject({
+          ok: false,
+          kind: "not-positive-definite",
+          equation: 1,
+          pivot: -2,
+        });
+      }
+      expect(factorizeSymmetric(zero.toCsc(), { ordering: method })).toMatchObject({
+        ok: false,
+        kind: "not-positive-definite",
+        equation: 1,
+        pivot: 0,
+      });
     }
   });
 
@@ -146,6 +182,18 @@ describe("factorizeSymmetric", () => {
       expect(strict.pivot / (2 * eps)).toBeCloseTo(1, 2);
     }
     expect(factorizeSymmetric(a, { ordering: "natural", pivotTolerance: 1e-13 }).ok).toBe(true);
+    // The same matrix times 10⁶: d₂ = 10⁶(2ε − ε²) against the tolerance times A₂₂ = 10⁶, so the same outcome.
+    const scaled = new SymmetricTripletBuilder(2);
+    scaled.add(0, 0, 1e6);
+    scaled.add(1, 1, 1e6);
+    scaled.add(1, 0, 1e6 * (1 - eps));
+    const big = factorizeSymmetric(scaled.toCsc(), { ordering: "natural" });
+    expect(big.ok).toBe(false);
+    if (!big.ok) {
+      expect(big.equation).toBe(1);
+      expect(big.pivot / (2e6 * eps)).toBeCloseTo(1, 2);
+    }
+    expect(factorizeSymmetric(scaled.toCsc(), { ordering: "natural", pivotTolerance: 1e-13 }).ok).toBe(true);
   });
 
   it("solve rejects non-finite or wrongly sized right-hand sides", () => {
@@ -163,8 +211,14 @@ describe("factorizeSymmetric", () => {
     const empty = expectFactor(factorizeSymmetric(new SymmetricTripletBuilder(0).toCsc()));
     expect(empty.solve(new Float64Array(0)).length).toBe(0);
     const frame = buildFrameMatrix(5, 5);
+    const before = performance.now();
     const stats = expectFactor(factorizeSymmetric(frame.matrix, { blockSize: 3 })).stats;
+    const elapsed = performance.now() - before;
     expect(stats.n).toBe(frame.matrix.n);
-    for (const ms of [stats.orderingMs, stats.symbolicMs, stats.numericMs]) expect(ms).toBeGreaterThanOrEqual(0);
+    // Each stage runs inside the call, so it takes no longer than the call itself (common practice).
+    for (const ms of [stats.orderingMs, stats.symbolicMs, stats.numericMs]) {
+      expect(ms).toBeGreaterThanOrEqual(0);
+      expect(ms).toBeLessThanOrEqual(elapsed);
+    }
   });
 });

@@ -6,6 +6,7 @@ import {
   SymmetricTripletBuilder,
   type OrderingMethod,
 } from "@/lib/engine/sparse";
+import { invertPermutation } from "@/lib/engine/sparse/ordering";
 import { createRandom, randomSpdMatrix, relativeError } from "./dense-reference";
 import { buildFrameMatrix } from "./frame-matrix";
 
@@ -87,5 +88,43 @@ describe("computeOrdering", () => {
     const blocked = factorizeSymmetric(frame.matrix, { ordering: "amd", blockSize: 3 });
     if (!scalar.ok || !blocked.ok) throw new Error("frame matrix should be SPD");
     expect(blocked.factor.stats.nnzL / scalar.factor.stats.nnzL).toBeLessThan(1.3);
+  });
+
+  it("orders a path numbered out of order along the path (bandwidth 1), starting from an end found from the middle", () => {
+    // Vertex at position p along a path of 10 carries number (3p + 5) mod 10, so vertex 0 sits in the middle.
+    // Reverse Cuthill–McKee from a peripheral vertex of a path visits it end to end (George & Liu, Computer
+    // Solution of Large Sparse Positive Definite Systems, 1981, chapter 4; from memory): neighbours along the
+    // path end up next to each other in the order.
+    const label = (p: number) => (3 * p + 5) % 10;
+    const builder = new SymmetricTripletBuilder(10);
+    for (let p = 0; p < 10; p++) builder.add(label(p), label(p), 4);
+    for (let p = 0; p < 9; p++) builder.add(label(p), label(p + 1), -1);
+    const perm = computeOrdering(builder.toCsc(), "rcm");
+    const at = new Map(Array.from(perm, (v, k) => [v, k]));
+    expect(at.size).toBe(10);
+    for (let p = 0; p < 9; p++) expect(Math.abs(at.get(label(p))! - at.get(label(p + 1))!)).toBe(1);
+  });
+
+  it("refuses a method it does not know, naming it", () => {
+    const a = randomSpdMatrix(createRandom(3), 4, 1, 0.5);
+    expect(() => computeOrdering(a, "metis" as OrderingMethod)).toThrow("computeOrdering: unknown method metis");
+  });
+
+  it("refuses a block size that is not a whole number ≥ 1 dividing n", () => {
+    const a = randomSpdMatrix(createRandom(4), 5, 1, 0.5);
+    for (const b of [2, 2.5, -1])
+      expect(() => computeOrdering(a, "amd", b)).toThrow(
+        `buildAdjacency: blockSize ${b} must be a positive integer dividing n = 5`,
+      );
+  });
+});
+
+describe("invertPermutation", () => {
+  it("gives pinv[perm[k]] = k, and refuses an index given twice, naming its position", () => {
+    expect(Array.from(invertPermutation(Int32Array.of(2, 0, 3, 1)))).toEqual([1, 3, 0, 2]);
+    expect(() => invertPermutation(Int32Array.of(0, 2, 1, 2))).toThrow("invalid permutation at position 3");
+    // An index out of range is refused too.
+    expect(() => invertPermutation(Int32Array.of(0, 4, 1, 2))).toThrow("invalid permutation at position 1");
+    expect(() => invertPermutation(Int32Array.of(0, 1, -1, 2))).toThrow("invalid permutation at position 2");
   });
 });

@@ -69,4 +69,19 @@ describe("FactorWorkspace", () => {
       expect(relativeError(shared, own)).toBeLessThan(1e-14);
     }
   });
+
+  it("hands out exactly the length asked for, reuses its buffer for a request that fits, and a fresh one after clear()", () => {
+    const workspace = new FactorWorkspace();
+    const first = workspace.floats("k", 8);
+    expect(first.length).toBe(8);
+    const again = workspace.floats("k", 6);
+    expect(again.length).toBe(6);
+    expect(again.buffer).toBe(first.buffer);
+    // A different key, another buffer.
+    expect(workspace.floats("m", 8).buffer).not.toBe(first.buffer);
+    workspace.clear();
+    const fresh = workspace.floats("k", 8);
+    expect(fresh.length).toBe(8);
+    expect(fresh.buffer).not.toBe(first.buffer);
+  });
 });

@@ -46,5 +46,21 @@ describe("SymmetricTripletBuilder", () => {
     expect(() => builder.add(2, 0, 1)).toThrow(/out of range/);
     expect(() => builder.add(-1, 0, 1)).toThrow(/out of range/);
     expect(() => builder.add(0.5, 0, 1)).toThrow(/out of range/);
+    // The column index is checked the same way.
+    expect(() => builder.add(0, 2, 1)).toThrow("SymmetricTripletBuilder.add: index (0, 2) out of range for n = 2");
+    expect(() => builder.add(0, -1, 1)).toThrow(/out of range/);
+    expect(() => builder.add(1, 0.5, 1)).toThrow(/out of range/);
+    expect(builder.size).toBe(0);
+  });
+
+  it("counts every triplet added, duplicates included, and refuses a size that is not a whole number ≥ 0", () => {
+    const builder = new SymmetricTripletBuilder(3);
+    builder.add(0, 0, 1);
+    builder.add(1, 0, 2);
+    builder.add(0, 1, 3);
+    expect(builder.size).toBe(3);
+    expect(builder.toCsc().values.length).toBe(2);
+    expect(() => new SymmetricTripletBuilder(-1)).toThrow("SymmetricTripletBuilder: invalid size -1");
+    expect(() => new SymmetricTripletBuilder(2.5)).toThrow("SymmetricTripletBuilder: invalid size 2.5");
   });
 });

@@ -5,8 +5,10 @@
  *   (b) POST /api/runs of the starting standards (each at its defaults, in turn) from 20 concurrent clients,
  *       runs/s and latency p50/p95/p99;
  *   (c) runs offered at a steady 20 per second (open loop), latency p50/p95/p99;
- *   (d) the server's CPU per run (its process, all threads, from /proc), split into the evaluation (the same
- *       standards evaluated in this process), the framework (CPU per request of (a)) and storage (the rest);
+ *   (d) the server's CPU per run (its process, all threads, from /proc), split by thread: the evaluation is the
+ *       CPU of the evaluation pool's worker threads (the threads idle while (a) ran and busy in (b)); the rest is
+ *       the overhead, split into the main thread (framework, storage) and V8's own helper threads (garbage
+ *       collection, compilation); plus, for reference, the same standards evaluated in this process;
  * then counts the runs stored against the 2xx answers: every acknowledged run stored, none twice.
  * Also the run page's server render time. Runs go into a job of their own (BENCH-…), closed afterwards.
  *
@@ -23,7 +25,9 @@ import { runStandardTask } from "../lib/evaluation/tasks";
 
 const seconds = Number(process.argv[process.argv.indexOf("--seconds") + 1]) || 10;
 const onlySheets = process.argv[process.argv.indexOf("--only") + 1] === "sheets";
-const base = `http://127.0.0.1:${portsFor("start").app}`;
+// BENCH_APP_PORT: another server of the same build on this machine (a profiled one, say); `npm start`'s by default.
+const appPort = Number(process.env.BENCH_APP_PORT) || portsFor("start").app;
+const base = `http://127.0.0.1:${appPort}`;
 const CLIENTS = 20;
 
 const percentile = (values: number[], p: number) => {
@@ -33,10 +37,30 @@ const percentile = (values: number[], p: number) => {
 const ms = (value: number) => `${value.toFixed(1)} ms`;
 
 function serverPid(): number {
-  const out = execFileSync("ss", ["-ltnpH", `sport = :${portsFor("start").app}`], { encoding: "utf8" });
+  const out = execFileSync("ss", ["-ltnpH", `sport = :${appPort}`], { encoding: "utf8" });
   const match = /pid=(\d+)/.exec(out);
   if (!match) throw new Error(`nothing listens on ${base}: start the app with \`npm start\` first`);
   return Number(match[1]);
+}
+
+/** CPU seconds each thread of the process has used (utime + stime), by thread id. */
+function threadCpuSeconds(pid: number): Map<number, number> {
+  const ticks = Number(execFileSync("getconf", ["CLK_TCK"], { encoding: "utf8" }).trim());
+  const threads = new Map<number, number>();
+  for (const tid of fs.readdirSync(`/proc/${pid}/task`)) {
+    try {
+      const fields = fs.readFileSync(`/proc/${pid}/task/${tid}/stat`, "utf8").split(") ")[1].split(" ");
+      threads.set(Number(tid), (Number(fields[11]) + Number(fields[12])) / ticks);
+    } catch {
+      // the thread ended between the listing and the read
+    }
+  }
+  return threads;
+}
+
+/** What each thread used between two snapshots (a thread started in between counts from zero). */
+function threadDeltas(before: Map<number, number>, after: Map<number, number>): Map<number, number> {
+  return new Map([...after].map(([tid, cpu]) => [tid, cpu - (before.get(tid) ?? 0)]));
 }
 
 /** CPU seconds the process has used, all its threads (utime + stime). */
@@ -147,8 +171,10 @@ async function main() {
 
   // (a) the framework's floor.
   let cpu = cpuSeconds(pid);
+  let threads = threadCpuSeconds(pid);
   const floor = await closedLoop(CLIENTS, seconds, () => fetch(`${base}/api/me`, { headers: { cookie } }));
   const floorCpuMs = ((cpuSeconds(pid) - cpu) * 1000) / floor.length;
+  const floorThreads = threadDeltas(threads, threadCpuSeconds(pid));
   console.log(
     `(a) GET /api/me, ${CLIENTS} clients: ${(floor.length / seconds).toFixed(0)} requests/s, p50 ${ms(
       percentile(
@@ -160,8 +186,10 @@ async function main() {
 
   // (b) closed loop of runs.
   cpu = cpuSeconds(pid);
+  threads = threadCpuSeconds(pid);
   const closed = await closedLoop(CLIENTS, seconds, postRun);
   const closedCpuMs = ((cpuSeconds(pid) - cpu) * 1000) / closed.length;
+  const closedThreads = threadDeltas(threads, threadCpuSeconds(pid));
   const lat = closed.map((r) => r.ms);
   console.log(
     `(b) POST /api/runs, ${CLIENTS} clients: ${(closed.length / seconds).toFixed(1)} runs/s, p50 ${ms(percentile(lat, 50))}, p95 ${ms(percentile(lat, 95))}, p99 ${ms(percentile(lat, 99))}; statuses ${JSON.stringify(countBy(closed.map((r) => r.status)))}`,
@@ -174,7 +202,22 @@ async function main() {
     `(c) 20 runs/s offered (open loop): p50 ${ms(percentile(openLat, 50))}, p95 ${ms(percentile(openLat, 95))}, p99 ${ms(percentile(openLat, 99))}; statuses ${JSON.stringify(countBy(open.map((r) => r.status)))}`,
   );
 
-  // (d) the CPU per run, split.
+  // (d) the CPU per run, split by thread. The pool's workers evaluate and do nothing else, so they are the threads
+  // that used no CPU while (a) ran (under 2 % of what they used in (b)) and some in (b); the main thread is the
+  // process's own id; the rest are V8's helpers, busy in both.
+  const perRun = (cpuSeconds: number) => (cpuSeconds * 1000) / closed.length;
+  let evaluationCpu = 0;
+  let helpersCpu = 0;
+  let evaluationThreads = 0;
+  for (const [tid, used] of closedThreads) {
+    if (tid === pid) continue;
+    const idleInFloor = (floorThreads.get(tid) ?? 0) <= 0.02 * used;
+    if (idleInFloor && used > 0) {
+      evaluationCpu += used;
+      evaluationThreads += 1;
+    } else helpersCpu += used;
+  }
+  const mainCpu = closedThreads.get(pid) ?? 0;
   const evaluationMs = mix.map((v) => {
     runStandardTask(v.source, {}, {});
     const t = process.cpuUsage();
@@ -183,10 +226,12 @@ async function main() {
     const used = process.cpuUsage(t);
     return (used.user + used.system) / 1000 / n;
   });
-  const evaluation = evaluationMs.reduce((a, b) => a + b, 0) / evaluationMs.length;
-  const storage = closedCpuMs - evaluation - floorCpuMs;
+  const inProcess = evaluationMs.reduce((a, b) => a + b, 0) / evaluationMs.length;
   console.log(
-    `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${evaluation.toFixed(2)} ms (${mix.map((v, i) => `${v.slug} ${evaluationMs[i].toFixed(2)}`).join(", ")}), framework ${floorCpuMs.toFixed(2)} ms, storage and the run's own handling ${storage.toFixed(2)} ms`,
+    `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${perRun(evaluationCpu).toFixed(2)} ms (${evaluationThreads} worker threads); overhead beyond the evaluation ${(closedCpuMs - perRun(evaluationCpu)).toFixed(2)} ms = main thread ${perRun(mainCpu).toFixed(2)} ms (of which the framework's floor, (a)'s CPU per request, ${floorCpuMs.toFixed(2)} ms) + V8's helper threads ${perRun(helpersCpu).toFixed(2)} ms`,
+  );
+  console.log(
+    `    for reference, the same standards evaluated once each in this process (cold-ish, 20 times each): ${inProcess.toFixed(2)} ms on average (${mix.map((v, i) => `${v.slug} ${evaluationMs[i].toFixed(2)}`).join(", ")})`,
   );
 
   // Every acknowledged run stored, none twice.

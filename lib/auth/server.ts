@@ -24,6 +24,7 @@ import { serverEnv } from "@/lib/server-env";
 import { ACCOUNT_LOCKED_MESSAGE } from "@/lib/domain/auth-messages";
 import { bodyHasControlCharacters } from "@/lib/domain/schemas/text";
 import { CLIENT_ADDRESS_HEADER, clientAddressFrom } from "./client-address";
+import { jsonResponse } from "@/lib/domain/json-response";
 
 export const ACCOUNT_DEACTIVATED_CODE = "ACCOUNT_DEACTIVATED";
 export const ACCOUNT_DEACTIVATED_MESSAGE = "This account has been deactivated. Ask your admin to reactivate it.";
@@ -278,7 +279,7 @@ function logAuditFailure(error: unknown): void {
 }
 
 function refusal(status: number, code: string, message: string, headers?: HeadersInit): Response {
-  return Response.json({ code, message }, { status, headers });
+  return jsonResponse({ code, message }, { status, headers });
 }
 
 function tooManyRequests(retryAfterSeconds: number): Response {
@@ -379,7 +380,7 @@ async function handlePasswordResetRequest({ request, body, ipAddress }: AuthPost
       console.error("[gusset] a password-reset request failed after it was answered:", error);
     }
   });
-  return Response.json({ status: true, message: RESET_REQUESTED_MESSAGE });
+  return jsonResponse({ status: true, message: RESET_REQUESTED_MESSAGE });
 }
 
 /**

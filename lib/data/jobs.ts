@@ -4,6 +4,7 @@ import "server-only";
 import { and, asc, desc, eq, ilike, or, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { jobs, runs, user, type JobStatus } from "@/db/schema";
+import { versionStatusById, type VersionStatus } from "./standards";
 import { currentDb } from "./transaction";
 
 export type JobDto = {
@@ -82,10 +83,17 @@ export async function getJob(where: { id: string } | { jobNumber: string }): Pro
   return row ? toJobDto(row) : null;
 }
 
-/** Locks the job's row for the rest of the transaction (a run checks the status it was given stays so). */
-export async function lockJob(id: string): Promise<{ id: string; status: JobStatus; jobNumber: string } | null> {
+/**
+ * Locks the job's row for the rest of the transaction and reads, in the same round trip, the status of the version
+ * to be run: a job closed, or a version withdrawn, since the evaluation began refuses the run. `versionStatus` is
+ * null when there is no such version.
+ */
+export async function lockJobForRun(
+  id: string,
+  versionId: string,
+): Promise<{ id: string; status: JobStatus; jobNumber: string; versionStatus: VersionStatus | null } | null> {
   const [row] = await currentDb()
-    .select({ id: jobs.id, status: jobs.status, jobNumber: jobs.jobNumber })
+    .select({ id: jobs.id, status: jobs.status, jobNumber: jobs.jobNumber, versionStatus: versionStatusById(versionId) })
     .from(jobs)
     .where(eq(jobs.id, id))
     .for("update");

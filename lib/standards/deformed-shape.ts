@@ -13,9 +13,17 @@
  * rounded down to 1, 2 or 5 × 10ⁿ, and stated with the drawing.
  */
 import { memberDiagram, type AnalysisResult, type ModelInput } from "@/lib/engine";
-import { formatFactor, type Point } from "./drawing";
 import { formatSignificant } from "./format";
 import { resultUnit, type DisplayUnits } from "./display-units";
+
+/** A point in the model's coordinates (m, y up); the drawing's Point has the same shape. */
+interface Point {
+  readonly x: number;
+  readonly y: number;
+}
+
+/** A deformed shape's magnification: "× 200", "× 0.5", "× 2×10⁶". */
+export const formatFactor = (factor: number) => `× ${formatSignificant(Number.isFinite(factor) ? factor : 0, 1)}`;
 
 /** The largest displacement is drawn at most this fraction of the model's largest dimension. */
 export const DEFORMED_FRACTION = 0.08;

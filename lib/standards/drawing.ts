@@ -7,7 +7,7 @@
 import { resultUnit, type DisplayUnits, type ResultKind } from "./display-units";
 import type { DiagramQuantity, Extreme, LoadInput, MemberDiagram, MemberEnvelope, ModelInput, Restraint } from "@/lib/engine";
 import { formatSignificant } from "./format";
-import type { DeformedShape } from "./deformed-shape";
+import { formatFactor, type DeformedShape } from "./deformed-shape";
 
 export interface Point {
   readonly x: number;
@@ -109,8 +109,6 @@ export function overlaps(a: TextLabel, b: TextLabel): boolean {
 
 /** Three significant figures, as the drawings print every value. */
 export const formatNumber = (v: number) => formatSignificant(finite(v) + 0, 3).replace("-", "−");
-/** A deformed shape's magnification: "× 200", "× 0.5", "× 2×10⁶". */
-export const formatFactor = (factor: number) => `× ${formatSignificant(finite(factor), 1)}`;
 const magnitude = (si: number, unit: string) => `${formatNumber(Math.abs(si) / 1000)} ${unit}`;
 
 /** An arrow whose tip is at `tip`, pointing along the unit vector `dir`, `length` long. */

@@ -16,7 +16,7 @@ import { enqueueJobs } from "@/lib/jobs/enqueue";
 import type { JobPayloads } from "@/lib/jobs/queues";
 import { readRunRecord } from "@/lib/standards/run-record";
 import type { Evaluation } from "@/lib/standards/evaluate";
-import { getJob, lockJob } from "@/lib/data/jobs";
+import { getJob, lockJobForRun } from "@/lib/data/jobs";
 import { getRun } from "@/lib/data/runs";
 import { getVersion, getVersionStatus, type VersionDto } from "@/lib/data/standards";
 import { getUserOrThrow } from "@/lib/data/users";
@@ -202,9 +202,9 @@ export const rerunInBatch = defineUseCase({
     if ("done" in prepared || (await batchItemExists(batchId, originalRunId))) return { skipped: true as const };
     const { evaluated } = prepared;
     // A remediation run goes into the job whatever its status: a closed job's calcs are fixed too.
-    const locked = await lockJob(evaluated.job.id);
+    const locked = await lockJobForRun(evaluated.job.id, evaluated.version.id);
     if (!locked) throw new AppError("not-found", "The job of the run to re-run does not exist.");
-    if ((await getVersionStatus(evaluated.version.id)) === "withdrawn")
+    if (locked.versionStatus === "withdrawn")
       throw new AppError("conflict", `Version ${evaluated.version.number} was withdrawn while the re-run was evaluated.`);
     const stored = await storeRun(evaluated, {
       actor,

@@ -106,9 +106,12 @@ export type LibraryReferencePin = {
 export async function libraryPinsOf(version: Pick<VersionDto, "id" | "source" | "publishedAt">): Promise<LibraryReferencePin[]> {
   const definition = definitionOfSource(version.source);
   if (!definition) return [];
+  const references = libraryReferencesOf(definition);
+  // Most standards read no library: no query for them (a run's path counts its round trips).
+  if (references.length === 0) return [];
   const recorded = new Map((await listLibraryPins(version.id)).map((pin) => [pin.slug, pin.number]));
   const out: LibraryReferencePin[] = [];
-  for (const { library: slug, version: requested, inputs } of libraryReferencesOf(definition)) {
+  for (const { library: slug, version: requested, inputs } of references) {
     const library = await getLibraryBySlug(slug);
     const versions = library ? await listLibraryVersionsOf(library.id) : [];
     let number: number | null = requested === "latest" ? null : requested;

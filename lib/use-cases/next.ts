@@ -15,6 +15,7 @@ import { getActor, getActorFromHeaders, getClientAddress } from "@/lib/auth/sess
 import { readDatabaseState } from "./health";
 import { executeUseCase, runUseCase } from "./run";
 import type { UseCase } from "./use-case";
+import { jsonResponse } from "@/lib/domain/json-response";
 
 /**
  * For forms with useActionState(action, null). Parses FormData (or a plain object), runs the use case,
@@ -62,7 +63,7 @@ export function routeHandler<P extends Permission, S extends z.ZodType, T, R>(
       const params = (await context?.params) ?? {};
       const raw = { ...(await readRequestInput(request)), ...params };
       const result = await runUseCase(useCase, { actor, input: raw, ipAddress: clientAddressFrom(request.headers) });
-      return options.respond ? options.respond(result) : Response.json({ data: result ?? null });
+      return options.respond ? options.respond(result) : jsonResponse({ data: result ?? null });
     } catch (error) {
       unstable_rethrow(error);
       if (options.queryErrors && error instanceof AppError && error.code === "invalid-input")
@@ -88,7 +89,7 @@ function badQueryOf(error: AppError): AppError {
 function errorResponse(publicError: PublicError): Response {
   const status = ERROR_STATUS[publicError.code];
   const headers: HeadersInit = status === 503 ? { "Retry-After": String(RETRY_AFTER_SECONDS) } : {};
-  return Response.json({ error: publicError }, { status, headers });
+  return jsonResponse({ error: publicError }, { status, headers });
 }
 
 /**

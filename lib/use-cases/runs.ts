@@ -13,8 +13,8 @@ import { compareRuns as compareRecords, type RunComparison } from "@/lib/standar
 import { parseSource } from "@/lib/standards/source";
 import { DefinitionSchema, type Definition } from "@/lib/standards/definition";
 import { readRunRecord } from "@/lib/standards/run-record";
-import { getJob, lockJob } from "@/lib/data/jobs";
-import { getVersion, getVersionStatus } from "@/lib/data/standards";
+import { getJob, lockJobForRun } from "@/lib/data/jobs";
+import { getVersion } from "@/lib/data/standards";
 import { definitionOfSource } from "@/lib/standards/read-definition";
 import { getRun, getRunRecord, getRunSummary, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
 import { revisionsOfRun } from "@/lib/data/calcs";
@@ -51,11 +51,11 @@ export const createRun = defineUseCase({
   run: async ({ inputs, unitSystem, parentRunId }, { actor, prepared }) => {
     const { job, version } = prepared;
     // Under the job's lock: a job closed, or a version withdrawn, since the evaluation began refuses the run.
-    const locked = await lockJob(job.id);
+    const locked = await lockJobForRun(job.id, version.id);
     if (!locked) throw new AppError("not-found", "That job does not exist.");
     if (locked.status === "closed")
       throw new AppError("conflict", `Job ${locked.jobNumber} was closed while the run was evaluated.`);
-    if ((await getVersionStatus(version.id)) === "withdrawn")
+    if (locked.versionStatus === "withdrawn")
       throw new AppError("conflict", `Version ${version.number} of ${version.title} was withdrawn while the run was evaluated.`);
     if (parentRunId) {
       const parent = await getRunSummary(parentRunId);

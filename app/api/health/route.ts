@@ -1,6 +1,7 @@
 import { RETRY_AFTER_SECONDS } from "@/lib/domain/outage";
 import { routeHandler } from "@/lib/use-cases/next";
 import { readHealth } from "@/lib/use-cases/health";
+import { jsonResponse } from "@/lib/domain/json-response";
 
 // Health for load balancers, the start script and people: 200 while this instance can serve, 503 while
 // it cannot reach its database (so a load balancer takes it out until it can), with the state of each
@@ -10,7 +11,7 @@ export const dynamic = "force-dynamic";
 
 export const GET = routeHandler(readHealth, {
   respond: (health) =>
-    Response.json(health, {
+    jsonResponse(health, {
       status: health.status === "unavailable" ? 503 : 200,
       headers: {
         "Cache-Control": "no-store",

@@ -1,11 +1,12 @@
 import { getSessionEndReason } from "@/lib/auth/session";
 import { routeHandler } from "@/lib/use-cases/next";
 import { readSelf } from "@/lib/use-cases/reads";
+import { jsonResponse } from "@/lib/domain/json-response";
 
 // Who am I: any signed-in role may ask; an anonymous caller gets 401 JSON.
 // Flat body (not the { data } envelope): the shape this endpoint promises its callers.
 const readSelfHandler = routeHandler(readSelf, {
-  respond: (self) => Response.json(self, { headers: { "Cache-Control": "no-store" } }),
+  respond: (self) => jsonResponse(self, { headers: { "Cache-Control": "no-store" } }),
 });
 
 // A 401 also says why, when the browser's session was ended on purpose (deactivation, a password changed
@@ -18,5 +19,5 @@ export async function GET(request: Request, context: { params: Promise<Record<st
   const reason = await getSessionEndReason(request.headers).catch(() => null);
   if (!reason) return response;
   const body = (await response.json()) as Record<string, unknown>;
-  return Response.json({ ...body, reason }, { status: 401, headers: response.headers });
+  return jsonResponse({ ...body, reason }, { status: 401, headers: response.headers });
 }

@@ -5,6 +5,7 @@
 import { ATTACHMENT_MAX_BYTES, ATTACHMENT_TOO_LARGE } from "@/lib/domain/schemas/jobs";
 import { attachFile } from "@/lib/use-cases/files";
 import { routeHandler } from "@/lib/use-cases/next";
+import { jsonResponse } from "@/lib/domain/json-response";
 
 const attach = routeHandler(attachFile);
 /** The file plus the form's own framing and fields. */
@@ -12,7 +13,7 @@ const BODY_LIMIT = ATTACHMENT_MAX_BYTES + 64 * 1024;
 
 export async function POST(request: Request, context: { params: Promise<Record<string, string>> }): Promise<Response> {
   if (Number(request.headers.get("content-length") ?? 0) > BODY_LIMIT)
-    return Response.json(
+    return jsonResponse(
       { error: { code: "invalid-input", message: ATTACHMENT_TOO_LARGE, fieldErrors: { file: [ATTACHMENT_TOO_LARGE] } } },
       { status: 422 },
     );

@@ -5,6 +5,7 @@
 import { HAND_CALCULATION_MAX_BYTES } from "@/lib/domain/schemas/standards";
 import { routeHandler } from "@/lib/use-cases/next";
 import { attachHandCalculation } from "@/lib/use-cases/standard-attachments";
+import { jsonResponse } from "@/lib/domain/json-response";
 
 const attach = routeHandler(attachHandCalculation);
 /** The file plus the form's own framing. */
@@ -12,7 +13,7 @@ const BODY_LIMIT = HAND_CALCULATION_MAX_BYTES + 64 * 1024;
 
 export async function POST(request: Request, context: { params: Promise<Record<string, string>> }): Promise<Response> {
   if (Number(request.headers.get("content-length") ?? 0) > BODY_LIMIT)
-    return Response.json(
+    return jsonResponse(
       {
         error: {
           code: "invalid-input",

@@ -179,3 +179,28 @@ export function plasticModulus(
   const b = belowAll(parts, axis, c);
   return { Z: q - b.q - c * (total.a - b.a) + (c * b.a - b.q), c };
 }
+
+/**
+ * An angle's outline where it can be farthest from an axis, relative to the centroid: its convex corners and
+ * the two toe arcs (centre and radius; each spans the quarter facing +x, +y). The root fillet lies inside
+ * the hull of these, so it is never an extreme fibre.
+ */
+export function angleOutline(b: number, d: number, t: number, r2: number, xc: number, yc: number) {
+  const at = (x: number, y: number): [number, number] => [x - xc, y - yc];
+  return {
+    points: [at(0, 0), at(b, 0), at(b, t - r2), at(b - r2, t), at(t, d - r2), at(t - r2, d), at(0, d)],
+    arcs: [at(b - r2, t - r2), at(t - r2, d - r2)].map((centre) => ({ centre, radius: r2 })),
+  };
+}
+
+/** The largest distance of the outline from the axis through the centroid whose normal is (nx, ny). */
+export function farthestFrom(outline: ReturnType<typeof angleOutline>, nx: number, ny: number): number {
+  let most = Math.max(...outline.points.map(([x, y]) => Math.abs(nx * x + ny * y)));
+  for (const { centre, radius } of outline.arcs) {
+    // Along ±n an arc reaches centre·n ± radius where ±n points into its quarter; otherwise an end (a point above) is farthest.
+    for (const sign of [1, -1]) {
+      if (sign * nx >= 0 && sign * ny >= 0) most = Math.max(most, Math.abs(nx * centre[0] + ny * centre[1] + sign * radius));
+    }
+  }
+  return most;
+}

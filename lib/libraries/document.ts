@@ -127,9 +127,12 @@ const positiveSourced = (what: string) =>
 /** The units a material's further values may be in: SI, so a run never converts. */
 export const MATERIAL_VALUE_UNITS = ["Pa", "kg/m³", "1/K", "1"] as const;
 /** A further value's symbol, written as a plain identifier: f_ck, f_m_k, E_0_05, rho_k. */
-const valueSymbol = z
+export const valueSymbol = z
   .string()
   .regex(/^[A-Za-z][A-Za-z0-9_]{0,23}$/, "A value's symbol is a short identifier: f_ck, f_m_k, E_0_05, rho_k…");
+
+/** A further value of a material: its value in SI units, the unit, and where it comes from. */
+export const furtherValueSchema = z.object({ value: finite("value"), unit: z.enum(MATERIAL_VALUE_UNITS), source }).strict();
 
 export const materialEntrySchema = z
   .object({
@@ -158,9 +161,7 @@ export const materialEntrySchema = z
      * Further values the family's design uses, by symbol: timber's characteristic strengths and 5 % modulus
      * (EN 338: f_m_k, f_c_0_k, E_0_05, rho_k), concrete's (EN 1992-1-1: f_ck, f_cm, f_ctm). SI units.
      */
-    values: z
-      .record(valueSymbol, z.object({ value: finite("value"), unit: z.enum(MATERIAL_VALUE_UNITS), source }).strict())
-      .default({}),
+    values: z.record(valueSymbol, furtherValueSchema).default({}),
     /** What the values mean for this family and where they hold (thickness range, grade, moisture class). */
     note: z.string().max(500).optional(),
   })

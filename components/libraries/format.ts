@@ -130,9 +130,28 @@ export function dimensionLabel(shape: SectionShape, key: string): { symbol: stri
   return { symbol: label.slice(at + 1), name: label.slice(0, at) };
 }
 
-/** The dimension keys a shape takes, in the order DIMENSION_LABELS lists them. */
+/** Dimensions that are not lengths: the flanges' taper, a slope (a ratio, shown as a percentage). */
+export const SLOPE_DIMENSIONS: ReadonlySet<string> = new Set(["taper"]);
+
+/** The length dimensions a shape takes, in the order DIMENSION_LABELS lists them (the taper, a slope, apart). */
 export function dimensionKeys(shape: SectionShape): string[] {
+  return Object.keys(DIMENSION_LABELS[shape]).filter((key) => !SLOPE_DIMENSIONS.has(key));
+}
+
+/** Every dimension a shape takes, the taper too: the builder's fields. */
+export function allDimensionKeys(shape: SectionShape): string[] {
   return Object.keys(DIMENSION_LABELS[shape]);
+}
+
+/** A slope (0.14) as a percentage: "14 %". */
+export function formatSlope(ratio: number): string {
+  return Number.isFinite(ratio) ? `${Number((ratio * 100).toPrecision(6))} %` : "—";
+}
+
+/** A section's taper, when it has one, for a sentence: ", inner flange slope 14 %"; "" for parallel flanges. */
+export function taperPhrase(dimensions: Record<string, unknown>): string {
+  const taper = Number(dimensions.taper ?? 0);
+  return taper > 0 ? `, inner flange slope ${formatSlope(taper)}` : "";
 }
 
 /** The dimensions that name a section in a list, in mm: "d 300 · b 150 · tf 10.5 · tw 7". Radii are left out. */
@@ -141,6 +160,7 @@ export function mainDimensions(shape: SectionShape, dimensions: Record<string, u
     .filter((key) => !["r", "ro", "r2"].includes(key))
     .sort((a, b) => (a === "d" ? -1 : b === "d" ? 1 : 0))
     .map((key) => `${key} ${formatMm(Number(dimensions[key]))}`)
+    .concat(Number(dimensions.taper ?? 0) > 0 ? [`taper ${formatSlope(Number(dimensions.taper))}`] : [])
     .join(" · ");
 }
 

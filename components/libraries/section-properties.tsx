@@ -6,11 +6,11 @@
 import type { ListedProperty, Section, SectionShape } from "@/lib/libraries";
 import { Badge } from "@/components/ui/badge";
 import { TableFrame } from "@/components/ui/table";
-import { formatPercent, formatProperty, propertyDisplay } from "./format";
+import { formatPercent, formatProperty, formatSlope, propertyDisplay } from "./format";
 
 export interface SectionPropertiesProps {
   /** The builder's section; its properties are SI (m², m⁴, m³, m, rad). */
-  section: Pick<Section, "shape" | "properties"> & { rules?: number };
+  section: Pick<Section, "shape" | "properties"> & { rules?: number; dimensions?: Section["dimensions"] };
   /** A catalogue's listed values for the section, SI; shown beside the computed ones when given. */
   listed?: Partial<Record<ListedProperty, number>>;
   /** Largest relative difference not flagged; 0.01, the catalogue import's. */
@@ -42,7 +42,7 @@ const J_CONVENTION_2: Partial<Record<SectionShape, string>> = {
 
 /** The shear centre's and warping constant's convention for each shape (rules 2), in the words of section-torsion.ts. */
 export const WARPING_CONVENTION: Record<SectionShape, string> = {
-  i: "Shear centre at the centroid (x0 = y0 = 0). Cw = Iy h0²/4, thin-walled, with h0 = d − tf between the flanges' centroids.",
+  i: "Shear centre at the centroid (x0 = y0 = 0). Cw = Iy h0²/4, thin-walled, with h0 = d − tf between the flanges' mid-planes.",
   channel:
     "Shear centre thin-walled, e0 = 3b′²tf/(6b′tf + h′tw) from the web's mid-line with b′ = b − tw/2 and h′ = d − tf; Cw = (tf b′³h′²/12)(3b′tf + 2h′tw)/(6b′tf + h′tw). Fillets are left out of both.",
   angle:
@@ -57,7 +57,11 @@ export function SectionProperties({ section, listed, tolerance = 0.01, label }: 
   const properties = section.properties as unknown as Record<string, number>;
   const keys = Object.keys(properties);
   const rules = section.rules ?? ("Cw" in properties ? 2 : 1);
-  const jConvention = (rules >= 2 ? J_CONVENTION_2[section.shape] : undefined) ?? J_CONVENTION[section.shape];
+  const taper = Number((section.dimensions as Record<string, unknown> | undefined)?.taper ?? 0);
+  const jConvention =
+    taper > 0
+      ? `The flanges' inner faces slope ${formatSlope(taper)}; tf is their thickness half-way along the outstand. J is thin-walled: ∫ t³/3 along each tapered outstand, the flange over the web and the web between the flanges' roots, with no fillet correction.`
+      : ((rules >= 2 ? J_CONVENTION_2[section.shape] : undefined) ?? J_CONVENTION[section.shape]);
   const compare = listed !== undefined && Object.keys(listed).length > 0;
   const headings = compare
     ? ["Symbol", "Property", "Unit", "Listed", "Computed", "Difference"]

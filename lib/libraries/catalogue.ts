@@ -173,7 +173,8 @@ function readNumber(cell: string): number | null {
   return Number.isFinite(value) ? value : null;
 }
 
-const OPTIONAL_DIMENSIONS: ReadonlySet<string> = new Set(["r", "ro", "r2"]);
+/** Dimensions a row may leave empty: radii (a sharp corner) and the flanges' taper (parallel flanges). */
+const OPTIONAL_DIMENSIONS: ReadonlySet<string> = new Set(["r", "ro", "r2", "taper"]);
 
 export function importCatalogue(text: string, mapping: CatalogueMapping, options: CatalogueOptions = {}): CatalogueImport {
   const tolerance = options.tolerance ?? 0.01;
@@ -244,7 +245,8 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
   };
   const dimensions = mapColumns(
     mapping.dimensions,
-    () => "m",
+    // A taper is a slope, a ratio (its column's unit ""); every other dimension a length.
+    (key) => (key === "taper" ? "" : "m"),
     (key) => `the dimension ${key}`,
   );
   const properties = mapColumns(
@@ -302,7 +304,7 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
         continue;
       }
       const cell = fields[mapped.index].trim();
-      if (cell === "" && OPTIONAL_DIMENSIONS.has(key)) continue; // no radius: a sharp corner
+      if (cell === "" && OPTIONAL_DIMENSIONS.has(key)) continue; // no radius: a sharp corner; no taper: parallel flanges
       const value = readNumber(cell);
       if (value === null) refuse(line, mapped.spec.column, `Row ${line}: the ${labels[key]} "${cell}" is not a number.`);
       else if (value < 0 && OPTIONAL_DIMENSIONS.has(key)) {

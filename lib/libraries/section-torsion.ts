@@ -31,6 +31,7 @@
  * - solid rectangle and circle: shear centre at the centroid; Cw = 0 (exact for a circle; a solid rectangle's
  *   is small and conventionally taken as 0).
  * x0, y0 are the shear centre less the centroid along the section's x and y axes (zero where they coincide).
+ * With tapered flanges tf is the mean thickness (section-tapered.ts), and these thin-walled forms take it as it is.
  */
 
 export interface ShearCentre {

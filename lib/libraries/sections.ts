@@ -7,8 +7,8 @@
  * that splits the area in two equal halves (the equal-area axis, not the centroidal one, for a channel's
  * y axis and for both axes of an angle). r = √(I/A).
  *
- * Geometry assumed, as tables of rolled sections do: flanges of I sections and channels are parallel (no
- * taper); the root fillet is a quarter circle tangent to web and flange; flange tips are square. An angle's
+ * Geometry assumed, as tables of rolled sections do: flanges of I sections and channels are parallel unless a
+ * taper is given (the inner face's slope; section-tapered.ts, where tf is the mean thickness); the root fillet is a quarter circle tangent to web and flange; flange tips are square. An angle's
  * toes may be rounded (toe radius r2, a quarter circle at the inner edge of each leg's tip, as angle tables
  * draw them); the other shapes have none. Hollow sections have concentric corners: ri = max(ro − t, 0).
  *
@@ -31,6 +31,7 @@
  *   fillet and flange-tip corrections of El Darwish & Johnston (1965), as used for the tables of SCI P363
  *   (from memory; section-torsion.ts); if that fit, made for rolled proportions, is not positive the plain
  *   sum is used. Under rules 1 channels and angles get no fillet correction; under rules 2 they get theirs.
+ *   With tapered flanges (either rules): ∫ t³/3 along each tapered plate, no fillet correction (section-tapered.ts).
  *
  * Slenderness ratios (width-to-thickness), as AISC 360-16 Table B4.1b defines them (from memory):
  * - I section: b_2tf = b/(2tf) (case 10, flanges of rolled I-shapes in flexure); h_tw = h/tw with h = d −
@@ -59,6 +60,7 @@ import {
   iWarping,
   type Warping,
 } from "./section-torsion";
+import { taperedChannelParts, taperedClearDepth, taperedIParts, taperedJ } from "./section-tapered";
 
 /** The builder's rules, numbered (see above); the newest is what the builder's screen and new sections use. */
 export const SECTION_RULES = [1, 2] as const;
@@ -200,8 +202,11 @@ function laterProperties(dims: SectionDimensions, first: SectionProperties): Par
   switch (dims.shape) {
     case "i":
       return iWarping(first.Iy, dims.d, dims.tf);
-    case "channel":
-      return { J: channelTorsionConstant(dims), ...channelWarping(dims, (first as SectionPropertiesByShape["channel"]).xc) };
+    case "channel": {
+      // A tapered channel keeps its thin-walled J: the fillet correction is fitted to parallel flanges.
+      const J = dims.taper ? first.J : channelTorsionConstant(dims);
+      return { J, ...channelWarping(dims, (first as SectionPropertiesByShape["channel"]).xc) };
+    }
     case "angle": {
       const { xc, yc } = first as SectionPropertiesByShape["angle"];
       return { J: angleTorsionConstant(dims), ...angleWarping(dims.t, xc, yc) };
@@ -243,7 +248,17 @@ function doublySymmetric(parts: readonly Part[], b: number, d: number, J: number
 }
 
 /** Origin at the centre; flanges full width, web between them, four root fillets. */
-function iSection({ b, d, tf, tw, r }: Dims<"i">): SectionPropertiesByShape["i"] {
+function iSection({ b, d, tf, tw, r, taper }: Dims<"i">): SectionPropertiesByShape["i"] {
+  // A taper left out (or zero) takes exactly the parallel-flange path below, so such a section is what it always was.
+  if (taper) {
+    const tapered = { b, d, tf, tw, r, taper };
+    return {
+      ...doublySymmetric(taperedIParts(tapered), b, d, taperedJ("i", tapered)),
+      b_2tf: b / (2 * tf),
+      h_tw: taperedClearDepth("i", tapered) / tw,
+      c_tf: (b - tw - 2 * r) / (2 * tf),
+    };
+  }
   const yi = d / 2 - tf;
   const parts: Part[] = [rect(-b / 2, b / 2, yi, d / 2), rect(-b / 2, b / 2, -d / 2, -yi), rect(-tw / 2, tw / 2, -yi, yi)];
   if (r > 0)
@@ -258,10 +273,14 @@ function iSection({ b, d, tf, tw, r }: Dims<"i">): SectionPropertiesByShape["i"]
 }
 
 /** Origin at the back of the web, mid-depth; flanges point towards +x. */
-function channel({ b, d, tf, tw, r }: Dims<"channel">): SectionPropertiesByShape["channel"] {
+function channel({ b, d, tf, tw, r, taper }: Dims<"channel">): SectionPropertiesByShape["channel"] {
   const yi = d / 2 - tf;
-  const parts: Part[] = [rect(0, b, yi, d / 2), rect(0, b, -d / 2, -yi), rect(0, tw, -yi, yi)];
-  if (r > 0) parts.push(spandrel(tw, yi, 1, -1, r), spandrel(tw, -yi, 1, 1, r));
+  const tapered = taper ? { b, d, tf, tw, r, taper } : null;
+  // A taper left out (or zero) builds exactly the parallel-flange parts, so such a section is what it always was.
+  const parts: Part[] = tapered
+    ? taperedChannelParts(tapered)
+    : [rect(0, b, yi, d / 2), rect(0, b, -d / 2, -yi), rect(0, tw, -yi, yi)];
+  if (r > 0 && !tapered) parts.push(spandrel(tw, yi, 1, -1, r), spandrel(tw, -yi, 1, 1, r));
   const g = centroidalOf(parts);
   const zy = plasticModulus(parts, "x", { lo: 0, hi: b });
   return {
@@ -273,12 +292,12 @@ function channel({ b, d, tf, tw, r }: Dims<"channel">): SectionPropertiesByShape
       Sy: g.Iy / Math.max(g.xc, b - g.xc),
       Zx: plasticModulus(parts, "y", { lo: -d / 2, hi: d / 2, symmetricAt: 0 }).Z,
       Zy: zy.Z,
-      J: flangedPlainJ({ b, d, tf, tw, r }),
+      J: tapered ? taperedJ("channel", tapered) : flangedPlainJ({ b, d, tf, tw, r }),
     }),
     xc: g.xc,
     xp: zy.c,
     b_tf: b / tf,
-    h_tw: (d - 2 * tf - 2 * r) / tw,
+    h_tw: (tapered ? taperedClearDepth("channel", tapered) : d - 2 * tf - 2 * r) / tw,
     c_tf: (b - tw - r) / tf,
   };
 }

@@ -41,3 +41,17 @@ it.each([
     await page.close();
   },
 );
+
+it("an I section with tapered flanges: the slope typed in per cent, drawn, named in the drawing's name and in the notes", async () => {
+  const page = await desktop.open("engineer", "/libraries/builder");
+  await page.getByTestId("section-builder").waitFor();
+  await page.getByTestId("section-dimension-taper").fill("14");
+  await expect
+    .poll(() => page.getByTestId("section-drawing").locator("svg").getAttribute("aria-label"))
+    .toMatch(/, inner flange slope 14 %$/);
+  expect(await page.getByTestId("j-convention").textContent()).toContain("The flanges' inner faces slope 14 %");
+  // A slope the flange cannot take is named beside the field, in words.
+  await page.getByTestId("section-dimension-taper").fill("45");
+  await expect.poll(() => page.getByTestId("section-dimension-taper-error").textContent()).toMatch(/thins the flange to nothing/);
+  await page.close();
+});

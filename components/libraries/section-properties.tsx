@@ -37,7 +37,7 @@ const J_CONVENTION_2: Partial<Record<SectionShape, string>> = {
   channel:
     "J is thin-walled: Σ b t³/3 over the flanges and the web between them, plus El Darwish & Johnston's fillet and flange-tip corrections when there is a root radius.",
   angle:
-    "J is thin-walled: Σ b t³/3 over the legs b and d − t, or with a root radius El Darwish & Johnston's formula for an L section with its fillet (as Roark's Formulas prints it).",
+    "J is thin-walled: Σ b t³/3 over the legs b and d − t, plus, with a root radius, a fillet term and end terms in El Darwish & Johnston's form.",
 };
 
 /** The shear centre's and warping constant's convention for each shape (rules 2), in the words of section-torsion.ts. */

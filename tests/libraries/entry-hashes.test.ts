@@ -6,7 +6,14 @@
  * The hashes were taken from the builder as it stood before rules 2, by the same check and hashing the seed uses.
  */
 import { describe, expect, it } from "vitest";
-import { checkLibraryDocument, demoSectionsDocument, libraryContentHash, libraryEntryHash } from "@/lib/libraries";
+import {
+  checkLibraryDocument,
+  demoSectionsDocument,
+  importCatalogue,
+  libraryContentHash,
+  libraryEntryHash,
+} from "@/lib/libraries";
+import { bindEntry } from "@/lib/libraries/bind";
 import { startingLibraries } from "@/scripts/lib/starting-libraries";
 
 const PINNED: Record<string, { content: string; entries: Record<string, string> }> = {
@@ -105,6 +112,46 @@ describe("starting library entries keep their hashes", () => {
     expect(refused.ok).toBe(false);
     expect(refused.ok ? [] : refused.problems.map((p) => [p.path, p.message])).toEqual([
       ["entries.0.rules", "The section builder's rules are 1 or 2."],
+    ]);
+  });
+
+  it("a rules 2 entry gives runs its shear centre as lengths; Cw (m⁶, no quantity of the standards' yet) stays in the entry only", async () => {
+    const entry = {
+      key: "C",
+      origin: { from: "builder" },
+      shape: "channel",
+      rules: 2,
+      dimensions: { b: 0.09, d: 0.3, tf: 0.0155, tw: 0.009, r: 0.012 },
+    };
+    const checked = checkLibraryDocument({ kind: "sections", title: "New rules", entries: [entry] });
+    if (!checked.ok) throw new Error(JSON.stringify(checked.problems));
+    const bound = await bindEntry(checked.document, "C");
+    expect(bound?.values.e0).toEqual({
+      si: (checked.document.entries[0] as { computed: { e0: number } }).computed.e0,
+      quantity: "length",
+    });
+    expect(bound?.values.x0?.quantity).toBe("length");
+    expect(bound?.values).not.toHaveProperty("Cw");
+  });
+
+  it("a catalogue may list Cw: compared with the builder's under rules 2, and kept in the entry with its rules", () => {
+    // UB 305×165×40: Iw = 0.164 dm⁶ (SCI P363, from memory), as section-torsion.test.ts checks it.
+    const csv = "Designation,Shape,b,d,tf,tw,r,Cw\r\nUB 305x165x40,i,165,303.4,10.2,6,8.9,164000\r\n";
+    const mm = (column: string) => ({ column, unit: "mm" });
+    const mapping = {
+      designation: "Designation",
+      shape: { column: "Shape" },
+      dimensions: { b: mm("b"), d: mm("d"), tf: mm("tf"), tw: mm("tw"), r: mm("r") },
+      properties: { Cw: { column: "Cw", unit: "cm⁶" } }, // 0.164 dm⁶ = 164 000 cm⁶
+    };
+    const imported = importCatalogue(csv, mapping);
+    expect(imported.problems).toEqual([]);
+    expect(imported.differences).toEqual([]);
+    expect(imported.rows[0].listed.Cw).toBeCloseTo(0.164e-6, 15);
+    expect(imported.rows[0].section.rules).toBe(2);
+    // Read by rules 1, the builder has no Cw to compare it with: the row is refused, naming the property.
+    expect(importCatalogue(csv, mapping, { rules: 1 }).problems.map((p) => p.message)).toEqual([
+      "Row 2 (UB 305x165x40): an I section has no Cw; leave the cell empty.",
     ]);
   });
 });

@@ -6,7 +6,7 @@ import { LIBRARY_KIND_NAMES } from "@/lib/libraries";
 import { Badge } from "@/components/ui/badge";
 import { TableFrame } from "@/components/ui/table";
 import { diffLibraryDocuments, type ValueChange } from "./entry-changes";
-import { formatMm, formatNumber, formatPropertyWithUnit, mainDimensions, SHAPE_TITLES } from "./format";
+import { formatMm, formatNumber, formatPropertyWithUnit, formatSlope, mainDimensions, SHAPE_TITLES } from "./format";
 
 export interface EntryDiffProps {
   /** The earlier version's document; null for a library's first version. */
@@ -33,7 +33,7 @@ export function formatChangedValue(kind: LibraryDocument["kind"], path: string, 
   if (typeof value === "string") return `“${value}”`;
   if (typeof value !== "number") return String(value);
   const [head, tail] = path.split(".");
-  if (kind === "sections" && head === "dimensions") return `${formatMm(value)} mm`;
+  if (kind === "sections" && head === "dimensions") return tail === "taper" ? formatSlope(value) : `${formatMm(value)} mm`;
   if (kind === "sections" && (head === "properties" || head === "listed")) return formatPropertyWithUnit(tail, value, shape);
   if (kind === "materials" && tail === "value" && head in MATERIAL_UNITS) {
     const [scale, unit] = MATERIAL_UNITS[head];

@@ -1,5 +1,5 @@
 // How the section library's screens show numbers: SI values from lib/libraries turned into the units
-// engineers read on a section table (mm, mm², 10⁶ mm⁴, 10³ mm³, degrees), to four significant figures.
+// engineers read on a section table (mm, mm², 10⁶ mm⁴, 10³ mm³, 10⁹ mm⁶, degrees), to four significant figures.
 // Every formatter returns "—" for a value that is not a finite number, so no screen ever shows "NaN".
 import { DIMENSION_LABELS, type ListedProperty, type Section, type SectionEntry, type SectionShape } from "@/lib/libraries";
 
@@ -18,6 +18,8 @@ const inertia = { unit: "10⁶ mm⁴", scale: 1e6 };
 const modulus = { unit: "10³ mm³", scale: 1e6 };
 const length = { unit: "mm", scale: 1e3 };
 const ratio = { unit: "", scale: 1 };
+// 1 m⁶ = 10¹⁸ mm⁶ = 10⁹ × (10⁹ mm⁶).
+const warping = { unit: "10⁹ mm⁶", scale: 1e9 };
 
 const PROPERTIES: Record<ListedProperty, PropertyDisplay> = {
   A: { symbol: "A", name: "area", ...area },
@@ -50,6 +52,10 @@ const PROPERTIES: Record<ListedProperty, PropertyDisplay> = {
   d_t: { symbol: "d/t", name: "leg d to thickness", ...ratio },
   bd_2t: { symbol: "(b + d)/2t", name: "mean leg to thickness", ...ratio },
   D_t: { symbol: "D/t", name: "diameter to thickness", ...ratio },
+  e0: { symbol: "e0", name: "shear centre from the web's mid-line, away from the flanges", ...length },
+  x0: { symbol: "x0", name: "shear centre from the centroid, along x", ...length },
+  y0: { symbol: "y0", name: "shear centre from the centroid, along y", ...length },
+  Cw: { symbol: "Cw", name: "warping constant", ...warping },
 };
 
 /** Where a shape gives a property another meaning than the table above. */
@@ -124,9 +130,28 @@ export function dimensionLabel(shape: SectionShape, key: string): { symbol: stri
   return { symbol: label.slice(at + 1), name: label.slice(0, at) };
 }
 
-/** The dimension keys a shape takes, in the order DIMENSION_LABELS lists them. */
+/** Dimensions that are not lengths: the flanges' taper, a slope (a ratio, shown as a percentage). */
+export const SLOPE_DIMENSIONS: ReadonlySet<string> = new Set(["taper"]);
+
+/** The length dimensions a shape takes, in the order DIMENSION_LABELS lists them (the taper, a slope, apart). */
 export function dimensionKeys(shape: SectionShape): string[] {
+  return Object.keys(DIMENSION_LABELS[shape]).filter((key) => !SLOPE_DIMENSIONS.has(key));
+}
+
+/** Every dimension a shape takes, the taper too: the builder's fields. */
+export function allDimensionKeys(shape: SectionShape): string[] {
   return Object.keys(DIMENSION_LABELS[shape]);
+}
+
+/** A slope (0.14) as a percentage: "14 %". */
+export function formatSlope(ratio: number): string {
+  return Number.isFinite(ratio) ? `${Number((ratio * 100).toPrecision(6))} %` : "—";
+}
+
+/** A section's taper, when it has one, for a sentence: ", inner flange slope 14 %"; "" for parallel flanges. */
+export function taperPhrase(dimensions: Record<string, unknown>): string {
+  const taper = Number(dimensions.taper ?? 0);
+  return taper > 0 ? `, inner flange slope ${formatSlope(taper)}` : "";
 }
 
 /** The dimensions that name a section in a list, in mm: "d 300 · b 150 · tf 10.5 · tw 7". Radii are left out. */
@@ -135,10 +160,11 @@ export function mainDimensions(shape: SectionShape, dimensions: Record<string, u
     .filter((key) => !["r", "ro", "r2"].includes(key))
     .sort((a, b) => (a === "d" ? -1 : b === "d" ? 1 : 0))
     .map((key) => `${key} ${formatMm(Number(dimensions[key]))}`)
+    .concat(Number(dimensions.taper ?? 0) > 0 ? [`taper ${formatSlope(Number(dimensions.taper))}`] : [])
     .join(" · ");
 }
 
 /** A library entry as the builder's section: its dimensions with the properties the builder computed. */
-export function sectionOfEntry(entry: Pick<SectionEntry, "shape" | "dimensions" | "computed">): Section {
-  return { shape: entry.shape, dimensions: entry.dimensions, properties: entry.computed } as Section;
+export function sectionOfEntry(entry: Pick<SectionEntry, "shape" | "dimensions" | "computed"> & { rules?: number }): Section {
+  return { shape: entry.shape, rules: entry.rules ?? 1, dimensions: entry.dimensions, properties: entry.computed } as Section;
 }

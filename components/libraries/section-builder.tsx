@@ -7,7 +7,7 @@ import { useMemo, useState } from "react";
 import { SECTION_SHAPES, type Section, type SectionShape } from "@/lib/libraries";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
-import { dimensionKeys, dimensionLabel, formatMm, SHAPE_TITLES } from "./format";
+import { allDimensionKeys, dimensionLabel, formatMm, SHAPE_TITLES, SLOPE_DIMENSIONS } from "./format";
 import { build, OPTIONAL, STARTING, type Typed } from "./section-builder-input";
 import { SectionDrawing } from "./section-drawing";
 import { SectionProperties } from "./section-properties";
@@ -26,9 +26,10 @@ export function SectionBuilder({ initial, onChange, name }: SectionBuilderProps)
   const [typed, setTyped] = useState<Typed>(() => {
     if (!initial) return STARTING;
     const own = Object.fromEntries(
-      dimensionKeys(initial.shape).map((key) => {
+      allDimensionKeys(initial.shape).map((key) => {
         const value = initial.dimensions[key];
-        return [key, typeof value === "number" ? formatMm(value) : ""];
+        if (typeof value !== "number") return [key, ""];
+        return [key, SLOPE_DIMENSIONS.has(key) ? String(Number((value * 100).toPrecision(6))) : formatMm(value)];
       }),
     );
     return { ...STARTING, [initial.shape]: own };
@@ -39,7 +40,7 @@ export function SectionBuilder({ initial, onChange, name }: SectionBuilderProps)
   const general: string[] = [];
   if (!result.ok)
     for (const problem of result.problems) {
-      if (dimensionKeys(shape).includes(problem.path)) errors[problem.path] ??= problem.message;
+      if (allDimensionKeys(shape).includes(problem.path)) errors[problem.path] ??= problem.message;
       else general.push(problem.message);
     }
 
@@ -69,9 +70,10 @@ export function SectionBuilder({ initial, onChange, name }: SectionBuilderProps)
             </option>
           ))}
         </SelectField>
-        {dimensionKeys(shape).map((key) => {
+        {allDimensionKeys(shape).map((key) => {
           const { symbol, name: what } = dimensionLabel(shape, key);
-          const label = `${what[0].toUpperCase()}${what.slice(1)} ${symbol} (mm)`;
+          const slope = SLOPE_DIMENSIONS.has(key);
+          const label = `${what[0].toUpperCase()}${what.slice(1)}${slope ? "" : ` ${symbol}`} (${slope ? "%" : "mm"})`;
           return (
             <TextField
               key={`${shape}-${key}`}
@@ -81,7 +83,13 @@ export function SectionBuilder({ initial, onChange, name }: SectionBuilderProps)
               value={typed[shape][key] ?? ""}
               onChange={(e) => change(shape, { ...typed, [shape]: { ...typed[shape], [key]: e.target.value } })}
               error={errors[key]}
-              hint={OPTIONAL.has(key) ? "Leave empty for a sharp corner." : undefined}
+              hint={
+                slope
+                  ? "Leave empty for parallel flanges. With a slope, tf is the thickness half-way along the outstand."
+                  : OPTIONAL.has(key)
+                    ? "Leave empty for a sharp corner."
+                    : undefined
+              }
               data-testid={`section-dimension-${key}`}
               errorTestId={`section-dimension-${key}-error`}
             />

@@ -253,41 +253,55 @@ function geometryOf(shape: Section["shape"], m: Record<string, number>, props: R
     case "i":
     case "channel": {
       const { b, d, tf, tw, r } = m;
-      const yi = d / 2 - tf;
       // The web's faces: both sides of the centre for an I section; the back at x = 0 for a channel.
       const [back, face, left, right] = shape === "i" ? [-tw / 2, tw / 2, -b / 2, b / 2] : [0, tw, 0, b];
-      const upper = [line(right, d / 2), line(right, yi), line(face + r, yi), ...arc(r, face, yi - r, face + r, yi - r)];
+      // A tapered flange (m.taper, a ratio, came scaled with the lengths) is tf thick half-way along its outstand,
+      // thicker at the web; its fillet reaches L along both faces (section-tapered.ts). Parallel flanges: L = r.
+      const taper = (m.taper ?? 0) / 1000;
+      const outstand = right - face;
+      const [yRoot, yTip] = [d / 2 - tf - (taper * outstand) / 2, d / 2 - tf + (taper * outstand) / 2];
+      const reach = taper ? r * Math.tan(Math.PI / 4 - Math.atan(taper) / 2) : r;
+      const [cos, sin] = [Math.cos(Math.atan(taper)), Math.sin(Math.atan(taper))];
+      const upper = [
+        line(right, d / 2),
+        line(right, yTip),
+        line(face + reach * cos, yRoot + reach * sin),
+        ...arc(r, face, yRoot - reach, face + r, yRoot - reach),
+      ];
       const lower = [
-        line(face, -yi + r),
-        ...arc(r, face + r, -yi, face + r, -yi + r),
-        line(right, -yi),
+        line(face, -yRoot + reach),
+        ...arc(r, face + reach * cos, -yRoot - reach * sin, face + r, -yRoot + reach),
+        line(right, -yTip),
         line(right, -d / 2),
         line(left, -d / 2),
       ];
       const back_ =
         shape === "i"
           ? [
-              line(left, -yi),
-              line(back - r, -yi),
-              ...arc(r, back, -yi + r, back - r, -yi + r),
-              line(back, yi - r),
-              ...arc(r, back - r, yi, back - r, yi - r),
-              line(left, yi),
+              line(left, -yTip),
+              line(back - reach * cos, -yRoot - reach * sin),
+              ...arc(r, back, -yRoot + reach, back - r, -yRoot + reach),
+              line(back, yRoot - reach),
+              ...arc(r, back - reach * cos, yRoot + reach * sin, back - r, yRoot - reach),
+              line(left, yTip),
             ]
           : [];
+      const yi = yRoot;
+      // tf is drawn where it is measured: at the tip's end for parallel flanges, half-way along a tapered outstand.
+      const tfAt = taper ? face + outstand / 2 : right - tf * 0.4;
       const xc = shape === "i" ? 0 : props.xc * 1000;
       const callouts: Geometry["callouts"] = [
         {
           key: "tf",
-          anchor: p(right - tf * 0.4, d / 2 - tf / 2),
+          anchor: p(tfAt, d / 2 - tf / 2),
           text: text("tf", tf),
-          across: [p(right - tf * 0.4, d / 2), p(right - tf * 0.4, yi)],
+          across: [p(tfAt, d / 2), p(tfAt, d / 2 - tf)],
         },
         { key: "tw", anchor: p(face, -d / 4), text: text("tw", tw), across: [p(back, -d / 4), p(face, -d / 4)] },
       ];
       if (r > 0) {
         const s = Math.SQRT1_2;
-        callouts.push({ key: "r", anchor: p(face + r - r * s, yi - r + r * s), text: text("r", r) });
+        callouts.push({ key: "r", anchor: p(face + r - r * s, yi - reach + r * s), text: text("r", r) });
       }
       if (shape === "channel") callouts.push({ key: "xc", anchor: p(xc, 0), text: `xc = ${formatNumber(xc)} mm` });
       return {

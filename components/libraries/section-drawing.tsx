@@ -2,7 +2,7 @@
 // axes (an angle's principal axes too), dimension lines and callouts in mm, and a scale bar, since the
 // drawing fills whatever width it is given. A pure function of its props: it renders on the server.
 import type { Section } from "@/lib/libraries";
-import { dimensionKeys, dimensionLabel, formatMm, SHAPE_TITLES } from "./format";
+import { dimensionKeys, dimensionLabel, formatMm, SHAPE_TITLES, taperPhrase } from "./format";
 import { FONT, layoutSection, type SectionScene } from "./section-drawing-layout";
 
 export interface SectionDrawingProps {
@@ -20,7 +20,7 @@ export function describeSection(section: SectionDrawingProps["section"], name?: 
     const { symbol, name: what } = dimensionLabel(section.shape, key);
     return `${what} ${symbol} ${formatMm(Number(dims[key] ?? 0))} mm`;
   });
-  return `${name ? `${name}, ` : ""}${SHAPE_TITLES[section.shape]} drawn to scale: ${parts.join(", ")}`;
+  return `${name ? `${name}, ` : ""}${SHAPE_TITLES[section.shape]} drawn to scale: ${parts.join(", ")}${taperPhrase(dims)}`;
 }
 
 const halo = { className: "stroke-paper-raised", strokeWidth: 3, strokeLinejoin: "round", paintOrder: "stroke" } as const;

@@ -1,15 +1,16 @@
 // A section's properties as engineers read them off a table (mm², 10⁶ mm⁴, 10³ mm³, mm, ratios; four
-// significant figures), with the torsion constant's convention for the shape (lib/libraries/sections.ts).
+// significant figures), with the conventions of the torsion constant, the shear centre and the warping constant
+// for the shape and the builder's rules the properties follow (lib/libraries/sections.ts, section-torsion.ts).
 // Given a catalogue's listed values, it sets them beside the builder's with the relative difference, and
 // flags — in words, not only colour — those past the tolerance. Renders on the server.
 import type { ListedProperty, Section, SectionShape } from "@/lib/libraries";
 import { Badge } from "@/components/ui/badge";
 import { TableFrame } from "@/components/ui/table";
-import { formatPercent, formatProperty, propertyDisplay } from "./format";
+import { formatPercent, formatProperty, formatSlope, propertyDisplay } from "./format";
 
 export interface SectionPropertiesProps {
   /** The builder's section; its properties are SI (m², m⁴, m³, m, rad). */
-  section: Pick<Section, "shape" | "properties">;
+  section: Pick<Section, "shape" | "properties"> & { rules?: number; dimensions?: Section["dimensions"] };
   /** A catalogue's listed values for the section, SI; shown beside the computed ones when given. */
   listed?: Partial<Record<ListedProperty, number>>;
   /** Largest relative difference not flagged; 0.01, the catalogue import's. */
@@ -18,7 +19,7 @@ export interface SectionPropertiesProps {
   label?: string;
 }
 
-/** How the builder works out J for each shape: in the words of sections.ts' header. */
+/** How the builder works out J for each shape under rules 1: in the words of sections.ts' header. */
 export const J_CONVENTION: Record<SectionShape, string> = {
   i: "J is thin-walled: Σ b t³/3 over the flanges and the web between them, plus the fillet and flange-tip corrections of El Darwish & Johnston (1965) when there is a root radius.",
   channel:
@@ -31,9 +32,36 @@ export const J_CONVENTION: Record<SectionShape, string> = {
   circle: "J is exact: πD⁴/32, the polar second moment of area.",
 };
 
+/** Where rules 2 works J out otherwise. */
+const J_CONVENTION_2: Partial<Record<SectionShape, string>> = {
+  channel:
+    "J is thin-walled: Σ b t³/3 over the flanges and the web between them, plus El Darwish & Johnston's fillet and flange-tip corrections when there is a root radius.",
+  angle:
+    "J is thin-walled: Σ b t³/3 over the legs b and d − t, plus, with a root radius, a fillet term and end terms in El Darwish & Johnston's form.",
+};
+
+/** The shear centre's and warping constant's convention for each shape (rules 2), in the words of section-torsion.ts. */
+export const WARPING_CONVENTION: Record<SectionShape, string> = {
+  i: "Shear centre at the centroid (x0 = y0 = 0). Cw = Iy h0²/4, thin-walled, with h0 = d − tf between the flanges' mid-planes.",
+  channel:
+    "Shear centre thin-walled, e0 = 3b′²tf/(6b′tf + h′tw) from the web's mid-line with b′ = b − tw/2 and h′ = d − tf; Cw = (tf b′³h′²/12)(3b′tf + 2h′tw)/(6b′tf + h′tw). Fillets are left out of both.",
+  angle:
+    "Shear centre where the legs' mid-lines meet, t/2 from each outer face. Cw is taken as 0: thin straight legs meeting at a point do not warp.",
+  "rectangular-hollow": "Shear centre at the centroid. Cw is taken as 0: a closed section's warping is negligible.",
+  "circular-hollow": "Shear centre at the centroid. Cw = 0: a circular tube does not warp.",
+  rectangle: "Shear centre at the centroid. Cw is conventionally taken as 0: a solid rectangle's is small.",
+  circle: "Shear centre at the centroid. Cw = 0: a solid circle does not warp.",
+};
+
 export function SectionProperties({ section, listed, tolerance = 0.01, label }: SectionPropertiesProps) {
   const properties = section.properties as unknown as Record<string, number>;
   const keys = Object.keys(properties);
+  const rules = section.rules ?? ("Cw" in properties ? 2 : 1);
+  const taper = Number((section.dimensions as Record<string, unknown> | undefined)?.taper ?? 0);
+  const jConvention =
+    taper > 0
+      ? `The flanges' inner faces slope ${formatSlope(taper)}; tf is their thickness half-way along the outstand. J is thin-walled: ∫ t³/3 along each tapered outstand, the flange over the web and the web between the flanges' roots, with no fillet correction.`
+      : ((rules >= 2 ? J_CONVENTION_2[section.shape] : undefined) ?? J_CONVENTION[section.shape]);
   const compare = listed !== undefined && Object.keys(listed).length > 0;
   const headings = compare
     ? ["Symbol", "Property", "Unit", "Listed", "Computed", "Difference"]
@@ -84,9 +112,18 @@ export function SectionProperties({ section, listed, tolerance = 0.01, label }: 
         })}
       </TableFrame>
       <p className="text-sm text-ink-500" data-testid="j-convention">
-        Values to four significant figures. {J_CONVENTION[section.shape]}
+        Values to four significant figures, by the section builder&apos;s rules {rules}. {jConvention}
         {compare ? " Where the catalogue lists a value, runs use the listed one." : ""}
       </p>
+      {"Cw" in properties ? (
+        <p className="text-sm text-ink-500" data-testid="warping-convention">
+          {WARPING_CONVENTION[section.shape]}
+        </p>
+      ) : (
+        <p className="text-sm text-ink-500" data-testid="warping-convention">
+          Built by rules 1, before the shear centre and the warping constant were worked out; a section added since gives them.
+        </p>
+      )}
     </div>
   );
 }

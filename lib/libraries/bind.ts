@@ -15,7 +15,7 @@ import {
   type SectionEntry,
 } from "./document";
 
-const QUANTITY_OF_UNIT: Record<string, Quantity> = {
+const QUANTITY_OF_UNIT: Record<string, Quantity | undefined> = {
   m: "length",
   "m^2": "area",
   "m^3": "section-modulus",
@@ -30,7 +30,9 @@ function sectionValues(entry: SectionEntry): BoundEntry["values"] {
     if (typeof si === "number") values[name] = { si, quantity: "length" };
   for (const [name, si] of Object.entries(entry.properties)) {
     const unit = LISTED_PROPERTY_UNITS[name as ListedProperty];
-    if (unit !== undefined) values[name] = { si, quantity: QUANTITY_OF_UNIT[unit] };
+    // Cw (m⁶) has no quantity in the standards' list yet: kept in the entry and its hash, but no expression reads it.
+    const quantity = unit === undefined ? undefined : QUANTITY_OF_UNIT[unit];
+    if (quantity !== undefined) values[name] = { si, quantity };
   }
   return values;
 }

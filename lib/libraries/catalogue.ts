@@ -5,14 +5,15 @@
  * differs from the builder's by more than the tolerance (1 %) is listed, so a lead sees it before publishing.
  *
  * Expect some listed J to differ where a table's convention is not the builder's (sections.ts says which it
- * uses): rolled channels and angles are often tabulated with fillet corrections the builder does not make.
+ * uses): rolled channels and angles are often tabulated with fillet corrections that the builder's rules 1 do
+ * not make. Rows are built by the newest rules unless the options name others, and their entries say so.
  *
  * Nothing here reads files or writes anything: text and mapping in, a typed result out. A result with any
  * problem must import nothing (`ok` is false); its rows and differences are still given for the preview.
  */
 import { math, TRADE_UNITS, unitNamesIn } from "@/lib/standards/units";
 import { parseCsv } from "./csv";
-import { buildSection, type Section } from "./sections";
+import { buildSection, LATEST_SECTION_RULES, type Section, type SectionRules } from "./sections";
 import { DIMENSION_LABELS, SECTION_SHAPES, SHAPE_NAMES, type DimensionKey, type SectionShape } from "./section-schema";
 
 /** Every property a catalogue may list, with the SI unit it is compared in ("" for ratios). */
@@ -47,11 +48,15 @@ export const LISTED_PROPERTY_UNITS = {
   c_tf: "",
   bd_2t: "",
   D_t: "",
+  e0: "m",
+  x0: "m",
+  y0: "m",
+  Cw: "m^6",
 } as const;
 export type ListedProperty = keyof typeof LISTED_PROPERTY_UNITS;
 
-/** Properties that may be zero or negative (a product of inertia, an angle); every other must be positive. */
-const SIGNED: ReadonlySet<ListedProperty> = new Set(["Ixy", "alpha"]);
+/** Properties that may be zero or negative (a product of inertia, an angle, the shear centre's offsets, a Cw taken as 0); every other must be positive. */
+const SIGNED: ReadonlySet<ListedProperty> = new Set(["Ixy", "alpha", "x0", "y0", "Cw"]);
 
 export interface ColumnSpec {
   /** The column's header, as the file spells it (compared without surrounding spaces; case counts). */
@@ -75,6 +80,8 @@ export interface CatalogueOptions {
   maxRows?: number;
   /** Longest text accepted, in characters; 2 000 000 unless given. */
   maxLength?: number;
+  /** The section builder's rules the rows are built by; the newest unless given. */
+  rules?: SectionRules;
 }
 
 export interface CatalogueRow {
@@ -116,6 +123,7 @@ const KIND_OF: Record<string, string> = {
   "m^2": "area (length²)",
   "m^3": "section modulus (length³)",
   "m^4": "second moment of area (length⁴)",
+  "m^6": "warping constant (length⁶)",
 };
 
 const SUPERSCRIPTS: Record<string, string> = { "²": "^2", "³": "^3", "⁴": "^4", "⁶": "^6" };
@@ -165,7 +173,8 @@ function readNumber(cell: string): number | null {
   return Number.isFinite(value) ? value : null;
 }
 
-const OPTIONAL_DIMENSIONS: ReadonlySet<string> = new Set(["r", "ro", "r2"]);
+/** Dimensions a row may leave empty: radii (a sharp corner) and the flanges' taper (parallel flanges). */
+const OPTIONAL_DIMENSIONS: ReadonlySet<string> = new Set(["r", "ro", "r2", "taper"]);
 
 export function importCatalogue(text: string, mapping: CatalogueMapping, options: CatalogueOptions = {}): CatalogueImport {
   const tolerance = options.tolerance ?? 0.01;
@@ -236,7 +245,8 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
   };
   const dimensions = mapColumns(
     mapping.dimensions,
-    () => "m",
+    // A taper is a slope, a ratio (its column's unit ""); every other dimension a length.
+    (key) => (key === "taper" ? "" : "m"),
     (key) => `the dimension ${key}`,
   );
   const properties = mapColumns(
@@ -294,7 +304,7 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
         continue;
       }
       const cell = fields[mapped.index].trim();
-      if (cell === "" && OPTIONAL_DIMENSIONS.has(key)) continue; // no radius: a sharp corner
+      if (cell === "" && OPTIONAL_DIMENSIONS.has(key)) continue; // no radius: a sharp corner; no taper: parallel flanges
       const value = readNumber(cell);
       if (value === null) refuse(line, mapped.spec.column, `Row ${line}: the ${labels[key]} "${cell}" is not a number.`);
       else if (value < 0 && OPTIONAL_DIMENSIONS.has(key)) {
@@ -326,7 +336,7 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
     }
     if (problems.length > before) continue;
 
-    const built = buildSection(input);
+    const built = buildSection(input, options.rules ?? LATEST_SECTION_RULES);
     if (!built.ok) {
       for (const problem of built.problems) {
         const column = dimensions.find((d) => d.key === problem.path)?.spec.column ?? null;
@@ -346,7 +356,7 @@ export function importCatalogue(text: string, mapping: CatalogueMapping, options
         continue;
       }
       ordered[key] = value;
-      // A computed zero (never met for the properties listed today) counts any listed non-zero value as 100 % off.
+      // A computed zero (a shear centre at the centroid, a Cw taken as 0) counts any listed non-zero value as 100 % off.
       const relativeDifference = mine === 0 ? Math.sign(value) : (value - mine) / Math.abs(mine);
       if (!(Math.abs(relativeDifference) <= tolerance)) {
         differences.push({ row: line, designation, property: key, listed: value, computed: mine, relativeDifference });

@@ -3,7 +3,8 @@
  * by the section builder — no manufacturer's table is copied. The names are ours: G + a letter for the
  * shape (I, C channel, R rectangular hollow, T circular tube, L angle), then the main dimensions in mm.
  */
-import type { CatalogueMapping } from "./catalogue";
+import { importCatalogue, type CatalogueMapping } from "./catalogue";
+import { catalogueSectionEntries } from "./document";
 import { buildSectionOrThrow, type Section } from "./sections";
 import type { SectionInput } from "./section-schema";
 
@@ -52,9 +53,33 @@ function inMetres(entry: DemoEntry): SectionInput {
   return out as SectionInput;
 }
 
+/**
+ * The rules the demo catalogue is built by: 1, the rules it was first published with. Its CSV's values and the
+ * seeded entries' hashes (which runs record) stay as they were; a firm's own catalogue takes the newest.
+ */
+const DEMO_RULES = 1;
+
 /** Every demo section with the builder's properties. */
 export function buildDemoCatalogue(): { designation: string; section: Section }[] {
-  return DEMO_SECTIONS.map((entry) => ({ designation: entry.designation, section: buildSectionOrThrow(inMetres(entry)) }));
+  return DEMO_SECTIONS.map((entry) => ({
+    designation: entry.designation,
+    section: buildSectionOrThrow(inMetres(entry), DEMO_RULES),
+  }));
+}
+
+/** The name the demo catalogue's rows cite as their file. */
+export const DEMO_CATALOGUE_FILE = "demo-catalogue.csv";
+
+/** The demo catalogue as the document a lead would submit: one entry per CSV row, its listed values kept. */
+export function demoSectionsDocument(): unknown {
+  const imported = importCatalogue(renderDemoCatalogueCsv(), DEMO_CATALOGUE_MAPPING, { rules: DEMO_RULES });
+  if (!imported.ok) throw new Error(`the demo catalogue does not import: ${imported.problems.map((p) => p.message).join("; ")}`);
+  return {
+    kind: "sections",
+    title: "Firm sections",
+    description: "The firm's section catalogue (invented demo designations), imported from its CSV table.",
+    entries: catalogueSectionEntries(imported.rows, DEMO_CATALOGUE_FILE),
+  };
 }
 
 /** How the demo's CSV is laid out: dimensions in mm, properties in the units tables print them in. */

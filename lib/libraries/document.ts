@@ -20,7 +20,7 @@ import canonicalize from "canonicalize";
 import { z } from "@/lib/domain/zod";
 import { normaliseEntryKey } from "@/lib/standards/library-inputs";
 import { LISTED_PROPERTY_UNITS, type CatalogueRow, type ListedProperty } from "./catalogue";
-import { buildSection, type Section } from "./sections";
+import { buildSection, SECTION_RULES, type Section } from "./sections";
 import { SECTION_SHAPES } from "./section-schema";
 
 export const LIBRARY_KINDS = ["sections", "materials", "combinations"] as const;
@@ -70,6 +70,17 @@ const sectionEntrySchema = z
       z.object({ from: z.literal("catalogue"), file: z.string().max(200), row: z.number().int().min(2) }).strict(),
     ]),
     shape: z.enum(SECTION_SHAPES),
+    /**
+     * The section builder's rules the properties follow (sections.ts); left out, rules 1 — what every entry was
+     * built by before the rules were numbered, so such an entry keeps its properties and its hash.
+     */
+    rules: z
+      .number()
+      .refine(
+        (n) => (SECTION_RULES as readonly number[]).includes(n),
+        `The section builder's rules are ${SECTION_RULES.join(" or ")}.`,
+      )
+      .optional(),
     /** Metres, as the builder takes them. */
     dimensions: z.record(z.string(), finite("dimension")),
     /** What the catalogue lists for the row, in SI units; empty for a section made in the builder. */
@@ -87,6 +98,8 @@ export function catalogueSectionEntries(rows: readonly CatalogueRow[], file: str
       key: designation,
       origin: { from: "catalogue", file, row },
       shape: section.shape,
+      // Rules 1 is what an entry without the field follows: only later rules are written.
+      ...(section.rules === 1 ? {} : { rules: section.rules }),
       dimensions: dimensions as Record<string, number>,
       listed,
     };
@@ -114,9 +127,12 @@ const positiveSourced = (what: string) =>
 /** The units a material's further values may be in: SI, so a run never converts. */
 export const MATERIAL_VALUE_UNITS = ["Pa", "kg/m³", "1/K", "1"] as const;
 /** A further value's symbol, written as a plain identifier: f_ck, f_m_k, E_0_05, rho_k. */
-const valueSymbol = z
+export const valueSymbol = z
   .string()
   .regex(/^[A-Za-z][A-Za-z0-9_]{0,23}$/, "A value's symbol is a short identifier: f_ck, f_m_k, E_0_05, rho_k…");
+
+/** A further value of a material: its value in SI units, the unit, and where it comes from. */
+export const furtherValueSchema = z.object({ value: finite("value"), unit: z.enum(MATERIAL_VALUE_UNITS), source }).strict();
 
 export const materialEntrySchema = z
   .object({
@@ -145,9 +161,7 @@ export const materialEntrySchema = z
      * Further values the family's design uses, by symbol: timber's characteristic strengths and 5 % modulus
      * (EN 338: f_m_k, f_c_0_k, E_0_05, rho_k), concrete's (EN 1992-1-1: f_ck, f_cm, f_ctm). SI units.
      */
-    values: z
-      .record(valueSymbol, z.object({ value: finite("value"), unit: z.enum(MATERIAL_VALUE_UNITS), source }).strict())
-      .default({}),
+    values: z.record(valueSymbol, furtherValueSchema).default({}),
     /** What the values mean for this family and where they hold (thickness range, grade, moisture class). */
     note: z.string().max(500).optional(),
   })
@@ -318,7 +332,7 @@ export function checkLibraryDocument(input: unknown): CheckedLibraryDocument {
   }
   const sections: SectionEntry[] = [];
   parsed.data.entries.forEach((entry, i) => {
-    const built = buildSection({ shape: entry.shape, ...entry.dimensions });
+    const built = buildSection({ shape: entry.shape, ...entry.dimensions }, (entry.rules ?? 1) as 1 | 2);
     if (!built.ok) {
       for (const p of built.problems)
         problems.push({ path: `entries.${i}.dimensions.${p.path}`, entry: entry.key, message: p.message });

@@ -7,7 +7,9 @@
 import { z } from "@/lib/domain/zod";
 import {
   combinationSetEntrySchema,
+  furtherValueSchema,
   materialEntrySchema,
+  valueSymbol,
   type CombinationSetEntry,
   type MATERIAL_FAMILIES,
   type MATERIAL_VALUE_UNITS,
@@ -97,8 +99,55 @@ export function materialOfForm(form: MaterialFormValues): Record<string, unknown
   return entry;
 }
 
+/**
+ * The entry's problems on the form's fields. The entry keeps further values by symbol, so its check names them
+ * `values.f_ck.value`; the form lists them as rows, so each is named on its row (`values.2.value`), where the
+ * field is. A symbol that is not an identifier is named on its row's symbol in the symbol's own words, and that
+ * row's value and source are checked as well (the record's check stops at the key); a symbol given on two rows
+ * (the entry would keep only the last) is named on the later row.
+ */
+function materialFormIssues(form: MaterialFormValues): { path: (string | number)[]; message: string }[] {
+  const parsed = materialEntrySchema.safeParse(materialOfForm(form));
+  const out: { path: (string | number)[]; message: string }[] = [];
+  const rows = form.values.map((row, index) => ({ index, symbol: row.symbol.trim(), row }));
+  for (const issue of parsed.success ? [] : parsed.error.issues) {
+    const [head, symbol, ...rest] = issue.path;
+    if (head !== "values" || typeof symbol !== "string") {
+      out.push({ path: issue.path.map((p) => (typeof p === "symbol" ? String(p) : p)), message: issue.message });
+      continue;
+    }
+    for (const { index } of rows.filter((r) => r.symbol === symbol)) {
+      if (issue.code === "invalid_key") {
+        const own = valueSymbol.safeParse(symbol);
+        out.push({ path: ["values", index, "symbol"], message: own.success ? issue.message : own.error.issues[0].message });
+        const value = furtherValueSchema.safeParse({
+          value: numberOf(rows[index].row.value),
+          unit: rows[index].row.unit,
+          source: rows[index].row.source,
+        });
+        for (const inner of value.success ? [] : value.error.issues)
+          out.push({ path: ["values", index, ...inner.path.map(String)], message: inner.message });
+      } else out.push({ path: ["values", index, ...rest.map(String)], message: issue.message });
+    }
+  }
+  const seen = new Set<string>();
+  for (const { index, symbol, row } of rows) {
+    if (symbol === "" && isBlank(row)) continue;
+    if (seen.has(symbol) && symbol !== "")
+      out.push({
+        path: ["values", index, "symbol"],
+        message: `The symbol ${symbol} is given twice: give each further value its own.`,
+      });
+    seen.add(symbol);
+  }
+  return out;
+}
+
 export const materialFormSchema = z
   .custom<MaterialFormValues>()
+  .superRefine((form, ctx) => {
+    for (const { path, message } of materialFormIssues(form)) ctx.addIssue({ code: "custom", path, message });
+  })
   .transform(materialOfForm)
   .pipe(materialEntrySchema) as unknown as z.ZodType<MaterialEntry, MaterialFormValues>;
 

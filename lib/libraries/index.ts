@@ -1,8 +1,16 @@
 // The firm's libraries, the pure part: the section builder, the catalogue import and the demo catalogue; the
 // library documents and the draft editor's forms for their materials and sets; a combination set's expansion into the
 // engine's combinations; what a model takes from a material.
-export { buildSection, buildSectionOrThrow, rectangleTorsion } from "./sections";
-export type { BuildSectionResult, Section, SectionProblem, SectionProperties, SectionPropertiesByShape } from "./sections";
+export { buildSection, buildSectionOrThrow, LATEST_SECTION_RULES, rectangleTorsion, SECTION_RULES } from "./sections";
+export type {
+  BuildSectionResult,
+  Section,
+  SectionProblem,
+  SectionProperties,
+  SectionPropertiesByShape,
+  SectionRules,
+} from "./sections";
+export { angleTorsionConstant, channelTorsionConstant, channelWarping, iTorsionConstant, iWarping } from "./section-torsion";
 export { DIMENSION_LABELS, SECTION_SHAPES, SHAPE_NAMES, sectionInputSchema } from "./section-schema";
 export type { DimensionKey, SectionDimensions, SectionInput, SectionShape } from "./section-schema";
 export { convertToSI, importCatalogue, LISTED_PROPERTY_UNITS, unitFactor } from "./catalogue";
@@ -17,7 +25,14 @@ export type {
   ListedProperty,
 } from "./catalogue";
 export { parseCsv } from "./csv";
-export { buildDemoCatalogue, DEMO_CATALOGUE_MAPPING, DEMO_SECTIONS, renderDemoCatalogueCsv } from "./demo-catalogue";
+export {
+  buildDemoCatalogue,
+  DEMO_CATALOGUE_FILE,
+  DEMO_CATALOGUE_MAPPING,
+  DEMO_SECTIONS,
+  demoSectionsDocument,
+  renderDemoCatalogueCsv,
+} from "./demo-catalogue";
 export {
   catalogueSectionEntries,
   checkLibraryDocument,

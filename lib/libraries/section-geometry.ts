@@ -10,6 +10,8 @@
  * of second moments to the centroid free of cancellation.
  */
 
+import { curvedBelow, curvedMoments, type CurvedPart } from "./section-curves";
+
 /** ∫dA, ∫x dA, ∫y dA, ∫x² dA, ∫y² dA, ∫xy dA over a region, about the section's origin. */
 export interface RawMoments {
   a: number;
@@ -22,6 +24,8 @@ export interface RawMoments {
 
 export type Part =
   | { kind: "rect"; sign: 1 | -1; x0: number; x1: number; y0: number; y1: number }
+  /** A polygon, or a fillet between faces at any angle (section-curves.ts): tapered flanges. */
+  | CurvedPart
   /** A spandrel of radius r whose square corner is at (cx, cy) and whose square lies towards (cx + sx·r, cy + sy·r). */
   | { kind: "spandrel"; sign: 1 | -1; cx: number; cy: number; sx: 1 | -1; sy: 1 | -1; r: number };
 
@@ -71,6 +75,7 @@ function spandrelBelowLocal(r: number, p: number): { a: number; q: number } {
 }
 
 export function momentsOf(part: Part): RawMoments {
+  if (part.kind === "poly" || part.kind === "fillet") return curvedMoments(part);
   if (part.kind === "rect") {
     const { x0, x1, y0, y1, sign } = part;
     const w = x1 - x0;
@@ -123,6 +128,7 @@ export type Axis = "x" | "y";
 
 /** Area and first moment (∫s dA, s the coordinate along `axis`) of the part of a region where s < c. */
 export function below(part: Part, axis: Axis, c: number): { a: number; q: number } {
+  if (part.kind === "poly" || part.kind === "fillet") return curvedBelow(part, axis, c);
   if (part.kind === "rect") {
     const [s0, s1, w] = axis === "x" ? [part.x0, part.x1, part.y1 - part.y0] : [part.y0, part.y1, part.x1 - part.x0];
     const top = Math.min(Math.max(c, s0), s1);
@@ -178,4 +184,29 @@ export function plasticModulus(
   }
   const b = belowAll(parts, axis, c);
   return { Z: q - b.q - c * (total.a - b.a) + (c * b.a - b.q), c };
+}
+
+/**
+ * An angle's outline where it can be farthest from an axis, relative to the centroid: its convex corners and
+ * the two toe arcs (centre and radius; each spans the quarter facing +x, +y). The root fillet lies inside
+ * the hull of these, so it is never an extreme fibre.
+ */
+export function angleOutline(b: number, d: number, t: number, r2: number, xc: number, yc: number) {
+  const at = (x: number, y: number): [number, number] => [x - xc, y - yc];
+  return {
+    points: [at(0, 0), at(b, 0), at(b, t - r2), at(b - r2, t), at(t, d - r2), at(t - r2, d), at(0, d)],
+    arcs: [at(b - r2, t - r2), at(t - r2, d - r2)].map((centre) => ({ centre, radius: r2 })),
+  };
+}
+
+/** The largest distance of the outline from the axis through the centroid whose normal is (nx, ny). */
+export function farthestFrom(outline: ReturnType<typeof angleOutline>, nx: number, ny: number): number {
+  let most = Math.max(...outline.points.map(([x, y]) => Math.abs(nx * x + ny * y)));
+  for (const { centre, radius } of outline.arcs) {
+    // Along ±n an arc reaches centre·n ± radius where ±n points into its quarter; otherwise an end (a point above) is farthest.
+    for (const sign of [1, -1]) {
+      if (sign * nx >= 0 && sign * ny >= 0) most = Math.max(most, Math.abs(nx * centre[0] + ny * centre[1] + sign * radius));
+    }
+  }
+  return most;
 }

@@ -19,10 +19,20 @@ export const SHAPE_NAMES: Record<SectionShape, string> = {
   angle: "an angle",
 };
 
+/** I sections and channels name their dimensions alike. */
+const FLANGED_LABELS = {
+  b: "flange width b",
+  d: "depth d",
+  tf: "flange thickness tf",
+  tw: "web thickness tw",
+  r: "root radius r",
+  taper: "inner flange slope taper",
+} as const;
+
 /** What each shape calls its dimensions, for the sentences (and the screens). */
 export const DIMENSION_LABELS = {
-  i: { b: "flange width b", d: "depth d", tf: "flange thickness tf", tw: "web thickness tw", r: "root radius r" },
-  channel: { b: "flange width b", d: "depth d", tf: "flange thickness tf", tw: "web thickness tw", r: "root radius r" },
+  i: FLANGED_LABELS,
+  channel: FLANGED_LABELS,
   "rectangular-hollow": { b: "width b", d: "depth d", t: "wall thickness t", ro: "outer corner radius ro" },
   "circular-hollow": { D: "outside diameter D", t: "wall thickness t" },
   rectangle: { b: "width b", d: "depth d" },
@@ -76,6 +86,31 @@ const exceeds = (value: number, limit: number) => value > limit * (1 + 1e-12);
 type Ctx = z.core.$RefinementCtx;
 const fail = (ctx: Ctx, path: string, message: string) => ctx.addIssue({ code: "custom", path: [path], message });
 
+/** Steepest flange slope accepted: 1 in 2 (27°), well past any rolled section's (1:6, 8°, 14 %). */
+export const STEEPEST_TAPER = 0.5;
+
+/**
+ * A flange's inner face may slope (a tapered flange): `taper` is the slope as a ratio, rise over run (0.14 for
+ * 14 %, 1/6 for 1:6, tan 8° for 8°), the flange thicker towards the web. Left out, the flanges are parallel and
+ * the section is exactly what it was before tapers were known; tf is then the mean flange thickness, measured
+ * half-way along the outstand from the web's face to the tip, as tables of tapered sections give it.
+ */
+function taper(label: string) {
+  return z
+    .number({ error: `The ${label} must be a finite number (a ratio: 0.14 for 14 %), or left out for parallel flanges.` })
+    .refine((v) => v >= 0, { error: (issue) => `The ${label} must not be negative (it is ${issue.input as number}).` })
+    .refine((v) => v <= STEEPEST_TAPER, {
+      error: (issue) =>
+        `The ${label} is ${issue.input as number}, steeper than 1 in 2: give it as a ratio (14 % is 0.14, 1:6 is 0.1667).`,
+    })
+    .optional();
+}
+
+/** How far along a fillet's faces it reaches from the corner when the flange's face slopes by `slope`: r tan(45° − θ/2). */
+export function filletReach(r: number, slope: number): number {
+  return r * Math.tan(Math.PI / 4 - Math.atan(slope) / 2);
+}
+
 /** I and channel sections share their dimensions; they differ in where the fillets and the web sit. */
 function flanged<S extends "i" | "channel">(shape: S) {
   const n = DIMENSION_LABELS[shape];
@@ -87,6 +122,7 @@ function flanged<S extends "i" | "channel">(shape: S) {
       tf: length(n.tf),
       tw: length(n.tw),
       r: radius(n.r),
+      taper: taper(n.taper),
     })
     .superRefine((s, ctx) => {
       if (2 * s.tf >= s.d) {
@@ -105,6 +141,11 @@ function flanged<S extends "i" | "channel">(shape: S) {
         );
         return;
       }
+      if (s.taper) {
+        // A slope out of range is named by its own check above.
+        if (s.taper > 0 && s.taper <= STEEPEST_TAPER) taperedFits(shape, { ...s, taper: s.taper }, ctx);
+        return;
+      }
       const outstand = shape === "i" ? (s.b - s.tw) / 2 : s.b - s.tw;
       if (exceeds(s.r, outstand)) {
         fail(
@@ -121,6 +162,37 @@ function flanged<S extends "i" | "channel">(shape: S) {
         );
       }
     });
+}
+
+/** A tapered flange's own limits: the tip keeps some thickness, the fillet fits the outstand and leaves a straight web. */
+function taperedFits(
+  shape: "i" | "channel",
+  s: { b: number; d: number; tf: number; tw: number; r: number; taper: number },
+  ctx: Ctx,
+) {
+  const outstand = shape === "i" ? (s.b - s.tw) / 2 : s.b - s.tw;
+  const change = (s.taper * outstand) / 2;
+  if (change >= s.tf) {
+    fail(
+      ctx,
+      "taper",
+      `The inner flange slope ${s.taper} thins the flange to nothing at its tip: over half the outstand (${mm(outstand / 2)}) it takes ${mm(change)}, more than tf = ${mm(s.tf)}.`,
+    );
+    return;
+  }
+  const root = s.tf + change;
+  const reach = filletReach(s.r, s.taper);
+  if (exceeds(reach * Math.cos(Math.atan(s.taper)), outstand)) {
+    fail(ctx, "r", `The root radius r = ${mm(s.r)} does not fit beside the web: its fillet reaches past the flange's tip.`);
+    return;
+  }
+  if (2 * (root + reach) >= s.d) {
+    fail(
+      ctx,
+      s.r > 0 ? "r" : "tf",
+      `The flanges and fillets leave no straight web: at the web they take 2 (tf + ${mm(change)} of slope${s.r > 0 ? " + fillet" : ""}) = ${mm(2 * (root + reach))} of the ${mm(s.d)} depth.`,
+    );
+  }
 }
 
 const n = DIMENSION_LABELS;

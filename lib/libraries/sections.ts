@@ -7,10 +7,17 @@
  * that splits the area in two equal halves (the equal-area axis, not the centroidal one, for a channel's
  * y axis and for both axes of an angle). r = √(I/A).
  *
- * Geometry assumed, as tables of rolled sections do: flanges of I sections and channels are parallel (no
- * taper); the root fillet is a quarter circle tangent to web and flange; flange tips are square. An angle's
+ * Geometry assumed, as tables of rolled sections do: flanges of I sections and channels are parallel unless a
+ * taper is given (the inner face's slope; section-tapered.ts, where tf is the mean thickness); the root fillet is a quarter circle tangent to web and flange; flange tips are square. An angle's
  * toes may be rounded (toe radius r2, a quarter circle at the inner edge of each leg's tip, as angle tables
  * draw them); the other shapes have none. Hollow sections have concentric corners: ri = max(ro − t, 0).
+ *
+ * Rules: the builder's conventions are numbered, and a library entry names the rules its properties follow,
+ * so an entry kept before a change of convention keeps its properties and its hash (runs record the hash).
+ * - rules 1 (an entry that names none): the properties below, with J as described.
+ * - rules 2 (the builder's own screen and every section added since): rules 1's, then a channel's and an
+ *   angle's J with El Darwish & Johnston's fillet corrections, and at the end of each shape's list the
+ *   shear centre (x0, y0; a channel's e0 too) and the warping constant Cw (section-torsion.ts says how).
  *
  * St Venant torsion constant J, convention by shape:
  * - circle and circular hollow: exact (J = 2I, the polar moment).
@@ -22,8 +29,9 @@
  * - I section, channel, angle: thin-walled open section, Σ b t³/3 over the plates (flanges full width,
  *   web clear between flanges; an angle's legs b and d − t). An I section with a root radius adds the
  *   fillet and flange-tip corrections of El Darwish & Johnston (1965), as used for the tables of SCI P363
- *   (from memory): J = (2/3) b tf³ + (1/3)(d − 2tf) tw³ + 2α₁D₁⁴ − 0.420 tf⁴; if that fit, made for rolled
- *   proportions, is not positive the plain sum is used. Channels and angles get no fillet correction.
+ *   (from memory; section-torsion.ts); if that fit, made for rolled proportions, is not positive the plain
+ *   sum is used. Under rules 1 channels and angles get no fillet correction; under rules 2 they get theirs.
+ *   With tapered flanges (either rules): ∫ t³/3 along each tapered plate, no fillet correction (section-tapered.ts).
  *
  * Slenderness ratios (width-to-thickness), as AISC 360-16 Table B4.1b defines them (from memory):
  * - I section: b_2tf = b/(2tf) (case 10, flanges of rolled I-shapes in flexure); h_tw = h/tw with h = d −
@@ -39,8 +47,25 @@
  * - channel: c_tf = (b − tw − r)/tf.
  * - angle: bd_2t = (b + d)/(2t) (sheet 3; with h/t, which is d_t or b_t).
  */
-import { centroidalOf, plasticModulus, rect, spandrel, type Part } from "./section-geometry";
+import { angleOutline, centroidalOf, farthestFrom, plasticModulus, rect, spandrel, type Part } from "./section-geometry";
 import { SECTION_SHAPES, sectionInputSchema, type SectionDimensions, type SectionShape } from "./section-schema";
+import {
+  angleTorsionConstant,
+  angleWarping,
+  CENTRED,
+  channelTorsionConstant,
+  channelWarping,
+  flangedPlainJ,
+  iTorsionConstant,
+  iWarping,
+  type Warping,
+} from "./section-torsion";
+import { taperedChannelParts, taperedClearDepth, taperedIParts, taperedJ } from "./section-tapered";
+
+/** The builder's rules, numbered (see above); the newest is what the builder's screen and new sections use. */
+export const SECTION_RULES = [1, 2] as const;
+export type SectionRules = (typeof SECTION_RULES)[number];
+export const LATEST_SECTION_RULES: SectionRules = 2;
 
 interface Common {
   A: number;
@@ -55,15 +80,21 @@ interface Common {
   J: number;
 }
 
+/** Rules 2's additions, last in every shape's list: the shear centre from the centroid (m) and Cw (m⁶). */
+type Added = Partial<Warping>;
+
 /** Properties by shape, each in a fixed key order (the object is hashed as it is). */
 export interface SectionPropertiesByShape {
-  i: Common & { b_2tf: number; h_tw: number; c_tf: number };
-  /** xc: centroid from the back of the web; xp: plastic neutral axis (y axis) from the back of the web. */
-  channel: Common & { xc: number; xp: number; b_tf: number; h_tw: number; c_tf: number };
-  "rectangular-hollow": Common & { b_t: number; h_t: number };
-  "circular-hollow": Common & { D_t: number };
-  rectangle: Common;
-  circle: Common;
+  i: Common & { b_2tf: number; h_tw: number; c_tf: number } & Added;
+  /**
+   * xc: centroid from the back of the web; xp: plastic neutral axis (y axis) from the back of the web; e0
+   * (rules 2): the shear centre from the web's mid-line, on the side away from the flanges.
+   */
+  channel: Common & { xc: number; xp: number; b_tf: number; h_tw: number; c_tf: number; e0?: number } & Added;
+  "rectangular-hollow": Common & { b_t: number; h_t: number } & Added;
+  "circular-hollow": Common & { D_t: number } & Added;
+  rectangle: Common & Added;
+  circle: Common & Added;
   /**
    * Geometric axes x ∥ leg b and y ∥ leg d; xc, yc the centroid from the heel (the outside corner); Ixy the
    * product of inertia; u, v the principal axes (Iu ≥ Iv), alpha the angle from x to u (radians,
@@ -84,13 +115,15 @@ export interface SectionPropertiesByShape {
     b_t: number;
     d_t: number;
     bd_2t: number;
-  };
+  } & Added;
 }
 export type SectionProperties = SectionPropertiesByShape[SectionShape];
 
 export type Section = {
   [S in SectionShape]: {
     shape: S;
+    /** The rules the properties follow (not part of a library entry's properties). */
+    rules: SectionRules;
     dimensions: Extract<SectionDimensions, { shape: S }>;
     properties: SectionPropertiesByShape[S];
   };
@@ -104,8 +137,11 @@ export interface SectionProblem {
 
 export type BuildSectionResult = { ok: true; section: Section } | { ok: false; problems: SectionProblem[] };
 
-/** Builds a section from its shape and dimensions (metres), or says what is wrong with them. Never throws. */
-export function buildSection(input: unknown): BuildSectionResult {
+/**
+ * Builds a section from its shape and dimensions (metres) by the rules named (the newest unless named), or says
+ * what is wrong with them. Never throws.
+ */
+export function buildSection(input: unknown, rules: SectionRules = LATEST_SECTION_RULES): BuildSectionResult {
   const shape = (input as { shape?: unknown } | null)?.shape;
   if (typeof shape !== "string" || !(SECTION_SHAPES as readonly string[]).includes(shape)) {
     return { ok: false, problems: [{ path: "shape", message: `Choose the shape: one of ${SECTION_SHAPES.join(", ")}.` }] };
@@ -117,38 +153,68 @@ export function buildSection(input: unknown): BuildSectionResult {
       problems: parsed.error.issues.map((i) => ({ path: i.path.map(String).join(".") || "shape", message: i.message })),
     };
   }
-  const section = propertiesOf(parsed.data);
+  if (!(SECTION_RULES as readonly unknown[]).includes(rules))
+    return {
+      ok: false,
+      problems: [{ path: "rules", message: `The section builder's rules are ${SECTION_RULES.join(" or ")}.` }],
+    };
+  const section = propertiesOf(parsed.data, rules);
   const bad = Object.entries(section.properties).find(([, v]) => !Number.isFinite(v));
   // The schema keeps every input inside the shapes' ranges; this guard only keeps a NaN from ever leaving.
   if (bad) return { ok: false, problems: [{ path: bad[0], message: `The ${bad[0]} of this section could not be computed.` }] };
   return { ok: true, section };
 }
 
-export function buildSectionOrThrow(input: unknown): Section {
-  const out = buildSection(input);
+export function buildSectionOrThrow(input: unknown, rules: SectionRules = LATEST_SECTION_RULES): Section {
+  const out = buildSection(input, rules);
   if (!out.ok) throw new Error(out.problems.map((p) => p.message).join(" "));
   return out.section;
 }
 
-function propertiesOf(dims: SectionDimensions): Section {
+function propertiesOf(dims: SectionDimensions, rules: SectionRules): Section {
+  const first = firstProperties(dims);
+  // Rules 2: J replaced where its convention changed (the key keeps its place) and the additions appended, so
+  // rules 1's keys are always a prefix of rules 2's, in the same order.
+  const properties: SectionProperties = rules === 1 ? first : { ...first, ...laterProperties(dims, first) };
+  return { shape: dims.shape, rules, dimensions: dims, properties } as Section;
+}
+
+function firstProperties(dims: SectionDimensions): SectionProperties {
   switch (dims.shape) {
     case "i":
-      return { shape: "i", dimensions: dims, properties: iSection(dims) };
+      return iSection(dims);
     case "channel":
-      return { shape: "channel", dimensions: dims, properties: channel(dims) };
+      return channel(dims);
     case "rectangular-hollow":
-      return { shape: "rectangular-hollow", dimensions: dims, properties: rectangularHollow(dims) };
+      return rectangularHollow(dims);
     case "circular-hollow":
-      return { shape: "circular-hollow", dimensions: dims, properties: circularHollow(dims) };
+      return circularHollow(dims);
     case "rectangle":
-      return { shape: "rectangle", dimensions: dims, properties: solidRectangle(dims) };
+      return solidRectangle(dims);
     case "circle":
-      return { shape: "circle", dimensions: dims, properties: solidCircle(dims) };
+      return solidCircle(dims);
     case "angle":
-      return { shape: "angle", dimensions: dims, properties: angle(dims) };
+      return angle(dims);
   }
 }
 
+function laterProperties(dims: SectionDimensions, first: SectionProperties): Partial<SectionProperties> {
+  switch (dims.shape) {
+    case "i":
+      return iWarping(first.Iy, dims.d, dims.tf);
+    case "channel": {
+      // A tapered channel keeps its thin-walled J: the fillet correction is fitted to parallel flanges.
+      const J = dims.taper ? first.J : channelTorsionConstant(dims);
+      return { J, ...channelWarping(dims, (first as SectionPropertiesByShape["channel"]).xc) };
+    }
+    case "angle": {
+      const { xc, yc } = first as SectionPropertiesByShape["angle"];
+      return { J: angleTorsionConstant(dims), ...angleWarping(dims.t, xc, yc) };
+    }
+    default:
+      return CENTRED;
+  }
+}
 type Dims<S extends SectionShape> = Extract<SectionDimensions, { shape: S }>;
 
 function common(p: { A: number; Ix: number; Iy: number; Sx: number; Sy: number; Zx: number; Zy: number; J: number }): Common {
@@ -182,22 +248,24 @@ function doublySymmetric(parts: readonly Part[], b: number, d: number, J: number
 }
 
 /** Origin at the centre; flanges full width, web between them, four root fillets. */
-function iSection({ b, d, tf, tw, r }: Dims<"i">): SectionPropertiesByShape["i"] {
+function iSection({ b, d, tf, tw, r, taper }: Dims<"i">): SectionPropertiesByShape["i"] {
+  // A taper left out (or zero) takes exactly the parallel-flange path below, so such a section is what it always was.
+  if (taper) {
+    const tapered = { b, d, tf, tw, r, taper };
+    return {
+      ...doublySymmetric(taperedIParts(tapered), b, d, taperedJ("i", tapered)),
+      b_2tf: b / (2 * tf),
+      h_tw: taperedClearDepth("i", tapered) / tw,
+      c_tf: (b - tw - 2 * r) / (2 * tf),
+    };
+  }
   const yi = d / 2 - tf;
   const parts: Part[] = [rect(-b / 2, b / 2, yi, d / 2), rect(-b / 2, b / 2, -d / 2, -yi), rect(-tw / 2, tw / 2, -yi, yi)];
   if (r > 0)
     for (const sx of [1, -1] as const)
       for (const sy of [1, -1] as const) parts.push(spandrel((sx * tw) / 2, sy * yi, sx, -sy as 1 | -1, r));
-  const plain = (2 * b * tf ** 3 + (d - 2 * tf) * tw ** 3) / 3;
-  let J = plain;
-  if (r > 0) {
-    const alpha1 = -0.042 + (0.2204 * tw) / tf + (0.1355 * r) / tf - (0.0865 * r * tw) / tf ** 2 - (0.0725 * tw ** 2) / tf ** 2;
-    const D1 = ((tf + r) ** 2 + tw * (r + tw / 4)) / (2 * r + tf);
-    const corrected = plain + 2 * alpha1 * D1 ** 4 - 0.42 * tf ** 4;
-    if (corrected > 0) J = corrected;
-  }
   return {
-    ...doublySymmetric(parts, b, d, J),
+    ...doublySymmetric(parts, b, d, iTorsionConstant({ b, d, tf, tw, r })),
     b_2tf: b / (2 * tf),
     h_tw: (d - 2 * tf - 2 * r) / tw,
     c_tf: (b - tw - 2 * r) / (2 * tf),
@@ -205,10 +273,14 @@ function iSection({ b, d, tf, tw, r }: Dims<"i">): SectionPropertiesByShape["i"]
 }
 
 /** Origin at the back of the web, mid-depth; flanges point towards +x. */
-function channel({ b, d, tf, tw, r }: Dims<"channel">): SectionPropertiesByShape["channel"] {
+function channel({ b, d, tf, tw, r, taper }: Dims<"channel">): SectionPropertiesByShape["channel"] {
   const yi = d / 2 - tf;
-  const parts: Part[] = [rect(0, b, yi, d / 2), rect(0, b, -d / 2, -yi), rect(0, tw, -yi, yi)];
-  if (r > 0) parts.push(spandrel(tw, yi, 1, -1, r), spandrel(tw, -yi, 1, 1, r));
+  const tapered = taper ? { b, d, tf, tw, r, taper } : null;
+  // A taper left out (or zero) builds exactly the parallel-flange parts, so such a section is what it always was.
+  const parts: Part[] = tapered
+    ? taperedChannelParts(tapered)
+    : [rect(0, b, yi, d / 2), rect(0, b, -d / 2, -yi), rect(0, tw, -yi, yi)];
+  if (r > 0 && !tapered) parts.push(spandrel(tw, yi, 1, -1, r), spandrel(tw, -yi, 1, 1, r));
   const g = centroidalOf(parts);
   const zy = plasticModulus(parts, "x", { lo: 0, hi: b });
   return {
@@ -220,12 +292,12 @@ function channel({ b, d, tf, tw, r }: Dims<"channel">): SectionPropertiesByShape
       Sy: g.Iy / Math.max(g.xc, b - g.xc),
       Zx: plasticModulus(parts, "y", { lo: -d / 2, hi: d / 2, symmetricAt: 0 }).Z,
       Zy: zy.Z,
-      J: (2 * b * tf ** 3 + (d - 2 * tf) * tw ** 3) / 3,
+      J: tapered ? taperedJ("channel", tapered) : flangedPlainJ({ b, d, tf, tw, r }),
     }),
     xc: g.xc,
     xp: zy.c,
     b_tf: b / tf,
-    h_tw: (d - 2 * tf - 2 * r) / tw,
+    h_tw: (tapered ? taperedClearDepth("channel", tapered) : d - 2 * tf - 2 * r) / tw,
     c_tf: (b - tw - r) / tf,
   };
 }
@@ -335,29 +407,4 @@ function angle({ b, d, t, r, r2 }: Dims<"angle">): SectionPropertiesByShape["ang
     d_t: d / t,
     bd_2t: (b + d) / (2 * t),
   };
-}
-
-/**
- * An angle's outline where it can be farthest from an axis, relative to the centroid: its convex corners and
- * the two toe arcs (centre and radius; each spans the quarter facing +x, +y). The root fillet lies inside
- * the hull of these, so it is never an extreme fibre.
- */
-function angleOutline(b: number, d: number, t: number, r2: number, xc: number, yc: number) {
-  const at = (x: number, y: number): [number, number] => [x - xc, y - yc];
-  return {
-    points: [at(0, 0), at(b, 0), at(b, t - r2), at(b - r2, t), at(t, d - r2), at(t - r2, d), at(0, d)],
-    arcs: [at(b - r2, t - r2), at(t - r2, d - r2)].map((centre) => ({ centre, radius: r2 })),
-  };
-}
-
-/** The largest distance of the outline from the axis through the centroid whose normal is (nx, ny). */
-function farthestFrom(outline: ReturnType<typeof angleOutline>, nx: number, ny: number): number {
-  let most = Math.max(...outline.points.map(([x, y]) => Math.abs(nx * x + ny * y)));
-  for (const { centre, radius } of outline.arcs) {
-    // Along ±n an arc reaches centre·n ± radius where ±n points into its quarter; otherwise an end (a point above) is farthest.
-    for (const sign of [1, -1]) {
-      if (sign * nx >= 0 && sign * ny >= 0) most = Math.max(most, Math.abs(nx * centre[0] + ny * centre[1] + sign * radius));
-    }
-  }
-  return most;
 }

@@ -7,26 +7,14 @@ import { count, eq } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
 import * as schema from "@/db/schema";
 import { DEMO_USERS } from "@/db/demo-users";
-import { catalogueSectionEntries, DEMO_CATALOGUE_MAPPING, importCatalogue, renderDemoCatalogueCsv } from "@/lib/libraries";
+import { demoSectionsDocument } from "@/lib/libraries";
 import { checkLibraryDraftDocument, type LibraryCheck } from "@/lib/use-cases/library-check";
 import { startingLibraries } from "./starting-libraries";
 
 export type LibrariesSeedResult = { seeded: false; reason: string } | { seeded: true; libraries: number; entries: number };
 
-/** The name the demo catalogue's rows cite as their file. */
-export const DEMO_CATALOGUE_FILE = "demo-catalogue.csv";
-
-/** The demo catalogue as the document a lead would submit: one entry per CSV row, its listed values kept. */
-export function demoSectionsDocument(): unknown {
-  const imported = importCatalogue(renderDemoCatalogueCsv(), DEMO_CATALOGUE_MAPPING);
-  if (!imported.ok) throw new Error(`the demo catalogue does not import: ${imported.problems.map((p) => p.message).join("; ")}`);
-  return {
-    kind: "sections",
-    title: "Firm sections",
-    description: "The firm's section catalogue (invented demo designations), imported from its CSV table.",
-    entries: catalogueSectionEntries(imported.rows, DEMO_CATALOGUE_FILE),
-  };
-}
+// Kept in lib/libraries so that tests with no database can hash what the seed publishes.
+export { DEMO_CATALOGUE_FILE, demoSectionsDocument } from "@/lib/libraries";
 
 type Starting = { slug: string; document: unknown; check: LibraryCheck };
 

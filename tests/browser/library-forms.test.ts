@@ -1,5 +1,6 @@
 // The library draft editor's forms, in Chromium: a lead adds a material to a draft of the starting materials and sees
-// each problem beside its field as they type (a source not named, a negative modulus, fu below fy), fixes them, saves,
+// each problem beside its field as they type (a source not named, a negative modulus, fu below fy, a further value's
+// symbol, value and source on its own row), fixes them, saves,
 // and the saved entry opens again in the form in MPa; in a draft of the load-combination sets, a factor of zero is
 // named beside that factor. Both drafts are discarded at the end. The values are invented; the rules are the
 // library's own (lib/libraries/document.ts).
@@ -62,6 +63,23 @@ it(
     await entry.getByTestId("material-fy-value").fill("355");
     for (const value of ["E", "G", "density", "fy", "fu"])
       await entry.getByTestId(`material-${value}-source`).fill("Invented for the test, not from a standard");
+
+    // A further value: each problem beside its own field on the row, not only under the entry.
+    await entry.getByRole("button", { name: "Add a further value" }).click();
+    await entry.getByTestId("material-value-0-symbol").fill("f c");
+    await entry.getByTestId("material-value-0-value").fill("abc");
+    await expect
+      .poll(() => errorOf("material-value-0-symbol-error").textContent())
+      .toBe("A value's symbol is a short identifier: f_ck, f_m_k, E_0_05, rho_k…");
+    expect(await errorOf("material-value-0-value-error").textContent()).toBe("The value must be a finite number.");
+    expect(await errorOf("material-value-0-source-error").textContent()).toBe(
+      "Name the standard or source this value comes from (title, edition, clause).",
+    );
+    await entry.getByTestId("material-value-0-symbol").fill("f_x");
+    await entry.getByTestId("material-value-0-value").fill("2000000");
+    await entry.getByTestId("material-value-0-source").fill("Invented for the test, not from a standard");
+    await expect.poll(() => errorOf("material-value-0-symbol-error").count()).toBe(0);
+    expect(await errorOf("material-value-0-value-error").count()).toBe(0);
     await expect.poll(() => entry.locator("[role=alert]").count()).toBe(0);
     expect(await entry.getByTestId("draft-entry-problem").count()).toBe(0);
     expect(await page.getByTestId("draft-problem-count").count()).toBe(0);

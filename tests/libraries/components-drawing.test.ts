@@ -142,3 +142,25 @@ describe("the section drawing", () => {
     expect(scene.viewBox.height).toBeLessThan(BOX.height / 2);
   });
 });
+
+describe("a tapered flange", () => {
+  it.each(["i", "channel"] as const)(
+    "%s with a 14 %% slope: the outline's corners where the slope puts them, named in its accessible name",
+    (shape) => {
+      const dims = { b: 0.09, d: 0.2, tf: 0.0113, tw: 0.0075, r: 0.0075, taper: 0.14 };
+      const section = buildSectionOrThrow({ shape, ...dims });
+      const html = draw(section);
+      expect(html).not.toMatch(/NaN|undefined|Infinity/);
+      expect(html).toMatch(/aria-label="[^"]*, inner flange slope 14 %"/);
+      // The flange's tip is tf − slope × outstand/2 thick: its inner corner sits that far below the top, to scale.
+      const scene = layoutSection(section);
+      const points = pointsOf(outlineOf(html));
+      const outstand = shape === "i" ? (dims.b - dims.tw) / 2 : dims.b - dims.tw;
+      const tip = (dims.tf - (0.14 * outstand) / 2) * 1000 * scene.scale;
+      const right = Math.max(...points.map(([x]) => x));
+      const top = Math.min(...points.map(([, y]) => y));
+      const atTip = points.filter(([x]) => Math.abs(x - right) < 0.01).map(([, y]) => y - top);
+      close(Math.min(...atTip.filter((y) => y > 0.01)), tip, 0.01);
+    },
+  );
+});

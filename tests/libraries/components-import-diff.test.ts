@@ -47,7 +47,11 @@ describe("the import preview", () => {
   const broken = plant(differing, "GC 150x75x10", "tf", () => "ten");
   const preview = (file: string) =>
     renderToStaticMarkup(
-      createElement(ImportPreview, { result: importCatalogue(file, DEMO_CATALOGUE_MAPPING), fileName: "steel.csv" }),
+      // Read by the rules the demo file was written by (1): under rules 2 its channels' and angles' J differ.
+      createElement(ImportPreview, {
+        result: importCatalogue(file, DEMO_CATALOGUE_MAPPING, { rules: 1 }),
+        fileName: "steel.csv",
+      }),
     );
 
   it("a planted problem: listed with its row and column, and nothing is imported until it is fixed", () => {

@@ -52,6 +52,52 @@ describe("material form", () => {
   });
 });
 
+describe("material form: further values", () => {
+  const c24 = () => materialFormValues(byKind("materials").entries.find((entry) => entry.key === "C24")!);
+  type Row = ReturnType<typeof c24>["values"][number];
+  const withRows = (...rows: Row[]) => {
+    const values = c24();
+    return { ...values, values: [...values.values, ...rows] };
+  };
+  const source = "Invented for the test, not from a standard";
+
+  it("names each problem on its row's field, by the row's place in the list (where the form draws it)", () => {
+    const form = withRows({ symbol: "f_x", value: "abc", unit: "Pa", source: "" });
+    const row = form.values.length - 1;
+    expect(issuesOf(materialFormSchema.safeParse(form))).toEqual([
+      [`values.${row}.value`, "The value must be a finite number."],
+      [`values.${row}.source`, "Name the standard or source this value comes from (title, edition, clause)."],
+    ]);
+  });
+
+  it("a symbol that is not an identifier is named on the symbol in its own words, and its row's value and source are still checked", () => {
+    const form = withRows({ symbol: "f c", value: "", unit: "Pa", source: "" });
+    const row = form.values.length - 1;
+    expect(issuesOf(materialFormSchema.safeParse(form))).toEqual([
+      [`values.${row}.symbol`, "A value's symbol is a short identifier: f_ck, f_m_k, E_0_05, rho_k…"],
+      [`values.${row}.value`, "The value must be a finite number."],
+      [`values.${row}.source`, "Name the standard or source this value comes from (title, edition, clause)."],
+    ]);
+    const blank = withRows({ symbol: "", value: "5", unit: "Pa", source });
+    expect(issuesOf(materialFormSchema.safeParse(blank))).toEqual([
+      [`values.${blank.values.length - 1}.symbol`, "A value's symbol is a short identifier: f_ck, f_m_k, E_0_05, rho_k…"],
+    ]);
+  });
+
+  it("a symbol given on two rows is named on the later one (the entry would keep only the last)", () => {
+    const first = c24().values[0];
+    const form = withRows({ ...first, value: "1" });
+    expect(issuesOf(materialFormSchema.safeParse(form))).toEqual([
+      [`values.${form.values.length - 1}.symbol`, `The symbol ${first.symbol} is given twice: give each further value its own.`],
+    ]);
+  });
+
+  it("a blank row is left out, and a right one goes into the entry", () => {
+    const form = withRows({ symbol: "", value: "", unit: "Pa", source: "" }, { symbol: "f_x", value: "2e6", unit: "Pa", source });
+    expect(materialFormSchema.parse(form).values.f_x).toEqual({ value: 2e6, unit: "Pa", source });
+  });
+});
+
 describe("load-combination set form", () => {
   it("takes every starting set to the form and back unchanged", async () => {
     for (const entry of byKind("combinations").entries) {

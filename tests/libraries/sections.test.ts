@@ -461,9 +461,9 @@ describe("every shape against its strips (an independent integration), on random
 });
 
 describe("results as data", () => {
-  it("keys come in one fixed order per shape, and the same input gives the same JSON", () => {
+  it("keys come in one fixed order per shape, and the same input gives the same JSON (rules 1)", () => {
     const input = { shape: "channel", b: 0.09, d: 0.3, tf: 0.0155, tw: 0.009, r: 0.012 };
-    const a = buildSectionOrThrow(input);
+    const a = buildSectionOrThrow(input, 1);
     expect(Object.keys(a.properties)).toEqual([
       "A",
       "Ix",
@@ -482,10 +482,10 @@ describe("results as data", () => {
       "c_tf",
     ]);
     expect(Object.keys(a.dimensions)).toEqual(["shape", "b", "d", "tf", "tw", "r"]);
-    expect(JSON.stringify(buildSectionOrThrow({ r: 0.012, tw: 0.009, tf: 0.0155, d: 0.3, b: 0.09, shape: "channel" }))).toBe(
+    expect(JSON.stringify(buildSectionOrThrow({ r: 0.012, tw: 0.009, tf: 0.0155, d: 0.3, b: 0.09, shape: "channel" }, 1))).toBe(
       JSON.stringify(a),
     );
-    const angle = buildSectionOrThrow({ shape: "angle", b: 0.1, d: 0.1, t: 0.01 });
+    const angle = buildSectionOrThrow({ shape: "angle", b: 0.1, d: 0.1, t: 0.01 }, 1);
     expect(Object.keys(angle.properties)).toEqual([
       ...["A", "Ix", "Iy", "Sx", "Sy", "Zx", "Zy", "rx", "ry", "J"],
       ...["xc", "yc", "Ixy", "Iu", "Iv", "alpha", "Su", "Sv", "ru", "rv", "b_t", "d_t", "bd_2t"],

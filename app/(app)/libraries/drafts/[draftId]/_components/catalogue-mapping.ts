@@ -21,7 +21,8 @@ export const PROPERTY_KEYS = Object.keys(LISTED_PROPERTY_UNITS) as ListedPropert
 const STARTING_UNIT: Record<string, string> = { m: "mm", "m^2": "mm²", "m^3": "mm³", "m^4": "mm⁴", rad: "deg", "": "" };
 
 export function startingUnit(role: ColumnRole): string {
-  if (role.startsWith("dimension:")) return "mm";
+  // A taper is a slope (a ratio); every other dimension a length.
+  if (role.startsWith("dimension:")) return role === "dimension:taper" ? "" : "mm";
   if (role.startsWith("property:")) return STARTING_UNIT[LISTED_PROPERTY_UNITS[role.slice(9) as ListedProperty]] ?? "";
   return "";
 }

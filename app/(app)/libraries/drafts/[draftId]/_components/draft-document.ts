@@ -9,6 +9,8 @@ export type DraftSection = {
   key: string;
   origin: { from: "builder" } | { from: "catalogue"; file: string; row: number };
   shape: SectionShape;
+  /** The section builder's rules its properties follow; left out, rules 1. */
+  rules?: number;
   /** Metres. */
   dimensions: Record<string, number>;
   listed?: Record<string, number>;

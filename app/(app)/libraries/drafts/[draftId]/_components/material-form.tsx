@@ -62,21 +62,26 @@ export function MaterialForm({ entry, onChange }: { entry: unknown; onChange: (e
       <fieldset className="space-y-3">
         <legend className="text-sm font-medium text-ink-700">Further values by symbol (f_ck, f_m_k…), in SI units</legend>
         {further.fields.map((field, i) => {
+          // Problems are named on the row (values.2.value), where the field is: the form's schema puts them there.
           const symbol = field.symbol;
+          const at = (part: string) => ({
+            error: errorAt(errors, `values.${i}.${part}`),
+            errorTestId: `material-value-${i}-${part}-error`,
+            "data-testid": `material-value-${i}-${part}`,
+          });
           return (
-            <div key={field.id} className="grid items-end gap-3 sm:grid-cols-[8rem_minmax(0,1fr)_6rem_minmax(0,2fr)_auto]">
-              <TextField label="Symbol" error={errorAt(errors, `values.${symbol}`)} {...fieldOf(`values.${i}.symbol`)} />
-              <TextField
-                label="Value"
-                inputMode="decimal"
-                error={errorAt(errors, `values.${symbol}.value`)}
-                {...fieldOf(`values.${i}.value`)}
-              />
-              <SelectField label="Unit" {...fieldOf(`values.${i}.unit`)}>
+            <div
+              key={field.id}
+              className="grid items-start gap-3 sm:grid-cols-[8rem_minmax(0,1fr)_6rem_minmax(0,2fr)_auto]"
+              data-testid="material-further-value"
+            >
+              <TextField label="Symbol" {...at("symbol")} {...fieldOf(`values.${i}.symbol`)} />
+              <TextField label="Value" inputMode="decimal" {...at("value")} {...fieldOf(`values.${i}.value`)} />
+              <SelectField label="Unit" {...at("unit")} {...fieldOf(`values.${i}.unit`)}>
                 <PlainOptions values={MATERIAL_VALUE_UNITS} />
               </SelectField>
-              <TextField label="Source" error={errorAt(errors, `values.${symbol}.source`)} {...fieldOf(`values.${i}.source`)} />
-              <Button type="button" variant="quiet" size="sm" onClick={() => further.remove(i)}>
+              <TextField label="Source" {...at("source")} {...fieldOf(`values.${i}.source`)} />
+              <Button type="button" variant="quiet" size="sm" className="sm:mt-6" onClick={() => further.remove(i)}>
                 Remove {symbol || "value"}
               </Button>
             </div>

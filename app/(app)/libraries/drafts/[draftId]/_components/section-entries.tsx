@@ -111,6 +111,8 @@ export function AddSection({ draftKeys, onAdd }: { draftKeys: string[]; onAdd: (
               key: name,
               origin: { from: "builder" },
               shape: section.shape,
+              // The builder's newest rules; an entry already in the library keeps the rules it was built by.
+              ...(section.rules === 1 ? {} : { rules: section.rules }),
               dimensions: dimensions as Record<string, number>,
             });
             setAdded(name);

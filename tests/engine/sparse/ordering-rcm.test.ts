@@ -165,6 +165,58 @@ describe("orderReverseCuthillMcKee", () => {
     expect(Array.from(orderReverseCuthillMcKee(g))).toEqual([2, 6, 1, 0, 5, 3, 4]);
   });
 
+  it("gives the order worked by hand for a graph where the choice in the deepest level decides the start", () => {
+    // Degrees 0:3, 1:2, 2:4, 3:2, 4:3, 5:2, 6:2, 7:2; neighbours in ascending number, ties to the first met (by hand):
+    // - from 0: levels {0}, {2, 4, 6}, {1, 3, 7, 5}; all of degree 2, so 1 (eccentricity 2);
+    // - from 1: levels {1}, {2, 7}, {0, 3, 4}, {6, 5}; eccentricity 3 > 2, start 1, next try 6 (first of degree 2);
+    // - from 6: levels {6}, {0, 5}, {2, 4, 3}, {1, 7}; eccentricity 3: stop, start from 1;
+    // - Cuthill–McKee from 1: 1; its new neighbours 7, 2 by degree; 7's new 4; 2's new 3, 0 by degree; 3's new 5;
+    //   0's new 6: 1, 7, 2, 4, 3, 0, 5, 6; reversed below. (Had the search from 1 met 5 before 6 in its deepest level,
+    //   it would have gone on from 5, whose eccentricity is 4.)
+    const g = graphOf(8, [
+      [0, 2],
+      [0, 4],
+      [0, 6],
+      [1, 2],
+      [1, 7],
+      [2, 3],
+      [2, 4],
+      [3, 5],
+      [4, 7],
+      [5, 6],
+    ]);
+    expect(Array.from(orderReverseCuthillMcKee(g))).toEqual([6, 5, 0, 3, 4, 2, 7, 1]);
+  });
+
+  it("stops the search for a peripheral vertex after eight restarts", () => {
+    // A cycle of 80 with 12 hanging paths: path k (3 + k vertices) hangs from position 42k mod 80, and vertex 0 sits
+    // at position 40. From the end of path k the farthest vertex is the end of path k + 1, at (3 + k) + 38 + (4 + k)
+    // (the two positions are 38 apart round the cycle; every other end is nearer, by hand), so each restart adds 2
+    // to the eccentricity and the search would walk on to path 10. From vertex 0 the farthest is the end of path 0
+    // (40 + 3). The search restarts at most eight times (ordering-rcm.ts), from the ends of paths 0 to 7, so
+    // Cuthill–McKee starts from the end of path 7, which the reverse numbers last.
+    const edges: [number, number][] = [];
+    const atPosition = (p: number) => (p + 40) % 80;
+    for (let p = 0; p < 80; p++) edges.push([atPosition(p), atPosition(p + 1)]);
+    const ends: number[] = [];
+    let next = 80;
+    for (let k = 0; k < 12; k++) {
+      let previous = atPosition((42 * k) % 80);
+      for (let step = 0; step < 3 + k; step++) {
+        edges.push([previous, next]);
+        previous = next++;
+      }
+      ends.push(previous);
+    }
+    const g = graphOf(next, edges);
+    const perm = orderReverseCuthillMcKee(g);
+    expectCuthillMcKee(g, perm);
+    expect(perm[g.n - 1]).toBe(ends[7]);
+    // The eccentricities along the way, by breadth-first search: 43 from vertex 0, then 45, 47, … from the ends.
+    expect(eccentricity(g, 0)).toBe(43);
+    for (let k = 0; k < 8; k++) expect(eccentricity(g, ends[k])).toBe(45 + 2 * k);
+  });
+
   it("orders the empty graph and a graph with no edges", () => {
     expect(orderReverseCuthillMcKee(graphOf(0, []))).toHaveLength(0);
     const g = graphOf(4, []);

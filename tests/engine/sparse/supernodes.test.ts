@@ -78,6 +78,16 @@ function checkStructure(a: SymmetricCsc, method: OrderingMethod, blockSize: numb
     if (parent[j] === j + 1 && count(j) === count(j + 1) + 1) expect(superOf[j + 1]).toBe(superOf[j]);
 }
 
+/** A chain 0–1–…–(length − 1) in natural order, equation 0 coupled to each of the `rows` equations after the chain. */
+function chainWithRows(length: number, rows: number): SymmetricCsc {
+  const n = length + rows;
+  const builder = new SymmetricTripletBuilder(n);
+  for (let j = 0; j < n; j++) builder.add(j, j, 100);
+  for (let j = 0; j + 1 < length; j++) builder.add(j + 1, j, -1);
+  for (let t = length; t < n; t++) builder.add(t, 0, -1);
+  return builder.toCsc();
+}
+
 /** Tridiagonal matrix of size n (a path), in its natural order. */
 function tridiagonal(n: number): SymmetricCsc {
   const builder = new SymmetricTripletBuilder(n);
@@ -105,6 +115,17 @@ describe("buildSupernodes", () => {
     checkStructure(tridiagonal(1), "natural", 1);
   });
 
+  it("grows its row buffer when the supernodes' rows outnumber twice C's entries (a chain that inherits 70 rows)", () => {
+    // Natural order: a chain 0–1–…–299, and equation 0 coupled to each of 300 … 369. Elimination gives every column
+    // of the chain the 70 rows 300 … 369, but C holds them once; the chain's supernodes stay narrow (their diagonal
+    // blocks are mostly zeros), so their rows add up to more than the 2·nnz(C) the buffer starts with.
+    const a = chainWithRows(300, 70);
+    const n = a.n;
+    const { structure } = analyzeSymbolic(a, computeOrdering(a, "natural"));
+    expect(structure.rowPtr[structure.count]).toBeGreaterThan(2 * a.colPtr[n]);
+    checkStructure(a, "natural", 1);
+  });
+
   it("merges a path's columns into supernodes of 16 from the top, by the relaxed amalgamation rule", () => {
     // Tridiagonal, natural order: column j of L has rows j and j + 1, so the fundamental supernodes are single
     // columns but for the last two. Merging c columns of such a chain into a group whose last row is its own
@@ -117,5 +138,19 @@ describe("buildSupernodes", () => {
     // Stored: m·c − c(c − 1)/2 for m rows and c columns: 9·8 − 28, 17·16 − 120, 16·16 − 120.
     expect(structure.storedL).toBe(44 + 152 + 136);
     checkStructure(tridiagonal(40), "natural", 1);
+  });
+
+  it("merges a chain that carries 100 rows below into groups of 23, and its top into the last 100 columns, by the relaxed rule", () => {
+    // Chain 0–…–299, equation 0 coupled to 300 … 399 (natural order). Column j < 299 of L has rows j, j + 1 and the 100,
+    // so 299 and 300 … 399 form one fundamental supernode of 101 columns and every other column is one on its own.
+    // Going down, the top group absorbs chain columns while its zero fraction k(k − 1) / ((101 + k)(102 + k)) stays
+    // under 0.05 (it is over 48 columns): 812/17030 at k = 29, 870/17292 at k = 30, so it starts at 270. Below, a group
+    // of c chain columns with 101 rows below stores c(c + 101) − c(c − 1)/2 entries of which c(c − 1)/2 are zeros:
+    // (c − 1)/(c + 203), 0.097 at c = 23 and 0.101 at c = 24, so groups of 23 while the 0.1 allowed up to 48 columns
+    // holds (CHOLMOD's defaults, from memory, as in supernodes.ts); 270 = 11 × 23 + 17. By hand.
+    const a = chainWithRows(300, 100);
+    const { structure } = analyzeSymbolic(a, computeOrdering(a, "natural"));
+    expect(Array.from(structure.superStart)).toEqual([0, 17, ...Array.from({ length: 11 }, (_, k) => 40 + 23 * k), 400]);
+    checkStructure(a, "natural", 1);
   });
 });

@@ -76,6 +76,28 @@ function grid(rows: number, cols: number, label: (k: number) => number): Adjacen
   return graphOf(rows * cols, edges);
 }
 
+/**
+ * A cycle of 80 with `count` hanging paths, numbered from `first`: path k (3 + k vertices) hangs from position 42k
+ * mod 80 and the cycle's vertex at position 40 is numbered `first`. Returns the edges, the paths' far ends and the
+ * next free number.
+ */
+function cycleWithPaths(count: number, first: number): { edges: [number, number][]; ends: number[]; next: number } {
+  const edges: [number, number][] = [];
+  const atPosition = (p: number) => first + ((p + 40) % 80);
+  for (let p = 0; p < 80; p++) edges.push([atPosition(p), atPosition(p + 1)]);
+  const ends: number[] = [];
+  let next = first + 80;
+  for (let k = 0; k < count; k++) {
+    let previous = atPosition((42 * k) % 80);
+    for (let step = 0; step < 3 + k; step++) {
+      edges.push([previous, next]);
+      previous = next++;
+    }
+    ends.push(previous);
+  }
+  return { edges, ends, next };
+}
+
 describe("orderReverseCuthillMcKee", () => {
   it("reads backwards as a breadth-first search taking new neighbours in increasing degree (random graphs, some disconnected)", () => {
     const random = createRandom(31);
@@ -195,19 +217,7 @@ describe("orderReverseCuthillMcKee", () => {
     // to the eccentricity and the search would walk on to path 10. From vertex 0 the farthest is the end of path 0
     // (40 + 3). The search restarts at most eight times (ordering-rcm.ts), from the ends of paths 0 to 7, so
     // Cuthill–McKee starts from the end of path 7, which the reverse numbers last.
-    const edges: [number, number][] = [];
-    const atPosition = (p: number) => (p + 40) % 80;
-    for (let p = 0; p < 80; p++) edges.push([atPosition(p), atPosition(p + 1)]);
-    const ends: number[] = [];
-    let next = 80;
-    for (let k = 0; k < 12; k++) {
-      let previous = atPosition((42 * k) % 80);
-      for (let step = 0; step < 3 + k; step++) {
-        edges.push([previous, next]);
-        previous = next++;
-      }
-      ends.push(previous);
-    }
+    const { edges, ends, next } = cycleWithPaths(12, 0);
     const g = graphOf(next, edges);
     const perm = orderReverseCuthillMcKee(g);
     expectCuthillMcKee(g, perm);
@@ -215,6 +225,18 @@ describe("orderReverseCuthillMcKee", () => {
     // The eccentricities along the way, by breadth-first search: 43 from vertex 0, then 45, 47, … from the ends.
     expect(eccentricity(g, 0)).toBe(43);
     for (let k = 0; k < 8; k++) expect(eccentricity(g, ends[k])).toBe(45 + 2 * k);
+  });
+
+  it("searches as far in a component that follows another whose search took four steps", () => {
+    // The same cycle with four hanging paths comes first. Its search from 0 goes on from the ends of paths 0, 1, 2 and
+    // 3 (four searches in the loop); from the end of path 3 the eccentricity is 6 + 38 + 5 = 49, as from path 2, so
+    // the component starts from the end of path 2. The one with twelve paths follows, numbered after it; its search
+    // is its own and still stops at the end of its path 7.
+    const before = cycleWithPaths(4, 0);
+    const after = cycleWithPaths(12, before.next);
+    const g = graphOf(after.next, [...before.edges, ...after.edges]);
+    const starts = expectCuthillMcKee(g, orderReverseCuthillMcKee(g));
+    expect(starts).toEqual([before.ends[2], after.ends[7]]);
   });
 
   it("orders the empty graph and a graph with no edges", () => {

@@ -281,6 +281,19 @@ describe("naming the successor after the withdrawal", () => {
     const report = await runUseCase(readImpactReport, { actor: engineer, input: { id: withdrawalId } });
     expect(report.mapping).toMatchObject({ successorVersionId: v2, mapping: { rename: { w: "q" } } });
     expect(await runUseCase(startBatch, { actor: lead, input: { withdrawalId } })).toMatchObject({ runs: 1 });
+    // The worker re-runs it in the background: wait for its item, so that its rows are not written while the next
+    // test compares whole tables around a refusal.
+    const [batch] = await db.select().from(schema.rerunBatches).where(eq(schema.rerunBatches.withdrawalId, withdrawalId));
+    const deadline = Date.now() + 60_000;
+    let items = 0;
+    while (items < 1 && Date.now() < deadline) {
+      [{ items }] = await db
+        .select({ items: sql<number>`count(*)`.mapWith(Number) })
+        .from(schema.rerunBatchItems)
+        .where(eq(schema.rerunBatchItems.batchId, batch.id));
+      if (items < 1) await new Promise((resolve) => setTimeout(resolve, 200));
+    }
+    expect(items, "the batch's one re-run recorded by the worker").toBe(1);
   });
 });
 

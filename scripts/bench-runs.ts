@@ -205,7 +205,7 @@ async function main() {
   // (d) the CPU per run, split by thread. The pool's workers evaluate and do nothing else, so they are the threads
   // that used no CPU while (a) ran (under 2 % of what they used in (b)) and some in (b); the main thread is the
   // process's own id; the rest are V8's helpers, busy in both.
-  const perRun = (cpuSeconds: number) => (cpuSeconds * 1000) / closed.length;
+  const perRun = (used: number) => (used * 1000) / closed.length;
   let evaluationCpu = 0;
   let helpersCpu = 0;
   let evaluationThreads = 0;

@@ -13,7 +13,9 @@ export function jsonResponse(body: unknown, init: ResponseInit = {}): Response {
   const text = JSON.stringify(body);
   const headers = new Headers(init.headers);
   headers.set("content-type", "application/json");
-  if (new TextEncoder().encode(text).byteLength < COMPRESS_FROM_BYTES) {
+  // UTF-8 takes at least a byte per UTF-16 unit, so a long text is large without encoding it (a run record's answer
+  // is hundreds of kB): only a short one is measured.
+  if (text.length < COMPRESS_FROM_BYTES && new TextEncoder().encode(text).byteLength < COMPRESS_FROM_BYTES) {
     const cacheControl = headers.get("cache-control");
     headers.set("cache-control", cacheControl ? `${cacheControl}, no-transform` : "no-transform");
   }

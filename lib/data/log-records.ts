@@ -13,8 +13,6 @@ const isoMillis = (column: string) => `to_char(${column} AT TIME ZONE 'UTC', 'YY
 export type LeafSource = {
   kind: LogLeafKind;
   table: string;
-  /** The type of the table's id: the check joins leaves to rows on it, so the primary key's index serves the join. */
-  id: "uuid" | "bigint";
   /** The record's text, over the source row `s`. */
   record: string;
   /** The row's time column, over `s`; the entry's `at` is it in UTC to the millisecond. */
@@ -28,11 +26,10 @@ const jsonbOf = (pairs: Record<string, string>) =>
     .join(", ")})::text`;
 
 export const LEAF_SOURCES: readonly LeafSource[] = [
-  { kind: "run", table: "runs", id: "uuid", record: "s.record", time: "s.created_at", at: isoMillis("s.created_at") },
+  { kind: "run", table: "runs", record: "s.record", time: "s.created_at", at: isoMillis("s.created_at") },
   {
     kind: "sign-off",
     table: "calc_revision_events",
-    id: "bigint",
     record: jsonbOf({
       id: "s.id",
       revision_id: "s.revision_id",
@@ -49,7 +46,6 @@ export const LEAF_SOURCES: readonly LeafSource[] = [
   {
     kind: "version-event",
     table: "standard_version_events",
-    id: "bigint",
     record: jsonbOf({
       id: "s.id",
       version_id: "s.version_id",
@@ -64,7 +60,6 @@ export const LEAF_SOURCES: readonly LeafSource[] = [
   {
     kind: "library-event",
     table: "library_version_events",
-    id: "bigint",
     record: jsonbOf({
       id: "s.id",
       version_id: "s.version_id",
@@ -80,7 +75,6 @@ export const LEAF_SOURCES: readonly LeafSource[] = [
   {
     kind: "attachment",
     table: "job_attachments",
-    id: "uuid",
     record: jsonbOf({
       id: "s.id",
       job_id: "s.job_id",
@@ -99,7 +93,6 @@ export const LEAF_SOURCES: readonly LeafSource[] = [
   {
     kind: "audit-event",
     table: "audit_events",
-    id: "bigint",
     record: jsonbOf({
       id: "s.id",
       actor_id: "s.actor_id",
@@ -114,12 +107,6 @@ export const LEAF_SOURCES: readonly LeafSource[] = [
     at: isoMillis("s.occurred_at"),
   },
 ];
-
-const ID_SHAPES = { uuid: "^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$", bigint: "^[0-9]{1,18}$" };
-
-/** A leaf's ref as the source table's id type (null when it cannot be one), for a join the primary key can serve. */
-export const refAsId = (source: LeafSource, ref: string) =>
-  `(case when ${ref} ~ '${ID_SHAPES[source.id]}' then ${ref}::${source.id} end)`;
 
 /** The sha256 (hex) of a record expression, with pg_catalog's function (a look-alike in another schema is not used). */
 export const sha256Of = (expression: string) => `encode(pg_catalog.sha256(convert_to(${expression}, 'UTF8')), 'hex')`;

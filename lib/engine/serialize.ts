@@ -13,6 +13,12 @@ import { DOF_NAMES, DOFS_PER_NODE, globalDof } from "./dofs";
 export interface SerializeOptions {
   /** Include sampled diagrams with this many uniform points per member (0 or omitted = extremes only). */
   readonly points?: number;
+  /**
+   * Without `points`: include each member's diagram extremes per case and per envelope (default true). A stored run
+   * leaves them out (false): restoreResult rebuilds the result from the end forces, and memberDiagram and
+   * memberEnvelope give the same extremes again from it.
+   */
+  readonly extremes?: boolean;
 }
 
 export type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
@@ -45,19 +51,21 @@ function supportedNodes(result: AnalysisResult): boolean[] {
 
 function caseToJson(result: AnalysisResult, r: CaseResult, supported: ReadonlyArray<boolean>, options: SerializeOptions): Json {
   const members: Record<string, Json> = {};
-  for (const id of result.memberIds) {
-    const d = memberDiagram(result, id, r.id, { points: options.points || 2 });
-    members[id] = options.points
-      ? ({ extremes: d.extremes, samples: d.samples } as unknown as Json)
-      : (d.extremes as unknown as Json);
-  }
+  const withDiagrams = Boolean(options.points) || options.extremes !== false;
+  if (withDiagrams)
+    for (const id of result.memberIds) {
+      const d = memberDiagram(result, id, r.id, { points: options.points || 2 });
+      members[id] = options.points
+        ? ({ extremes: d.extremes, samples: d.samples } as unknown as Json)
+        : (d.extremes as unknown as Json);
+    }
   return {
     kind: r.kind,
     ...(r.kind === "combination" ? { factors: Object.fromEntries(r.sources.map((s) => [s.caseId, s.factor])) } : {}),
     displacements: perNode(result.nodeIds, r.displacements, DOF_NAMES),
     reactions: perNode(result.nodeIds, r.reactions, FORCE_NAMES, supported),
     endForces: perMember(result.memberIds, r.endForces),
-    [options.points ? "diagrams" : "diagramExtremes"]: members,
+    ...(withDiagrams ? { [options.points ? "diagrams" : "diagramExtremes"]: members } : {}),
     equilibrium: { ...r.equilibrium },
     relativeResidual: r.relativeResidual,
   };
@@ -95,9 +103,13 @@ export function resultToJson(result: AnalysisResult, options: SerializeOptions =
       displacements: envelopeToJson(result, env.displacements, env.of, "node", DOF_NAMES),
       reactions: envelopeToJson(result, env.reactions, env.of, "node", FORCE_NAMES),
       endForces: envelopeToJson(result, env.endForces, env.of, "member", END_FORCE_NAMES),
-      diagramExtremes: Object.fromEntries(
-        result.memberIds.map((m) => [m, memberEnvelope(result, m, id, { points: 2 }).extremes as unknown as Json]),
-      ),
+      ...(options.points || options.extremes !== false
+        ? {
+            diagramExtremes: Object.fromEntries(
+              result.memberIds.map((m) => [m, memberEnvelope(result, m, id, { points: 2 }).extremes as unknown as Json]),
+            ),
+          }
+        : {}),
     };
   }
   return {

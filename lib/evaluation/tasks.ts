@@ -70,7 +70,8 @@ export function runStandardTask(
     ok: true,
     outcome,
     evaluationJson: evaluationToCanonicalJson(outcome.evaluation),
-    analysisJson: analysis ? resultToCanonicalJson(analysis) : null,
+    // Without diagram extremes: the record's format (run-record.ts) draws them again from the end forces.
+    analysisJson: analysis ? resultToCanonicalJson(analysis, { extremes: false }) : null,
   };
 }
 

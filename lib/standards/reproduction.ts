@@ -9,6 +9,7 @@ import canonicalize from "canonicalize";
 import { compareRuns, type ComparedValue } from "./compare-runs";
 import { runFailureOf, type RunRecord } from "./run-record";
 import type { Evaluation, EvaluationOutcome } from "./evaluate";
+import type { Json } from "@/lib/engine";
 
 /** What evaluating the record's version and inputs again gave (the bundle's `run` task, protocol.ts). */
 export type Reevaluation =
@@ -105,12 +106,17 @@ export function compareReproduction(stored: RunRecord, again: Reevaluation): Rep
     };
   }
   const evaluation = JSON.parse(again.evaluationJson) as Evaluation;
+  // A gusset-run/1 record holds the diagram extremes, which today's bundle no longer writes (run-record.ts): the
+  // engine's result is then compared on what both hold, and the page says so. The bundle that made the record
+  // writes them, so a reproduction as issued still compares every byte.
+  const narrower = holdsDiagramExtremes(stored.analysis) && !holdsDiagramExtremes(JSON.parse(again.analysisJson) as Json);
+  const storedAnalysis = narrower ? withoutDiagramExtremes(stored.analysis) : stored.analysis;
   const parts = [
     {
       part: "evaluation" as const,
       identical: canonical(withoutIdentity(evaluation)) === canonical(withoutIdentity(stored.evaluation)),
     },
-    { part: "analysis" as const, identical: again.analysisJson === canonical(stored.analysis) },
+    { part: "analysis" as const, identical: again.analysisJson === canonical(storedAnalysis) },
   ];
   const identity = identityOf(stored, evaluation.identity);
   const outputs = outputsOf(stored, { ...stored, evaluation });
@@ -120,8 +126,41 @@ export function compareReproduction(stored: RunRecord, again: Reevaluation): Rep
     identity,
     outputs,
     differing: differing(outputs),
-    note: null,
+    note: narrower
+      ? "The record also holds each member's diagram extremes, which this bundle no longer stores (they are drawn again from the end forces); the engine's result is compared without them."
+      : null,
   };
+}
+
+const CASE_GROUPS = ["loadCases", "combinations", "envelopes"] as const;
+const isObject = (value: unknown): value is Record<string, Json> =>
+  typeof value === "object" && value !== null && !Array.isArray(value);
+
+/** Does a stored engine result (resultToJson) hold diagram extremes for any case, combination or envelope? */
+export function holdsDiagramExtremes(analysis: Json): boolean {
+  if (!isObject(analysis)) return false;
+  return CASE_GROUPS.some((group) => {
+    const cases = analysis[group];
+    return isObject(cases) && Object.values(cases).some((c) => isObject(c) && Object.hasOwn(c, "diagramExtremes"));
+  });
+}
+
+/** The engine's result without its diagram extremes: what a gusset-run/2 record keeps of it. */
+export function withoutDiagramExtremes(analysis: Json): Json {
+  if (!isObject(analysis)) return analysis;
+  const out: Record<string, Json> = { ...analysis };
+  for (const group of CASE_GROUPS) {
+    const cases = analysis[group];
+    if (!isObject(cases)) continue;
+    out[group] = Object.fromEntries(
+      Object.entries(cases).map(([id, c]) => {
+        if (!isObject(c)) return [id, c];
+        const { diagramExtremes: _dropped, ...rest } = c;
+        return [id, rest];
+      }),
+    );
+  }
+  return out;
 }
 
 /** A stand-in record failure for a reproduction that gave no results: every output of the stored run differs. */

@@ -10,7 +10,16 @@ import canonicalize from "canonicalize";
 import type { EngineError, Json } from "@/lib/engine";
 import type { Evaluation, EvaluationFailure } from "./evaluate";
 
-export const RUN_RECORD_FORMAT = "gusset-run/1";
+/**
+ * The format new runs are written in. gusset-run/2 keeps the engine's result without its diagram extremes (the largest
+ * and smallest N, V, M and deflection along each member, per case and per envelope): they are drawn again from the
+ * end forces and the model (restoreResult, memberDiagram), like the diagrams themselves, and were two thirds of a
+ * large frame's record. gusset-run/1 records hold them; they are read as written, and reproduced as written.
+ */
+export const RUN_RECORD_FORMAT = "gusset-run/2";
+/** Every format a stored record may be in, oldest first. */
+export const RUN_RECORD_FORMATS = ["gusset-run/1", RUN_RECORD_FORMAT] as const;
+export type RunRecordFormat = (typeof RUN_RECORD_FORMATS)[number];
 
 export interface RunRecordIdentity {
   readonly engine: string;
@@ -31,7 +40,7 @@ export interface RunRecordEntry {
 }
 
 interface RunRecordBase {
-  readonly format: typeof RUN_RECORD_FORMAT;
+  readonly format: RunRecordFormat;
   readonly id: string;
   readonly createdAt: string;
   readonly createdBy: { readonly id: string; readonly name: string };
@@ -125,7 +134,8 @@ function containsNonFinite(value: unknown): boolean {
 /** A stored record read back. Checks the format only; the text is what was hashed, so it is trusted as written. */
 export function readRunRecord(text: string): RunRecord {
   const parsed = JSON.parse(text) as { format?: unknown };
-  if (parsed.format !== RUN_RECORD_FORMAT) throw new Error(`readRunRecord: not a ${RUN_RECORD_FORMAT} record`);
+  if (!(RUN_RECORD_FORMATS as ReadonlyArray<unknown>).includes(parsed.format))
+    throw new Error(`readRunRecord: not a run record (formats ${RUN_RECORD_FORMATS.join(", ")})`);
   return parsed as RunRecord;
 }
 

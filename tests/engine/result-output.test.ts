@@ -70,6 +70,28 @@ describe("the result as JSON", () => {
     expect(plain.loadCases.D).not.toHaveProperty("diagrams");
   });
 
+  it("leaves the diagram extremes out of every case and envelope when asked (extremes: false), and nothing else", () => {
+    const result = analyzeOrThrow({
+      ...cantilever(),
+      combinations: [{ id: "U", factors: { D: 1.35 } }],
+      envelopes: [{ id: "E", of: ["D", "U"] }],
+    });
+    const full = resultToJson(result) as Record<string, Record<string, Record<string, Record<string, unknown>>>>;
+    const narrow = resultToJson(result, { extremes: false }) as typeof full;
+    for (const [group, id] of [
+      ["loadCases", "D"],
+      ["combinations", "U"],
+      ["envelopes", "E"],
+    ]) {
+      expect(full[group][id]).toHaveProperty("diagramExtremes.m");
+      expect(narrow[group][id]).not.toHaveProperty("diagramExtremes");
+      const { diagramExtremes: _extremes, ...rest } = full[group][id];
+      expect(narrow[group][id]).toEqual(rest);
+    }
+    // Sampled diagrams are asked for explicitly, so points win over extremes: false.
+    expect(resultToJson(result, { points: 3, extremes: false })).toHaveProperty("loadCases.D.diagrams.m.samples");
+  });
+
   it("carries the analysis warnings", () => {
     const out = analyze(slenderChain(1e3));
     if (!out.ok) throw new Error("the model should analyse");

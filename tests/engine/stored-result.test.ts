@@ -102,6 +102,23 @@ describe("diagrams from the stored model and result alone", () => {
     }
   });
 
+  it("a result stored without diagram extremes (a run's record) restores to the same extremes, diagrams and JSON", () => {
+    for (const [model, name] of [
+      [portal, "portal"],
+      [randomRichFrame(3, { maxStoreys: 3, maxBays: 2 }), "random frame 3"],
+    ] as const) {
+      const original = analyzeOrThrow(model);
+      const stored = resultToCanonicalJson(original, { extremes: false });
+      expect(stored, name).not.toContain("diagramExtremes");
+      const restored = restoreResult(JSON.parse(JSON.stringify(model)), JSON.parse(stored));
+      if (!restored.ok) throw new Error(JSON.stringify(restored.errors));
+      expectSameDiagrams(restored.result, original);
+      // The full JSON, extremes included, comes back byte for byte from the narrower one.
+      expect(resultToCanonicalJson(restored.result), name).toBe(resultToCanonicalJson(original));
+      expect(resultToCanonicalJson(restored.result, { extremes: false }), name).toBe(stored);
+    }
+  });
+
   it("restores from the canonical text (keys sorted) just as well", () => {
     const model = randomRichFrame(9, { maxStoreys: 2, maxBays: 3 });
     const original = analyzeOrThrow(model);

@@ -60,3 +60,25 @@ describe("runRecordTextWithAnalysis", () => {
     expect(readRunRecord(quick)).toEqual(JSON.parse(whole));
   });
 });
+
+describe("the record's format", () => {
+  const [{ name, source }] = sources;
+  const result = runStandardTask(source);
+  if (!result.ok || !result.evaluationJson || !result.analysisJson) throw new Error(`${name} did not run`);
+  const evaluation = JSON.parse(result.evaluationJson) as Evaluation;
+  const record = { ...baseOf(name), outcome: "succeeded", evaluation, analysis: JSON.parse(result.analysisJson) } as RunRecord;
+
+  it("new runs are gusset-run/2: the engine's result without diagram extremes (drawn again from the end forces)", () => {
+    expect(RUN_RECORD_FORMAT).toBe("gusset-run/2");
+    expect(result.analysisJson).toContain('"endForces"');
+    expect(result.analysisJson).not.toContain("diagramExtremes");
+  });
+
+  it("reads gusset-run/1 and gusset-run/2 records, and refuses any other", () => {
+    expect(readRunRecord(runRecordText(record)).format).toBe("gusset-run/2");
+    expect(readRunRecord(runRecordText({ ...record, format: "gusset-run/1" })).format).toBe("gusset-run/1");
+    const unknown = runRecordText({ ...record, format: "gusset-run/3" as RunRecord["format"] });
+    expect(() => readRunRecord(unknown)).toThrow("readRunRecord: not a run record (formats gusset-run/1, gusset-run/2)");
+    expect(() => readRunRecord('{"id":"x"}')).toThrow(/not a run record/);
+  });
+});

@@ -8,7 +8,7 @@ import { runStandardTask } from "@/lib/evaluation/tasks";
 import { compareReproduction, type Reevaluation } from "@/lib/standards/reproduction";
 import { RUN_RECORD_FORMAT, runFailureOf, type RunRecord } from "@/lib/standards/run-record";
 import type { Evaluation } from "@/lib/standards/evaluate";
-import type { EngineError } from "@/lib/engine";
+import { resultToCanonicalJson, restoreResult, type EngineError } from "@/lib/engine";
 
 const source = fs.readFileSync(path.resolve("content/standards/simply-supported-beam/1.mdx"), "utf8");
 const typed = { L: "7 m" };
@@ -83,5 +83,38 @@ describe("compareReproduction", () => {
     });
     const succeeds = compareReproduction(failedRun, again);
     expect(succeeds).toMatchObject({ identical: false, note: "The run failed when it was made; evaluated again, it succeeds." });
+  });
+
+  describe("a gusset-run/1 record, which also holds the diagram extremes", () => {
+    // The extremes as the bundle that made such a record wrote them: the full result JSON, drawn from the restored one.
+    const restored = restoreResult(evaluation.model, JSON.parse(again.analysisJson!));
+    if (!restored.ok) throw new Error(JSON.stringify(restored.errors));
+    const fullJson = resultToCanonicalJson(restored.result);
+    const older: RunRecord = { ...stored, format: "gusset-run/1", analysis: JSON.parse(fullJson) };
+
+    it("today's bundle, which writes no extremes: the rest is compared byte for byte, and the page says so", () => {
+      expect(fullJson).toContain("diagramExtremes");
+      expect(again.analysisJson).not.toContain("diagramExtremes");
+      const comparison = compareReproduction(older, again);
+      expect(comparison).toMatchObject({ identical: true, differing: 0 });
+      expect(comparison.note).toMatch(/diagram extremes.*compared without them/);
+      // An end force changed in the record is still found.
+      const altered = JSON.parse(fullJson);
+      const member = Object.keys(altered.loadCases.D.endForces)[0];
+      altered.loadCases.D.endForces[member].start.mz += 1;
+      const changed = compareReproduction({ ...older, analysis: altered }, again);
+      expect(changed.parts).toContainEqual({ part: "analysis", identical: false });
+    });
+
+    it("the bundle that made it (as issued), which writes them: every byte is compared, extremes included", () => {
+      const asIssued = { ...again, analysisJson: fullJson };
+      expect(compareReproduction(older, asIssued)).toMatchObject({ identical: true, note: null });
+      const altered = JSON.parse(fullJson);
+      const member = Object.keys(altered.loadCases.D.diagramExtremes)[0];
+      altered.loadCases.D.diagramExtremes[member].M.max.value += 1;
+      const changed = compareReproduction({ ...older, analysis: altered }, asIssued);
+      expect(changed).toMatchObject({ identical: false, note: null });
+      expect(changed.parts).toContainEqual({ part: "analysis", identical: false });
+    });
   });
 });

@@ -1,6 +1,6 @@
 // Every kind of response the served test build gives carries the security headers, exactly: a page
 // signed out and signed in, the 403 and 404 pages, a route handler, better-auth's endpoints and a static
-// file. A page's Content-Security-Policy names a nonce that is new for every response and that every
+// file. Route handlers and static files carry the policy without a nonce. A page's Content-Security-Policy names a nonce that is new for every response and that every
 // script on the page carries (Next stamps it). Over https (not served by the tests), the proxy adds HSTS
 // and better-auth marks its cookies Secure; both are checked in-process with an https address.
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
@@ -113,29 +113,38 @@ describe("security headers over http", () => {
     expect(home.text).toContain("<title>Home · Gusset</title>");
   });
 
+  // Route handlers answer JSON and files, which run no script: they carry the fixed policy, without a nonce
+  // (proxy.ts does not run for them).
   it("on a route handler, signed out and signed in", async () => {
     const health = await get("/api/health");
     expect(health.response.status).toBe(200);
-    expectSecurityHeaders(health.response, "page");
+    expectSecurityHeaders(health.response, "static");
     const me = await get("/api/me", admin);
     expect(me.response.status).toBe(200);
-    expectSecurityHeaders(me.response, "page");
+    expectSecurityHeaders(me.response, "static");
     const anonymous = await get("/api/me");
     expect(anonymous.response.status).toBe(401);
-    expectSecurityHeaders(anonymous.response, "page");
+    expectSecurityHeaders(anonymous.response, "static");
+  });
+
+  it("a route handler is never swapped for the outage page, whatever header a client sends", async () => {
+    const me = await get("/api/me", { ...Object.fromEntries(admin), "x-gusset-outage": "/api/me" });
+    expect(me.response.status).toBe(200);
+    expect(me.response.headers.get("content-type")).toBe("application/json");
+    expect(JSON.parse(me.text)).toHaveProperty("email");
   });
 
   it("on better-auth's endpoints", async () => {
     const session = await get("/api/auth/get-session", admin);
     expect(session.response.status).toBe(200);
-    expectSecurityHeaders(session.response, "page");
+    expectSecurityHeaders(session.response, "static");
     const refused = await fetch(appUrl("/api/auth/sign-in/email"), {
       method: "POST",
       headers: { "Content-Type": "application/json", Origin: "https://evil.example" },
       body: JSON.stringify({ email: "nobody@test.gusset.example", password: "wrong-password-1" }),
     });
     expect(refused.status).toBe(403);
-    expectSecurityHeaders(refused, "page");
+    expectSecurityHeaders(refused, "static");
   });
 
   it("on the build's static files, without a nonce", async () => {
@@ -182,7 +191,7 @@ describe("over https", () => {
   it("adds HSTS and upgrade-insecure-requests to every response the proxy answers", async () => {
     serveOverHttps();
     const { proxy } = await import("@/proxy");
-    for (const path of ["/api/health", "/icon.svg"]) {
+    for (const path of ["/sign-in", "/icon.svg"]) {
       const response = await proxy(new NextRequest(`https://gusset.marrowby-fenn.example${path}`));
       expect(response.headers.get("strict-transport-security"), path).toBe("max-age=31536000; includeSubDomains");
       expect(response.headers.get("content-security-policy"), path).toMatch(
@@ -217,7 +226,7 @@ describe("over https", () => {
     expect(session).toMatch(/^better-auth\.session_token=/);
     expect(session?.toLowerCase()).not.toMatch(/;\s*secure/);
     const { proxy } = await import("@/proxy");
-    const response = await proxy(new NextRequest("http://127.0.0.1:3100/api/health"));
+    const response = await proxy(new NextRequest("http://127.0.0.1:3100/sign-in"));
     expect(response.headers.get("strict-transport-security")).toBeNull();
     expect(response.headers.get("content-security-policy")).not.toContain("upgrade-insecure-requests");
   });

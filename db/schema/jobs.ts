@@ -123,6 +123,11 @@ export const runs = pgTable(
     index("runs_not_passing_created_idx")
       .on(t.createdAt.desc(), t.id.desc())
       .where(sql`${t.pass} = false`),
+    // One job's failing runs in a period: read from the job's own failures, not from all its runs (a page from a
+    // cold cache read 330 rows of the table for 50: p95 75 ms on a million runs; 25 ms with this index).
+    index("runs_job_not_passing_created_idx")
+      .on(t.jobId, t.createdAt.desc(), t.id.desc())
+      .where(sql`${t.pass} = false`),
     check("runs_outcome_check", sql`${t.outcome} in ('succeeded', 'failed')`),
     check("runs_purpose_check", sql`${t.purpose} in ('design', 'remediation')`),
     check("runs_unit_system_check", sql`${t.unitSystem} in ('si', 'us')`),

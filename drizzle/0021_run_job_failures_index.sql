@@ -1,0 +1,1 @@
+CREATE INDEX "runs_job_not_passing_created_idx" ON "runs" USING btree ("job_id","created_at" DESC NULLS LAST,"id" DESC NULLS LAST) WHERE "runs"."pass" = false;

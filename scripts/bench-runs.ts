@@ -6,9 +6,10 @@
  *       runs/s and latency p50/p95/p99;
  *   (c) runs offered at a steady 20 per second (open loop), latency p50/p95/p99;
  *   (d) the server's CPU per run (its process, all threads, from /proc), split by thread: the evaluation is the
- *       CPU of the evaluation pool's worker threads (the threads idle while (a) ran and busy in (b)); the rest is
+ *       CPU of the evaluation pool's worker threads (named "gusset-eval" by lib/evaluation/entry.ts); the rest is
  *       the overhead, split into the main thread (framework, storage) and V8's own helper threads (garbage
- *       collection, compilation); plus, for reference, the same standards evaluated in this process;
+ *       collection, compilation), which serve the workers' isolates too: the same mix run in a pool of a process
+ *       of its own shows that share; plus, for reference, the same standards evaluated in this process;
  * then counts the runs stored against the 2xx answers: every acknowledged run stored, none twice.
  * Also the run page's server render time. Runs go into a job of their own (BENCH-…), closed afterwards.
  *
@@ -17,7 +18,8 @@
  */
 import { execFileSync } from "node:child_process";
 import fs from "node:fs";
-import { cpus, loadavg } from "node:os";
+import { cpus, loadavg, tmpdir } from "node:os";
+import path from "node:path";
 import pg from "pg";
 import { databaseUrlFor, portsFor } from "./lib/env.mjs";
 import { DEMO_USERS } from "../db/demo-users";
@@ -41,6 +43,38 @@ function serverPid(): number {
   const match = /pid=(\d+)/.exec(out);
   if (!match) throw new Error(`nothing listens on ${base}: start the app with \`npm start\` first`);
   return Number(match[1]);
+}
+
+/** The ids of the process's threads that the evaluation pool's workers named (lib/evaluation/entry.ts). */
+function evaluationThreadIds(pid: number): Set<number> {
+  const ids = new Set<number>();
+  for (const tid of fs.readdirSync(`/proc/${pid}/task`)) {
+    try {
+      if (fs.readFileSync(`/proc/${pid}/task/${tid}/comm`, "utf8").trim() === "gusset-eval") ids.add(Number(tid));
+    } catch {
+      // the thread ended between the listing and the read
+    }
+  }
+  return ids;
+}
+
+/**
+ * The mix run in an evaluation pool of a fresh process (scripts/lib/bench-pool-alone.ts): CPU per run of the pool's
+ * workers and of V8's helper threads, which collect the workers' garbage too.
+ */
+function poolAlone(sources: string[]): { runs: number; workersMs: number; helpersMs: number } {
+  const file = path.join(tmpdir(), `gusset-bench-pool-${process.pid}.json`);
+  fs.writeFileSync(file, JSON.stringify(sources));
+  try {
+    const out = execFileSync(
+      process.execPath,
+      ["--conditions=react-server", "--import", "tsx", "scripts/lib/bench-pool-alone.ts", file],
+      { encoding: "utf8" },
+    );
+    return JSON.parse(out.trim().split("\n").at(-1)!) as { runs: number; workersMs: number; helpersMs: number };
+  } finally {
+    fs.rmSync(file, { force: true });
+  }
 }
 
 /** CPU seconds each thread of the process has used (utime + stime), by thread id. */
@@ -202,17 +236,19 @@ async function main() {
     `(c) 20 runs/s offered (open loop): p50 ${ms(percentile(openLat, 50))}, p95 ${ms(percentile(openLat, 95))}, p99 ${ms(percentile(openLat, 99))}; statuses ${JSON.stringify(countBy(open.map((r) => r.status)))}`,
   );
 
-  // (d) the CPU per run, split by thread. The pool's workers evaluate and do nothing else, so they are the threads
-  // that used no CPU while (a) ran (under 2 % of what they used in (b)) and some in (b); the main thread is the
-  // process's own id; the rest are V8's helpers, busy in both.
+  // (d) the CPU per run, split by thread. The pool's workers evaluate and do nothing else: they name their threads
+  // "gusset-eval". (A server of an older build leaves them unnamed; then they are told by what they did: no CPU
+  // while (a) ran, under 2 % of what they used in (b), and some in (b).) The main thread is the process's own id;
+  // the rest are V8's helpers (garbage collection, compilation) and libuv's.
   const perRun = (used: number) => (used * 1000) / closed.length;
+  const named = evaluationThreadIds(pid);
   let evaluationCpu = 0;
   let helpersCpu = 0;
   let evaluationThreads = 0;
   for (const [tid, used] of closedThreads) {
     if (tid === pid) continue;
-    const idleInFloor = (floorThreads.get(tid) ?? 0) <= 0.02 * used;
-    if (idleInFloor && used > 0) {
+    const evaluates = named.size > 0 ? named.has(tid) : (floorThreads.get(tid) ?? 0) <= 0.02 * used && used > 0;
+    if (evaluates) {
       evaluationCpu += used;
       evaluationThreads += 1;
     } else helpersCpu += used;
@@ -228,10 +264,18 @@ async function main() {
   });
   const inProcess = evaluationMs.reduce((a, b) => a + b, 0) / evaluationMs.length;
   console.log(
-    `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${perRun(evaluationCpu).toFixed(2)} ms (${evaluationThreads} worker threads); overhead beyond the evaluation ${(closedCpuMs - perRun(evaluationCpu)).toFixed(2)} ms = main thread ${perRun(mainCpu).toFixed(2)} ms (of which the framework's floor, (a)'s CPU per request, ${floorCpuMs.toFixed(2)} ms) + V8's helper threads ${perRun(helpersCpu).toFixed(2)} ms`,
+    `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${perRun(evaluationCpu).toFixed(2)} ms (${evaluationThreads} worker threads${named.size > 0 ? ", by name" : ", told by use"}); overhead beyond the evaluation ${(closedCpuMs - perRun(evaluationCpu)).toFixed(2)} ms = main thread ${perRun(mainCpu).toFixed(2)} ms (of which the framework's floor, (a)'s CPU per request, ${floorCpuMs.toFixed(2)} ms) + V8's helper threads ${perRun(helpersCpu).toFixed(2)} ms`,
   );
   console.log(
     `    for reference, the same standards evaluated once each in this process (cold-ish, 20 times each): ${inProcess.toFixed(2)} ms on average (${mix.map((v, i) => `${v.slug} ${evaluationMs[i].toFixed(2)}`).join(", ")})`,
+  );
+  // V8's helper threads serve every isolate of the process, the pool's workers too: part of what they used in (b)
+  // is the evaluation's own garbage collection and compilation. The same mix in a pool of a process that does
+  // nothing else shows how much.
+  const alone = poolAlone(mix.map((v) => v.source));
+  const overheadMs = closedCpuMs - perRun(evaluationCpu);
+  console.log(
+    `    the same mix in an evaluation pool of a process of its own (${alone.runs} runs, 20 at a time): workers ${alone.workersMs.toFixed(2)} ms, V8's helper threads ${alone.helpersMs.toFixed(2)} ms per run; so the server's overhead net of the evaluation's own helper work (at most all its helper threads used) is about ${(overheadMs - Math.min(alone.helpersMs, perRun(helpersCpu))).toFixed(2)} ms per run`,
   );
 
   // Every acknowledged run stored, none twice.

@@ -45,6 +45,9 @@ if (nodeProcess?.versions?.node) {
   const { parentPort, workerData } = await import("node:worker_threads");
   // Imported outside a worker (a script reading the file), there is nobody to answer.
   if (parentPort) {
+    // The thread's name as the operating system shows it (top -H, /proc/<pid>/task/<tid>/comm), so what the evaluation
+    // costs can be told from the server's other threads (npm run bench:runs). Linux only; elsewhere it stays unnamed.
+    await import("node:fs").then((fs) => fs.writeFileSync("/proc/thread-self/comm", "gusset-eval")).catch(() => undefined);
     const testHooks = (workerData as { testHooks?: unknown } | null)?.testHooks === true;
     parentPort.on("message", (data: unknown) => {
       const response = handle(data, testHooks);

@@ -150,6 +150,26 @@ describe("the evaluation pool", () => {
   );
 
   it(
+    "names its worker threads gusset-eval, as the operating system lists them (what bench:runs tells them by)",
+    async () => {
+      const threadNames = () =>
+        fs.readdirSync("/proc/self/task").map((tid) => {
+          try {
+            return fs.readFileSync(`/proc/self/task/${tid}/comm`, "utf8").trim();
+          } catch {
+            return "";
+          }
+        });
+      const before = threadNames().filter((name) => name === "gusset-eval").length;
+      const answer = await pool({ size: 1, timeoutMs: 60_000 }).evaluate(beam);
+      expect(answer.ok).toBe(true);
+      // At least: a pool of an earlier test may start a worker meanwhile.
+      expect(threadNames().filter((name) => name === "gusset-eval").length).toBeGreaterThanOrEqual(before + 1);
+    },
+    LONG,
+  );
+
+  it(
     "answers a source that does not compile with the same problems as in-process",
     async () => {
       const broken = beam.replace("default: 6 m", "default: 6 kN");

@@ -1,7 +1,7 @@
 /**
- * A stored run evaluated again, compared with its record. The record's output parts — the evaluation (its
- * identity apart), the engine's result, or a failed run's failure — are compared byte for byte as canonical
- * JSON (RFC 8785), which is how they were stored; the identity (engine, evaluation) is compared on its own.
+ * A stored run evaluated again, compared with its record. The record's output parts — the evaluation and the
+ * engine's result (each without the identity it names), or a failed run's failure — are compared byte for byte as
+ * canonical JSON (RFC 8785), which is how they were stored; the identity (engine, evaluation) is compared on its own.
  * Each output a person reads (derived values, extracts, check utilisations) is listed with the stored and the
  * new value and their relative difference, so a reproduction with today's bundle shows what moved and by how much.
  */
@@ -46,6 +46,12 @@ const canonical = (value: unknown): string => {
 
 /** The evaluation without its identity: what the numbers are, whoever computed them. */
 const withoutIdentity = (evaluation: Evaluation) => ({ ...evaluation, identity: null });
+
+/** The engine's result without the engine's version and source hash it carries (the identity is compared on its own). */
+const withoutEngineIdentity = (analysis: Json): Json =>
+  typeof analysis === "object" && analysis !== null && !Array.isArray(analysis)
+    ? { ...analysis, engineVersion: null, engineSourceHash: null }
+    : analysis;
 
 /** The outputs of two records of one run, listed for the page (inputs are the same by construction). */
 function outputsOf(stored: RunRecord, again: RunRecord): ReproducedOutput[] {
@@ -109,14 +115,19 @@ export function compareReproduction(stored: RunRecord, again: Reevaluation): Rep
   // A gusset-run/1 record holds the diagram extremes, which today's bundle no longer writes (run-record.ts): the
   // engine's result is then compared on what both hold, and the page says so. The bundle that made the record
   // writes them, so a reproduction as issued still compares every byte.
-  const narrower = holdsDiagramExtremes(stored.analysis) && !holdsDiagramExtremes(JSON.parse(again.analysisJson) as Json);
+  const analysis = JSON.parse(again.analysisJson) as Json;
+  const narrower = holdsDiagramExtremes(stored.analysis) && !holdsDiagramExtremes(analysis);
   const storedAnalysis = narrower ? withoutDiagramExtremes(stored.analysis) : stored.analysis;
   const parts = [
     {
       part: "evaluation" as const,
       identical: canonical(withoutIdentity(evaluation)) === canonical(withoutIdentity(stored.evaluation)),
     },
-    { part: "analysis" as const, identical: again.analysisJson === canonical(storedAnalysis) },
+    // The engine's result names the engine that made it, like the evaluation: compared without it, byte for byte.
+    {
+      part: "analysis" as const,
+      identical: canonical(withoutEngineIdentity(analysis)) === canonical(withoutEngineIdentity(storedAnalysis)),
+    },
   ];
   const identity = identityOf(stored, evaluation.identity);
   const outputs = outputsOf(stored, { ...stored, evaluation });

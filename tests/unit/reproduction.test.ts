@@ -52,10 +52,18 @@ describe("compareReproduction", () => {
   });
 
   it("says when the numbers are the same but another engine made them", () => {
-    const older: RunRecord = { ...stored, identity: { ...stored.identity, engine: "0.0.1" } };
+    // The record names another engine in its identity and in the engine's result it holds: the parts are compared
+    // without the names, and the identity on its own.
+    const analysis = { ...(stored as { analysis: Record<string, unknown> }).analysis, engineSourceHash: "f".repeat(64) };
+    const older: RunRecord = { ...stored, identity: { ...stored.identity, engine: "0.0.1" }, analysis } as RunRecord;
     const comparison = compareReproduction(older, again);
     expect(comparison).toMatchObject({ identical: false, differing: 0, identity: { same: false } });
     expect(comparison.parts.every((p) => p.identical)).toBe(true);
+    // A number of the engine's result that differs still shows.
+    const changed = JSON.parse(JSON.stringify(analysis));
+    changed.stats.equations += 1;
+    const differs = compareReproduction({ ...older, analysis: changed } as RunRecord, again);
+    expect(differs.parts).toContainEqual({ part: "analysis", identical: false });
   });
 
   it("counts every stored output as differing when the version no longer compiles", () => {

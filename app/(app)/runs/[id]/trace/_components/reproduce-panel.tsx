@@ -69,7 +69,9 @@ function ReproductionResult({ reproduction }: { reproduction: Reproduction }) {
     ? "Identical: every output came out byte for byte as recorded."
     : comparison.differing > 0
       ? `Not identical: ${comparison.differing} output${comparison.differing === 1 ? " differs" : "s differ"}.`
-      : "Not identical: the outputs are equal as numbers, but their record differs.";
+      : comparison.parts.every((p) => p.identical)
+        ? "Not identical: every output came out byte for byte as recorded, but another engine or evaluation made them."
+        : "Not identical: the outputs are equal as numbers, but their record differs.";
   return (
     <div className="space-y-3" data-testid="reproduction" data-mode={mode} data-identical={comparison.identical ? "yes" : "no"}>
       <Notice

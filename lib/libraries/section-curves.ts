@@ -8,7 +8,19 @@
  *   its chords, clipped, plus the circular segment of each piece of arc left inside (a sector is convex, and its
  *   arc is cut where the line crosses it, so each piece of arc lies wholly on one side).
  */
-import type { Axis, RawMoments } from "./section-geometry";
+
+/** ∫dA, ∫x dA, ∫y dA, ∫x² dA, ∫y² dA, ∫xy dA over a region, about the section's origin. */
+export interface RawMoments {
+  a: number;
+  qx: number;
+  qy: number;
+  xx: number;
+  yy: number;
+  xy: number;
+}
+
+/** A coordinate axis of the section's plane. */
+export type Axis = "x" | "y";
 
 export type Pt = readonly [number, number];
 

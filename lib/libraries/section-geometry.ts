@@ -10,17 +10,10 @@
  * of second moments to the centroid free of cancellation.
  */
 
-import { curvedBelow, curvedMoments, type CurvedPart } from "./section-curves";
+import { curvedBelow, curvedMoments, type Axis, type CurvedPart, type RawMoments } from "./section-curves";
 
-/** ∫dA, ∫x dA, ∫y dA, ∫x² dA, ∫y² dA, ∫xy dA over a region, about the section's origin. */
-export interface RawMoments {
-  a: number;
-  qx: number;
-  qy: number;
-  xx: number;
-  yy: number;
-  xy: number;
-}
+// Declared with the curved parts, which this module builds on, and read from here by the builders.
+export type { Axis, RawMoments };
 
 export type Part =
   | { kind: "rect"; sign: 1 | -1; x0: number; x1: number; y0: number; y1: number }
@@ -123,8 +116,6 @@ export function centroidalOf(parts: readonly Part[]) {
   const yc = m.qy / m.a;
   return { A: m.a, xc, yc, Ix: m.yy - m.a * yc * yc, Iy: m.xx - m.a * xc * xc, Ixy: m.xy - m.a * xc * yc };
 }
-
-export type Axis = "x" | "y";
 
 /** Area and first moment (∫s dA, s the coordinate along `axis`) of the part of a region where s < c. */
 export function below(part: Part, axis: Axis, c: number): { a: number; q: number } {

@@ -22,6 +22,7 @@ import { cpus, loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import pg from "pg";
 import { databaseUrlFor, portsFor } from "./lib/env.mjs";
+import { EVALUATION_THREAD_NAME, processCpuSeconds, threadCpu, threadDeltas } from "./lib/thread-cpu";
 import { DEMO_USERS } from "../db/demo-users";
 import { runStandardTask } from "../lib/evaluation/tasks";
 
@@ -45,19 +46,6 @@ function serverPid(): number {
   return Number(match[1]);
 }
 
-/** The ids of the process's threads that the evaluation pool's workers named (lib/evaluation/entry.ts). */
-function evaluationThreadIds(pid: number): Set<number> {
-  const ids = new Set<number>();
-  for (const tid of fs.readdirSync(`/proc/${pid}/task`)) {
-    try {
-      if (fs.readFileSync(`/proc/${pid}/task/${tid}/comm`, "utf8").trim() === "gusset-eval") ids.add(Number(tid));
-    } catch {
-      // the thread ended between the listing and the read
-    }
-  }
-  return ids;
-}
-
 /**
  * The mix run in an evaluation pool of a fresh process (scripts/lib/bench-pool-alone.ts): CPU per run of the pool's
  * workers and of V8's helper threads, which collect the workers' garbage too.
@@ -75,33 +63,6 @@ function poolAlone(sources: string[]): { runs: number; workersMs: number; helper
   } finally {
     fs.rmSync(file, { force: true });
   }
-}
-
-/** CPU seconds each thread of the process has used (utime + stime), by thread id. */
-function threadCpuSeconds(pid: number): Map<number, number> {
-  const ticks = Number(execFileSync("getconf", ["CLK_TCK"], { encoding: "utf8" }).trim());
-  const threads = new Map<number, number>();
-  for (const tid of fs.readdirSync(`/proc/${pid}/task`)) {
-    try {
-      const fields = fs.readFileSync(`/proc/${pid}/task/${tid}/stat`, "utf8").split(") ")[1].split(" ");
-      threads.set(Number(tid), (Number(fields[11]) + Number(fields[12])) / ticks);
-    } catch {
-      // the thread ended between the listing and the read
-    }
-  }
-  return threads;
-}
-
-/** What each thread used between two snapshots (a thread started in between counts from zero). */
-function threadDeltas(before: Map<number, number>, after: Map<number, number>): Map<number, number> {
-  return new Map([...after].map(([tid, cpu]) => [tid, cpu - (before.get(tid) ?? 0)]));
-}
-
-/** CPU seconds the process has used, all its threads (utime + stime). */
-function cpuSeconds(pid: number): number {
-  const fields = fs.readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1].split(" ");
-  const ticks = Number(execFileSync("getconf", ["CLK_TCK"], { encoding: "utf8" }).trim());
-  return (Number(fields[11]) + Number(fields[12])) / ticks;
 }
 
 async function signIn(): Promise<string> {
@@ -204,11 +165,11 @@ async function main() {
   }
 
   // (a) the framework's floor.
-  let cpu = cpuSeconds(pid);
-  let threads = threadCpuSeconds(pid);
+  let cpu = processCpuSeconds(pid);
+  let threads = threadCpu(pid);
   const floor = await closedLoop(CLIENTS, seconds, () => fetch(`${base}/api/me`, { headers: { cookie } }));
-  const floorCpuMs = ((cpuSeconds(pid) - cpu) * 1000) / floor.length;
-  const floorThreads = threadDeltas(threads, threadCpuSeconds(pid));
+  const floorCpuMs = ((processCpuSeconds(pid) - cpu) * 1000) / floor.length;
+  const floorThreads = threadDeltas(threads, threadCpu(pid));
   console.log(
     `(a) GET /api/me, ${CLIENTS} clients: ${(floor.length / seconds).toFixed(0)} requests/s, p50 ${ms(
       percentile(
@@ -219,11 +180,11 @@ async function main() {
   );
 
   // (b) closed loop of runs.
-  cpu = cpuSeconds(pid);
-  threads = threadCpuSeconds(pid);
+  cpu = processCpuSeconds(pid);
+  threads = threadCpu(pid);
   const closed = await closedLoop(CLIENTS, seconds, postRun);
-  const closedCpuMs = ((cpuSeconds(pid) - cpu) * 1000) / closed.length;
-  const closedThreads = threadDeltas(threads, threadCpuSeconds(pid));
+  const closedCpuMs = ((processCpuSeconds(pid) - cpu) * 1000) / closed.length;
+  const closedThreads = threadDeltas(threads, threadCpu(pid));
   const lat = closed.map((r) => r.ms);
   console.log(
     `(b) POST /api/runs, ${CLIENTS} clients: ${(closed.length / seconds).toFixed(1)} runs/s, p50 ${ms(percentile(lat, 50))}, p95 ${ms(percentile(lat, 95))}, p99 ${ms(percentile(lat, 99))}; statuses ${JSON.stringify(countBy(closed.map((r) => r.status)))}`,
@@ -241,19 +202,19 @@ async function main() {
   // while (a) ran, under 2 % of what they used in (b), and some in (b).) The main thread is the process's own id;
   // the rest are V8's helpers (garbage collection, compilation) and libuv's.
   const perRun = (used: number) => (used * 1000) / closed.length;
-  const named = evaluationThreadIds(pid);
+  const named = [...closedThreads.values()].some((thread) => thread.name === EVALUATION_THREAD_NAME);
   let evaluationCpu = 0;
   let helpersCpu = 0;
   let evaluationThreads = 0;
-  for (const [tid, used] of closedThreads) {
+  for (const [tid, { cpu: used, name }] of closedThreads) {
     if (tid === pid) continue;
-    const evaluates = named.size > 0 ? named.has(tid) : (floorThreads.get(tid) ?? 0) <= 0.02 * used && used > 0;
+    const evaluates = named ? name === EVALUATION_THREAD_NAME : (floorThreads.get(tid)?.cpu ?? 0) <= 0.02 * used && used > 0;
     if (evaluates) {
       evaluationCpu += used;
       evaluationThreads += 1;
     } else helpersCpu += used;
   }
-  const mainCpu = closedThreads.get(pid) ?? 0;
+  const mainCpu = closedThreads.get(pid)?.cpu ?? 0;
   const evaluationMs = mix.map((v) => {
     runStandardTask(v.source, {}, {});
     const t = process.cpuUsage();
@@ -264,7 +225,7 @@ async function main() {
   });
   const inProcess = evaluationMs.reduce((a, b) => a + b, 0) / evaluationMs.length;
   console.log(
-    `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${perRun(evaluationCpu).toFixed(2)} ms (${evaluationThreads} worker threads${named.size > 0 ? ", by name" : ", told by use"}); overhead beyond the evaluation ${(closedCpuMs - perRun(evaluationCpu)).toFixed(2)} ms = main thread ${perRun(mainCpu).toFixed(2)} ms (of which the framework's floor, (a)'s CPU per request, ${floorCpuMs.toFixed(2)} ms) + V8's helper threads ${perRun(helpersCpu).toFixed(2)} ms`,
+    `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${perRun(evaluationCpu).toFixed(2)} ms (${evaluationThreads} worker threads${named ? ", by name" : ", told by use"}); overhead beyond the evaluation ${(closedCpuMs - perRun(evaluationCpu)).toFixed(2)} ms = main thread ${perRun(mainCpu).toFixed(2)} ms (of which the framework's floor, (a)'s CPU per request, ${floorCpuMs.toFixed(2)} ms) + V8's helper threads ${perRun(helpersCpu).toFixed(2)} ms`,
   );
   console.log(
     `    for reference, the same standards evaluated once each in this process (cold-ish, 20 times each): ${inProcess.toFixed(2)} ms on average (${mix.map((v, i) => `${v.slug} ${evaluationMs[i].toFixed(2)}`).join(", ")})`,

@@ -8,28 +8,14 @@
  */
 import fs from "node:fs";
 import { createEvaluationPool } from "../../lib/evaluation/pool";
+import { EVALUATION_THREAD_NAME, threadCpu, threadDeltas } from "./thread-cpu";
 
 const sources = JSON.parse(fs.readFileSync(process.argv[2], "utf8")) as string[];
-
-function threadCpuSeconds(): Map<number, { cpu: number; name: string }> {
-  const ticks = 100; // USER_HZ on Linux
-  const threads = new Map<number, { cpu: number; name: string }>();
-  for (const tid of fs.readdirSync("/proc/self/task")) {
-    try {
-      const fields = fs.readFileSync(`/proc/self/task/${tid}/stat`, "utf8").split(") ")[1].split(" ");
-      const name = fs.readFileSync(`/proc/self/task/${tid}/comm`, "utf8").trim();
-      threads.set(Number(tid), { cpu: (Number(fields[11]) + Number(fields[12])) / ticks, name });
-    } catch {
-      // the thread ended between the listing and the read
-    }
-  }
-  return threads;
-}
 
 const pool = createEvaluationPool({ size: 2 });
 try {
   for (let i = 0; i < 10 * sources.length; i++) await pool.run(sources[i % sources.length], {}, {});
-  const before = threadCpuSeconds();
+  const before = threadCpu(process.pid);
   const runs = 200 * sources.length;
   let next = 0;
   await Promise.all(
@@ -39,11 +25,10 @@ try {
   );
   let workers = 0;
   let helpers = 0;
-  for (const [tid, { cpu, name }] of threadCpuSeconds()) {
+  for (const [tid, { cpu, name }] of threadDeltas(before, threadCpu(process.pid))) {
     if (tid === process.pid) continue;
-    const used = cpu - (before.get(tid)?.cpu ?? 0);
-    if (name === "gusset-eval") workers += used;
-    else helpers += used;
+    if (name === EVALUATION_THREAD_NAME) workers += cpu;
+    else helpers += cpu;
   }
   console.log(JSON.stringify({ runs, workersMs: (workers * 1000) / runs, helpersMs: (helpers * 1000) / runs }));
 } finally {

@@ -6,6 +6,7 @@ import { and, asc, desc, eq, gte, inArray, lt, notInArray, sql } from "drizzle-o
 import { alias } from "drizzle-orm/pg-core";
 import { auditEvents, invitations, user } from "@/db/schema";
 import { auditActionLabel, type AuditEventInput } from "@/lib/domain/audit-actions";
+import { prepared } from "./prepared";
 import { currentDb } from "./transaction";
 
 export type AuditEventDto = {
@@ -25,18 +26,28 @@ export type AuditEventDto = {
   ipAddress: string | null;
 };
 
+// Prepared: every change writes one (lib/data/prepared.ts).
+const insertAuditEvent = prepared("gusset_insert_audit_event", (executor) =>
+  executor.insert(auditEvents).values({
+    actorId: sql.placeholder("actorId"),
+    actorEmail: sql.placeholder("actorEmail"),
+    action: sql.placeholder("action"),
+    subject: sql.placeholder("subject"),
+    details: sql.placeholder("details"),
+    ipAddress: sql.placeholder("ipAddress"),
+  }),
+);
+
 /** Writes inside the current transaction when there is one. */
 export async function recordAuditEvent(event: AuditEventInput): Promise<void> {
-  await currentDb()
-    .insert(auditEvents)
-    .values({
-      actorId: event.actorId ?? null,
-      actorEmail: event.actorEmail ?? null,
-      action: event.action,
-      subject: event.subject ?? null,
-      details: event.details ?? {},
-      ipAddress: event.ipAddress ?? null,
-    });
+  await insertAuditEvent({
+    actorId: event.actorId ?? null,
+    actorEmail: event.actorEmail ?? null,
+    action: event.action,
+    subject: event.subject ?? null,
+    details: event.details ?? {},
+    ipAddress: event.ipAddress ?? null,
+  });
 }
 
 /** Which events a page of the trail holds. `from` is inclusive, `until` exclusive. */

@@ -5,6 +5,7 @@ import { and, asc, desc, eq, ilike, or, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { jobs, runs, user, type JobStatus } from "@/db/schema";
 import { versionStatusById, type VersionStatus } from "./standards";
+import { prepared } from "./prepared";
 import { currentDb } from "./transaction";
 
 export type JobDto = {
@@ -21,6 +22,9 @@ export type JobDto = {
   updatedAt: string;
   runCount: number;
 };
+
+/** What running a standard in a job needs of the job: its record names it, and a closed job takes no design runs. */
+export type JobToRun = Pick<JobDto, "id" | "jobNumber" | "name" | "status">;
 
 const responsible = alias(user, "responsible");
 const creator = alias(user, "creator");
@@ -83,6 +87,20 @@ export async function getJob(where: { id: string } | { jobNumber: string }): Pro
   return row ? toJobDto(row) : null;
 }
 
+// Prepared: every run reads it; without the job's run count, which a job of many runs makes costly to read.
+const jobToRunById = prepared("gusset_job_to_run", (executor) =>
+  executor
+    .select({ id: jobs.id, jobNumber: jobs.jobNumber, name: jobs.name, status: jobs.status })
+    .from(jobs)
+    .where(eq(jobs.id, sql.placeholder("id"))),
+);
+
+/** The job a run is asked for, as running needs it, or null. */
+export async function getJobToRun(id: string): Promise<JobToRun | null> {
+  const [row] = await jobToRunById({ id });
+  return row ?? null;
+}
+
 /**
  * Locks the job's row for the rest of the transaction and reads, in the same round trip, the status of the version
  * to be run: a job closed, or a version withdrawn, since the evaluation began refuses the run. `versionStatus` is
@@ -92,13 +110,23 @@ export async function lockJobForRun(
   id: string,
   versionId: string,
 ): Promise<{ id: string; status: JobStatus; jobNumber: string; versionStatus: VersionStatus | null } | null> {
-  const [row] = await currentDb()
-    .select({ id: jobs.id, status: jobs.status, jobNumber: jobs.jobNumber, versionStatus: versionStatusById(versionId) })
-    .from(jobs)
-    .where(eq(jobs.id, id))
-    .for("update");
+  const [row] = await jobLockedForRun({ id, versionId });
   return row ?? null;
 }
+
+// Prepared: every run takes the lock.
+const jobLockedForRun = prepared("gusset_lock_job_for_run", (executor) =>
+  executor
+    .select({
+      id: jobs.id,
+      status: jobs.status,
+      jobNumber: jobs.jobNumber,
+      versionStatus: versionStatusById(sql.placeholder("versionId")),
+    })
+    .from(jobs)
+    .where(eq(jobs.id, sql.placeholder("id")))
+    .for("update"),
+);
 
 export async function jobNumberTaken(jobNumber: string, exceptId?: string): Promise<boolean> {
   const [row] = await currentDb()

@@ -16,6 +16,7 @@ import {
   type RunPurpose,
   type UnitSystem,
 } from "@/db/schema";
+import { prepared } from "./prepared";
 import { currentDb } from "./transaction";
 
 export type RunSummaryDto = {
@@ -88,8 +89,49 @@ function toSummary(row: Awaited<ReturnType<ReturnType<typeof selectRuns>["execut
   return { ...row, createdAt: row.createdAt.toISOString() };
 }
 
-export async function insertRun(values: typeof runs.$inferInsert): Promise<void> {
-  await currentDb().insert(runs).values(values);
+/** A run's row: every column a run is written with (the rest take their defaults). */
+export type NewRun = Required<
+  Pick<
+    typeof runs.$inferInsert,
+    | "id"
+    | "jobId"
+    | "versionId"
+    | "outcome"
+    | "pass"
+    | "maxUtilisation"
+    | "purpose"
+    | "parentRunId"
+    | "unitSystem"
+    | "record"
+    | "recordSha256"
+    | "recordBytes"
+    | "createdById"
+    | "createdAt"
+  >
+>;
+
+// Prepared: every run writes one (lib/data/prepared.ts).
+const insertRunRow = prepared<NewRun, unknown>("gusset_insert_run", (executor) =>
+  executor.insert(runs).values({
+    id: sql.placeholder("id"),
+    jobId: sql.placeholder("jobId"),
+    versionId: sql.placeholder("versionId"),
+    outcome: sql.placeholder("outcome"),
+    pass: sql.placeholder("pass"),
+    maxUtilisation: sql.placeholder("maxUtilisation"),
+    purpose: sql.placeholder("purpose"),
+    parentRunId: sql.placeholder("parentRunId"),
+    unitSystem: sql.placeholder("unitSystem"),
+    record: sql.placeholder("record"),
+    recordSha256: sql.placeholder("recordSha256"),
+    recordBytes: sql.placeholder("recordBytes"),
+    createdById: sql.placeholder("createdById"),
+    createdAt: sql.placeholder("createdAt"),
+  }),
+);
+
+export async function insertRun(values: NewRun): Promise<void> {
+  await insertRunRow(values);
 }
 
 export async function insertRunLibraryEntries(rows: (typeof runLibraryEntries.$inferInsert)[]): Promise<void> {

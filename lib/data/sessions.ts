@@ -3,8 +3,9 @@ import "server-only";
 // sessions; the browser that still holds an ended session's cookie is then told why on the sign-in page
 // (lib/auth/session.ts) instead of meeting a plain sign-in form. Only a hash of each token is kept.
 import { createHash } from "node:crypto";
-import { and, eq, gt, lt, ne } from "drizzle-orm";
+import { and, eq, gt, lt, ne, sql } from "drizzle-orm";
 import { endedSession, session, user } from "@/db/schema";
+import { prepared } from "./prepared";
 import { currentDb } from "./transaction";
 
 export type SessionEndReason = (typeof endedSession.$inferInsert)["reason"];
@@ -61,8 +62,9 @@ export async function findSessionEndReason(token: string): Promise<SessionEndRea
 }
 
 /** A session row by its token, with its person's role and state: the one query a signed-in request's check needs. */
-export async function findSessionWithUser(token: string) {
-  const [row] = await currentDb()
+// Prepared: every signed-in request reads it.
+const sessionWithUser = prepared("gusset_session_with_user", (executor) =>
+  executor
     .select({
       sessionId: session.id,
       expiresAt: session.expiresAt,
@@ -74,6 +76,10 @@ export async function findSessionWithUser(token: string) {
     })
     .from(session)
     .innerJoin(user, eq(user.id, session.userId))
-    .where(eq(session.token, token));
+    .where(eq(session.token, sql.placeholder("token"))),
+);
+
+export async function findSessionWithUser(token: string) {
+  const [row] = await sessionWithUser({ token });
   return row ?? null;
 }

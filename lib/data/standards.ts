@@ -2,7 +2,7 @@ import "server-only";
 // Standards, their drafts, reviews and published versions (db/schema/standards.ts). Permissions are checked
 // by the use cases (lib/use-cases/standards.ts) before any of this runs. A version's status is derived from
 // its latest event; nothing here updates a published version (the database would refuse).
-import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, sql, type Placeholder } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import {
   standardAttachments,
@@ -22,6 +22,7 @@ import {
   type VersionEventKind,
 } from "@/db/schema";
 import { AppError } from "@/lib/domain/errors";
+import { prepared } from "./prepared";
 import { currentDb } from "./transaction";
 
 export type VersionStatus = VersionEventKind;
@@ -95,7 +96,7 @@ const reviewer = alias(user, "reviewer");
 const versionStatus = sql<VersionStatus>`coalesce((select e.kind from standard_version_events e where e.version_id = "standard_versions"."id" order by e.id desc limit 1), 'published')`;
 
 /** The status of the version with this id as a scalar subquery (null when there is no such version), for another table's query. */
-export const versionStatusById = (versionId: string) =>
+export const versionStatusById = (versionId: string | Placeholder) =>
   sql<VersionStatus | null>`(select coalesce((select e.kind from standard_version_events e where e.version_id = v.id order by e.id desc limit 1), 'published') from standard_versions v where v.id = ${versionId})`;
 
 /**
@@ -118,8 +119,8 @@ const versionContent = {
   verification: standardVersions.verification,
 };
 
-function versionSummaryQuery<E extends Partial<typeof versionContent>>(content: E = {} as E) {
-  return currentDb()
+function versionSummaryQuery<E extends Partial<typeof versionContent>>(content: E = {} as E, executor = currentDb()) {
+  return executor
     .select({
       ...content,
       id: standardVersions.id,
@@ -202,13 +203,21 @@ export async function getVersionStatus(id: string): Promise<VersionStatus | null
   return row?.status ?? null;
 }
 
+// Prepared: every run reads its version by id.
+const versionById = prepared("gusset_version_by_id", (executor) =>
+  versionSummaryQuery({ ...versionContent, events: versionEvents }, executor).where(
+    eq(standardVersions.id, sql.placeholder("id")),
+  ),
+);
+
 /** A whole version, its events included, in one query. */
 export async function getVersion(where: { id: string } | { standardId: string; number: number }): Promise<VersionDto | null> {
-  const condition =
+  const [summary] =
     "id" in where
-      ? eq(standardVersions.id, where.id)
-      : and(eq(standardVersions.standardId, where.standardId), eq(standardVersions.number, where.number));
-  const [summary] = await versionSummaryQuery({ ...versionContent, events: versionEvents }).where(condition);
+      ? await versionById({ id: where.id })
+      : await versionSummaryQuery({ ...versionContent, events: versionEvents }).where(
+          and(eq(standardVersions.standardId, where.standardId), eq(standardVersions.number, where.number)),
+        );
   if (!summary) return null;
   const { source, basedOnVersionId, verifiedWith, verification, events, ...rest } = summary;
   return {

@@ -105,23 +105,35 @@ export function runRecordText(record: RunRecord): string {
 }
 
 /**
- * As runRecordText, for a record that succeeded whose engine result is already canonical JSON text (the evaluation
- * bundle writes it so): the text is spliced into its place instead of being parsed and written again, which for a
- * large frame is most of the record's bytes. Gives exactly runRecordText({ ...record, analysis: JSON.parse(text) }).
+ * As runRecordText, for a record that succeeded whose evaluation and engine result are already canonical JSON text
+ * (the evaluation bundle writes both so): each text is spliced into its place instead of being parsed and written
+ * again, which for a large frame is most of the record's bytes. Gives exactly runRecordText of the record with
+ * `evaluation: JSON.parse(evaluationJson), analysis: JSON.parse(analysisJson)`. `evaluation` is the same evaluation
+ * as an object (as the worker handed it over, non-finite numbers included), checked for numbers JSON cannot hold:
+ * canonical JSON would have written them as null.
  */
-export function runRecordTextWithAnalysis(
-  record: Omit<Extract<RunRecord, { outcome: "succeeded" }>, "analysis">,
-  analysisJson: string,
+export function runRecordTextOfParts(
+  record: Omit<Extract<RunRecord, { outcome: "succeeded" }>, "analysis" | "evaluation">,
+  parts: { evaluation: Evaluation; evaluationJson: string; analysisJson: string },
 ): string {
-  // A placeholder no record can hold otherwise (a NUL can never come from a person's input through the schemas,
-  // and the nonce differs per call); canonicalize writes it as a JSON string, found once and replaced.
-  const placeholder = `\u0000analysis:${Math.random().toString(36).slice(2)}:${Date.now().toString(36)}`;
-  const text = runRecordText({ ...record, analysis: placeholder } as RunRecord);
-  const quoted = JSON.stringify(placeholder);
-  const at = text.indexOf(quoted);
-  if (at < 0 || text.indexOf(quoted, at + quoted.length) >= 0)
-    throw new Error("runRecordTextWithAnalysis: the placeholder was not found exactly once");
-  return `${text.slice(0, at)}${analysisJson}${text.slice(at + quoted.length)}`;
+  if (containsNonFinite(parts.evaluation)) throw new Error("runRecordText: the record holds a number that is not finite");
+  // Placeholders no record can hold otherwise (a NUL can never come from a person's input through the schemas, and
+  // the nonce differs per call); canonicalize writes each as a JSON string, found once and replaced.
+  const nonce = `${Math.random().toString(36).slice(2)}:${Date.now().toString(36)}`;
+  const evaluation = `\u0000evaluation:${nonce}`;
+  const analysis = `\u0000analysis:${nonce}`;
+  let text = runRecordText({ ...record, evaluation, analysis } as unknown as RunRecord);
+  for (const [placeholder, json] of [
+    [evaluation, parts.evaluationJson],
+    [analysis, parts.analysisJson],
+  ] as const) {
+    const quoted = JSON.stringify(placeholder);
+    const at = text.indexOf(quoted);
+    if (at < 0 || text.indexOf(quoted, at + quoted.length) >= 0)
+      throw new Error("runRecordTextOfParts: a placeholder was not found exactly once");
+    text = `${text.slice(0, at)}${json}${text.slice(at + quoted.length)}`;
+  }
+  return text;
 }
 
 function containsNonFinite(value: unknown): boolean {

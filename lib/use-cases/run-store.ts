@@ -13,14 +13,14 @@ import {
   RUN_RECORD_FORMAT,
   runFailureOf,
   runRecordText,
-  runRecordTextWithAnalysis,
+  runRecordTextOfParts,
   type RunRecord,
   type RunRecordEntry,
 } from "@/lib/standards/run-record";
 import type { Evaluation } from "@/lib/standards/evaluate";
 import { definitionOfSource } from "@/lib/standards/read-definition";
 import { evaluationPool } from "@/lib/evaluation/pool";
-import type { JobDto } from "@/lib/data/jobs";
+import type { JobToRun } from "@/lib/data/jobs";
 import type { VersionDto } from "@/lib/data/standards";
 import { findLibraryEntryRow, insertRun, insertRunLibraryEntries } from "@/lib/data/runs";
 import type { RunPurpose, UnitSystem } from "@/db/schema";
@@ -30,12 +30,12 @@ import { keepCurrentEvaluationBundle } from "./evaluation-bundles";
 export type RunInputs = Readonly<Record<string, string | number>>;
 
 export type EvaluatedRun = {
-  job: JobDto;
+  job: JobToRun;
   version: VersionDto;
   order: RunRecord["order"];
   identity: { engine: string; engineSourceHash: string; evaluation: string; bundleSha256: string };
 } & (
-  | { outcome: "succeeded"; evaluation: Evaluation; analysisJson: string }
+  | { outcome: "succeeded"; evaluation: Evaluation; evaluationJson: string; analysisJson: string }
   | { outcome: "failed"; failure: ReturnType<typeof runFailureOf> }
 );
 
@@ -64,7 +64,7 @@ const unknownInputs = (definition: Definition, inputs: Readonly<Record<string, u
  * Checks the inputs against the version and evaluates it in the pool. Bad inputs throw "invalid-input" with a message
  * per input; a model the engine cannot analyse comes back as a failed evaluation, to be stored as a failed run.
  */
-export async function evaluateRun(job: JobDto, version: VersionDto, inputs: RunInputs): Promise<EvaluatedRun> {
+export async function evaluateRun(job: JobToRun, version: VersionDto, inputs: RunInputs): Promise<EvaluatedRun> {
   const definition = definitionOf(version);
   const unknown = unknownInputs(definition, inputs);
   if (unknown.length > 0)
@@ -126,8 +126,10 @@ export async function evaluateRun(job: JobDto, version: VersionDto, inputs: RunI
     // The identity the evaluation itself reports is the authority; the bundle's hash comes from its manifest.
     identity: { ...outcome.evaluation.identity, bundleSha256: manifest.sha256 },
     outcome: "succeeded",
-    evaluation: JSON.parse(answer.result.evaluationJson) as Evaluation,
-    // Already canonical: spliced into the record as it is (runRecordTextWithAnalysis), never parsed here.
+    // The evaluation as the worker handed it over, for what storing needs (entries, pass, utilisation); its canonical
+    // text and the engine's result are spliced into the record as they are (runRecordTextOfParts), never parsed here.
+    evaluation: outcome.evaluation,
+    evaluationJson: answer.result.evaluationJson,
     analysisJson: answer.result.analysisJson,
   };
 }
@@ -211,23 +213,19 @@ export async function storeRun(
     libraries: entries,
     order: prepared.order,
   } as const;
-  const record =
-    prepared.outcome === "succeeded"
-      ? ({ ...base, outcome: "succeeded", evaluation: prepared.evaluation } as const)
-      : ({ ...base, outcome: "failed", failure: prepared.failure } as const);
   const text =
-    prepared.outcome === "succeeded" && record.outcome === "succeeded"
-      ? runRecordTextWithAnalysis(record, prepared.analysisJson)
-      : runRecordText(record as RunRecord);
+    prepared.outcome === "succeeded"
+      ? runRecordTextOfParts({ ...base, outcome: "succeeded" }, prepared)
+      : runRecordText({ ...base, outcome: "failed", failure: prepared.failure });
   const sha256 = createHash("sha256").update(text, "utf8").digest("hex");
-  const pass = record.outcome === "succeeded" ? record.evaluation.pass : null;
+  const pass = prepared.outcome === "succeeded" ? prepared.evaluation.pass : null;
   await insertRun({
     id,
     jobId: job.id,
     versionId: version.id,
-    outcome: record.outcome,
+    outcome: prepared.outcome,
     pass,
-    maxUtilisation: record.outcome === "succeeded" ? maxUtilisationOf(record.evaluation) : null,
+    maxUtilisation: prepared.outcome === "succeeded" ? maxUtilisationOf(prepared.evaluation) : null,
     purpose,
     parentRunId,
     unitSystem,
@@ -242,12 +240,12 @@ export async function storeRun(
   );
   return {
     id,
-    outcome: record.outcome,
+    outcome: prepared.outcome,
     pass,
     sha256,
     jobNumber,
     slug: version.slug,
     number: version.number,
-    ...(record.outcome === "failed" ? { message: record.failure.message } : {}),
+    ...(prepared.outcome === "failed" ? { message: prepared.failure.message } : {}),
   };
 }

@@ -13,7 +13,7 @@ import { compareRuns as compareRecords, type RunComparison } from "@/lib/standar
 import { parseSource } from "@/lib/standards/source";
 import { DefinitionSchema, type Definition } from "@/lib/standards/definition";
 import { readRunRecord } from "@/lib/standards/run-record";
-import { getJob, lockJobForRun } from "@/lib/data/jobs";
+import { getJobToRun, lockJobForRun } from "@/lib/data/jobs";
 import { getVersion } from "@/lib/data/standards";
 import { definitionOfSource } from "@/lib/standards/read-definition";
 import { getRun, getRunRecord, getRunSummary, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
@@ -31,7 +31,7 @@ export const createRun = defineUseCase({
   permission: "runs.create",
   input: createRunSchema,
   prepare: async ({ jobId, versionId, inputs }): Promise<EvaluatedRun> => {
-    const job = await getJob({ id: jobId });
+    const job = await getJobToRun(jobId);
     if (!job)
       throw new AppError("not-found", "That job does not exist.", { fieldErrors: { jobId: ["Choose a job of the firm."] } });
     if (job.status === "closed")

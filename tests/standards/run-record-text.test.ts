@@ -1,6 +1,7 @@
-// A stored run's record text made the quick way (the engine result's canonical JSON spliced in as the bundle wrote
-// it) is byte for byte the text of the whole record canonicalised (RFC 8785), for every starting standard that
-// needs no library, and the splice never matches anything but its own placeholder.
+// A stored run's record text made the quick way (the evaluation's and the engine result's canonical JSON spliced in
+// as the bundle wrote them) is byte for byte the text of the whole record canonicalised (RFC 8785), for every starting
+// standard that needs no library; the splice never matches anything but its own placeholder, and a number JSON cannot
+// hold is refused rather than written as null.
 import fs from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
@@ -8,7 +9,7 @@ import { runStandardTask } from "@/lib/evaluation/tasks";
 import {
   readRunRecord,
   runRecordText,
-  runRecordTextWithAnalysis,
+  runRecordTextOfParts,
   RUN_RECORD_FORMAT,
   type RunRecord,
 } from "@/lib/standards/run-record";
@@ -45,19 +46,50 @@ function baseOf(name: string) {
   } as const;
 }
 
-describe("runRecordTextWithAnalysis", () => {
+/** A standard run at its defaults: its evaluation as the worker hands it over, and both canonical texts. */
+function partsOf(name: string, source: string) {
+  const result = runStandardTask(source);
+  if (!result.ok || !result.outcome.ok || !result.evaluationJson || !result.analysisJson) throw new Error(`${name} did not run`);
+  return { evaluation: result.outcome.evaluation, evaluationJson: result.evaluationJson, analysisJson: result.analysisJson };
+}
+
+describe("runRecordTextOfParts", () => {
   it("has starting standards to try", () => expect(sources.length).toBeGreaterThan(3));
 
   it.each(sources.map((s) => [s.name, s.source]))("gives the canonical text of the whole record for %s", (name, source) => {
-    const result = runStandardTask(source);
-    if (!result.ok || !result.outcome.ok || !result.evaluationJson || !result.analysisJson)
-      throw new Error(`${name} did not run`);
-    const evaluation = JSON.parse(result.evaluationJson) as Evaluation;
-    const record = { ...baseOf(name), outcome: "succeeded", evaluation } as const;
-    const quick = runRecordTextWithAnalysis(record, result.analysisJson);
-    const whole = runRecordText({ ...record, analysis: JSON.parse(result.analysisJson) } as RunRecord);
+    const parts = partsOf(name, source);
+    const quick = runRecordTextOfParts({ ...baseOf(name), outcome: "succeeded" }, parts);
+    const whole = runRecordText({
+      ...baseOf(name),
+      outcome: "succeeded",
+      evaluation: JSON.parse(parts.evaluationJson) as Evaluation,
+      analysis: JSON.parse(parts.analysisJson),
+    } as RunRecord);
     expect(quick).toBe(whole);
+    // The evaluation as an object (what storing reads pass, utilisation and entries from) is the one its text writes.
+    expect(runRecordText({ ...baseOf(name), outcome: "succeeded", evaluation: parts.evaluation, analysis: 0 })).toBe(
+      runRecordText({ ...baseOf(name), outcome: "succeeded", evaluation: JSON.parse(parts.evaluationJson), analysis: 0 }),
+    );
     expect(readRunRecord(quick)).toEqual(JSON.parse(whole));
+  });
+
+  it("refuses an evaluation holding a number JSON cannot hold, which its canonical text would have written as null", () => {
+    const { name, source } = sources[0];
+    const parts = partsOf(name, source);
+    const [check] = Object.keys(parts.evaluation.checks);
+    const checks = { ...parts.evaluation.checks, [check]: { ...parts.evaluation.checks[check], utilisation: NaN } };
+    expect(() =>
+      runRecordTextOfParts({ ...baseOf(name), outcome: "succeeded" }, { ...parts, evaluation: { ...parts.evaluation, checks } }),
+    ).toThrow("not finite");
+  });
+
+  it("splices each part once, leaving no placeholder behind", () => {
+    const { name, source } = sources[0];
+    const parts = partsOf(name, source);
+    const text = runRecordTextOfParts({ ...baseOf(name), outcome: "succeeded" }, parts);
+    expect(text).not.toContain("\\u0000");
+    expect(text.split(parts.analysisJson)).toHaveLength(2);
+    expect(text.split(parts.evaluationJson)).toHaveLength(2);
   });
 });
 

@@ -10,7 +10,7 @@
  *       the overhead, split into the main thread (framework, storage) and V8's own helper threads (garbage
  *       collection, compilation), which serve the workers' isolates too: the same mix run in a pool of a process
  *       of its own shows that share; plus, for reference, the same standards evaluated in this process. Measured
- *       warm: 5 s of runs go first, unmeasured, while V8 compiles a fresh server's hot code;
+ *       warm: a minute of runs goes first, unmeasured, while V8 compiles a fresh server's hot code;
  * then counts the runs stored against the 2xx answers: every acknowledged run stored, none twice.
  * Also the run page's server render time. Runs go into a job of their own (BENCH-…), closed afterwards.
  *
@@ -166,9 +166,21 @@ async function main() {
     return;
   }
 
-  // Then a few seconds of runs, unmeasured: V8 compiles the hot code of a freshly started server (the route, the
-  // database driver, drizzle) on its helper threads for some seconds; (d) is the CPU per run once it has.
-  warmUp += (await closedLoop(CLIENTS, Math.min(5, seconds), postRun)).length;
+  // Then a minute of runs (six times --seconds), unmeasured, in windows of 3 s: V8 compiles and recompiles the hot
+  // code of a freshly started server (the route, the database driver, drizzle) for a minute or more, which a server
+  // that runs for days pays once. The overhead per run (all threads but the evaluation's) of each window is printed,
+  // so the cold figures are on record too.
+  const windows: string[] = [];
+  for (let w = 0; w < Math.max(1, Math.round((6 * seconds) / 3)); w++) {
+    const before = threadCpu(pid);
+    const done = (await closedLoop(CLIENTS, 3, postRun)).length;
+    warmUp += done;
+    let overhead = 0;
+    for (const { cpu: used, name } of threadDeltas(before, threadCpu(pid)).values())
+      if (name !== EVALUATION_THREAD_NAME) overhead += used;
+    windows.push(((overhead * 1000) / Math.max(1, done)).toFixed(1));
+  }
+  console.log(`warm-up: ${warmUp} runs; overhead per run in each 3 s window, ms: ${windows.join(", ")}`);
 
   // (a) the framework's floor.
   let cpu = processCpuSeconds(pid);

@@ -5,6 +5,7 @@ import "server-only";
 import { and, asc, desc, eq, inArray, sql, type Placeholder } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import {
+  jobs,
   standardAttachments,
   standardDrafts,
   standardReviewComments,
@@ -15,6 +16,7 @@ import {
   user,
   type AttachmentType,
   type DraftState,
+  type JobStatus,
   type ReviewOutcome,
   type StandardDraft,
   type StandardReview,
@@ -203,23 +205,33 @@ export async function getVersionStatus(id: string): Promise<VersionStatus | null
   return row?.status ?? null;
 }
 
-// Prepared: every run reads its version by id.
+// Prepared: the pages of a run read its version by id.
 const versionById = prepared("gusset_version_by_id", (executor) =>
   versionSummaryQuery({ ...versionContent, events: versionEvents }, executor).where(
     eq(standardVersions.id, sql.placeholder("id")),
   ),
 );
 
-/** A whole version, its events included, in one query. */
-export async function getVersion(where: { id: string } | { standardId: string; number: number }): Promise<VersionDto | null> {
-  const [summary] =
-    "id" in where
-      ? await versionById({ id: where.id })
-      : await versionSummaryQuery({ ...versionContent, events: versionEvents }).where(
-          and(eq(standardVersions.standardId, where.standardId), eq(standardVersions.number, where.number)),
-        );
-  if (!summary) return null;
-  const { source, basedOnVersionId, verifiedWith, verification, events, ...rest } = summary;
+// Prepared: every run reads its version, and the job it runs in with it (one round trip).
+const versionAndJobById = prepared("gusset_version_and_job", (executor) =>
+  versionSummaryQuery(
+    {
+      ...versionContent,
+      events: versionEvents,
+      jobId: jobs.id,
+      jobNumber: jobs.jobNumber,
+      jobName: jobs.name,
+      jobStatus: jobs.status,
+    },
+    executor,
+  )
+    .leftJoin(jobs, eq(jobs.id, sql.placeholder("jobId")))
+    .where(eq(standardVersions.id, sql.placeholder("id"))),
+);
+
+type WholeVersionRow = Awaited<ReturnType<typeof versionById>>[number];
+
+function toVersionDto({ source, basedOnVersionId, verifiedWith, verification, events, ...rest }: WholeVersionRow): VersionDto {
   return {
     ...toSummary(rest),
     source,
@@ -227,6 +239,34 @@ export async function getVersion(where: { id: string } | { standardId: string; n
     verifiedWith,
     verification,
     events: events.map((event) => ({ ...event, occurredAt: `${event.occurredAt.slice(0, 23)}Z` })),
+  };
+}
+
+/** A whole version, its events included, in one query. */
+export async function getVersion(where: { id: string } | { standardId: string; number: number }): Promise<VersionDto | null> {
+  const [row] =
+    "id" in where
+      ? await versionById({ id: where.id })
+      : await versionSummaryQuery({ ...versionContent, events: versionEvents }).where(
+          and(eq(standardVersions.standardId, where.standardId), eq(standardVersions.number, where.number)),
+        );
+  return row ? toVersionDto(row) : null;
+}
+
+/**
+ * A whole version as getVersion reads it, with the job it is to run in read in the same query: `job` is null when
+ * there is no such job; the answer is null when there is no such version (whatever the job).
+ */
+export async function getVersionWithJob(
+  versionId: string,
+  jobId: string,
+): Promise<{ version: VersionDto; job: { id: string; jobNumber: string; name: string; status: JobStatus } | null } | null> {
+  const [row] = await versionAndJobById({ id: versionId, jobId });
+  if (!row) return null;
+  const { jobId: id, jobNumber, jobName: name, jobStatus: status, ...version } = row;
+  return {
+    version: toVersionDto(version),
+    job: id !== null && jobNumber !== null && name !== null && status !== null ? { id, jobNumber, name, status } : null,
   };
 }
 

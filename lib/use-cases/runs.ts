@@ -14,7 +14,7 @@ import { parseSource } from "@/lib/standards/source";
 import { DefinitionSchema, type Definition } from "@/lib/standards/definition";
 import { readRunRecord } from "@/lib/standards/run-record";
 import { getJobToRun, lockJobForRun } from "@/lib/data/jobs";
-import { getVersion } from "@/lib/data/standards";
+import { getVersion, getVersionWithJob } from "@/lib/data/standards";
 import { definitionOfSource } from "@/lib/standards/read-definition";
 import { getRun, getRunRecord, getRunSummary, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
 import { revisionsOfRun } from "@/lib/data/calcs";
@@ -31,12 +31,14 @@ export const createRun = defineUseCase({
   permission: "runs.create",
   input: createRunSchema,
   prepare: async ({ jobId, versionId, inputs }): Promise<EvaluatedRun> => {
-    const job = await getJobToRun(jobId);
+    // The version and the job in one round trip; the job alone when there is no such version, to say which is missing.
+    const target = await getVersionWithJob(versionId, jobId);
+    const job = target ? target.job : await getJobToRun(jobId);
     if (!job)
       throw new AppError("not-found", "That job does not exist.", { fieldErrors: { jobId: ["Choose a job of the firm."] } });
     if (job.status === "closed")
       throw new AppError("conflict", `Job ${job.jobNumber} is closed: it takes no new design runs. Reopen it to run in it.`);
-    const version = await getVersion({ id: versionId });
+    const version = target?.version;
     if (!version)
       throw new AppError("not-found", "That is not a published version of a standard. Drafts cannot be run.", {
         fieldErrors: { versionId: ["Choose a published version."] },

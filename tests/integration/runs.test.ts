@@ -298,7 +298,17 @@ describe("runs", () => {
     const notNumber = await attempt(engineer, { inputs: { w: "ten" } });
     expect(notNumber.fieldErrors?.["inputs.w"]?.[0]).toMatch(/^Load: /);
     expect((await attempt(auditor, { inputs: {} })).code).toBe("forbidden");
-    expect((await attempt(engineer, { versionId: crypto.randomUUID(), inputs: {} })).code).toBe("not-found");
+    // The version and its job are read in one query: each missing one is named, the job first when both are.
+    const noVersion = await attempt(engineer, { versionId: crypto.randomUUID(), inputs: {} });
+    expect([noVersion.code, noVersion.fieldErrors]).toEqual(["not-found", { versionId: ["Choose a published version."] }]);
+    const noJob = await attempt(engineer, { jobId: crypto.randomUUID(), inputs: {} });
+    expect([noJob.code, noJob.message, noJob.fieldErrors]).toEqual([
+      "not-found",
+      "That job does not exist.",
+      { jobId: ["Choose a job of the firm."] },
+    ]);
+    const neither = await attempt(engineer, { jobId: crypto.randomUUID(), versionId: crypto.randomUUID(), inputs: {} });
+    expect([neither.code, neither.fieldErrors]).toEqual(["not-found", { jobId: ["Choose a job of the firm."] }]);
     await expectRowsUnchanged(before, {
       except: [
         {

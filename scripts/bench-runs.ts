@@ -23,7 +23,7 @@ import { cpus, loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import pg from "pg";
 import { databaseUrlFor, portsFor } from "./lib/env.mjs";
-import { EVALUATION_THREAD_NAME, processCpuSeconds, threadCpu, threadDeltas } from "./lib/thread-cpu";
+import { EVALUATION_THREAD_NAME, processCpuSeconds, processTreeCpuSeconds, threadCpu, threadDeltas } from "./lib/thread-cpu";
 import { DEMO_USERS } from "../db/demo-users";
 import { runStandardTask } from "../lib/evaluation/tasks";
 
@@ -197,12 +197,17 @@ async function main() {
     )}, server CPU ${floorCpuMs.toFixed(2)} ms/request`,
   );
 
-  // (b) closed loop of runs.
+  // (b) closed loop of runs. PostgreSQL and the worker (which seals the log) share the machine: their CPU is read too.
+  const postgres = new RegExp(`postgres -D .*port=${portsFor("start").postgres}\\b`);
+  const worker = /scripts\/worker\.ts/;
+  const others = () => [processTreeCpuSeconds(postgres), processTreeCpuSeconds(worker)];
+  const othersBefore = others();
   cpu = processCpuSeconds(pid);
   threads = threadCpu(pid);
   const closed = await closedLoop(CLIENTS, seconds, postRun);
   const closedCpuMs = ((processCpuSeconds(pid) - cpu) * 1000) / closed.length;
   const closedThreads = threadDeltas(threads, threadCpu(pid));
+  const [postgresMs, workerMs] = others().map((after, i) => ((after - othersBefore[i]) * 1000) / closed.length);
   const lat = closed.map((r) => r.ms);
   console.log(
     `(b) POST /api/runs, ${CLIENTS} clients: ${(closed.length / seconds).toFixed(1)} runs/s, p50 ${ms(percentile(lat, 50))}, p95 ${ms(percentile(lat, 95))}, p99 ${ms(percentile(lat, 99))}; statuses ${JSON.stringify(countBy(closed.map((r) => r.status)))}`,
@@ -244,6 +249,9 @@ async function main() {
   const inProcess = evaluationMs.reduce((a, b) => a + b, 0) / evaluationMs.length;
   console.log(
     `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${perRun(evaluationCpu).toFixed(2)} ms (${evaluationThreads} worker threads${named ? ", by name" : ", told by use"}); overhead beyond the evaluation ${(closedCpuMs - perRun(evaluationCpu)).toFixed(2)} ms = main thread ${perRun(mainCpu).toFixed(2)} ms (of which the framework's floor, (a)'s CPU per request, ${floorCpuMs.toFixed(2)} ms) + V8's helper threads ${perRun(helpersCpu).toFixed(2)} ms`,
+  );
+  console.log(
+    `    not counted above, the other processes on the machine meanwhile, per run: PostgreSQL ${postgresMs.toFixed(2)} ms, the worker (sealing the log) ${workerMs.toFixed(2)} ms`,
   );
   console.log(
     `    for reference, the same standards evaluated once each in this process (cold-ish, 20 times each): ${inProcess.toFixed(2)} ms on average (${mix.map((v, i) => `${v.slug} ${evaluationMs[i].toFixed(2)}`).join(", ")})`,

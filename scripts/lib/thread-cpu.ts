@@ -19,6 +19,30 @@ export function processCpuSeconds(pid: number): number {
   return cpuOfStat(fs.readFileSync(`/proc/${pid}/stat`, "utf8"));
 }
 
+/**
+ * The CPU seconds used by the processes whose command line matches `pattern` and by their children (PostgreSQL's
+ * postmaster and its backends, say), as a reading to subtract from a later one. Processes that end in between are
+ * lost from the later reading, so the difference is a floor.
+ */
+export function processTreeCpuSeconds(pattern: RegExp): number {
+  const stats = new Map<number, { ppid: number; cpu: number; cmdline: string }>();
+  for (const entry of fs.readdirSync("/proc")) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const stat = fs.readFileSync(`/proc/${entry}/stat`, "utf8");
+      const ppid = Number(stat.slice(stat.lastIndexOf(")") + 2).split(" ")[1]);
+      const cmdline = fs.readFileSync(`/proc/${entry}/cmdline`, "utf8").replaceAll("\0", " ");
+      stats.set(Number(entry), { ppid, cpu: cpuOfStat(stat), cmdline });
+    } catch {
+      // the process ended between the listing and the read
+    }
+  }
+  const roots = new Set([...stats].filter(([, { cmdline }]) => pattern.test(cmdline)).map(([pid]) => pid));
+  let total = 0;
+  for (const [pid, { ppid, cpu }] of stats) if (roots.has(pid) || roots.has(ppid)) total += cpu;
+  return total;
+}
+
 export type ThreadCpu = { cpu: number; name: string };
 
 /** Each thread of the process by id: its name (as `top -H` shows it) and the CPU seconds it has used. */

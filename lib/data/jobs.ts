@@ -87,7 +87,8 @@ export async function getJob(where: { id: string } | { jobNumber: string }): Pro
   return row ? toJobDto(row) : null;
 }
 
-// Prepared: every run reads it; without the job's run count, which a job of many runs makes costly to read.
+// Without the job's run count, which a job of many runs makes costly to read. A run reads its job with its version
+// (getVersionWithJob); this read names the missing one when there is no such version.
 const jobToRunById = prepared("gusset_job_to_run", (executor) =>
   executor
     .select({ id: jobs.id, jobNumber: jobs.jobNumber, name: jobs.name, status: jobs.status })

@@ -213,8 +213,10 @@ async function main() {
     `(b) POST /api/runs, ${CLIENTS} clients: ${(closed.length / seconds).toFixed(1)} runs/s, p50 ${ms(percentile(lat, 50))}, p95 ${ms(percentile(lat, 95))}, p99 ${ms(percentile(lat, 99))}; statuses ${JSON.stringify(countBy(closed.map((r) => r.status)))}`,
   );
 
-  // (c) open loop at 20 runs/s.
+  // (c) open loop at 20 runs/s, its CPU read too: (d) at a load that leaves the machine cores to spare.
+  const openBefore = threadCpu(pid);
   const open = await openLoop(20, seconds, postRun);
+  const openThreads = threadDeltas(openBefore, threadCpu(pid));
   const openLat = open.map((r) => r.ms);
   console.log(
     `(c) 20 runs/s offered (open loop): p50 ${ms(percentile(openLat, 50))}, p95 ${ms(percentile(openLat, 95))}, p99 ${ms(percentile(openLat, 99))}; statuses ${JSON.stringify(countBy(open.map((r) => r.status)))}`,
@@ -250,6 +252,21 @@ async function main() {
   console.log(
     `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${perRun(evaluationCpu).toFixed(2)} ms (${evaluationThreads} worker threads${named ? ", by name" : ", told by use"}); overhead beyond the evaluation ${(closedCpuMs - perRun(evaluationCpu)).toFixed(2)} ms = main thread ${perRun(mainCpu).toFixed(2)} ms (of which the framework's floor, (a)'s CPU per request, ${floorCpuMs.toFixed(2)} ms) + V8's helper threads ${perRun(helpersCpu).toFixed(2)} ms`,
   );
+  {
+    // The same split while (c) offered 20 runs a second.
+    const per = (used: number) => (used * 1000) / Math.max(1, open.length);
+    let evaluation = 0;
+    let helpers = 0;
+    for (const [tid, { cpu: used, name }] of openThreads) {
+      if (tid === pid) continue;
+      if (name === EVALUATION_THREAD_NAME) evaluation += used;
+      else helpers += used;
+    }
+    const main = openThreads.get(pid)?.cpu ?? 0;
+    console.log(
+      `    the same at 20 runs/s ((c), cores to spare): evaluation ${per(evaluation).toFixed(2)} ms; overhead ${per(main + helpers).toFixed(2)} ms = main thread ${per(main).toFixed(2)} ms + V8's helper threads ${per(helpers).toFixed(2)} ms`,
+    );
+  }
   console.log(
     `    not counted above, the other processes on the machine meanwhile, per run: PostgreSQL ${postgresMs.toFixed(2)} ms, the worker (sealing the log) ${workerMs.toFixed(2)} ms`,
   );

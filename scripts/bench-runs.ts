@@ -23,7 +23,14 @@ import { cpus, loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import pg from "pg";
 import { databaseUrlFor, portsFor } from "./lib/env.mjs";
-import { EVALUATION_THREAD_NAME, processCpuSeconds, processTreeCpuSeconds, threadCpu, threadDeltas } from "./lib/thread-cpu";
+import {
+  cpuByRole,
+  EVALUATION_THREAD_NAME,
+  processCpuSeconds,
+  processTreeCpuSeconds,
+  threadCpu,
+  threadDeltas,
+} from "./lib/thread-cpu";
 import { DEMO_USERS } from "../db/demo-users";
 import { runStandardTask } from "../lib/evaluation/tasks";
 
@@ -175,10 +182,8 @@ async function main() {
     const before = threadCpu(pid);
     const done = (await closedLoop(CLIENTS, 3, postRun)).length;
     warmUp += done;
-    let overhead = 0;
-    for (const { cpu: used, name } of threadDeltas(before, threadCpu(pid)).values())
-      if (name !== EVALUATION_THREAD_NAME) overhead += used;
-    windows.push(((overhead * 1000) / Math.max(1, done)).toFixed(1));
+    const { main, helpers } = cpuByRole(threadDeltas(before, threadCpu(pid)), pid);
+    windows.push((((main + helpers) * 1000) / Math.max(1, done)).toFixed(1));
   }
   console.log(`warm-up: ${warmUp} runs; overhead per run in each 3 s window, ms: ${windows.join(", ")}`);
 
@@ -228,18 +233,14 @@ async function main() {
   // the rest are V8's helpers (garbage collection, compilation) and libuv's.
   const perRun = (used: number) => (used * 1000) / closed.length;
   const named = [...closedThreads.values()].some((thread) => thread.name === EVALUATION_THREAD_NAME);
-  let evaluationCpu = 0;
-  let helpersCpu = 0;
-  let evaluationThreads = 0;
-  for (const [tid, { cpu: used, name }] of closedThreads) {
-    if (tid === pid) continue;
-    const evaluates = named ? name === EVALUATION_THREAD_NAME : (floorThreads.get(tid)?.cpu ?? 0) <= 0.02 * used && used > 0;
-    if (evaluates) {
-      evaluationCpu += used;
-      evaluationThreads += 1;
-    } else helpersCpu += used;
-  }
-  const mainCpu = closedThreads.get(pid)?.cpu ?? 0;
+  const {
+    main: mainCpu,
+    evaluation: evaluationCpu,
+    evaluationThreads,
+    helpers: helpersCpu,
+  } = cpuByRole(closedThreads, pid, (tid, { cpu: used, name }) =>
+    named ? name === EVALUATION_THREAD_NAME : (floorThreads.get(tid)?.cpu ?? 0) <= 0.02 * used && used > 0,
+  );
   const evaluationMs = mix.map((v) => {
     runStandardTask(v.source, {}, {});
     const t = process.cpuUsage();
@@ -255,14 +256,7 @@ async function main() {
   {
     // The same split while (c) offered 20 runs a second.
     const per = (used: number) => (used * 1000) / Math.max(1, open.length);
-    let evaluation = 0;
-    let helpers = 0;
-    for (const [tid, { cpu: used, name }] of openThreads) {
-      if (tid === pid) continue;
-      if (name === EVALUATION_THREAD_NAME) evaluation += used;
-      else helpers += used;
-    }
-    const main = openThreads.get(pid)?.cpu ?? 0;
+    const { main, evaluation, helpers } = cpuByRole(openThreads, pid);
     console.log(
       `    the same at 20 runs/s ((c), cores to spare): evaluation ${per(evaluation).toFixed(2)} ms; overhead ${per(main + helpers).toFixed(2)} ms = main thread ${per(main).toFixed(2)} ms + V8's helper threads ${per(helpers).toFixed(2)} ms`,
     );

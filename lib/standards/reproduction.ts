@@ -47,11 +47,12 @@ const canonical = (value: unknown): string => {
 /** The evaluation without its identity: what the numbers are, whoever computed them. */
 const withoutIdentity = (evaluation: Evaluation) => ({ ...evaluation, identity: null });
 
+const isObject = (value: unknown): value is Record<string, Json> =>
+  typeof value === "object" && value !== null && !Array.isArray(value);
+
 /** The engine's result without the engine's version and source hash it carries (the identity is compared on its own). */
 const withoutEngineIdentity = (analysis: Json): Json =>
-  typeof analysis === "object" && analysis !== null && !Array.isArray(analysis)
-    ? { ...analysis, engineVersion: null, engineSourceHash: null }
-    : analysis;
+  isObject(analysis) ? { ...analysis, engineVersion: null, engineSourceHash: null } : analysis;
 
 /** The outputs of two records of one run, listed for the page (inputs are the same by construction). */
 function outputsOf(stored: RunRecord, again: RunRecord): ReproducedOutput[] {
@@ -144,8 +145,6 @@ export function compareReproduction(stored: RunRecord, again: Reevaluation): Rep
 }
 
 const CASE_GROUPS = ["loadCases", "combinations", "envelopes"] as const;
-const isObject = (value: unknown): value is Record<string, Json> =>
-  typeof value === "object" && value !== null && !Array.isArray(value);
 
 /** Does a stored engine result (resultToJson) hold diagram extremes for any case, combination or envelope? */
 export function holdsDiagramExtremes(analysis: Json): boolean {

@@ -8,7 +8,7 @@
  */
 import fs from "node:fs";
 import { createEvaluationPool } from "../../lib/evaluation/pool";
-import { EVALUATION_THREAD_NAME, threadCpu, threadDeltas } from "./thread-cpu";
+import { cpuByRole, threadCpu, threadDeltas } from "./thread-cpu";
 
 const sources = JSON.parse(fs.readFileSync(process.argv[2], "utf8")) as string[];
 
@@ -23,14 +23,8 @@ try {
       while (next < runs) await pool.run(sources[next++ % sources.length], {}, {});
     }),
   );
-  let workers = 0;
-  let helpers = 0;
-  for (const [tid, { cpu, name }] of threadDeltas(before, threadCpu(process.pid))) {
-    if (tid === process.pid) continue;
-    if (name === EVALUATION_THREAD_NAME) workers += cpu;
-    else helpers += cpu;
-  }
-  console.log(JSON.stringify({ runs, workersMs: (workers * 1000) / runs, helpersMs: (helpers * 1000) / runs }));
+  const { evaluation, helpers } = cpuByRole(threadDeltas(before, threadCpu(process.pid)), process.pid);
+  console.log(JSON.stringify({ runs, workersMs: (evaluation * 1000) / runs, helpersMs: (helpers * 1000) / runs }));
 } finally {
   await pool.close();
 }

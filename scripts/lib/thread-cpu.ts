@@ -63,3 +63,26 @@ export function threadCpu(pid: number): Map<number, ThreadCpu> {
 export function threadDeltas(before: Map<number, ThreadCpu>, after: Map<number, ThreadCpu>): Map<number, ThreadCpu> {
   return new Map([...after].map(([tid, { cpu, name }]) => [tid, { cpu: cpu - (before.get(tid)?.cpu ?? 0), name }]));
 }
+
+/** CPU seconds by role: the process's main thread, the evaluation pool's workers, and the rest (V8's and libuv's helpers). */
+export type CpuByRole = { main: number; evaluation: number; evaluationThreads: number; helpers: number };
+
+/**
+ * Splits what a process's threads used (threadDeltas) by role. The evaluation's threads are those named
+ * EVALUATION_THREAD_NAME, unless `evaluates` tells them otherwise (a server of an older build leaves them unnamed).
+ */
+export function cpuByRole(
+  deltas: Map<number, ThreadCpu>,
+  mainPid: number,
+  evaluates: (tid: number, thread: ThreadCpu) => boolean = (_tid, thread) => thread.name === EVALUATION_THREAD_NAME,
+): CpuByRole {
+  const split: CpuByRole = { main: 0, evaluation: 0, evaluationThreads: 0, helpers: 0 };
+  for (const [tid, thread] of deltas) {
+    if (tid === mainPid) split.main += thread.cpu;
+    else if (evaluates(tid, thread)) {
+      split.evaluation += thread.cpu;
+      split.evaluationThreads += 1;
+    } else split.helpers += thread.cpu;
+  }
+  return split;
+}

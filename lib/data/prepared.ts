@@ -5,7 +5,8 @@ import "server-only";
 // values; PostgreSQL keeps the parsed statement of each connection by its name. On the pool it is drizzle's own
 // prepared statement; inside a transaction the same text runs on the transaction's connection, so that it sees (and
 // is part of) what the transaction wrote.
-import type { PgSession } from "drizzle-orm/pg-core";
+import type { SQL } from "drizzle-orm";
+import { PgDialect, type PgSession } from "drizzle-orm/pg-core";
 import { db } from "@/db";
 import { currentDb, type Executor } from "./transaction";
 
@@ -59,4 +60,24 @@ export function prepared<P extends Values, R>(
     if (parts.joinsNotNullableMap) (again as unknown as PreparedParts).joinsNotNullableMap = parts.joinsNotNullableMap;
     return again.execute(values) as Promise<R>;
   };
+}
+
+const dialect = new PgDialect({ casing: "snake_case" });
+
+/**
+ * A statement drizzle's builders cannot say (data-modifying WITH queries), written with drizzle's `sql` template so
+ * that tables and columns are named from the schema, prepared like the others. Its rows come back as node-postgres
+ * reads them: keyed by the names the statement gives its columns, timestamps as text.
+ */
+export function preparedSql<P extends Values, Row extends Values>(name: string, statement: SQL): (values: P) => Promise<Row[]> {
+  const query = dialect.sqlToQuery(statement);
+  const run = prepared<P, { rows: Row[] }>(name, (executor) => ({
+    prepare: (as) => {
+      const session = (executor as unknown as { _: { session: PgSession } })._.session;
+      return session.prepareQuery(query, undefined, as, false) as unknown as {
+        execute(values?: Values): Promise<{ rows: Row[] }>;
+      };
+    },
+  }));
+  return async (values) => (await run(values)).rows;
 }

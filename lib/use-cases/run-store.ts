@@ -1,8 +1,9 @@
 import "server-only";
 // The one way a run is evaluated and stored, shared by a person's run (runs.ts, createRun) and a batch re-run after a
 // withdrawal (batch-reruns.ts): the inputs checked and the standard evaluated in the evaluation pool before any
-// transaction opens (`evaluateRun`, called from a use case's prepare), then the canonical record written with its
-// sha256 and the library entries it used (`storeRun`, called from the use case's run, under the job's lock).
+// transaction opens (`evaluateRun`, called from a use case's prepare), then the canonical record made with its sha256
+// and the library entries it used (`runToStore`), and written under the job's lock: in one statement for a person's run
+// (runs.ts), in the batch's transaction for a re-run (`storeRun`).
 import { createHash, randomUUID } from "node:crypto";
 import { AppError } from "@/lib/domain/errors";
 import type { Actor } from "@/lib/domain/actor";
@@ -22,7 +23,7 @@ import { definitionOfSource } from "@/lib/standards/read-definition";
 import { evaluationPool } from "@/lib/evaluation/pool";
 import type { JobToRun } from "@/lib/data/jobs";
 import type { VersionDto } from "@/lib/data/standards";
-import { findLibraryEntryRow, insertRun, insertRunLibraryEntries } from "@/lib/data/runs";
+import { findLibraryEntryRow, insertRun, insertRunLibraryEntries, type NewRun, type RunEntryRow } from "@/lib/data/runs";
 import type { RunPurpose, UnitSystem } from "@/db/schema";
 import { publishedLibraryEntries } from "./library-resolution";
 import { keepCurrentEvaluationBundle } from "./evaluation-bundles";
@@ -145,29 +146,22 @@ export type StoredRun = {
   message?: string;
 };
 
+/** The options of a run's record besides its evaluation: who, in which job, with what, and why. */
+export type RunRowOptions = {
+  actor: Actor;
+  /** The job's number as the record names it: read under the job's lock, or checked under it (storeRunUnderJobLock). */
+  jobNumber: string;
+  inputs: RunInputs;
+  unitSystem: UnitSystem;
+  parentRunId: string | null;
+  purpose: RunPurpose;
+};
+
 /**
- * Writes the run's record and its library entries, in the caller's transaction. The caller holds the job's lock
- * and has re-checked what may have changed since the evaluation (job closed, version withdrawn).
+ * The library entries the evaluation used, each checked against its published row. Published entries never change
+ * (the table refuses UPDATE and DELETE), so this may read before any lock is taken.
  */
-export async function storeRun(
-  prepared: EvaluatedRun,
-  {
-    actor,
-    jobNumber,
-    inputs,
-    unitSystem,
-    parentRunId,
-    purpose,
-  }: {
-    actor: Actor;
-    jobNumber: string;
-    inputs: RunInputs;
-    unitSystem: UnitSystem;
-    parentRunId: string | null;
-    purpose: RunPurpose;
-  },
-): Promise<StoredRun> {
-  const { job, version } = prepared;
+export async function entriesOfRun(prepared: EvaluatedRun): Promise<RunRecordEntry[]> {
   const entries: RunRecordEntry[] = [];
   if (prepared.outcome === "succeeded")
     for (const [input, evaluated] of Object.entries(prepared.evaluation.inputs)) {
@@ -189,7 +183,19 @@ export async function storeRun(
         entryHash: row.entryHash,
       });
     }
+  return entries;
+}
 
+/** The run as it is to be stored: its row (the canonical record and its sha256), its entries' rows, and its answer. */
+export type RunToStore = { row: NewRun; entries: RunEntryRow[]; stored: StoredRun };
+
+/** Makes the run's canonical record, its sha256 and its row: pure, so it may be done before any lock is taken. */
+export function runToStore(
+  prepared: EvaluatedRun,
+  entries: readonly RunRecordEntry[],
+  { actor, jobNumber, inputs, unitSystem, parentRunId, purpose }: RunRowOptions,
+): RunToStore {
+  const { job, version } = prepared;
   const id = randomUUID();
   const createdAt = new Date();
   const base = {
@@ -219,33 +225,44 @@ export async function storeRun(
       : runRecordText({ ...base, outcome: "failed", failure: prepared.failure });
   const sha256 = createHash("sha256").update(text, "utf8").digest("hex");
   const pass = prepared.outcome === "succeeded" ? prepared.evaluation.pass : null;
-  await insertRun({
-    id,
-    jobId: job.id,
-    versionId: version.id,
-    outcome: prepared.outcome,
-    pass,
-    maxUtilisation: prepared.outcome === "succeeded" ? maxUtilisationOf(prepared.evaluation) : null,
-    purpose,
-    parentRunId,
-    unitSystem,
-    record: text,
-    recordSha256: sha256,
-    recordBytes: Buffer.byteLength(text, "utf8"),
-    createdById: actor.id,
-    createdAt,
-  });
-  await insertRunLibraryEntries(
-    entries.map((e) => ({ runId: id, inputKey: e.input, entryId: e.entryId, entryHash: e.entryHash })),
-  );
   return {
-    id,
-    outcome: prepared.outcome,
-    pass,
-    sha256,
-    jobNumber,
-    slug: version.slug,
-    number: version.number,
-    ...(prepared.outcome === "failed" ? { message: prepared.failure.message } : {}),
+    row: {
+      id,
+      jobId: job.id,
+      versionId: version.id,
+      outcome: prepared.outcome,
+      pass,
+      maxUtilisation: prepared.outcome === "succeeded" ? maxUtilisationOf(prepared.evaluation) : null,
+      purpose,
+      parentRunId,
+      unitSystem,
+      record: text,
+      recordSha256: sha256,
+      recordBytes: Buffer.byteLength(text, "utf8"),
+      createdById: actor.id,
+      createdAt,
+    },
+    entries: entries.map((e) => ({ inputKey: e.input, entryId: e.entryId, entryHash: e.entryHash })),
+    stored: {
+      id,
+      outcome: prepared.outcome,
+      pass,
+      sha256,
+      jobNumber,
+      slug: version.slug,
+      number: version.number,
+      ...(prepared.outcome === "failed" ? { message: prepared.failure.message } : {}),
+    },
   };
+}
+
+/**
+ * Writes the run's record and its library entries, in the caller's transaction (a batch re-run). The caller holds the
+ * job's lock and has re-checked what may have changed since the evaluation (job closed, version withdrawn).
+ */
+export async function storeRun(prepared: EvaluatedRun, options: RunRowOptions): Promise<StoredRun> {
+  const { row, entries, stored } = runToStore(prepared, await entriesOfRun(prepared), options);
+  await insertRun(row);
+  await insertRunLibraryEntries(entries.map((e) => ({ runId: row.id, ...e })));
+  return stored;
 }

@@ -1,8 +1,9 @@
 import "server-only";
-// The one runner: checks the actor's permission, parses the input with the use case's schema, and runs
-// the work and its audit event in one transaction (jobs queued by the work join it too). A refused or
-// invalid call touches nothing. Slow work (e-mail, PDF, object storage) never happens here: the work
-// queues a job (lib/jobs/enqueue.ts), which a worker picks up once the transaction has committed.
+// The one runner: checks the actor's permission, parses the input with the use case's schema, and runs the work and
+// its audit event in one transaction (jobs queued by the work join it too), or, for work that is one statement, hands
+// the work its audit event to write in that statement. A refused or invalid call touches nothing. Slow work (e-mail,
+// PDF, object storage) never happens here: the work queues a job (lib/jobs/enqueue.ts), which a worker picks up once
+// the transaction has committed.
 import type { z } from "zod";
 import type { Actor } from "@/lib/domain/actor";
 import { AppError, DEFAULT_MESSAGES, type FieldErrors } from "@/lib/domain/errors";
@@ -76,9 +77,24 @@ export async function executeUseCase<P extends Permission, S extends z.ZodType, 
   try {
     const input = parseOrThrow(useCase.input, raw);
     if (useCase.database === false) return { input, result: await useCase.run(input, { actor: allowed }) };
+    const prepared = (useCase.prepare ? await useCase.prepare(input, { actor: allowed }) : undefined) as R;
+    if (useCase.database === "one-statement") {
+      const audit = useCase.audit;
+      const asked = new Set<T>();
+      const result = await useCase.run(input, {
+        actor: allowed,
+        prepared,
+        auditEventOf: (value) => {
+          asked.add(value);
+          const event = audit({ input, result: value, actor: allowed });
+          return event && { actorId: allowed?.id ?? null, actorEmail: allowed?.email ?? null, ipAddress, ...event };
+        },
+      });
+      if (!asked.has(result)) throw new Error(`${useCase.name}: the work stored its change without asking for its audit event`);
+      return { input, result };
+    }
     const work = useCase.run;
     const audit = useCase.audit;
-    const prepared = (useCase.prepare ? await useCase.prepare(input, { actor: allowed }) : undefined) as R;
     const result = await runInTransaction(async (tx) => {
       const value = await work(input, { actor: allowed, tx, prepared });
       const event = audit?.({ input, result: value, actor: allowed });

@@ -1,22 +1,21 @@
 import "server-only";
-// Runs: an engineer or lead runs a published version of a standard inside a job. The inputs are checked and the
-// standard evaluated in the evaluation pool before any transaction opens (prepare); then, under the job's lock,
-// the run is stored as its canonical record with its sha256, with one row per library entry it used, in one
-// transaction with its audit event. Bad inputs store nothing (a 422 with a message per input). A model the engine
-// cannot analyse (an unstable structure names its node and direction) is stored as a failed run, so that the
-// attempt is on record too. The evaluation bundle that made a run is kept in object storage by its sha256 before the
-// run is stored (run-store.ts, evaluation-bundles.ts), for reproducing it "as issued". Runs are append-only; everyone but
-// admins reads them.
+// Runs: an engineer or lead runs a published version of a standard inside a job. The inputs are checked, the standard
+// evaluated in the evaluation pool and the canonical record made with its sha256 (prepare); then one statement locks
+// the job and stores the run, one row per library entry it used and its audit event, atomically. Bad inputs store
+// nothing (a 422 with a message per input). A model the engine cannot analyse (an unstable structure names its node and
+// direction) is stored as a failed run, so that the attempt is on record too. The evaluation bundle that made a run is
+// kept in object storage by its sha256 before the run is stored (run-store.ts, evaluation-bundles.ts), for reproducing
+// it "as issued". Runs are append-only; everyone but admins reads them.
 import { AppError } from "@/lib/domain/errors";
 import { compareRunsSchema, createRunSchema, listRunsSchema, runRefSchema } from "@/lib/domain/schemas/jobs";
 import { compareRuns as compareRecords, type RunComparison } from "@/lib/standards/compare-runs";
 import { parseSource } from "@/lib/standards/source";
 import { DefinitionSchema, type Definition } from "@/lib/standards/definition";
 import { readRunRecord } from "@/lib/standards/run-record";
-import { getJobToRun, lockJobForRun } from "@/lib/data/jobs";
+import { getJobToRun } from "@/lib/data/jobs";
 import { getVersion, getVersionWithJob } from "@/lib/data/standards";
 import { definitionOfSource } from "@/lib/standards/read-definition";
-import { getRun, getRunRecord, getRunSummary, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
+import { getRun, getRunRecord, getRunSummary, storeRunUnderJobLock, type RunDto, type RunSummaryDto } from "@/lib/data/runs";
 import { revisionsOfRun } from "@/lib/data/calcs";
 import { getFirmName } from "@/lib/data/firm";
 import { listWithdrawalsOfRun } from "@/lib/data/withdrawals";
@@ -24,13 +23,14 @@ import { defineUseCase } from "./use-case";
 import { pageOfRuns, type RunPage } from "./run-log";
 import { runSealOf, type RunSeal } from "./log";
 import { sheetKeyOf } from "./sheet-key";
-import { evaluateRun, storeRun, type EvaluatedRun } from "./run-store";
+import { entriesOfRun, evaluateRun, runToStore, type RunToStore, type StoredRun } from "./run-store";
 
 export const createRun = defineUseCase({
   name: "runs.create",
   permission: "runs.create",
   input: createRunSchema,
-  prepare: async ({ jobId, versionId, inputs }): Promise<EvaluatedRun> => {
+  database: "one-statement",
+  prepare: async ({ jobId, versionId, inputs, unitSystem, parentRunId }, { actor }): Promise<RunToStore> => {
     // The version and the job in one round trip; the job alone when there is no such version, to say which is missing.
     const target = await getVersionWithJob(versionId, jobId);
     const job = target ? target.job : await getJobToRun(jobId);
@@ -48,17 +48,7 @@ export const createRun = defineUseCase({
         "conflict",
         `Version ${version.number} of ${version.title} is withdrawn and cannot be run. Run the version that replaces it.`,
       );
-    return evaluateRun(job, version, inputs);
-  },
-  run: async ({ inputs, unitSystem, parentRunId }, { actor, prepared }) => {
-    const { job, version } = prepared;
-    // Under the job's lock: a job closed, or a version withdrawn, since the evaluation began refuses the run.
-    const locked = await lockJobForRun(job.id, version.id);
-    if (!locked) throw new AppError("not-found", "That job does not exist.");
-    if (locked.status === "closed")
-      throw new AppError("conflict", `Job ${locked.jobNumber} was closed while the run was evaluated.`);
-    if (locked.versionStatus === "withdrawn")
-      throw new AppError("conflict", `Version ${version.number} of ${version.title} was withdrawn while the run was evaluated.`);
+    // Runs never change, nor move between jobs: the run this one re-runs is checked before the lock.
     if (parentRunId) {
       const parent = await getRunSummary(parentRunId);
       if (!parent || parent.jobId !== job.id)
@@ -66,14 +56,30 @@ export const createRun = defineUseCase({
           fieldErrors: { parentRunId: ["Re-run a run of the same job."] },
         });
     }
-    return storeRun(prepared, {
+    const evaluated = await evaluateRun(job, version, inputs);
+    return runToStore(evaluated, await entriesOfRun(evaluated), {
       actor,
-      jobNumber: locked.jobNumber,
+      jobNumber: job.jobNumber,
       inputs,
       unitSystem,
       parentRunId: parentRunId ?? null,
       purpose: "design",
     });
+  },
+  run: async (_input, { prepared: { row, entries, stored }, auditEventOf }): Promise<StoredRun> => {
+    // Under the job's lock, in the statement that stores the run: a job closed or renumbered, or a version withdrawn,
+    // since the job and the version were read refuses the run, and nothing is written.
+    const locked = await storeRunUnderJobLock({ ...row, purpose: "design" }, stored.jobNumber, entries, auditEventOf(stored)!);
+    if (!locked) throw new AppError("not-found", "That job does not exist.");
+    if (locked.stored) return stored;
+    if (locked.status === "closed")
+      throw new AppError("conflict", `Job ${locked.jobNumber} was closed while the run was evaluated.`);
+    if (locked.versionStatus === "withdrawn")
+      throw new AppError("conflict", `Version ${stored.number} of ${stored.slug} was withdrawn while the run was evaluated.`);
+    throw new AppError(
+      "conflict",
+      `Job ${stored.jobNumber} was renumbered ${locked.jobNumber} while the run was evaluated. Run it again to record it under its new number.`,
+    );
   },
   audit: ({ result }) => ({
     action: "runs.create",

@@ -23,6 +23,21 @@ export type UseCaseContext<P extends Permission, R = undefined> = {
 export type DatabaseFreeContext<P extends Permission> = { actor: ActorFor<P> };
 
 /**
+ * For a use case whose work is one SQL statement (`database: "one-statement"`): no transaction is opened, and the
+ * statement writes the change and its audit event together, which PostgreSQL makes atomic by itself.
+ */
+export type OneStatementContext<P extends Permission, R, T> = {
+  actor: ActorFor<P>;
+  prepared: R;
+  /**
+   * The audit event of `result` as the use case's `audit` declares it, with the actor and the client address filled
+   * in: the work writes it in its statement. The runner checks that the work asked for the event of the result it
+   * returns (a work that forgot its event fails loudly, in tests, and not in silence).
+   */
+  auditEventOf: (result: T) => AuditEventInput | null;
+};
+
+/**
  * The audit event of a refused or failed call (bad input, a link that is no longer valid), written outside
  * the rolled-back transaction. Refusals for lack of permission are audited by the runner for every use case.
  */
@@ -48,6 +63,20 @@ export type UseCase<P extends Permission, S extends z.ZodType, T, R = undefined>
       audit: AuditFor<P, z.infer<S>, T> | null;
       auditFailure?: AuditFailure;
       database?: true;
+    }
+  | {
+      name: string;
+      permission: P;
+      input: S;
+      prepare?: (input: z.infer<S>, context: DatabaseFreeContext<P>) => Promise<R>;
+      /**
+       * The change and its audit event written in one statement (a hot path: every run), saving the round trips of
+       * BEGIN and COMMIT. Work that needs more than one statement belongs in a transaction, the default.
+       */
+      run: (input: z.infer<S>, context: OneStatementContext<P, R, T>) => Promise<T>;
+      audit: AuditFor<P, z.infer<S>, T>;
+      auditFailure?: AuditFailure;
+      database: "one-statement";
     }
   | {
       name: string;

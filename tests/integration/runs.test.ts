@@ -339,6 +339,82 @@ describe("runs", () => {
     expect(stored).toEqual([]);
   });
 
+  it("refuse a run whose job was closed or renumbered, or whose version was withdrawn, while it was evaluated, and write none of it", async () => {
+    const { lead, reviewer, engineer } = await people();
+    const { versionId } = await publish(twoSpanSource(), lead, reviewer);
+    // createRun with something done between its evaluation (prepare) and the statement that stores it (run).
+    const meanwhile = (change: () => Promise<unknown>) =>
+      ({
+        ...createRun,
+        prepare: async (input: Parameters<NonNullable<typeof createRun.prepare>>[0], context: { actor: Actor }) => {
+          const prepared = await createRun.prepare!(input, context);
+          ids.push(prepared.row.id);
+          await change();
+          return prepared;
+        },
+      }) as typeof createRun;
+    const ids: string[] = [];
+    const attempt = (useCase: typeof createRun, jobId: string) =>
+      refusal(runUseCase(useCase, { actor: engineer, input: { jobId, versionId, inputs: {}, unitSystem: "si" } }));
+    const renumber = (job: Awaited<ReturnType<typeof newJob>>, to: string) =>
+      runUseCase(updateJob, {
+        actor: lead,
+        input: { jobId: job.jobId, jobNumber: to, name: "Test job", responsibleEngineerId: lead.id, status: "active" },
+      });
+
+    // Closed by someone who holds the job's row until after the run's statement has asked for it: the statement waits
+    // for the lock, then reads the job as committed.
+    const closing = await newJob(engineer, lead);
+    const holder = await pool.connect();
+    let committed: Promise<unknown> = Promise.resolve();
+    try {
+      const closed = await attempt(
+        meanwhile(async () => {
+          await holder.query("begin");
+          await holder.query("update jobs set status = 'closed' where id = $1", [closing.jobId]);
+          committed = new Promise((resolve) => setTimeout(resolve, 300)).then(() => holder.query("commit"));
+        }),
+        closing.jobId,
+      );
+      await committed;
+      expect([closed.code, closed.message]).toEqual([
+        "conflict",
+        `Job ${closing.number} was closed while the run was evaluated.`,
+      ]);
+    } finally {
+      holder.release();
+    }
+
+    const renumbered = await newJob(engineer, lead);
+    const newNumber = jobNumber();
+    const moved = await attempt(
+      meanwhile(() => renumber(renumbered, newNumber)),
+      renumbered.jobId,
+    );
+    expect([moved.code, moved.message]).toEqual([
+      "conflict",
+      `Job ${renumbered.number} was renumbered ${newNumber} while the run was evaluated. Run it again to record it under its new number.`,
+    ]);
+
+    const open = await newJob(engineer, lead);
+    const withdrawn = await attempt(
+      meanwhile(() => runUseCase(withdrawVersion, { actor: reviewer, input: { versionId, reason: "Wrong load factor." } })),
+      open.jobId,
+    );
+    expect(withdrawn.code).toBe("conflict");
+    expect(withdrawn.message).toMatch(/^Version 1 of run-test-\S+ was withdrawn while the run was evaluated\.$/);
+
+    // Nothing of the three runs was written: no row, no library entry, no audit event.
+    expect(ids).toHaveLength(3);
+    const { rows } = await pool.query(
+      `select (select count(*) from runs where id = any($1::uuid[]))::int as runs,
+              (select count(*) from run_library_entries where run_id = any($1::uuid[]))::int as entries,
+              (select count(*) from audit_events where subject = any($2::text[]))::int as events`,
+      [ids, ids.map((id) => `run:${id}`)],
+    );
+    expect(rows).toEqual([{ runs: 0, entries: 0, events: 0 }]);
+  });
+
   it("are append-only for the app's role: UPDATE and DELETE are refused", async () => {
     const { lead, reviewer, engineer } = await people();
     const { versionId } = await publish(twoSpanSource(), lead, reviewer);

@@ -295,6 +295,45 @@ describe("runUseCase: one transaction", () => {
     expect(contexts).toEqual([{ actor: null }]);
   });
 
+  it("opens no transaction for work that is one statement, hands it its audit event, and refuses work that did not ask for it", async () => {
+    const { actor } = await createTestUser({ role: "engineer" });
+    const seen: { pool: boolean; prepared: unknown; event: AuditEventInput | null }[] = [];
+    const statement = (askForEvent: boolean) =>
+      defineUseCase({
+        name: "test.one-statement",
+        permission: "signed-in",
+        input: z.object({ label: z.string() }),
+        database: "one-statement",
+        prepare: async ({ label }) => `${label} prepared`,
+        run: async ({ label }, { prepared, auditEventOf }): Promise<{ label: string }> => {
+          const result = { label };
+          seen.push({ pool: currentDb() === db, prepared, event: askForEvent ? auditEventOf(result) : null });
+          return result;
+        },
+        audit: ({ result }) => ({ action: "users.reactivate", subject: `user:${actor.id}`, details: { email: result.label } }),
+      });
+    expect(await runUseCase(statement(true), { actor, input: { label: "name" }, ipAddress: "192.0.2.7" })).toEqual({
+      label: "name",
+    });
+    expect(seen).toEqual([
+      {
+        pool: true,
+        prepared: "name prepared",
+        event: {
+          actorId: actor.id,
+          actorEmail: actor.email,
+          ipAddress: "192.0.2.7",
+          action: "users.reactivate",
+          subject: `user:${actor.id}`,
+          details: { email: "name" },
+        },
+      },
+    ]);
+    await expect(runUseCase(statement(false), { actor, input: { label: "name" } })).rejects.toThrow(
+      "test.one-statement: the work stored its change without asking for its audit event",
+    );
+  });
+
   it("rolls back the work's writes, its own audit row and its queued job when the work throws after writing", async () => {
     const { actor: admin } = await createTestUser({ role: "admin" });
     const { actor: target } = await createTestUser({ role: "engineer", deactivated: true });

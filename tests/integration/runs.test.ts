@@ -239,7 +239,9 @@ describe("runs", () => {
     expect(again.evaluationJson).toBe(canonicalize(record.evaluation));
     expect(again.analysisJson).toBe(canonicalize(record.analysis));
 
+    // Written by the statement that stored the run, with who ran it.
     const [event] = await auditEventsFor({ action: "runs.create", subject: `run:${run.id}` });
+    expect([event.actorId, event.actorEmail]).toEqual([engineer.id, engineer.email]);
     expect(event.details).toEqual({
       jobNumber: job.number,
       slug,

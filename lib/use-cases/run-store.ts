@@ -186,8 +186,11 @@ export async function entriesOfRun(prepared: EvaluatedRun): Promise<RunRecordEnt
   return entries;
 }
 
-/** The run as it is to be stored: its row (the canonical record and its sha256), its entries' rows, and its answer. */
-export type RunToStore = { row: NewRun; entries: RunEntryRow[]; stored: StoredRun };
+/**
+ * The run as it is to be stored: its row (the canonical record and its sha256), its entries' rows, its answer, and
+ * the standard's title for messages.
+ */
+export type RunToStore = { row: NewRun; entries: RunEntryRow[]; stored: StoredRun; title: string };
 
 /** Makes the run's canonical record, its sha256 and its row: pure, so it may be done before any lock is taken. */
 export function runToStore(
@@ -243,6 +246,7 @@ export function runToStore(
       createdAt,
     },
     entries: entries.map((e) => ({ inputKey: e.input, entryId: e.entryId, entryHash: e.entryHash })),
+    title: version.title,
     stored: {
       id,
       outcome: prepared.outcome,

@@ -66,7 +66,7 @@ export const createRun = defineUseCase({
       purpose: "design",
     });
   },
-  run: async (_input, { prepared: { row, entries, stored }, auditEventOf }): Promise<StoredRun> => {
+  run: async (_input, { prepared: { row, entries, stored, title }, auditEventOf }): Promise<StoredRun> => {
     // Under the job's lock, in the statement that stores the run: a job closed or renumbered, or a version withdrawn,
     // since the job and the version were read refuses the run, and nothing is written.
     const locked = await storeRunUnderJobLock({ ...row, purpose: "design" }, stored.jobNumber, entries, auditEventOf(stored)!);
@@ -75,7 +75,7 @@ export const createRun = defineUseCase({
     if (locked.status === "closed")
       throw new AppError("conflict", `Job ${locked.jobNumber} was closed while the run was evaluated.`);
     if (locked.versionStatus === "withdrawn")
-      throw new AppError("conflict", `Version ${stored.number} of ${stored.slug} was withdrawn while the run was evaluated.`);
+      throw new AppError("conflict", `Version ${stored.number} of ${title} was withdrawn while the run was evaluated.`);
     throw new AppError(
       "conflict",
       `Job ${stored.jobNumber} was renumbered ${locked.jobNumber} while the run was evaluated. Run it again to record it under its new number.`,

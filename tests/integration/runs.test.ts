@@ -404,7 +404,9 @@ describe("runs", () => {
       open.jobId,
     );
     expect(withdrawn.code).toBe("conflict");
-    expect(withdrawn.message).toMatch(/^Version 1 of run-test-\S+ was withdrawn while the run was evaluated\.$/);
+    expect(withdrawn.message).toMatch(
+      /^Version 1 of A two-member beam for the run tests was withdrawn while the run was evaluated\.$/,
+    );
 
     // Nothing of the three runs was written: no row, no library entry, no audit event.
     expect(ids).toHaveLength(3);

@@ -2,8 +2,8 @@ import { routeHandler } from "@/lib/use-cases/next";
 import { createRun, readRuns } from "@/lib/use-cases/runs";
 import { jsonResponse } from "@/lib/domain/json-response";
 
-// POST /api/runs: validates, evaluates and stores a run (one statement, its own transaction); 201 with its id, or 422 with the
-// failed run's id and message when the frame engine could not analyse the model (the attempt is stored too).
+// POST /api/runs: validates, evaluates and stores a run (in one statement, its own transaction); 201 with its id, or
+// 422 with the failed run's id and message when the frame engine could not analyse the model (the attempt is stored too).
 // Bad inputs answer 422 with a message per input and store nothing.
 export const POST = routeHandler(createRun, {
   respond: (run) =>

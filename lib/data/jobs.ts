@@ -103,31 +103,21 @@ export async function getJobToRun(id: string): Promise<JobToRun | null> {
 }
 
 /**
- * Locks the job's row for the rest of the transaction and reads, in the same round trip, the status of the version
- * to be run: a job closed, or a version withdrawn, since the evaluation began refuses the run. `versionStatus` is
- * null when there is no such version.
+ * Locks the job's row for the rest of a batch re-run's transaction and reads, in the same round trip, the status of
+ * the version to be run: a version withdrawn since the evaluation began refuses the re-run. `versionStatus` is null
+ * when there is no such version. (A person's run takes the lock in the statement that stores it: storeRunUnderJobLock.)
  */
 export async function lockJobForRun(
   id: string,
   versionId: string,
 ): Promise<{ id: string; status: JobStatus; jobNumber: string; versionStatus: VersionStatus | null } | null> {
-  const [row] = await jobLockedForRun({ id, versionId });
+  const [row] = await currentDb()
+    .select({ id: jobs.id, status: jobs.status, jobNumber: jobs.jobNumber, versionStatus: versionStatusById(versionId) })
+    .from(jobs)
+    .where(eq(jobs.id, id))
+    .for("update");
   return row ?? null;
 }
-
-// Prepared: every run takes the lock.
-const jobLockedForRun = prepared("gusset_lock_job_for_run", (executor) =>
-  executor
-    .select({
-      id: jobs.id,
-      status: jobs.status,
-      jobNumber: jobs.jobNumber,
-      versionStatus: versionStatusById(sql.placeholder("versionId")),
-    })
-    .from(jobs)
-    .where(eq(jobs.id, sql.placeholder("id")))
-    .for("update"),
-);
 
 export async function jobNumberTaken(jobNumber: string, exceptId?: string): Promise<boolean> {
   const [row] = await currentDb()

@@ -19,7 +19,7 @@ import {
   type JobStatus,
   type UnitSystem,
 } from "@/db/schema";
-import { prepared, preparedSql } from "./prepared";
+import { preparedSql } from "./prepared";
 import { versionStatusById, type VersionStatus } from "./standards";
 import { currentDb } from "./transaction";
 
@@ -114,28 +114,9 @@ export type NewRun = Required<
   >
 >;
 
-// Prepared: every run writes one (lib/data/prepared.ts).
-const insertRunRow = prepared<NewRun, unknown>("gusset_insert_run", (executor) =>
-  executor.insert(runs).values({
-    id: sql.placeholder("id"),
-    jobId: sql.placeholder("jobId"),
-    versionId: sql.placeholder("versionId"),
-    outcome: sql.placeholder("outcome"),
-    pass: sql.placeholder("pass"),
-    maxUtilisation: sql.placeholder("maxUtilisation"),
-    purpose: sql.placeholder("purpose"),
-    parentRunId: sql.placeholder("parentRunId"),
-    unitSystem: sql.placeholder("unitSystem"),
-    record: sql.placeholder("record"),
-    recordSha256: sql.placeholder("recordSha256"),
-    recordBytes: sql.placeholder("recordBytes"),
-    createdById: sql.placeholder("createdById"),
-    createdAt: sql.placeholder("createdAt"),
-  }),
-);
-
+/** A batch re-run's row, in the batch's transaction (a person's run is stored by storeRunUnderJobLock, below). */
 export async function insertRun(values: NewRun): Promise<void> {
-  await insertRunRow(values);
+  await currentDb().insert(runs).values(values);
 }
 
 /** A library entry a run used, as its row in run_library_entries names it. */
@@ -183,12 +164,12 @@ select job.status, job.job_number, job.version_status, exists (select from run) 
 );
 
 /**
- * Stores a person's run, the library entries it used and its audit event in one statement, under the job's lock (see
+ * Stores a person's (design) run, the library entries it used and its audit event in one statement, under the job's lock (see
  * above). Null when there is no such job; `stored: false` with what the lock read when the job was closed, renumbered
  * or the version withdrawn since the caller read them: nothing was written.
  */
 export async function storeRunUnderJobLock(
-  row: NewRun & { purpose: "design" },
+  row: NewRun,
   jobNumber: string,
   entries: readonly RunEntryRow[],
   event: AuditEventInput,

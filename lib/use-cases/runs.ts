@@ -69,7 +69,7 @@ export const createRun = defineUseCase({
   run: async (_input, { prepared: { row, entries, stored, title }, auditEventOf }): Promise<StoredRun> => {
     // Under the job's lock, in the statement that stores the run: a job closed or renumbered, or a version withdrawn,
     // since the job and the version were read refuses the run, and nothing is written.
-    const locked = await storeRunUnderJobLock({ ...row, purpose: "design" }, stored.jobNumber, entries, auditEventOf(stored)!);
+    const locked = await storeRunUnderJobLock(row, stored.jobNumber, entries, auditEventOf(stored)!);
     if (!locked) throw new AppError("not-found", "That job does not exist.");
     if (locked.stored) return stored;
     if (locked.status === "closed")

@@ -3,7 +3,8 @@
  * measured in one run:
  *   (a) the framework's floor: GET /api/me (signed in, trivial) from 20 concurrent clients, requests/s;
  *   (b) POST /api/runs of the starting standards (each at its defaults, in turn) from 20 concurrent clients,
- *       runs/s and latency p50/p95/p99;
+ *       runs/s and latency p50/p95/p99 (scripts/serve.mjs answers this route itself, without Next's router, so a
+ *       run's main-thread CPU no longer includes (a)'s floor: see DEVELOPERS.md);
  *   (c) runs offered at a steady 20 per second (open loop), latency p50/p95/p99;
  *   (d) the server's CPU per run (its process, all threads, from /proc), split by thread: the evaluation is the
  *       CPU of the evaluation pool's worker threads (named "gusset-eval" by lib/evaluation/entry.ts); the rest is
@@ -163,7 +164,15 @@ async function main() {
   console.log(`standards in the mix (at their defaults): ${mix.map((v) => v.slug).join(", ")}`);
   // Warm-up: the pool's workers start and compile each standard once.
   let warmUp = 0;
-  for (; warmUp < mix.length * 2; warmUp++) await (await postRun(warmUp)).json();
+  // Who answers POST /api/runs: scripts/serve.mjs itself, or Next (no direct routes bundled for this build). Next's
+  // router marks its route handlers' answers with Vary (for its client-side cache); serve.mjs's answers have none.
+  let servedBy = "";
+  for (; warmUp < mix.length * 2; warmUp++) {
+    const response = await postRun(warmUp);
+    servedBy = response.headers.get("vary") ? "through Next's router" : "by scripts/serve.mjs itself, without Next's router";
+    await response.json();
+  }
+  console.log(`POST /api/runs is answered ${servedBy}`);
   if (onlySheets) {
     // The runs sealed first (the worker's sealer, every few seconds), so that each sheet keeps one state meanwhile.
     await new Promise((resolve) => setTimeout(resolve, 10_000));
@@ -251,7 +260,7 @@ async function main() {
   });
   const inProcess = evaluationMs.reduce((a, b) => a + b, 0) / evaluationMs.length;
   console.log(
-    `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${perRun(evaluationCpu).toFixed(2)} ms (${evaluationThreads} worker threads${named ? ", by name" : ", told by use"}); overhead beyond the evaluation ${(closedCpuMs - perRun(evaluationCpu)).toFixed(2)} ms = main thread ${perRun(mainCpu).toFixed(2)} ms (of which the framework's floor, (a)'s CPU per request, ${floorCpuMs.toFixed(2)} ms) + V8's helper threads ${perRun(helpersCpu).toFixed(2)} ms`,
+    `(d) server CPU per run ${closedCpuMs.toFixed(2)} ms: evaluation ${perRun(evaluationCpu).toFixed(2)} ms (${evaluationThreads} worker threads${named ? ", by name" : ", told by use"}); overhead beyond the evaluation ${(closedCpuMs - perRun(evaluationCpu)).toFixed(2)} ms = main thread ${perRun(mainCpu).toFixed(2)} ms (answered ${servedBy}; a request through Next costs (a)'s ${floorCpuMs.toFixed(2)} ms) + V8's helper threads ${perRun(helpersCpu).toFixed(2)} ms`,
   );
   {
     // The same split while (c) offered 20 runs a second.

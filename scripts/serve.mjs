@@ -15,7 +15,10 @@
 import http from "node:http";
 import net from "node:net";
 import { parseArgs } from "node:util";
+import path from "node:path";
+import { pathToFileURL } from "node:url";
 import next from "next";
+import { DIRECT_ROUTES_FILE, directRoutesBuildId } from "./build-direct-routes.mjs";
 import { readBuildId } from "./lib/build-id.mjs";
 
 export const CLIENT_ADDRESS_HEADER = "x-gusset-client-address";
@@ -134,6 +137,138 @@ export function guardServerAction(req, res) {
   return false;
 }
 
+/** The largest body a route served here reads (a run's inputs are a few hundred bytes). */
+export const DIRECT_BODY_LIMIT = 1024 * 1024;
+
+export const DIRECT_TOO_LARGE = "This request is larger than Gusset accepts (1 MB). Send less and try again.";
+export const DIRECT_UNREADABLE = "Gusset could not read this request's address or headers. Send it again from Gusset's own page.";
+
+/** A JSON answer given here in the API's error shape, with the headers Next would add. */
+function answerJson(res, status, body, headers) {
+  const text = JSON.stringify(body);
+  res.writeHead(status, { ...headers, "content-type": "application/json", "content-length": Buffer.byteLength(text) });
+  res.end(text);
+}
+
+/**
+ * Serves the routes of scripts/direct-routes.ts (bundled by build-direct-routes.mjs) here, without Next's router:
+ * the same handler functions Next would call, given a web Request of the node request and their Response written
+ * back, with the security headers next.config.ts adds to every answer. Returns a function that answers a request and
+ * returns true, or returns false for a request that is not one of these routes (Next's to answer).
+ *
+ * The body is read only when the handler asks for it, up to DIRECT_BODY_LIMIT (413 past it). A handler that throws
+ * `HandToNext` (a session only better-auth can answer, before the body is read) has its request handed to `toNext`
+ * untouched.
+ */
+export function directRouteHandler({ routes, answerHeaders, internalMessage, HandToNext }, toNext) {
+  const refuse = (res, status, code, message) => answerJson(res, status, { error: { code, message } }, answerHeaders);
+  return (req, res) => {
+    const query = req.url.indexOf("?");
+    const handler = routes[`${req.method} ${query === -1 ? req.url : req.url.slice(0, query)}`];
+    if (!handler) return false;
+    if (Number(req.headers["content-length"] ?? 0) > DIRECT_BODY_LIMIT) {
+      refuse(res, 413, "bad-request", DIRECT_TOO_LARGE);
+      req.resume();
+      return true;
+    }
+    const state = { read: false, tooLarge: false };
+    let request;
+    try {
+      request = webRequestOf(req, state);
+    } catch {
+      // A Host header or header value the Fetch API refuses (Node's own parser let it through).
+      refuse(res, 400, "bad-request", DIRECT_UNREADABLE);
+      req.resume();
+      return true;
+    }
+    const answer = async () => {
+      let response;
+      try {
+        response = await handler(request, { params: Promise.resolve({}) });
+      } catch (error) {
+        if (!state.tooLarge && error instanceof HandToNext && !state.read) return toNext(req, res);
+        throw error;
+      }
+      if (state.tooLarge) return refuse(res, 413, "bad-request", DIRECT_TOO_LARGE);
+      const bytes = Buffer.from(await response.arrayBuffer());
+      const headers = { ...answerHeaders };
+      for (const [name, value] of response.headers) if (name !== "set-cookie") headers[name] = value;
+      const cookies = response.headers.getSetCookie();
+      if (cookies.length > 0) headers["set-cookie"] = cookies;
+      headers["content-length"] = String(bytes.length);
+      res.writeHead(response.status, headers);
+      res.end(bytes);
+    };
+    answer()
+      .catch((error) => {
+        if (state.tooLarge) return refuse(res, 413, "bad-request", DIRECT_TOO_LARGE);
+        console.error(`[gusset] ${req.method} ${req.url}, served without Next, failed:`, error);
+        if (res.headersSent) res.destroy();
+        else refuse(res, 500, "internal", internalMessage);
+      })
+      .finally(() => {
+        if (!state.read) req.resume(); // a body nobody read is drained, so the connection can serve the next request
+      });
+    return true;
+  };
+}
+
+/**
+ * The node request as a web Request. Its body is read only when the handler asks for it (`state.read`), whole, up to
+ * DIRECT_BODY_LIMIT (past it `state.tooLarge`, and the rest is drained unread).
+ */
+function webRequestOf(req, state) {
+  const headers = new Headers();
+  for (const [name, value] of Object.entries(req.headers))
+    for (const each of Array.isArray(value) ? value : [value]) if (each !== undefined) headers.append(name, each);
+  const body = new ReadableStream(
+    {
+      pull: (controller) =>
+        new Promise((resolve) => {
+          state.read = true;
+          const chunks = [];
+          let size = 0;
+          const settle = (error) => {
+            req.off("data", onData).off("end", onEnd).off("error", settle).off("close", onClose);
+            if (error) controller.error(error);
+            else {
+              if (size > 0) controller.enqueue(new Uint8Array(Buffer.concat(chunks, size)));
+              controller.close();
+            }
+            resolve();
+          };
+          const onData = (chunk) => {
+            size += chunk.length;
+            if (size <= DIRECT_BODY_LIMIT) return void chunks.push(chunk);
+            state.tooLarge = true;
+            settle(new Error("the request body is larger than the limit"));
+            req.resume();
+          };
+          const onEnd = () => settle(null);
+          const onClose = () => {
+            if (!req.complete) settle(new Error("the request was cut off"));
+          };
+          req.on("data", onData).on("end", onEnd).on("error", settle).on("close", onClose);
+        }),
+    },
+    { highWaterMark: 0 }, // nothing is read until the handler asks
+  );
+  const withBody = req.method !== "GET" && req.method !== "HEAD";
+  return new Request(new URL(req.url, `http://${req.headers.host ?? "localhost"}`), {
+    method: req.method,
+    headers,
+    ...(withBody ? { body, duplex: "half" } : {}),
+  });
+}
+
+/** The direct routes bundled for the build being served, or null (then Next serves every route) and why. */
+async function loadDirectRoutes(buildId) {
+  const bundledFor = directRoutesBuildId(process.cwd());
+  if (!bundledFor) return { routes: null, why: `no ${DIRECT_ROUTES_FILE}` };
+  if (bundledFor !== buildId) return { routes: null, why: `${DIRECT_ROUTES_FILE} was bundled for another build` };
+  return { routes: await import(pathToFileURL(path.resolve(DIRECT_ROUTES_FILE)).href), why: null };
+}
+
 async function main() {
   const { values } = parseArgs({
     options: { hostname: { type: "string", default: "127.0.0.1" }, port: { type: "string", default: "3000" } },
@@ -150,6 +285,9 @@ async function main() {
   const app = next({ dev: false, hostname: values.hostname, port });
   const handle = app.getRequestHandler();
   await app.prepare();
+  const direct = await loadDirectRoutes(buildId);
+  if (direct.why) console.warn(`[gusset] every route is served through Next: ${direct.why} (npm run build makes it)`);
+  const serveDirect = direct.routes ? directRouteHandler(direct.routes, handle) : () => false;
   const server = http.createServer((req, res) => {
     const client = resolveClientAddress(req.socket.remoteAddress, req.headers["x-forwarded-for"], trusted);
     delete req.headers[CLIENT_ADDRESS_HEADER];
@@ -159,6 +297,7 @@ async function main() {
       req.resume();
       return;
     }
+    if (serveDirect(req, res)) return;
     handle(req, res);
   });
   server.listen(port, values.hostname, () => {

@@ -21,6 +21,7 @@ export type { Actor } from "@/lib/domain/actor";
 export async function getActorFromHeaders(requestHeaders: Headers): Promise<Actor | null> {
   const exact = await readLiveSession(requestHeaders);
   if (exact !== ASK_BETTER_AUTH) return exact;
+  if (liveSessionsOnly) throw new HandToNext();
   const current = await auth.api.getSession({ headers: requestHeaders });
   if (!current) return null;
   const { id, name, email, role, deactivatedAt } = current.user;
@@ -30,6 +31,25 @@ export async function getActorFromHeaders(requestHeaders: Headers): Promise<Acto
 }
 
 const ASK_BETTER_AUTH = Symbol("ask better-auth");
+
+/**
+ * Thrown, before anything else is read, by a route served outside Next (scripts/direct-routes.ts) for a request whose
+ * session only better-auth can answer: its answer may refresh the session's cookie, which better-auth sets through
+ * Next (nextCookies). The server hands the request, its body unread, to Next instead.
+ */
+export class HandToNext extends Error {
+  constructor() {
+    super("this request's session is answered by better-auth, through Next");
+    this.name = "HandToNext";
+  }
+}
+
+let liveSessionsOnly = false;
+
+/** For the bundle of routes served outside Next alone (scripts/direct-routes.ts): see HandToNext. */
+export function answerLiveSessionsOnly(): void {
+  liveSessionsOnly = true;
+}
 
 /**
  * The common case of every signed-in request, answered exactly as better-auth's getSession would answer it, at a

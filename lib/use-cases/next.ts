@@ -11,7 +11,7 @@ import { AppError, ERROR_STATUS, isDatabaseUnavailable, toPublicError, type Publ
 import { RETRY_AFTER_SECONDS } from "@/lib/domain/outage";
 import type { Permission } from "@/lib/domain/permissions";
 import { clientAddressFrom } from "@/lib/auth/client-address";
-import { getActor, getActorFromHeaders, getClientAddress } from "@/lib/auth/session";
+import { getActor, getActorFromHeaders, getClientAddress, HandToNext } from "@/lib/auth/session";
 import { readDatabaseState } from "./health";
 import { executeUseCase, runUseCase } from "./run";
 import type { UseCase } from "./use-case";
@@ -66,6 +66,7 @@ export function routeHandler<P extends Permission, S extends z.ZodType, T, R>(
       return options.respond ? options.respond(result) : jsonResponse({ data: result ?? null });
     } catch (error) {
       unstable_rethrow(error);
+      if (error instanceof HandToNext) throw error; // served outside Next, for Next to answer (scripts/serve.mjs)
       if (options.queryErrors && error instanceof AppError && error.code === "invalid-input")
         return errorResponse(toPublicError(badQueryOf(error)));
       return errorResponse(toPublicError(error));
@@ -152,7 +153,12 @@ async function readRequestInput(request: Request): Promise<Record<string, unknow
     }
     return readFormData(form);
   }
-  const text = await request.text();
+  let text: string;
+  try {
+    text = await request.text();
+  } catch {
+    throw new AppError("bad-request", "The request did not arrive whole; nothing was stored. Send it again.");
+  }
   if (text.trim() === "") return {};
   let body: unknown;
   try {

@@ -1,8 +1,11 @@
 // `next build` when the build is missing or older than any source it is made from; the evaluation bundle
-// (scripts/build-evaluation-bundle.mjs) first, when it is missing or older than its sources.
+// (scripts/build-evaluation-bundle.mjs) first, when it is missing or older than its sources; the routes
+// scripts/serve.mjs answers without Next (scripts/build-direct-routes.mjs) after, for that build.
 import fs from "node:fs";
 import path from "node:path";
 import { EVALUATION_DIR, EVALUATION_SOURCES, MANIFEST_FILE } from "../build-evaluation-bundle.mjs";
+import { directRoutesBuildId } from "../build-direct-routes.mjs";
+import { readBuildId } from "./build-id.mjs";
 import { repoRoot } from "./env.mjs";
 import { SetupError, pidAlive, runAsync, say } from "./processes.mjs";
 
@@ -18,6 +21,9 @@ const SOURCE_FILES = [
   "middleware.ts",
   "instrumentation.ts",
   "mdx-components.tsx",
+  // What the direct routes' bundle is made from besides app/ and lib/: a change rebuilds, and re-bundles for, Next.
+  "scripts/direct-routes.ts",
+  "scripts/build-direct-routes.mjs",
 ];
 
 function newestMtime(entry) {
@@ -102,15 +108,22 @@ async function syncEngineIdentity(env) {
   );
 }
 
+/** Why the direct routes must be bundled again, or null when they were bundled for the build in .next. */
+export function directRoutesStaleness() {
+  const bundledFor = directRoutesBuildId(repoRoot);
+  if (bundledFor === null) return "no direct routes bundle yet";
+  return bundledFor === readBuildId(repoRoot) ? null : "the direct routes were bundled for another build";
+}
+
 /** Builds when stale. Returns true when it built. */
 export async function ensureBuild({ env, layout }) {
-  if (buildStaleness() === null && evaluationBundleStaleness() === null) {
+  if (buildStaleness() === null && evaluationBundleStaleness() === null && directRoutesStaleness() === null) {
     say("build is up to date");
     return false;
   }
   return withBuildLock(path.join(layout.run, "build.lock"), async () => {
     // another script may have built while we waited
-    if (buildStaleness() === null && evaluationBundleStaleness() === null) return false;
+    if (buildStaleness() === null && evaluationBundleStaleness() === null && directRoutesStaleness() === null) return false;
     if (!fs.existsSync(path.join(repoRoot, "app"))) {
       throw new SetupError("app/ does not exist yet: there is nothing for `next build` to build");
     }
@@ -124,6 +137,11 @@ export async function ensureBuild({ env, layout }) {
     if (reason !== null) {
       say(`building (${reason}): next build`);
       await runAsync(path.join(repoRoot, "node_modules", ".bin", "next"), ["build"], { cwd: repoRoot, env });
+    }
+    const directReason = directRoutesStaleness();
+    if (directReason !== null) {
+      say(`bundling the routes served without Next (${directReason})`);
+      await runAsync(process.execPath, ["scripts/build-direct-routes.mjs"], { cwd: repoRoot, env });
     }
     return true;
   });

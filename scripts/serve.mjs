@@ -171,7 +171,7 @@ export function directRouteHandler({ routes, answerHeaders, internalMessage, Han
       req.resume();
       return true;
     }
-    const state = { read: false, tooLarge: false };
+    const state = { read: false, tooLarge: false, handedOver: false };
     let request;
     try {
       request = webRequestOf(req, state);
@@ -186,7 +186,10 @@ export function directRouteHandler({ routes, answerHeaders, internalMessage, Han
       try {
         response = await handler(request, { params: Promise.resolve({}) });
       } catch (error) {
-        if (!state.tooLarge && error instanceof HandToNext && !state.read) return toNext(req, res);
+        if (!state.tooLarge && error instanceof HandToNext && !state.read) {
+          state.handedOver = true; // the body is Next's to read now: it must not be drained below
+          return toNext(req, res);
+        }
         throw error;
       }
       if (state.tooLarge) return refuse(res, 413, "bad-request", DIRECT_TOO_LARGE);
@@ -207,7 +210,8 @@ export function directRouteHandler({ routes, answerHeaders, internalMessage, Han
         else refuse(res, 500, "internal", internalMessage);
       })
       .finally(() => {
-        if (!state.read) req.resume(); // a body nobody read is drained, so the connection can serve the next request
+        // A body nobody read is drained, so the connection can serve the next request.
+        if (!state.read && !state.handedOver) req.resume();
       });
     return true;
   };

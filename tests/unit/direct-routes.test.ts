@@ -54,14 +54,16 @@ beforeAll(async () => {
       toNext: (req: http.IncomingMessage, res: http.ServerResponse) => void,
     ) => (req: http.IncomingMessage, res: http.ServerResponse) => boolean
   )({ routes, answerHeaders, internalMessage: "Something went wrong on our side.", HandToNext }, (req, res) => {
-    // Next's stand-in: reads the body itself, as Next would.
-    const chunks: Buffer[] = [];
-    req.on("data", (chunk: Buffer) => chunks.push(chunk));
-    req.on("end", () => {
-      nextSaw.push({ url: req.url ?? "", body: Buffer.concat(chunks).toString("utf8") });
-      res.writeHead(200, { "content-type": "text/plain" });
-      res.end("next");
-    });
+    // Next's stand-in: reads the body itself, as Next would, a while later (after its routing).
+    setTimeout(() => {
+      const chunks: Buffer[] = [];
+      req.on("data", (chunk: Buffer) => chunks.push(chunk));
+      req.on("end", () => {
+        nextSaw.push({ url: req.url ?? "", body: Buffer.concat(chunks).toString("utf8") });
+        res.writeHead(200, { "content-type": "text/plain" });
+        res.end("next");
+      });
+    }, 20);
   });
   server = http.createServer((req, res) => {
     req.headers["x-gusset-client-address"] = "192.0.2.44";

@@ -115,15 +115,17 @@ export function directRoutesStaleness() {
   return bundledFor === readBuildId(repoRoot) ? null : "the direct routes were bundled for another build";
 }
 
+const upToDate = () => buildStaleness() === null && evaluationBundleStaleness() === null && directRoutesStaleness() === null;
+
 /** Builds when stale. Returns true when it built. */
 export async function ensureBuild({ env, layout }) {
-  if (buildStaleness() === null && evaluationBundleStaleness() === null && directRoutesStaleness() === null) {
+  if (upToDate()) {
     say("build is up to date");
     return false;
   }
   return withBuildLock(path.join(layout.run, "build.lock"), async () => {
     // another script may have built while we waited
-    if (buildStaleness() === null && evaluationBundleStaleness() === null && directRoutesStaleness() === null) return false;
+    if (upToDate()) return false;
     if (!fs.existsSync(path.join(repoRoot, "app"))) {
       throw new SetupError("app/ does not exist yet: there is nothing for `next build` to build");
     }
